@@ -1,0 +1,57 @@
+/**
+ * A surface ready for the solvers: the file's data, its triangulation, the
+ * half-edge topology and positions per topology vertex.
+ */
+import type { MeshData } from '../io/mesh-data.js';
+import { buildTopology, type BuildReport, type BuildOptions } from './build.js';
+import type { Topology } from './topology.js';
+import { triangulate } from './triangulate.js';
+import { inputError } from '../errors.js';
+
+/** Everything known about a loaded surface. */
+export interface Surface {
+  /** The data as read from the file. */
+  data: MeshData;
+  /** Half-edge connectivity (after triangulation and repairs). */
+  topology: Topology;
+  /** x, y, z per topology vertex (split vertices copy their origin). */
+  positions: Float64Array;
+  /** Input polygon of each topology face. */
+  facePolygon: Uint32Array;
+  /** Problems found and repairs made while building. */
+  report: BuildReport;
+}
+
+/**
+ * Triangulates `data`, builds its topology and lays out positions. Throws an
+ * `INPUT` error naming the file when the mesh has no usable face.
+ */
+export function surfaceFromMeshData(data: MeshData, options: BuildOptions = {}): Surface {
+  const nv = data.positions.length / 3;
+  const tr = triangulate(data);
+  const { topology, report } = buildTopology(tr.triangles, nv, options);
+  if (topology.nf === 0) {
+    throw inputError(
+      tr.triangles.length === 0 ? 'mesh has no faces' : 'mesh has no faces left after dropping degenerate ones',
+      data.name,
+    );
+  }
+  const positions = new Float64Array(3 * topology.nv);
+  for (let v = 0; v < topology.nv; v++) {
+    const o = 3 * topology.vertexOrigin[v]!;
+    positions[3 * v] = data.positions[o]!;
+    positions[3 * v + 1] = data.positions[o + 1]!;
+    positions[3 * v + 2] = data.positions[o + 2]!;
+  }
+  const facePolygon = new Uint32Array(topology.nf);
+  for (let f = 0; f < topology.nf; f++) facePolygon[f] = tr.source[topology.faceOrigin[f]!]!;
+  return { data, topology, positions, facePolygon, report };
+}
+
+/**
+ * True when the surface had no non-manifold edges or vertices, i.e. nothing
+ * was split. Solvers ask for this unless the user allows splitting.
+ */
+export function isManifold(s: Surface): boolean {
+  return s.report.nonManifoldEdgeCount === 0 && s.report.nonManifoldVertexCount === 0 && s.report.orientationCuts === 0;
+}

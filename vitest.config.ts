@@ -1,0 +1,11 @@
+import { defineConfig } from 'vitest/config';
+
+export default defineConfig({
+  test: {
+    include: ['test/**/*.test.ts'],
+    exclude: ['test/bench/**', 'node_modules/**', 'dist/**'],
+    testTimeout: 60_000,
+    pool: 'forks',
+    maxWorkers: 2,
+  },
+});
