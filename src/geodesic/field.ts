@@ -29,3 +29,11 @@ export function fieldStats(d: Float64Array): { min: number; max: number; mean: n
   }
   return n ? { min, max, mean: sum / n, unreachable } : { min: 0, max: 0, mean: 0, unreachable };
 }
+
+/** A path on the surface: the surface points it passes through, in order, and its length. */
+export interface SurfacePath {
+  /** Points in order: the ends, edge crossings and vertices passed through. Consecutive points share a face. */
+  points: SurfacePoint[];
+  /** Length in mesh units (sum of the straight segments inside faces). */
+  length: number;
+}
