@@ -72,8 +72,9 @@ export function cornerAngles(m: IntrinsicMesh, out = new Float64Array(3 * m.topo
     const l = sides(m, f);
     const s = 4 * triangleArea(l[0], l[1], l[2]);
     for (let k = 0; k < 3; k++) {
-      // angle at tail(3f+k) is opposite half-edge prev(3f+k) = 3f+(k+2)%3
-      const a = l[(k + 2) % 3]!, b = l[k]!, c = l[(k + 1) % 3]!;
+      // angle at tail(3f+k) lies between half-edges 3f+k and prev(3f+k) = 3f+(k+2)%3;
+      // the side opposite it is next(3f+k) = 3f+(k+1)%3
+      const a = l[(k + 1) % 3]!, b = l[k]!, c = l[(k + 2) % 3]!;
       out[3 * f + k] = Math.atan2(s, b * b + c * c - a * a);
     }
   }

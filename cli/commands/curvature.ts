@@ -1,0 +1,45 @@
+/** `orthodrome curvature MESH -o OUT`: angle defect, Gaussian and mean curvature per vertex. */
+import type { Command } from 'commander';
+import { loadSurface } from '../load.js';
+import { writeVertexColumns, checkFieldOutput } from '../output.js';
+import { action, fmt, toJson } from '../run.js';
+import { curvatureSummary } from '../../src/report/curvature.js';
+
+/** Registers the command. */
+export function registerCurvature(program: Command): void {
+  program
+    .command('curvature')
+    .description('angle defect, Gaussian curvature (defect / mixed-Voronoi area) and mean curvature (cotangent Laplacian) per vertex')
+    .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
+    .option('-o, --output <file>', 'write per-vertex values: .ply (binary, with colours), .csv or .json')
+    .option('--json', 'print the summary as JSON')
+    .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
+    .action(
+      action(async (mesh: string, opts: { output?: string; json?: boolean; splitNonmanifold?: boolean }) => {
+        if (opts.output) checkFieldOutput(opts.output);
+        const { surface } = await loadSurface(mesh, { requireManifold: true, allowSplit: opts.splitNonmanifold });
+        const c = curvatureSummary(surface);
+        if (opts.output) {
+          await writeVertexColumns(opts.output, surface, [
+            { name: 'angleDefect', unit: 'rad', values: c.angleDefect },
+            { name: 'gaussianCurvature', unit: '1/units²', values: c.gaussianCurvature },
+            { name: 'meanCurvature', unit: '1/units', values: c.meanCurvature },
+            { name: 'boundary', unit: 'flag', values: Float64Array.from(c.boundary), flag: true },
+          ]);
+        }
+        const s = c.summary;
+        if (opts.json) {
+          process.stdout.write(toJson({ file: mesh, output: opts.output ?? null, ...s }) + '\n');
+        } else {
+          const L = [
+            `${mesh}: ${s.interiorVertices} interior and ${s.boundaryVertices} boundary vertices`,
+            `  Gaussian curvature (1/units²): min ${fmt(s.gaussian.min)}, mean ${fmt(s.gaussian.mean)}, max ${fmt(s.gaussian.max)}`,
+            `  mean curvature (1/units): min ${fmt(s.mean.min)}, mean ${fmt(s.mean.mean)}, max ${fmt(s.mean.max)}`,
+            `  total angle defect ${fmt(s.totalAngleDefect)} rad + boundary turning ${fmt(s.totalBoundaryTurning)} rad = 2π·χ with χ = ${s.eulerCharacteristic} (residual ${fmt(s.gaussBonnetResidual, 3)} rad)`,
+          ];
+          if (opts.output) L.push(`  wrote ${opts.output}`);
+          process.stdout.write(L.join('\n') + '\n');
+        }
+      }),
+    );
+}

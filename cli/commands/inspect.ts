@@ -1,0 +1,50 @@
+/** `orthodrome inspect MESH [--json]`: mesh health summary. */
+import type { Command } from 'commander';
+import { loadSurface } from '../load.js';
+import { inspectSurface, type InspectReport } from '../../src/report/inspect.js';
+import { action, fmt, toJson } from '../run.js';
+
+/** Human-readable lines of an inspect report. */
+export function formatInspect(r: InspectReport): string {
+  const deg = (x: number) => `${fmt(x, 4)}°`;
+  const L: string[] = [];
+  L.push(`${r.file}`);
+  L.push(`  vertices ${r.vertices}, faces ${r.faces} (${r.triangles} triangles), edges ${r.edges}`);
+  L.push(
+    `  components ${r.components}, boundary loops ${r.boundaryLoops}, Euler characteristic ${r.eulerCharacteristic}, genus ${r.genus ?? 'n/a (not orientable)'}`,
+  );
+  const probs: string[] = [];
+  if (r.nonManifoldEdges) {
+    const e = r.locations.nonManifoldEdges[0]!;
+    probs.push(`${r.nonManifoldEdges} non-manifold edge(s) (first: vertices ${e.a}–${e.b}, faces ${e.faces.join(', ')})`);
+  }
+  if (r.nonManifoldVertices) probs.push(`${r.nonManifoldVertices} non-manifold vertex(es) (first: vertex ${r.locations.nonManifoldVertices[0]})`);
+  if (!r.orientable) probs.push('not orientable');
+  if (r.flippedFaces) probs.push(`${r.flippedFaces} face(s) had inconsistent orientation (re-oriented)`);
+  if (r.degenerateFacesDropped) probs.push(`${r.degenerateFacesDropped} degenerate face(s) dropped (first: face ${r.locations.degenerateFaces[0]})`);
+  if (r.isolatedVertices) probs.push(`${r.isolatedVertices} vertex(es) used by no face`);
+  L.push(`  problems: ${probs.length ? probs.join('; ') : 'none'}`);
+  L.push(`  area ${fmt(r.area)} units², bounding box [${r.boundingBox.min.map((x) => fmt(x)).join(', ')}] – [${r.boundingBox.max.map((x) => fmt(x)).join(', ')}]`);
+  L.push(`  edge length min ${fmt(r.edgeLength.min)} / mean ${fmt(r.edgeLength.mean)} / max ${fmt(r.edgeLength.max)} units`);
+  L.push(`  angles min ${deg(r.minAngleDeg)}, max ${deg(r.maxAngleDeg)}; obtuse triangles ${fmt(100 * r.obtuseFraction, 3)}%`);
+  L.push(
+    `  total angle defect ${fmt(r.totalAngleDefect)} rad, boundary turning ${fmt(r.totalBoundaryTurning)} rad, Gauss–Bonnet residual ${fmt(r.gaussBonnetResidual, 3)} rad`,
+  );
+  return L.join('\n');
+}
+
+/** Registers the command. */
+export function registerInspect(program: Command): void {
+  program
+    .command('inspect')
+    .description('mesh health: counts, components, boundary, Euler characteristic and genus, manifold and orientation problems, angles, Gauss–Bonnet check')
+    .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
+    .option('--json', 'print the report as JSON (keys documented in the README)')
+    .action(
+      action(async (mesh: string, opts: { json?: boolean }) => {
+        const { surface } = await loadSurface(mesh);
+        const r = inspectSurface(surface);
+        process.stdout.write((opts.json ? toJson(r) : formatInspect(r)) + '\n');
+      }),
+    );
+}

@@ -1,0 +1,88 @@
+/**
+ * Writing per-vertex results by file extension (.ply, .csv, .json). Values
+ * are per topology vertex; they are mapped back to the file's vertices (a
+ * split vertex reports its first copy), so indices match the input file.
+ * Every file is written to a temporary name and renamed.
+ */
+import { extname } from 'node:path';
+import type { Surface } from '../src/mesh/surface.js';
+import { writePly } from '../src/io/write-ply.js';
+import { writeVertexCsv } from '../src/io/csv.js';
+import { colorize } from '../src/io/colormap.js';
+import { writeFileAtomic } from '../src/io/atomic.js';
+import { usageError } from '../src/errors.js';
+import { toJson } from './run.js';
+
+/** A named per-vertex column with its unit. */
+export interface VertexColumn {
+  name: string;
+  unit: string;
+  values: Float64Array;
+  /** Integer flag columns are written as uint8 in PLY. */
+  flag?: boolean;
+}
+
+/** Output formats chosen by extension. */
+export const FIELD_FORMATS = ['.ply', '.csv', '.json'];
+
+/** Maps per-topology-vertex values to per-input-vertex values (non-finite where the input vertex has no face). */
+export function toInputVertices(s: Surface, values: Float64Array): Float64Array {
+  const n = s.data.positions.length / 3;
+  const out = new Float64Array(n).fill(NaN);
+  const o = s.topology.vertexOrigin;
+  for (let v = s.topology.nv - 1; v >= 0; v--) out[o[v]!] = values[v]!;
+  return out;
+}
+
+/** Checks an output path's extension before any work is done. */
+export function checkFieldOutput(path: string): void {
+  const ext = extname(path.replace(/\.gz$/, '')).toLowerCase();
+  if (!FIELD_FORMATS.includes(ext)) {
+    throw usageError(`unsupported output format '${ext || path}' (use ${FIELD_FORMATS.join(', ')})`, path);
+  }
+}
+
+/**
+ * Writes per-vertex columns to `path` (.ply binary with the mesh and colours
+ * from the first column, .csv with vertex,x,y,z,columns…, or .json).
+ */
+export async function writeVertexColumns(path: string, s: Surface, columns: VertexColumn[]): Promise<void> {
+  checkFieldOutput(path);
+  const ext = extname(path).toLowerCase();
+  const cols = columns.map((c) => ({ ...c, values: toInputVertices(s, c.values) }));
+  const P = s.data.positions;
+  const n = P.length / 3;
+  if (ext === '.ply') {
+    const vertexProps = cols.map((c) => ({
+      name: c.name,
+      type: c.flag ? ('uint8' as const) : ('float64' as const),
+      values: c.flag ? c.values.map((x) => (Number.isFinite(x) ? x : 0)) : c.values,
+    }));
+    const colors = cols.length ? colorize(cols[0]!.values) : undefined;
+    const bytes = writePly(
+      { positions: P, faceOffsets: s.data.faceOffsets, faceIndices: s.data.faceIndices, vertexProps, faceProps: [] },
+      colors ? { format: 'binary', colors } : { format: 'binary' },
+    );
+    await writeFileAtomic(path, bytes);
+  } else if (ext === '.csv') {
+    const x = new Float64Array(n), y = new Float64Array(n), z = new Float64Array(n), id = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      id[i] = i;
+      x[i] = P[3 * i]!;
+      y[i] = P[3 * i + 1]!;
+      z[i] = P[3 * i + 2]!;
+    }
+    const text = writeVertexCsv([
+      { name: 'vertex', values: id },
+      { name: 'x', values: x },
+      { name: 'y', values: y },
+      { name: 'z', values: z },
+      ...cols.map((c) => ({ name: c.name, values: c.values })),
+    ]);
+    await writeFileAtomic(path, text);
+  } else {
+    const obj: Record<string, unknown> = { vertices: n, units: Object.fromEntries(cols.map((c) => [c.name, c.unit])) };
+    for (const c of cols) obj[c.name] = c.values;
+    await writeFileAtomic(path, toJson(obj, 0) + '\n');
+  }
+}

@@ -1,0 +1,82 @@
+/**
+ * Exit codes and error reporting shared by every command.
+ *
+ * 0 success · 1 a check or gate failed · 2 bad input or usage (one line on
+ * stderr naming the file and location) · 70 internal error.
+ * No stack trace is printed unless ORTHODROME_DEBUG=1.
+ */
+import { isOrthodromeError } from '../src/errors.js';
+
+/** Exit status for a successful run. */
+export const EXIT_OK = 0;
+/** Exit status when a check or gate failed. */
+export const EXIT_GATE = 1;
+/** Exit status for bad input or usage. */
+export const EXIT_INPUT = 2;
+/** Exit status for an internal error (a bug). */
+export const EXIT_INTERNAL = 70;
+
+/** Thrown by a command to end with exit 1 after it printed its findings. */
+export class GateFailure extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'GateFailure';
+  }
+}
+
+/** Maps any thrown value to an exit code and prints one line about it. */
+export function reportError(e: unknown): number {
+  const debug = process.env.ORTHODROME_DEBUG === '1';
+  if (e instanceof GateFailure) {
+    process.stderr.write(`orthodrome: ${e.message}\n`);
+    return EXIT_GATE;
+  }
+  if (isOrthodromeError(e)) {
+    process.stderr.write(`orthodrome: ${e.message.replace(/\s*\n\s*/g, ' ')}\n`);
+    if (debug && e.stack) process.stderr.write(e.stack + '\n');
+    return EXIT_INPUT;
+  }
+  const msg = e instanceof Error ? e.message : String(e);
+  process.stderr.write(`orthodrome: internal error: ${msg.split('\n')[0]} (set ORTHODROME_DEBUG=1 for details)\n`);
+  if (debug && e instanceof Error && e.stack) process.stderr.write(e.stack + '\n');
+  return EXIT_INTERNAL;
+}
+
+/** Wraps a command action: runs it and sets the exit code from its outcome. */
+export function action<A extends unknown[]>(fn: (...args: A) => Promise<number | void> | number | void) {
+  return async (...args: A): Promise<void> => {
+    try {
+      const code = await fn(...args);
+      process.exitCode = typeof code === 'number' ? code : EXIT_OK;
+    } catch (e) {
+      process.exitCode = reportError(e);
+    }
+  };
+}
+
+/** Milliseconds since `t0`, rounded to 0.01 ms. */
+export function since(t0: number): number {
+  return Math.round((performance.now() - t0) * 100) / 100;
+}
+
+/** Formats a number for humans with `digits` significant digits. */
+export function fmt(x: number, digits = 6): string {
+  if (!Number.isFinite(x)) return String(x);
+  if (x === 0) return '0';
+  const a = Math.abs(x);
+  if (a >= 1e-4 && a < 1e9) return String(Number(x.toPrecision(digits)));
+  return x.toExponential(digits - 1);
+}
+
+/** JSON.stringify that writes non-finite numbers as null (never NaN in output). */
+export function toJson(value: unknown, indent = 2): string {
+  return JSON.stringify(
+    value,
+    (_k, v) => {
+      if (typeof v === 'number' && !Number.isFinite(v)) return null;
+      if (ArrayBuffer.isView(v) && !(v instanceof DataView)) return Array.from(v as unknown as ArrayLike<number>, (x) => (Number.isFinite(x) ? x : null));
+      return v;
+    },
+    indent,
+  );
+}

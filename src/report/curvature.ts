@@ -1,0 +1,74 @@
+/**
+ * Per-vertex curvature of a surface and its summary (interior vertices only
+ * for the statistics; boundary vertices carry the turning instead).
+ */
+import type { Surface } from '../mesh/surface.js';
+import { intrinsicFromPositions } from '../metric/intrinsic.js';
+import { gaussianCurvature, meanCurvature, gaussBonnetResidual } from '../metric/curvature.js';
+import { components } from '../mesh/components.js';
+
+/** Min / mean / max of a statistic. */
+export interface Stat {
+  min: number;
+  mean: number;
+  max: number;
+}
+
+/** Per-vertex curvature arrays plus summary. */
+export interface CurvatureResult {
+  angleDefect: Float64Array;
+  gaussianCurvature: Float64Array;
+  meanCurvature: Float64Array;
+  boundary: Uint8Array;
+  summary: {
+    interiorVertices: number;
+    boundaryVertices: number;
+    gaussian: Stat;
+    mean: Stat;
+    totalAngleDefect: number;
+    totalBoundaryTurning: number;
+    eulerCharacteristic: number;
+    gaussBonnetResidual: number;
+  };
+}
+
+function stat(values: Float64Array, mask: Uint8Array, active: (v: number) => boolean): Stat {
+  let min = Infinity, max = -Infinity, sum = 0, n = 0;
+  for (let v = 0; v < values.length; v++) {
+    if (mask[v] || !active(v)) continue;
+    const x = values[v]!;
+    if (x < min) min = x;
+    if (x > max) max = x;
+    sum += x;
+    n++;
+  }
+  return n ? { min, mean: sum / n, max } : { min: 0, mean: 0, max: 0 };
+}
+
+/** Computes curvature per topology vertex and its summary. */
+export function curvatureSummary(s: Surface): CurvatureResult {
+  const t = s.topology;
+  const im = intrinsicFromPositions(t, s.positions);
+  const c = gaussianCurvature(im);
+  const H = meanCurvature(im, s.positions, c.vertexArea, c.boundary);
+  const chi = components(t).info.reduce((a, x) => a + x.eulerCharacteristic, 0);
+  const used = (v: number) => t.vertexHalfedge[v]! >= 0;
+  let nb = 0, ni = 0;
+  for (let v = 0; v < t.nv; v++) if (used(v)) c.boundary[v] ? nb++ : ni++;
+  return {
+    angleDefect: c.angleDefect,
+    gaussianCurvature: c.gaussian,
+    meanCurvature: H,
+    boundary: c.boundary,
+    summary: {
+      interiorVertices: ni,
+      boundaryVertices: nb,
+      gaussian: stat(c.gaussian, c.boundary, used),
+      mean: stat(H, c.boundary, used),
+      totalAngleDefect: c.totalInteriorDefect,
+      totalBoundaryTurning: c.totalBoundaryTurning,
+      eulerCharacteristic: chi,
+      gaussBonnetResidual: gaussBonnetResidual(c, chi),
+    },
+  };
+}
