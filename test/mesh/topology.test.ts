@@ -1,0 +1,135 @@
+/**
+ * Half-edge construction: invariants and repairs.
+ * Euler characteristic χ = V − E + F and χ = 2 − 2g − b are standard
+ * (Gauss–Bonnet / Euler's polyhedron formula); the rest is common practice for
+ * half-edge structures.
+ */
+import { describe, expect, it } from 'vitest';
+import { fc, test } from '@fast-check/vitest';
+import { buildTopology } from '../../src/mesh/build.js';
+import { components } from '../../src/mesh/components.js';
+import { boundaryLoops } from '../../src/mesh/boundary.js';
+import { forEachOutgoing, next, prev, type Topology } from '../../src/mesh/topology.js';
+import { icosphere, cylinder, torus, flatGrid, rng } from '../fixtures/shapes.js';
+import { voxelSurface, genusTwoSlab } from '../fixtures/voxels.js';
+
+function checkInvariants(t: Topology) {
+  const nh = 3 * t.nf;
+  for (let h = 0; h < nh; h++) {
+    const o = t.twin[h]!;
+    if (o >= 0) {
+      expect(t.twin[o]).toBe(h); // twin symmetry
+      expect(t.tri[o]).toBe(t.tri[next(h)]); // twin runs the other way
+      expect(t.edgeOf[o]).toBe(t.edgeOf[h]);
+    }
+    expect(next(prev(h))).toBe(h);
+  }
+  // every half-edge leaving v is reached by the rotation from vertexHalfedge[v]
+  const count = new Int32Array(t.nv);
+  for (let h = 0; h < nh; h++) count[t.tri[h]!]!++;
+  for (let v = 0; v < t.nv; v++) {
+    let n = 0;
+    forEachOutgoing(t, v, (h) => {
+      expect(t.tri[h]).toBe(v);
+      n++;
+    });
+    expect(n).toBe(count[v]);
+  }
+}
+
+describe('closed and open surfaces', () => {
+  const cases: [string, ReturnType<typeof icosphere>, number, number, number][] = [
+    ['icosphere', icosphere(2), 2, 0, 0],
+    ['torus', torus(24, 12), 0, 1, 0],
+    ['genus-2 slab', genusTwoSlab(), -2, 2, 0],
+    ['cylinder', cylinder(12, 3), 0, 0, 2],
+    ['flat grid', flatGrid(6, 4), 1, 0, 1],
+  ];
+  for (const [name, s, chi, genus, loops] of cases) {
+    it(`${name}: χ = ${chi}, genus ${genus}, ${loops} boundary loop(s), half-edge invariants`, () => {
+      const { topology: t, report } = buildTopology(s.triangles, s.positions.length / 3);
+      checkInvariants(t);
+      const c = components(t);
+      expect(c.count).toBe(1);
+      expect(c.info[0]!.eulerCharacteristic).toBe(chi);
+      expect(c.info[0]!.genus).toBe(genus);
+      expect(boundaryLoops(t).length).toBe(loops);
+      expect(report.splitVertices).toBe(0);
+      expect(report.flippedFaces).toBe(0);
+    });
+  }
+});
+
+describe('repairs and reports', () => {
+  it('re-orients faces flipped at random and keeps the majority orientation', () => {
+    const s = icosphere(2);
+    const tri = s.triangles.slice();
+    const r = rng(3);
+    let flipped = 0;
+    for (let f = 0; f < tri.length / 3; f++) {
+      if (r() < 0.3) {
+        const x = tri[3 * f + 1]!;
+        tri[3 * f + 1] = tri[3 * f + 2]!;
+        tri[3 * f + 2] = x;
+        flipped++;
+      }
+    }
+    const { topology: t, report } = buildTopology(tri, s.positions.length / 3);
+    expect(report.flippedFaces).toBe(flipped);
+    expect(report.orientationCuts).toBe(0);
+    checkInvariants(t);
+    expect(components(t).info[0]!.eulerCharacteristic).toBe(2);
+  });
+  it('drops faces with a repeated vertex and lists them', () => {
+    const s = flatGrid(2, 2);
+    const tri = [...s.triangles, 0, 0, 1, 4, 5, 4];
+    const { topology: t, report } = buildTopology(tri, 9);
+    expect(report.degenerateFaces).toEqual([8, 9]);
+    expect(t.nf).toBe(8);
+  });
+  it('bow-tie vertex: reported and split, each fan gets its own vertex', () => {
+    const { topology: t, report } = buildTopology([0, 1, 2, 0, 3, 4], 5);
+    expect(report.nonManifoldVertices).toEqual([0]);
+    expect(report.splitVertices).toBe(1);
+    expect(t.nv).toBe(6);
+    expect(Array.from(t.vertexOrigin)).toEqual([0, 1, 2, 3, 4, 0]);
+    checkInvariants(t);
+    expect(components(t).count).toBe(2);
+  });
+  it('two cubes sharing one edge: a non-manifold edge with its four faces, cut so algorithms can run', () => {
+    const s = voxelSurface([
+      [0, 0, 0],
+      [1, 1, 0],
+    ]);
+    const { topology: t, report } = buildTopology(s.triangles, s.positions.length / 3);
+    expect(report.nonManifoldEdgeCount).toBe(1);
+    expect(report.nonManifoldEdges[0]!.faces.length).toBe(4);
+    checkInvariants(t);
+  });
+  it('a Möbius strip is reported as not orientable', () => {
+    // strip of n quads whose ends are glued with a half twist
+    const n = 8, tri: number[] = [];
+    for (let i = 0; i < n; i++) {
+      const a = i, b = i + n, c = (i + 1) % n, d = ((i + 1) % n) + n;
+      if (i < n - 1) tri.push(a, c, b, b, c, d);
+      else tri.push(a, d, b, b, d, c); // half twist: top and bottom swap
+    }
+    const { topology: t, report } = buildTopology(tri, 2 * n);
+    expect(report.nonOrientableComponents).toBe(1);
+    expect(report.orientationCuts).toBeGreaterThan(0);
+    checkInvariants(t);
+  });
+  it('vertices used by no face are counted', () => {
+    const { report } = buildTopology([0, 1, 2], 5);
+    expect(report.isolatedVertices).toBe(2);
+  });
+});
+
+describe('property: random triangle soups never break the invariants', () => {
+  test.prop([fc.array(fc.tuple(fc.nat(11), fc.nat(11), fc.nat(11)), { minLength: 1, maxLength: 60 })])('invariants hold', (faces) => {
+    const tri = faces.flat();
+    const { topology: t, report } = buildTopology(tri, 12);
+    checkInvariants(t);
+    expect(t.nf + report.degenerateFaces.length).toBe(faces.length);
+  });
+});
