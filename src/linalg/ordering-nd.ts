@@ -1,0 +1,168 @@
+/**
+ * Nested dissection ordering (George, SIAM J. Numer. Anal. 10, 1973) with
+ * bisection by breadth-first level structures.
+ *
+ * A subgraph G is split by a vertex separator S into parts A and B with no
+ * edge between them; A is numbered first, then B, then S last:
+ *
+ * ```
+ *   [ A  .  x ]      eliminating A and B creates fill only inside A, B
+ *   [ .  B  x ]      and S, never between A and B
+ *   [ x  x  S ]
+ * ```
+ *
+ * S is one level of a BFS level structure rooted at a pseudo-peripheral
+ * vertex (the level that is smallest among the balanced ones), trimmed: a
+ * level vertex with no neighbour in the next level moves to A. Disconnected
+ * subgraphs are split by component with an empty separator. Subgraphs below
+ * `leafSize` vertices keep their BFS order from the parent's level structure.
+ * Everything lives in a few n-length typed arrays; ranges of one permutation
+ * array are rearranged in place.
+ */
+import type { AdjacencyGraph } from './graph.js';
+
+/** Options of {@link nestedDissection}. */
+export interface NestedDissectionOptions {
+  /** Subgraphs with at most this many vertices are not split further (default 64). */
+  leafSize?: number;
+}
+
+/** Returns perm with perm[k] = the vertex eliminated k-th. */
+export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOptions = {}): Int32Array {
+  const { n, xadj, adj } = g;
+  const leafSize = Math.max(2, opts.leafSize ?? 64);
+  const verts = new Int32Array(n);
+  for (let v = 0; v < n; v++) verts[v] = v;
+  const label = new Int32Array(n).fill(-1);
+  const level = new Int32Array(n);
+  const queue = new Int32Array(n);
+  const tmp = new Int32Array(n);
+  const levelPtr = new Int32Array(n + 2);
+  const ranges: number[] = [0, n];
+  let id = 0;
+
+  const visit = new Int32Array(n).fill(-1);
+  let stamp = 0;
+
+  /**
+   * BFS from `root` over vertices labelled `lab`; fills queue[0..count) in
+   * level order, level[], levelPtr[0..nlev]; returns the number of levels
+   * (the count reached is levelPtr[nlev]).
+   */
+  const bfs = (root: number, lab: number): number => {
+    const st = stamp++;
+    let head = 0, tail = 0, nlev = 0;
+    queue[tail++] = root;
+    visit[root] = st;
+    while (head < tail) {
+      const levelEnd = tail;
+      levelPtr[nlev] = head;
+      for (; head < levelEnd; head++) {
+        const v = queue[head]!;
+        level[v] = nlev;
+        for (let p = xadj[v]!; p < xadj[v + 1]!; p++) {
+          const w = adj[p]!;
+          if (label[w] !== lab || visit[w] === st) continue;
+          visit[w] = st;
+          queue[tail++] = w;
+        }
+      }
+      nlev++;
+    }
+    levelPtr[nlev] = tail;
+    return nlev;
+  };
+
+  while (ranges.length > 0) {
+    const hi = ranges.pop()!;
+    const lo = ranges.pop()!;
+    const m = hi - lo;
+    if (m <= leafSize) continue;
+    const lab = id++;
+    for (let k = lo; k < hi; k++) label[verts[k]!] = lab;
+
+    let root = verts[lo]!;
+    let nlev = bfs(root, lab);
+    let reached = levelPtr[nlev]!;
+    if (reached < m) {
+      // disconnected: reached component first, the rest after, no separator
+      let a = lo, b = 0;
+      for (let k = lo; k < hi; k++) {
+        const v = verts[k]!;
+        if (visit[v] === stamp - 1) verts[a++] = v;
+        else tmp[b++] = v;
+      }
+      verts.set(tmp.subarray(0, b), a);
+      for (let k = lo; k < hi; k++) label[verts[k]!] = -1;
+      ranges.push(lo, a, a, hi);
+      continue;
+    }
+    // pseudo-peripheral root: restart from a minimum-degree vertex of the last level
+    for (let it = 0; it < 4; it++) {
+      let best = -1, bestDeg = Infinity;
+      for (let k = levelPtr[nlev - 1]!; k < levelPtr[nlev]!; k++) {
+        const v = queue[k]!;
+        const d = xadj[v + 1]! - xadj[v]!;
+        if (d < bestDeg) {
+          bestDeg = d;
+          best = v;
+        }
+      }
+      const nl = bfs(best, lab);
+      if (nl <= nlev) {
+        nlev = bfs(root, lab);
+        break;
+      }
+      root = best;
+      nlev = nl;
+    }
+    reached = levelPtr[nlev]!;
+
+    // separator level: smallest among levels leaving both sides ≥ 30% of the rest
+    let sepLevel = -1, sepSize = Infinity;
+    for (let L = 1; L < nlev - 1; L++) {
+      const s = levelPtr[L + 1]! - levelPtr[L]!;
+      const a = levelPtr[L]!, b = m - levelPtr[L + 1]!;
+      if (Math.min(a, b) < 0.3 * (m - s)) continue;
+      if (s < sepSize) {
+        sepSize = s;
+        sepLevel = L;
+      }
+    }
+    if (sepLevel < 0) {
+      // no balanced level (e.g. a long path or a star): the median level
+      let L = 1;
+      while (L < nlev - 1 && levelPtr[L + 1]! < m / 2) L++;
+      sepLevel = Math.min(L, Math.max(nlev - 2, 0));
+    }
+    if (nlev < 3) {
+      continue; // too shallow to split (nearly complete graph): keep as a leaf
+    }
+    // assemble A | B | S into tmp, keeping BFS order inside each part
+    let na = 0, nb = 0, ns = 0;
+    const sepStart = levelPtr[sepLevel]!, sepEnd = levelPtr[sepLevel + 1]!;
+    for (let k = 0; k < sepStart; k++) tmp[na++] = queue[k]!;
+    for (let k = sepStart; k < sepEnd; k++) {
+      const v = queue[k]!;
+      let touchesNext = false;
+      for (let p = xadj[v]!; p < xadj[v + 1]!; p++) {
+        const w = adj[p]!;
+        if (label[w] === lab && level[w] === sepLevel + 1) {
+          touchesNext = true;
+          break;
+        }
+      }
+      if (touchesNext) level[v] = -1; // stays in S
+      else tmp[na++] = v;
+    }
+    for (let k = sepEnd; k < m; k++) tmp[na + nb++] = queue[k]!;
+    for (let k = sepStart; k < sepEnd; k++) {
+      const v = queue[k]!;
+      if (level[v] === -1) tmp[na + nb + ns++] = v;
+    }
+    verts.set(tmp.subarray(0, m), lo);
+    for (let k = lo; k < hi; k++) label[verts[k]!] = -1;
+    ranges.push(lo, lo + na, lo + na, lo + na + nb);
+  }
+  return verts;
+}

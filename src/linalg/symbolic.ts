@@ -1,0 +1,161 @@
+/**
+ * Symbolic analysis of a sparse Cholesky factorization P·A·Pᵀ = L·Lᵀ: the
+ * fill-reducing ordering, the elimination tree, the column counts of L and the
+ * permuted pattern of A. It depends on the pattern only, so one analysis
+ * serves every numeric factorization with the same pattern (for example
+ * M + tL and L + εM built on the same mesh).
+ */
+import type { CscMatrix } from './csc.js';
+import { adjacencyFromLower } from './graph.js';
+import { eliminationTree, postorder } from './etree.js';
+import { columnCounts } from './colcounts.js';
+import { nestedDissection } from './ordering-nd.js';
+import { approximateMinimumDegree } from './ordering-amd.js';
+import { usageError, limitError } from '../errors.js';
+
+/** Fill-reducing orderings: approximate minimum degree, nested dissection, or none. */
+export type Ordering = 'amd' | 'nd' | 'natural';
+
+/** The ordering used when none is asked for (the one with less fill on surface meshes). */
+export const DEFAULT_ORDERING: Ordering = 'nd';
+
+/** Result of {@link analyzeCholesky}; read-only and shareable between factorizations. */
+export interface CholeskySymbolic {
+  /** Matrix size. */
+  readonly n: number;
+  /** The ordering that produced `perm`. */
+  readonly ordering: Ordering;
+  /** perm[k] = original index of the k-th pivot. */
+  readonly perm: Int32Array;
+  /** Inverse permutation: pinv[perm[k]] = k. */
+  readonly pinv: Int32Array;
+  /** Number of nonzeros of L, diagonal included. */
+  readonly nnzL: number;
+  /** Elimination tree of P·A·Pᵀ (−1 at roots). */
+  readonly parent: Int32Array;
+  /** Postorder of the elimination tree. */
+  readonly post: Int32Array;
+  /** Nonzeros in each column of L, diagonal included. */
+  readonly colCount: Int32Array;
+  /** Column pointers of L (cumulative colCount), length n + 1. */
+  readonly lColPtr: Int32Array;
+  /** Upper triangle of C = P·A·Pᵀ in CSC: column k lists rows i ≤ k (unsorted). */
+  readonly cColPtr: Int32Array;
+  /** Row indices of the upper triangle of C. */
+  readonly cRowIdx: Int32Array;
+  /** For entry p of the lower-triangle input, its slot in C's values. */
+  readonly valueMap: Int32Array;
+  /** Pattern of the analysed input, to check that a refactorization matches. */
+  readonly inputColPtr: Int32Array;
+  /** Row indices of the analysed input. */
+  readonly inputRowIdx: Int32Array;
+  /** Milliseconds spent on the ordering and on the rest of the analysis. */
+  readonly timing: { readonly orderingMs: number; readonly symbolicMs: number };
+}
+
+/** Options of {@link analyzeCholesky}. */
+export interface AnalyzeOptions {
+  /** Fill-reducing ordering (default {@link DEFAULT_ORDERING}). */
+  ordering?: Ordering;
+}
+
+/** nnz(L) beyond this cannot be indexed by Int32Array offsets. */
+const MAX_NNZ_L = 2 ** 31 - 1;
+
+/**
+ * Symbolic analysis of a symmetric positive definite matrix given by its LOWER
+ * triangle (i ≥ j, diagonal included) in CSC. Throws `USAGE` when the input
+ * is not a valid lower triangle and `LIMIT` when L would not fit 32-bit offsets.
+ */
+export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): CholeskySymbolic {
+  const ordering = opts.ordering ?? DEFAULT_ORDERING;
+  const { n, colPtr, rowIdx } = Alower;
+  if (colPtr.length !== n + 1 || colPtr[0] !== 0) throw usageError(`Cholesky input: colPtr must have n + 1 = ${n + 1} entries starting at 0`);
+  for (let j = 0; j < n; j++) {
+    if (colPtr[j + 1]! < colPtr[j]!) throw usageError(`Cholesky input: colPtr decreases at column ${j}`);
+    let last = -1;
+    for (let p = colPtr[j]!; p < colPtr[j + 1]!; p++) {
+      const i = rowIdx[p]!;
+      if (i < j) throw usageError(`Cholesky input must be the lower triangle (row ${i} < column ${j}); see lowerTriangle()`);
+      if (i >= n || i <= last) throw usageError(`Cholesky input: rows of column ${j} not sorted, repeated or out of range`);
+      last = i;
+    }
+  }
+  const t0 = performance.now();
+  let perm: Int32Array;
+  if (ordering === 'natural') {
+    perm = new Int32Array(n);
+    for (let k = 0; k < n; k++) perm[k] = k;
+  } else if (ordering === 'nd') {
+    perm = nestedDissection(adjacencyFromLower(Alower));
+  } else if (ordering === 'amd') {
+    perm = approximateMinimumDegree(adjacencyFromLower(Alower));
+  } else {
+    throw usageError(`unknown ordering '${String(ordering)}' (expected amd, nd or natural)`);
+  }
+  const t1 = performance.now();
+  const pinv = new Int32Array(n);
+  for (let k = 0; k < n; k++) pinv[perm[k]!] = k;
+
+  // C = P A Pᵀ: entry (i, j) moves to (pinv[i], pinv[j]); keep it in the upper
+  // triangle (column max, row min) and also count it for the lower triangle.
+  const nz = colPtr[n]!;
+  const cColPtr = new Int32Array(n + 1);
+  const lowPtr = new Int32Array(n + 1);
+  for (let j = 0; j < n; j++) {
+    const pj = pinv[j]!;
+    for (let p = colPtr[j]!; p < colPtr[j + 1]!; p++) {
+      const pi = pinv[rowIdx[p]!]!;
+      cColPtr[(pi > pj ? pi : pj) + 1]!++;
+      lowPtr[(pi < pj ? pi : pj) + 1]!++;
+    }
+  }
+  for (let k = 0; k < n; k++) {
+    cColPtr[k + 1]! += cColPtr[k]!;
+    lowPtr[k + 1]! += lowPtr[k]!;
+  }
+  const cRowIdx = new Int32Array(nz);
+  const lowRowIdx = new Int32Array(nz);
+  const valueMap = new Int32Array(nz);
+  const fillU = cColPtr.slice(0, n);
+  const fillL = lowPtr.slice(0, n);
+  for (let j = 0; j < n; j++) {
+    const pj = pinv[j]!;
+    for (let p = colPtr[j]!; p < colPtr[j + 1]!; p++) {
+      const pi = pinv[rowIdx[p]!]!;
+      const hi = pi > pj ? pi : pj, lo = pi < pj ? pi : pj;
+      const q = fillU[hi]!++;
+      cRowIdx[q] = lo;
+      valueMap[p] = q;
+      lowRowIdx[fillL[lo]!++] = hi;
+    }
+  }
+  const parent = eliminationTree(n, cColPtr, cRowIdx);
+  const post = postorder(parent, n);
+  const colCount = columnCounts(n, lowPtr, lowRowIdx, parent, post);
+  const lColPtr = new Int32Array(n + 1);
+  let total = 0;
+  for (let k = 0; k < n; k++) {
+    total += colCount[k]!;
+    if (total > MAX_NNZ_L) throw limitError(`Cholesky factor would have more than ${MAX_NNZ_L} nonzeros`);
+    lColPtr[k + 1] = total;
+  }
+  const t2 = performance.now();
+  return {
+    n,
+    ordering,
+    perm,
+    pinv,
+    nnzL: total,
+    parent,
+    post,
+    colCount,
+    lColPtr,
+    cColPtr,
+    cRowIdx,
+    valueMap,
+    inputColPtr: colPtr.slice(),
+    inputRowIdx: rowIdx.slice(0, nz),
+    timing: { orderingMs: t1 - t0, symbolicMs: t2 - t1 },
+  };
+}

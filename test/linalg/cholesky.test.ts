@@ -1,0 +1,228 @@
+/**
+ * Sparse Cholesky: residuals, dense oracle, refactorization, failures.
+ */
+import { describe, expect, it } from 'vitest';
+import { test as fcTest, fc } from '@fast-check/vitest';
+import { analyzeCholesky, CholeskyFactor, symmetricSpmvLower, TripletMatrix } from '../../src/linalg/index.js';
+import type { Ordering } from '../../src/linalg/index.js';
+import { denseCholesky, denseCholeskySolve } from '../../src/linalg/dense.js';
+import { OrthodromeError } from '../../src/errors.js';
+import { denseFromLower, gridLaplacianLower, normInf, normOneLower, randomSpdLower } from './helpers.js';
+import { rng } from '../fixtures/shapes.js';
+import type { CscMatrix } from '../../src/linalg/index.js';
+
+const ORDERINGS: Ordering[] = ['natural', 'nd'];
+
+/** Scaled residual ‖Ax − b‖∞ / (‖A‖·‖x‖∞ + ‖b‖∞). */
+function scaledResidual(A: CscMatrix, x: Float64Array, b: Float64Array): number {
+  const r = new Float64Array(A.n);
+  symmetricSpmvLower(A, x, r);
+  for (let i = 0; i < A.n; i++) r[i]! -= b[i]!;
+  return normInf(r) / (normOneLower(A) * normInf(x) + normInf(b));
+}
+
+function randomVector(n: number, seed: number): Float64Array {
+  const r = rng(seed);
+  return Float64Array.from({ length: n }, () => 2 * r() - 1);
+}
+
+describe('sparse Cholesky residuals', () => {
+  // Backward stability of Cholesky: the scaled residual is a small multiple of
+  // machine epsilon (Davis 2006, ch. 4; Higham, Accuracy and Stability of
+  // Numerical Algorithms, 2002, Thm 10.3 — from memory).
+  for (const ordering of ORDERINGS) {
+    it(`grid Laplacian + shift, ${ordering}`, () => {
+      const A = gridLaplacianLower(60, 45, 1e-4, true, 7);
+      const f = CholeskyFactor.factor(A, analyzeCholesky(A, { ordering }));
+      const b = randomVector(A.n, 3);
+      const x = new Float64Array(A.n);
+      f.solve(b, x);
+      expect(scaledResidual(A, x, b)).toBeLessThan(1e-14);
+    });
+    it(`random sparse SPD, ${ordering}`, () => {
+      for (let seed = 1; seed <= 5; seed++) {
+        const A = randomSpdLower(400, 3, seed);
+        const f = CholeskyFactor.factor(A, analyzeCholesky(A, { ordering }));
+        const b = randomVector(A.n, seed + 100);
+        const x = new Float64Array(A.n);
+        f.solve(b, x);
+        expect(scaledResidual(A, x, b)).toBeLessThan(1e-14);
+      }
+    });
+  }
+
+  it('solve allows out to alias b', () => {
+    const A = gridLaplacianLower(20, 20, 0.1);
+    const f = CholeskyFactor.factor(A, analyzeCholesky(A));
+    const b = randomVector(A.n, 9);
+    const x = new Float64Array(A.n);
+    f.solve(b, x);
+    const y = b.slice();
+    f.solve(y, y);
+    expect(Array.from(y)).toEqual(Array.from(x));
+  });
+
+  it('the factor has exactly the predicted nnz(L), diagonal first and rows sorted', () => {
+    const A = randomSpdLower(300, 4, 11);
+    for (const ordering of ORDERINGS) {
+      const sym = analyzeCholesky(A, { ordering });
+      const f = CholeskyFactor.factor(A, sym);
+      expect(f.nnzL).toBe(sym.lColPtr[A.n]);
+      for (let j = 0; j < A.n; j++) {
+        expect(f.Li[f.Lp[j]!]).toBe(j);
+        for (let p = f.Lp[j]! + 1; p < f.Lp[j + 1]!; p++) expect(f.Li[p]!).toBeGreaterThan(f.Li[p - 1]!);
+      }
+    }
+  });
+});
+
+/** Random SPD matrix as lower CSC: random sparse symmetric B, then B + (|row sums| + margin)·I. */
+const spdArb = fc
+  .record({
+    n: fc.integer({ min: 1, max: 24 }),
+    density: fc.double({ min: 0, max: 0.5, noNaN: true }),
+    seed: fc.integer({ min: 1, max: 1_000_000 }),
+  })
+  .map(({ n, density, seed }) => {
+    const r = rng(seed);
+    const T = new TripletMatrix(n);
+    const rowSum = new Float64Array(n);
+    for (let j = 0; j < n; j++) {
+      for (let i = j + 1; i < n; i++) {
+        if (r() >= density) continue;
+        const v = 4 * r() - 2;
+        T.add(i, j, v);
+        rowSum[i]! += Math.abs(v);
+        rowSum[j]! += Math.abs(v);
+      }
+    }
+    for (let j = 0; j < n; j++) T.add(j, j, rowSum[j]! + 0.01 + r());
+    return T.toCsc();
+  });
+
+describe('dense Cholesky oracle (Golub & Van Loan Alg. 4.2.1, in src/linalg/dense.ts)', () => {
+  fcTest.prop([spdArb, fc.constantFrom<Ordering>('natural', 'nd')], { numRuns: 150 })(
+    'L·Lᵀ = P·A·Pᵀ and solutions agree',
+    (A, ordering) => {
+      const n = A.n;
+      const sym = analyzeCholesky(A, { ordering });
+      const f = CholeskyFactor.factor(A, sym);
+      const Ad = denseFromLower(A);
+      // PAPᵀ(k, l) = A(perm[k], perm[l]); LLᵀ from the sparse factor
+      const Ld = new Float64Array(n * n);
+      for (let j = 0; j < n; j++) for (let p = f.Lp[j]!; p < f.Lp[j + 1]!; p++) Ld[f.Li[p]! * n + j] = f.Lx[p]!;
+      let scale = 0;
+      for (let k = 0; k < n * n; k++) scale = Math.max(scale, Math.abs(Ad[k]!));
+      for (let k = 0; k < n; k++) {
+        for (let l = 0; l <= k; l++) {
+          let s = 0;
+          for (let m = 0; m <= l; m++) s += Ld[k * n + m]! * Ld[l * n + m]!;
+          expect(Math.abs(s - Ad[sym.perm[k]! * n + sym.perm[l]!]!)).toBeLessThanOrEqual(1e-13 * scale);
+        }
+      }
+      const G = denseCholesky(Ad, n);
+      expect(G).not.toBeNull();
+      const b = randomVector(n, n + 5);
+      const xd = denseCholeskySolve(G!, n, b);
+      const x = new Float64Array(n);
+      f.solve(b, x);
+      const xs = Math.max(1, normInf(xd));
+      for (let i = 0; i < n; i++) expect(Math.abs(x[i]! - xd[i]!)).toBeLessThanOrEqual(1e-11 * xs);
+    },
+  );
+});
+
+describe('refactorization', () => {
+  it('new values on the same pattern give the same factor as a fresh one', () => {
+    const A1 = gridLaplacianLower(30, 30, 1e-3, true, 1);
+    const A2 = gridLaplacianLower(30, 30, 2.5, true, 2);
+    expect(Array.from(A2.rowIdx)).toEqual(Array.from(A1.rowIdx));
+    const sym = analyzeCholesky(A1);
+    const f = CholeskyFactor.factor(A1, sym);
+    f.refactor(A2);
+    const g = CholeskyFactor.factor(A2, sym);
+    expect(Array.from(f.Lx)).toEqual(Array.from(g.Lx));
+    const b = randomVector(A2.n, 4);
+    const x = new Float64Array(A2.n);
+    f.solve(b, x);
+    expect(scaledResidual(A2, x, b)).toBeLessThan(1e-14);
+  });
+
+  it('a different pattern is rejected with USAGE', () => {
+    const A1 = gridLaplacianLower(10, 10, 1, true);
+    const A2 = gridLaplacianLower(10, 10, 1, false);
+    const f = CholeskyFactor.factor(A1, analyzeCholesky(A1));
+    expect(() => f.refactor(A2)).toThrow(expect.objectContaining({ code: 'USAGE' }));
+  });
+
+  it('recovers after a failed refactorization', () => {
+    const A = gridLaplacianLower(12, 12, 1);
+    const sym = analyzeCholesky(A);
+    const f = CholeskyFactor.factor(A, sym);
+    const bad = { ...A, values: A.values.map((v) => -v) };
+    expect(() => f.refactor(bad)).toThrow(OrthodromeError);
+    f.refactor(A);
+    const b = randomVector(A.n, 1);
+    const x = new Float64Array(A.n);
+    f.solve(b, x);
+    expect(scaledResidual(A, x, b)).toBeLessThan(1e-14);
+  });
+});
+
+describe('non-SPD input is rejected with NUMERIC, never NaN', () => {
+  function expectNumeric(A: CscMatrix, column?: number): void {
+    let err: unknown;
+    try {
+      CholeskyFactor.factor(A, analyzeCholesky(A));
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(OrthodromeError);
+    const e = err as OrthodromeError;
+    expect(e.code).toBe('NUMERIC');
+    expect(e.message).toMatch(/^matrix is not positive definite \(pivot \S+ at column \d+\)$/);
+    if (column !== undefined) expect(e.message).toContain(`at column ${column})`);
+  }
+  it('indefinite: a pure Laplacian minus a shift (smallest eigenvalue −1)', () => {
+    expectNumeric(gridLaplacianLower(10, 10, -1));
+  });
+  it('zero diagonal at one vertex names that column', () => {
+    const T = new TripletMatrix(3);
+    T.add(0, 0, 2);
+    T.add(2, 2, 2);
+    T.add(2, 0, 0.5);
+    expectNumeric(T.toCsc(), 1); // column 1 has no diagonal entry at all
+    const U = new TripletMatrix(3);
+    U.add(0, 0, 2);
+    U.add(1, 1, 0);
+    U.add(2, 2, 2);
+    expectNumeric(U.toCsc(), 1);
+  });
+  it('NaN and Infinity entries', () => {
+    const A = gridLaplacianLower(8, 8, 1);
+    const v1 = A.values.slice();
+    v1[5] = NaN;
+    expectNumeric({ ...A, values: v1 });
+    const v2 = A.values.slice();
+    v2[0] = Infinity;
+    expectNumeric({ ...A, values: v2 });
+  });
+  it('a 2×2 with |off-diagonal| > diagonal fails at the second pivot: [[1,2],[2,1]] (eigenvalues 3, −1)', () => {
+    const T = new TripletMatrix(2);
+    T.add(0, 0, 1);
+    T.add(1, 0, 2);
+    T.add(1, 1, 1);
+    const A = T.toCsc();
+    // natural order: pivot 2 = 1 − 2² = −3 at column 1 (hand computation)
+    expect(() => CholeskyFactor.factor(A, analyzeCholesky(A, { ordering: 'natural' }))).toThrow(
+      'matrix is not positive definite (pivot -3 at column 1)',
+    );
+  });
+  it('an upper-triangle input is a USAGE error', () => {
+    const T = new TripletMatrix(2);
+    T.add(0, 0, 1);
+    T.add(0, 1, 0.5);
+    T.add(1, 1, 1);
+    expect(() => analyzeCholesky(T.toCsc())).toThrow(expect.objectContaining({ code: 'USAGE' }));
+  });
+});
