@@ -1,0 +1,180 @@
+/**
+ * Intrinsic Delaunay triangulation by edge flips (Bobenko & Springborn,
+ * Discrete Comput. Geom. 38, 2007; Fisher et al., Computing 81, 2007).
+ *
+ * The vertex set and the piecewise-flat metric stay the same; only the
+ * triangulation of that metric changes. An interior edge is Delaunay when the
+ * angles α, β opposite it satisfy cot α + cot β ≥ 0 (equivalently α + β ≤ π),
+ * which makes every cotan weight non-negative and the Laplacian an M-matrix.
+ * Flipping a non-Delaunay edge replaces the diagonal ab of the quad acbd by cd:
+ * ```
+ *          c                        c
+ *         / \                      /|\
+ *     hp /   \ hn             nh  / | \  pt
+ *       /  h  \                  /  |  \
+ *      a ─────> b     ──▶       a  h↑t↓ b
+ *       \ <──── /                \  |  /
+ *     tn \  t  / tp           ph  \ | /  nt
+ *         \   /                    \|/
+ *          d                        d
+ * ```
+ * Half-edge slots stay in place: h becomes d→c inside face (a, d, c) with
+ * next(h) = c→a and prev(h) = a→d; t becomes c→d inside face (b, c, d) with
+ * next(t) = d→b and prev(t) = b→c. The new length |cd| comes from unfolding
+ * the two triangles into the plane on either side of ab.
+ *
+ * The flip algorithm terminates (Bobenko & Springborn); a cap on the number
+ * of flips guards against rounding loops all the same, and flips that would
+ * create a loop edge or a face without area are skipped.
+ */
+import type { Topology } from '../mesh/topology.js';
+import type { IntrinsicMesh } from './intrinsic.js';
+import { next, prev } from '../mesh/topology.js';
+import { triangleArea } from './triangle.js';
+
+/** Options of {@link intrinsicDelaunay}. */
+export interface DelaunayOptions {
+  /** An edge counts as Delaunay when cot α + cot β ≥ −tolerance (default 1e-9). */
+  tolerance?: number;
+  /** Stop after this many flips (default 20·E + 1000). */
+  maxFlips?: number;
+}
+
+/** Result of {@link intrinsicDelaunay}. */
+export interface DelaunayResult {
+  /** The flipped mesh: a new topology over the same vertices, with new edge lengths. */
+  mesh: IntrinsicMesh;
+  /** Number of flips made. */
+  flips: number;
+  /** Non-Delaunay edges left unflipped because the flip was degenerate. */
+  skipped: number;
+  /** True when the flip cap stopped the loop early. */
+  capped: boolean;
+}
+
+/** cot α + cot β of the angles opposite interior half-edge h and its twin (Infinity on the boundary). */
+export function edgeCotanSum(t: Topology, L: Float64Array, h: number): number {
+  const o = t.twin[h]!;
+  if (o < 0) return Infinity;
+  return oppositeCot(t, L, h) + oppositeCot(t, L, o);
+}
+
+/** cot of the angle opposite half-edge h in its face; NaN-free, −Infinity for a face without area and a long side h. */
+function oppositeCot(t: Topology, L: Float64Array, h: number): number {
+  const a = L[t.edgeOf[h]!]!, b = L[t.edgeOf[next(h)]!]!, c = L[t.edgeOf[prev(h)]!]!;
+  const A4 = 4 * triangleArea(a, b, c);
+  const d = b * b + c * c - a * a;
+  if (A4 > 0) return d / A4;
+  return d > 0 ? Infinity : d < 0 ? -Infinity : 0;
+}
+
+/**
+ * Flips the interior edges of a copy of `m` until every one is Delaunay (up
+ * to the tolerance). The input is not modified. Vertex ids are unchanged, so
+ * per-vertex results on the output map to the input directly; edge and face
+ * ids are kept but their meaning changes where flips happened (flipped faces
+ * get `faceOrigin = -1`).
+ */
+export function intrinsicDelaunay(m: IntrinsicMesh, options: DelaunayOptions = {}): DelaunayResult {
+  const src = m.topology;
+  const tol = options.tolerance ?? 1e-9;
+  const maxFlips = options.maxFlips ?? 20 * src.ne + 1000;
+  const tri = src.tri.slice(), twin = src.twin.slice(), edgeOf = src.edgeOf.slice();
+  const edgeHalfedge = src.edgeHalfedge.slice(), vertexHalfedge = src.vertexHalfedge.slice();
+  const faceOrigin = src.faceOrigin.slice();
+  const L = m.edgeLength.slice();
+  const t: Topology = {
+    nv: src.nv, nf: src.nf, ne: src.ne, tri, twin, edgeOf, edgeHalfedge, vertexHalfedge,
+    vertexOrigin: src.vertexOrigin.slice(), faceOrigin,
+  };
+
+  // FIFO ring of edges; queued[e] keeps each edge in it at most once
+  const ne = src.ne;
+  const ring = new Int32Array(Math.max(1, ne));
+  const queued = new Uint8Array(ne);
+  let head = 0, size = 0;
+  const push = (e: number): void => {
+    if (queued[e] || twin[edgeHalfedge[e]!]! < 0) return;
+    queued[e] = 1;
+    ring[(head + size) % ring.length] = e;
+    size++;
+  };
+  for (let e = 0; e < ne; e++) push(e);
+
+  let flips = 0, skipped = 0, capped = false;
+  while (size > 0) {
+    const e = ring[head]!;
+    head = (head + 1) % ring.length;
+    size--;
+    queued[e] = 0;
+    const h = edgeHalfedge[e]!, o = twin[h]!;
+    if (o < 0 || edgeCotanSum(t, L, h) >= -tol) continue;
+    if (flips >= maxFlips) { capped = true; break; }
+    if (!flip(t, L, h)) { skipped++; continue; }
+    flips++;
+    push(edgeOf[next(h)]!); push(edgeOf[prev(h)]!);
+    push(edgeOf[next(o)]!); push(edgeOf[prev(o)]!);
+  }
+  return { mesh: { topology: t, edgeLength: L }, flips, skipped, capped };
+}
+
+/**
+ * Flips interior half-edge h in place (see the module sketch). Returns false,
+ * changing nothing, when the flip is degenerate: the twin lies in the same
+ * face, the new edge would be a loop, or a new face would have no area.
+ */
+function flip(t: Topology, L: Float64Array, h: number): boolean {
+  const { tri, twin, edgeOf, edgeHalfedge: eh, vertexHalfedge: vh } = t;
+  const o = twin[h]!;
+  const f0 = (h / 3) | 0, f1 = (o / 3) | 0;
+  if (f0 === f1) return false;
+  const hn = next(h), hp = prev(h), on = next(o), op = prev(o);
+  const a = tri[h]!, b = tri[hn]!, c = tri[hp]!, d = tri[op]!;
+  if (c === d) return false;
+  const lab = L[edgeOf[h]!]!, lbc = L[edgeOf[hn]!]!, lca = L[edgeOf[hp]!]!;
+  const lad = L[edgeOf[on]!]!, ldb = L[edgeOf[op]!]!;
+  // unfold: a = (0, 0), b = (lab, 0), c above the axis, d below it
+  const A0 = triangleArea(lab, lbc, lca), A1 = triangleArea(lab, lad, ldb);
+  if (!(A0 > 0 && A1 > 0 && lab > 0)) return false;
+  const xc = (lab * lab + lca * lca - lbc * lbc) / (2 * lab), yc = (2 * A0) / lab;
+  const xd = (lab * lab + lad * lad - ldb * ldb) / (2 * lab), yd = (2 * A1) / lab;
+  const lcd = Math.hypot(xc - xd, yc + yd);
+  if (!(triangleArea(lcd, lca, lad) > 0 && triangleArea(lcd, ldb, lbc) > 0)) return false;
+
+  const eHn = edgeOf[hn]!, eHp = edgeOf[hp]!, eOn = edgeOf[on]!, eOp = edgeOf[op]!;
+  const tHn = twin[hn]!, tHp = twin[hp]!, tOn = twin[on]!, tOp = twin[op]!;
+  // an outer side glued back onto the quad itself (possible after earlier flips) is left alone
+  if (inQuad(tHn, f0, f1) || inQuad(tHp, f0, f1) || inQuad(tOn, f0, f1) || inQuad(tOp, f0, f1)) return false;
+  // vertex anchors that point at a moving slot follow their directed edge
+  const fixA = vh[a] === h || vh[a] === on, fixB = vh[b] === o || vh[b] === hn;
+  const fixC = vh[c] === hp, fixD = vh[d] === op;
+
+  // face f0 = (d, c, a): h = d→c, hn = c→a (old hp), hp = a→d (old on)
+  tri[h] = d; tri[hn] = c; tri[hp] = a;
+  // face f1 = (c, d, b): o = c→d, on = d→b (old op), op = b→c (old hn)
+  tri[o] = c; tri[on] = d; tri[op] = b;
+  const relink = (slot: number, e: number, tw: number): void => {
+    edgeOf[slot] = e;
+    twin[slot] = tw;
+    if (tw >= 0) twin[tw] = slot;
+    eh[e] = slot;
+  };
+  relink(hn, eHp, tHp);
+  relink(hp, eOn, tOn);
+  relink(on, eOp, tOp);
+  relink(op, eHn, tHn);
+  L[edgeOf[h]!] = lcd;
+  if (fixA) vh[a] = hp;
+  if (fixB) vh[b] = op;
+  if (fixC) vh[c] = hn;
+  if (fixD) vh[d] = on;
+  t.faceOrigin[f0] = -1;
+  t.faceOrigin[f1] = -1;
+  return true;
+}
+
+/** True when half-edge tw (≥ 0) belongs to face f0 or f1. */
+function inQuad(tw: number, f0: number, f1: number): boolean {
+  const g = (tw / 3) | 0;
+  return tw >= 0 && (g === f0 || g === f1);
+}

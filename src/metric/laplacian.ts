@@ -1,0 +1,244 @@
+/**
+ * Cotangent Laplacian, lumped mass, and per-face gradient / divergence, all
+ * from edge lengths only.
+ *
+ * Sign convention: L is positive semi-definite,
+ *   L_ij = −w_ij (i ≠ j),  L_ii = Σ_j w_ij,  w_ij = ½ (cot α_ij + cot β_ij),
+ * which is the P1 finite-element stiffness matrix L_ij = Σ_f A_f ∇φ_i·∇φ_j.
+ *
+ * Matrices live on a fixed lower-triangle CSC pattern ({@link EdgePattern}):
+ * one diagonal slot per vertex and one slot per distinct vertex pair joined
+ * by an edge. L, M + tL, L + εM and copies with constrained rows all share it,
+ * so one symbolic Cholesky analysis serves them all. After intrinsic flips two
+ * edges may join the same pair (their weights add in one slot) and an edge may
+ * be a loop (it contributes w(u_i − u_i)² = 0, so it has no slot).
+ *
+ * Per-face frame: corner 0 of face f (tail of half-edge 3f) at the origin,
+ * corner 1 on the +x axis, corner 2 above it:
+ * ```
+ *            p2 = (x2, y2),  x2 = (l0² + l2² − l1²) / (2 l0),  y2 = 2A / l0
+ *            /\
+ *       l2  /  \  l1          l_k = length of half-edge 3f+k
+ *          /    \
+ *   p0 = (0,0)──── p1 = (l0, 0)
+ *             l0
+ * ```
+ * Hat-function gradients: ∇φ_k = rot90(p_{k+2} − p_{k+1}) / (2A), with
+ * rot90(x, y) = (−y, x). Degenerate faces (A = 0) get zero gradients and
+ * contribute nothing to L, so L stays the Gram matrix Σ A_f ∇φ∇φᵀ (PSD).
+ */
+import type { Topology } from '../mesh/topology.js';
+import type { IntrinsicMesh } from './intrinsic.js';
+import type { CscMatrix } from '../linalg/csc.js';
+import { next } from '../mesh/topology.js';
+import { triangleArea, COT_LIMIT } from './triangle.js';
+
+/**
+ * Lower-triangle CSC pattern over the vertices of a topology: in column j the
+ * diagonal (row j) comes first, then the rows i > j joined to j by an edge,
+ * ascending.
+ */
+export interface EdgePattern {
+  /** Number of vertices (rows and columns). */
+  readonly n: number;
+  /** Column starts, length n + 1. */
+  readonly colPtr: Int32Array;
+  /** Row of every slot, ascending within a column. */
+  readonly rowIdx: Int32Array;
+  /** Slot of the diagonal entry of each vertex (equals colPtr[v]). */
+  readonly diagSlot: Int32Array;
+  /** Slot of the off-diagonal entry of each edge; -1 for a loop edge. */
+  readonly edgeSlot: Int32Array;
+}
+
+/** Builds the fixed pattern of a topology (O(E), sorts short columns by insertion). */
+export function edgePattern(t: Topology): EdgePattern {
+  const n = t.nv;
+  const count = new Int32Array(n + 1);
+  for (let e = 0; e < t.ne; e++) {
+    const h = t.edgeHalfedge[e]!;
+    const a = t.tri[h]!, b = t.tri[next(h)]!;
+    if (a !== b) count[Math.min(a, b)]!++;
+  }
+  // raw rows per column (duplicates included), sorted then deduplicated
+  const start = new Int32Array(n + 1);
+  for (let j = 0; j < n; j++) start[j + 1] = start[j]! + count[j]!;
+  const raw = new Int32Array(start[n]!);
+  const fill = start.slice(0, n);
+  for (let e = 0; e < t.ne; e++) {
+    const h = t.edgeHalfedge[e]!;
+    const a = t.tri[h]!, b = t.tri[next(h)]!;
+    if (a !== b) raw[fill[Math.min(a, b)]!++] = Math.max(a, b);
+  }
+  const colPtr = new Int32Array(n + 1);
+  for (let j = 0; j < n; j++) {
+    const p0 = start[j]!, p1 = start[j + 1]!;
+    for (let p = p0 + 1; p < p1; p++) {
+      const x = raw[p]!;
+      let q = p - 1;
+      while (q >= p0 && raw[q]! > x) { raw[q + 1] = raw[q]!; q--; }
+      raw[q + 1] = x;
+    }
+    let distinct = 0;
+    for (let p = p0; p < p1; p++) if (p === p0 || raw[p] !== raw[p - 1]) distinct++;
+    colPtr[j + 1] = colPtr[j]! + 1 + distinct;
+  }
+  const rowIdx = new Int32Array(colPtr[n]!);
+  const diagSlot = new Int32Array(n);
+  for (let j = 0; j < n; j++) {
+    let q = colPtr[j]!;
+    diagSlot[j] = q;
+    rowIdx[q++] = j;
+    for (let p = start[j]!; p < start[j + 1]!; p++) if (p === start[j] || raw[p] !== raw[p - 1]) rowIdx[q++] = raw[p]!;
+  }
+  const edgeSlot = new Int32Array(t.ne);
+  for (let e = 0; e < t.ne; e++) {
+    const h = t.edgeHalfedge[e]!;
+    const a = t.tri[h]!, b = t.tri[next(h)]!;
+    if (a === b) { edgeSlot[e] = -1; continue; }
+    const j = Math.min(a, b), i = Math.max(a, b);
+    let p = colPtr[j]! + 1;
+    while (rowIdx[p] !== i) p++;
+    edgeSlot[e] = p;
+  }
+  return { n, colPtr, rowIdx, diagSlot, edgeSlot };
+}
+
+/** Wraps values on a pattern as a CSC matrix (no copy). */
+export function patternMatrix(p: EdgePattern, values: Float64Array): CscMatrix {
+  return { n: p.n, colPtr: p.colPtr, rowIdx: p.rowIdx, values };
+}
+
+/** Per-face area and hat-function gradients in each face's own frame. */
+export interface FaceGeometry {
+  /** Area of each face. */
+  readonly area: Float64Array;
+  /** ∇φ of corner k of face f at [6f + 2k], [6f + 2k + 1] (face frame, see module comment). */
+  readonly grad: Float64Array;
+}
+
+/** Lays every face out in its own frame from its side lengths. */
+export function faceGeometry(m: IntrinsicMesh): FaceGeometry {
+  const { topology: t, edgeLength: L } = m;
+  const area = new Float64Array(t.nf);
+  const grad = new Float64Array(6 * t.nf);
+  for (let f = 0; f < t.nf; f++) {
+    const l0 = L[t.edgeOf[3 * f]!]!, l1 = L[t.edgeOf[3 * f + 1]!]!, l2 = L[t.edgeOf[3 * f + 2]!]!;
+    const A = triangleArea(l0, l1, l2);
+    area[f] = A;
+    if (!(A > 0) || !(l0 > 0)) continue;
+    const x2 = (l0 * l0 + l2 * l2 - l1 * l1) / (2 * l0), y2 = (2 * A) / l0;
+    const s = 1 / (2 * A), o = 6 * f;
+    // corner 0: rot90(p2 − p1) = (−y2, x2 − l0)
+    grad[o] = -y2 * s; grad[o + 1] = (x2 - l0) * s;
+    // corner 1: rot90(p0 − p2) = (y2, −x2)
+    grad[o + 2] = y2 * s; grad[o + 3] = -x2 * s;
+    // corner 2: rot90(p1 − p0) = (0, l0)
+    grad[o + 4] = 0; grad[o + 5] = l0 * s;
+  }
+  return { area, grad };
+}
+
+/**
+ * Cotangent Laplacian values on `p` (PSD convention). A face contributes
+ * ½ cot θ to the weight of the edge opposite each corner θ; cotangents are
+ * (b² + c² − a²) / (4A), clamped to ±{@link COT_LIMIT}; zero-area faces add 0.
+ */
+export function cotanLaplacian(m: IntrinsicMesh, p: EdgePattern, out = new Float64Array(p.colPtr[p.n]!)): Float64Array {
+  const { topology: t, edgeLength: L } = m;
+  out.fill(0);
+  for (let f = 0; f < t.nf; f++) {
+    const h0 = 3 * f;
+    const l0 = L[t.edgeOf[h0]!]!, l1 = L[t.edgeOf[h0 + 1]!]!, l2 = L[t.edgeOf[h0 + 2]!]!;
+    const A4 = 4 * triangleArea(l0, l1, l2);
+    if (!(A4 > 0)) continue;
+    for (let k = 0; k < 3; k++) {
+      const h = h0 + k;
+      const a = k === 0 ? l0 : k === 1 ? l1 : l2;
+      const b = k === 0 ? l1 : k === 1 ? l2 : l0;
+      const c = k === 0 ? l2 : k === 1 ? l0 : l1;
+      let cot = (b * b + c * c - a * a) / A4;
+      cot = cot > COT_LIMIT ? COT_LIMIT : cot < -COT_LIMIT ? -COT_LIMIT : cot;
+      const w = 0.5 * cot;
+      const s = p.edgeSlot[t.edgeOf[h]!]!;
+      if (s < 0) continue;
+      out[s]! -= w;
+      out[p.diagSlot[t.tri[h]!]!]! += w;
+      out[p.diagSlot[t.tri[next(h)]!]!]! += w;
+    }
+  }
+  return out;
+}
+
+/** Lumped (barycentric) mass: one third of each incident face's area per vertex. */
+export function lumpedMass(m: IntrinsicMesh, out = new Float64Array(m.topology.nv)): Float64Array {
+  const { topology: t, edgeLength: L } = m;
+  out.fill(0);
+  for (let f = 0; f < t.nf; f++) {
+    const a3 = triangleArea(L[t.edgeOf[3 * f]!]!, L[t.edgeOf[3 * f + 1]!]!, L[t.edgeOf[3 * f + 2]!]!) / 3;
+    out[t.tri[3 * f]!]! += a3;
+    out[t.tri[3 * f + 1]!]! += a3;
+    out[t.tri[3 * f + 2]!]! += a3;
+  }
+  return out;
+}
+
+/** out = α·L + β·diag(mass) on the shared pattern (L given by its values). */
+export function combine(
+  p: EdgePattern,
+  alpha: number,
+  L: Float64Array,
+  beta: number,
+  mass: Float64Array,
+  out = new Float64Array(L.length),
+): Float64Array {
+  for (let s = 0; s < L.length; s++) out[s] = alpha * L[s]!;
+  for (let v = 0; v < p.n; v++) out[p.diagSlot[v]!]! += beta * mass[v]!;
+  return out;
+}
+
+/**
+ * Replaces the row and column of every vertex with `fixed[v] ≠ 0` by those of
+ * the identity (Dirichlet condition u_v = given value), in place. The pattern
+ * keeps its structural zeros so the symbolic analysis still applies; the
+ * result stays symmetric positive definite when the input was on the free
+ * vertices.
+ */
+export function constrainRows(p: EdgePattern, values: Float64Array, fixed: Uint8Array): void {
+  for (let j = 0; j < p.n; j++) {
+    const fj = fixed[j]!;
+    for (let s = p.colPtr[j]!; s < p.colPtr[j + 1]!; s++) {
+      const i = p.rowIdx[s]!;
+      if (fj || fixed[i]) values[s] = i === j ? 1 : 0;
+    }
+  }
+}
+
+/** Per-face gradient of a per-vertex function: out[2f], out[2f+1] in face f's frame. */
+export function faceGradient(t: Topology, g: FaceGeometry, u: Float64Array, out = new Float64Array(2 * t.nf)): Float64Array {
+  const G = g.grad;
+  for (let f = 0; f < t.nf; f++) {
+    const u0 = u[t.tri[3 * f]!]!, u1 = u[t.tri[3 * f + 1]!]!, u2 = u[t.tri[3 * f + 2]!]!, o = 6 * f;
+    out[2 * f] = u0 * G[o]! + u1 * G[o + 2]! + u2 * G[o + 4]!;
+    out[2 * f + 1] = u0 * G[o + 1]! + u1 * G[o + 3]! + u2 * G[o + 5]!;
+  }
+  return out;
+}
+
+/**
+ * Weak (integrated) divergence of a per-face vector field, with the sign that
+ * matches the PSD Laplacian: out_i = Σ_f A_f ∇φ_i · X_f = −∫_{cell i} div X.
+ * Then weakDivergence(faceGradient(u)) = L u, and L φ = weakDivergence(X) is
+ * the least-squares fit ∇φ ≈ X.
+ */
+export function weakDivergence(t: Topology, g: FaceGeometry, X: Float64Array, out = new Float64Array(t.nv)): Float64Array {
+  const G = g.grad, A = g.area;
+  out.fill(0);
+  for (let f = 0; f < t.nf; f++) {
+    const ax = A[f]! * X[2 * f]!, ay = A[f]! * X[2 * f + 1]!, o = 6 * f;
+    out[t.tri[3 * f]!]! += ax * G[o]! + ay * G[o + 1]!;
+    out[t.tri[3 * f + 1]!]! += ax * G[o + 2]! + ay * G[o + 3]!;
+    out[t.tri[3 * f + 2]!]! += ax * G[o + 4]! + ay * G[o + 5]!;
+  }
+  return out;
+}
