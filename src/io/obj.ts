@@ -1,0 +1,276 @@
+/**
+ * Wavefront OBJ reader: bytes in, {@link MeshData} out, float64 end to end.
+ *
+ * Read: `v x y z [w]`, `v x y z r g b` (colours kept when every vertex has
+ * them), `f` with `i`, `i/t`, `i//n`, `i/t/n` corners, negative (relative)
+ * indices, polygons, `#` comments and `\` line continuations. Every other
+ * statement (vt, vn, vp, o, g, s, usemtl, mtllib, l, p, ...) is skipped.
+ *
+ * The scan works on the bytes directly: no string per line, numbers are
+ * assembled digit by digit (see {@link scanReal}), growable typed buffers.
+ * Vertex indices are those of the file (1-based there, 0-based here).
+ */
+import { inputError } from '../errors.js';
+import type { MeshData, PropertyColumn } from './mesh-data.js';
+
+/**
+ * Where {@link scanReal} stopped (`pos`) and whether the token was malformed
+ * (`bad`). One shared cursor, so scanning a number allocates nothing.
+ */
+export const scanCursor = { pos: 0, bad: false };
+
+// 10^0 .. 10^22 are exact doubles: m·10^k or m/10^k with m < 2^53 and
+// |k| <= 22 is then one correctly rounded operation (Clinger's fast path).
+const POW10 = new Float64Array(23);
+for (let i = 0, p = 1; i < 23; i++, p *= 10) POW10[i] = p;
+
+/** True for bytes that end a token: space, tab, CR, LF, `\`, `#`, `/`. */
+function isDelimiter(c: number): boolean {
+  return c === 32 || c === 9 || c === 13 || c === 10 || c === 92 || c === 35 || c === 47 || c === 11 || c === 12;
+}
+
+function lower(c: number): number {
+  return c | 0x20;
+}
+
+/**
+ * Reads a decimal real (`-12`, `3.25`, `.5`, `6.02e23`, `nan`, `inf`,
+ * `infinity`) from `b` at `p` (bounded by `end`). Sets `scanCursor.pos` to the
+ * first byte after the token and `scanCursor.bad` when no number starts at `p`
+ * or it is not followed by a delimiter. The result is the correctly rounded
+ * double: short mantissas take the exact fast path, longer ones go through
+ * `Number()` on the token.
+ */
+export function scanReal(b: Uint8Array, p: number, end: number): number {
+  const start = p;
+  let neg = false;
+  let c = p < end ? b[p]! : 0;
+  if (c === 45 || c === 43) {
+    neg = c === 45;
+    c = ++p < end ? b[p]! : 0;
+  }
+  let m = 0, nd = 0, digits = 0, frac = 0;
+  while (c >= 48 && c <= 57) {
+    if (nd > 0 || c !== 48) { m = m * 10 + (c - 48); nd++; }
+    digits++;
+    c = ++p < end ? b[p]! : 0;
+  }
+  if (c === 46) {
+    c = ++p < end ? b[p]! : 0;
+    while (c >= 48 && c <= 57) {
+      if (nd > 0 || c !== 48) { m = m * 10 + (c - 48); nd++; }
+      digits++; frac++;
+      c = ++p < end ? b[p]! : 0;
+    }
+  }
+  if (digits === 0) {
+    if (p > start + (neg || b[start] === 43 ? 1 : 0)) { scanCursor.pos = p; scanCursor.bad = true; return 0; }
+    return scanWord(b, p, end, neg);
+  }
+  let e = 0;
+  if (c === 101 || c === 69) {
+    c = ++p < end ? b[p]! : 0;
+    let eneg = false;
+    if (c === 45 || c === 43) { eneg = c === 45; c = ++p < end ? b[p]! : 0; }
+    if (c < 48 || c > 57) { scanCursor.pos = p; scanCursor.bad = true; return 0; }
+    while (c >= 48 && c <= 57) {
+      if (e < 100000) e = e * 10 + (c - 48);
+      c = ++p < end ? b[p]! : 0;
+    }
+    if (eneg) e = -e;
+  }
+  scanCursor.pos = p;
+  scanCursor.bad = p < end && !isDelimiter(c);
+  const k = e - frac;
+  let v: number;
+  if (nd <= 15 && k >= -22 && k <= 22) v = k >= 0 ? m * POW10[k]! : m / POW10[-k]!;
+  else if (m === 0) v = 0;
+  else v = Number(latin1(b, neg ? start + 1 : start, p));
+  return neg ? -v : v;
+}
+
+/** `nan`, `inf`, `infinity` (any case) after an optional sign; otherwise bad. */
+function scanWord(b: Uint8Array, p: number, end: number, neg: boolean): number {
+  let q = p;
+  while (q < end && !isDelimiter(b[q]!)) q++;
+  const n = q - p;
+  scanCursor.pos = q;
+  scanCursor.bad = false;
+  if (n === 3 && lower(b[p]!) === 110 && lower(b[p + 1]!) === 97 && lower(b[p + 2]!) === 110) return NaN;
+  const w = n === 3 || n === 8 ? latin1(b, p, q).toLowerCase() : '';
+  if (w === 'inf' || w === 'infinity') return neg ? -Infinity : Infinity;
+  scanCursor.bad = true;
+  return 0;
+}
+
+/** Bytes `b[s..e)` as a string, one char per byte (for short tokens and messages). */
+export function latin1(b: Uint8Array, s: number, e: number): string {
+  let out = '';
+  for (let i = s; i < e; i++) out += String.fromCharCode(b[i]!);
+  return out;
+}
+
+/** Doubles a typed buffer, keeping its first `used` entries. */
+function grow<T extends Float64Array | Uint32Array>(a: T, used: number): T {
+  const g = new (a.constructor as new (n: number) => T)(Math.max(16, 2 * a.length));
+  g.set(a.subarray(0, used));
+  return g;
+}
+
+/** A short, printable excerpt of the token at `p` for messages. */
+function tokenAt(b: Uint8Array, p: number): string {
+  let q = p;
+  while (q < b.length && q - p < 24 && b[q] !== 10 && b[q] !== 13 && b[q] !== 32 && b[q] !== 9) q++;
+  const s = latin1(b, p, q).replace(/[^\x20-\x7e]/g, '?');
+  return q > p ? `'${s}'` : 'end of line';
+}
+
+/**
+ * Parses an OBJ file. Throws an `INPUT` {@link OrthodromeError} located at
+ * `name:line` for malformed numbers, non-finite coordinates, index 0,
+ * out-of-range or too-far-back relative indices, faces with fewer than three
+ * corners, and files without vertices or faces. Degenerate faces (a repeated
+ * vertex) are kept; the topology builder drops and counts them.
+ */
+export function parseObj(bytes: Uint8Array, name: string): MeshData {
+  const b = bytes, n = b.length;
+  let pos = new Float64Array(3 * 1024);
+  let idx = new Uint32Array(4096);
+  let off = new Uint32Array(1024);
+  let rgb: Float64Array | null = null;
+  let nv = 0, ni = 0, nf = 0, colored = 0;
+  let maxIdx = -1, maxLine = 0;
+  let line = 1, p = 0;
+  const fail = (msg: string): never => {
+    throw inputError(msg, `${name}:${line}`);
+  };
+  // Skips blanks and `\`-newline continuations inside a statement.
+  const blank = (): void => {
+    for (;;) {
+      const c = b[p];
+      if (c === 32 || c === 9 || c === 11 || c === 12) p++;
+      else if (c === 13 && b[p + 1] !== 10) p++;
+      else if (c === 92 && (b[p + 1] === 10 || (b[p + 1] === 13 && b[p + 2] === 10))) {
+        p += b[p + 1] === 10 ? 2 : 3;
+        line++;
+      } else return;
+    }
+  };
+  // True at the end of a statement: newline, CRLF, comment or end of file.
+  const atEnd = (): boolean => p >= n || b[p] === 10 || b[p] === 35 || (b[p] === 13 && b[p + 1] === 10);
+  // Moves past the rest of the line (continuations included) and its newline.
+  const skipLine = (): void => {
+    for (;;) {
+      const q = b.indexOf(10, p);
+      if (q < 0) { p = n; return; }
+      let r = q - 1;
+      if (r >= p && b[r] === 13) r--;
+      p = q + 1;
+      line++;
+      if (!(r >= 0 && b[r] === 92)) return;
+    }
+  };
+  while (p < n) {
+    const c = b[p]!;
+    if (c === 32 || c === 9 || c === 13 || c === 11 || c === 12) { p++; continue; }
+    if (c === 10) { p++; line++; continue; }
+    const c1 = b[p + 1];
+    if (c === 118 && (c1 === 32 || c1 === 9)) {
+      p++;
+      if (3 * nv + 3 > pos.length) pos = grow(pos, 3 * nv);
+      let k = 0, r = 0, g = 0, bl = 0;
+      for (;;) {
+        blank();
+        if (atEnd()) break;
+        const v = scanReal(b, p, n);
+        if (scanCursor.bad) fail(`malformed number ${tokenAt(b, p)}`);
+        if (!Number.isFinite(v)) fail(`non-finite coordinate ${tokenAt(b, p)}`);
+        p = scanCursor.pos;
+        if (k < 3) pos[3 * nv + k] = v;
+        else if (k === 3) r = v;
+        else if (k === 4) g = v;
+        else if (k === 5) bl = v;
+        k++;
+      }
+      if (k !== 3 && k !== 4 && k !== 6) fail(`vertex has ${k} numbers (expected 3, 4 or 6)`);
+      if (k === 6) {
+        if (rgb === null || rgb.length < pos.length) {
+          const t = new Float64Array(pos.length);
+          if (rgb !== null) t.set(rgb);
+          rgb = t;
+        }
+        rgb[3 * nv] = r; rgb[3 * nv + 1] = g; rgb[3 * nv + 2] = bl;
+        colored++;
+      }
+      nv++;
+    } else if (c === 102 && (c1 === 32 || c1 === 9)) {
+      p++;
+      let k = 0;
+      for (;;) {
+        blank();
+        if (atEnd()) break;
+        const t0 = p;
+        let neg = false;
+        if (b[p] === 45) { neg = true; p++; }
+        let v = 0, d = 0;
+        for (let ch = b[p]!; p < n && ch >= 48 && ch <= 57; ch = b[++p]!) {
+          if (v < 1e15) v = v * 10 + (ch - 48);
+          d++;
+        }
+        if (d === 0) fail(`malformed vertex index ${tokenAt(b, t0)}`);
+        // Texture and normal references: `/t`, `//n`, `/t/n`; checked for form only.
+        for (let part = 0; part < 2 && b[p] === 47; part++) {
+          p++;
+          if (b[p] === 45) p++;
+          while (p < n && b[p]! >= 48 && b[p]! <= 57) p++;
+        }
+        if (p < n && !(b[p] === 32 || b[p] === 9 || b[p] === 13 || b[p] === 10 || b[p] === 35 || b[p] === 92 || b[p] === 11 || b[p] === 12)) {
+          fail(`malformed face corner ${tokenAt(b, t0)}`);
+        }
+        let i: number;
+        if (v === 0) return fail('vertex index 0 (OBJ indices start at 1)');
+        if (neg) {
+          i = nv - v;
+          if (i < 0) fail(`relative vertex index -${v} reaches before the first vertex (${nv} so far)`);
+        } else {
+          i = v - 1;
+          if (i > maxIdx) { maxIdx = i; maxLine = line; }
+        }
+        if (ni >= idx.length) idx = grow(idx, ni);
+        idx[ni++] = i;
+        k++;
+      }
+      if (k < 3) fail(`face has ${k} ${k === 1 ? 'vertex' : 'vertices'} (at least 3 needed)`);
+      if (nf + 2 > off.length) off = grow(off, nf + 1);
+      off[++nf] = ni;
+    } else {
+      skipLine();
+      continue;
+    }
+    if (p < n && b[p] === 35) { skipLine(); continue; }
+    if (p < n && b[p] === 13) p++;
+    if (p < n) { p++; line++; }
+  }
+  if (nv === 0) throw inputError('no vertices', name);
+  if (nf === 0) throw inputError('no faces', name);
+  if (maxIdx >= nv) {
+    throw inputError(`vertex index ${maxIdx + 1} out of range (the file has ${nv} vertices)`, `${name}:${maxLine}`);
+  }
+  const vertexProps: PropertyColumn[] = [];
+  if (rgb !== null && colored === nv) {
+    const names = ['red', 'green', 'blue'];
+    for (let ch = 0; ch < 3; ch++) {
+      const values = new Float64Array(nv);
+      for (let v = 0; v < nv; v++) values[v] = rgb[3 * v + ch]!;
+      vertexProps.push({ name: names[ch]!, type: 'float64' as const, values });
+    }
+  }
+  return {
+    positions: pos.slice(0, 3 * nv),
+    faceOffsets: off.slice(0, nf + 1),
+    faceIndices: idx.slice(0, ni),
+    vertexProps,
+    faceProps: [],
+    name,
+  };
+}

@@ -1,0 +1,277 @@
+/**
+ * PLY polygon file reader (ascii, binary_little_endian, binary_big_endian).
+ *
+ * Layout of a file, as in the published PLY description:
+ *
+ *   ply
+ *   format binary_little_endian 1.0
+ *   element vertex 8            <- count, then its properties in body order
+ *   property float x            <- scalar: type name
+ *   property list uchar int vertex_indices   <- list: count type, item type
+ *   end_header
+ *   <body: elements in header order, items in order, properties in order>
+ *
+ * `vertex` needs scalar x, y, z; `face` needs a list `vertex_indices` (or
+ * `vertex_index`). Every other scalar property of vertex and face is kept as
+ * a {@link PropertyColumn} with its declared type; list properties other than
+ * the face's index list, and other elements, are skipped.
+ *
+ * Before anything scales with a header count, the counts are checked against
+ * what the remaining bytes can hold (each item needs at least its scalars and
+ * list counts), so a short file claiming billions of items fails at once.
+ */
+import { inputError } from '../errors.js';
+import type { MeshData, PropertyColumn, ScalarType } from './mesh-data.js';
+import { latin1, scanCursor, scanReal } from './obj.js';
+
+/** Type codes 0..7 in {@link SCALAR_TYPES} order; both PLY spellings accepted. */
+const TYPE_CODES: Record<string, number> = {
+  char: 0, int8: 0, uchar: 1, uint8: 1, short: 2, int16: 2, ushort: 3, uint16: 3,
+  int: 4, int32: 4, uint: 5, uint32: 5, float: 6, float32: 6, double: 7, float64: 7,
+};
+/** Byte size of each type code. */
+export const TYPE_SIZES = [1, 1, 2, 2, 4, 4, 4, 8];
+/** {@link ScalarType} of each type code. */
+export const SCALAR_TYPES: ScalarType[] = ['int8', 'uint8', 'int16', 'uint16', 'int32', 'uint32', 'float32', 'float64'];
+const LO = [-128, 0, -32768, 0, -2147483648, 0, -Infinity, -Infinity];
+const HI = [127, 255, 32767, 65535, 2147483647, 4294967295, Infinity, Infinity];
+
+/** One property of a PLY element; `countType` is -1 for a scalar. */
+export interface PlyProperty {
+  name: string;
+  type: number;
+  countType: number;
+}
+
+/** One element declared in a PLY header. */
+export interface PlyElement {
+  name: string;
+  count: number;
+  props: PlyProperty[];
+  /** 1-based header line of the `element` statement. */
+  line: number;
+}
+
+/** A parsed PLY header. */
+export interface PlyHeader {
+  format: 'ascii' | 'binary_little_endian' | 'binary_big_endian';
+  elements: PlyElement[];
+  /** Offset of the first body byte. */
+  bodyStart: number;
+}
+
+/** Parses the header; throws `INPUT` located at `name: header line N`. */
+export function parsePlyHeader(b: Uint8Array, name: string): PlyHeader {
+  let p = 0, line = 0;
+  let format: PlyHeader['format'] | null = null;
+  const elements: PlyElement[] = [];
+  for (;;) {
+    const q = b.indexOf(10, p);
+    line++;
+    if (q < 0) throw inputError('missing end_header', `${name}: header line ${line}`);
+    const text = latin1(b, p, q > p && b[q - 1] === 13 ? q - 1 : q);
+    p = q + 1;
+    const w = text.trim().split(/[ \t]+/);
+    const at = `${name}: header line ${line}`;
+    if (line === 1) {
+      if (text.trim() !== 'ply') throw inputError("not a PLY file (first line must be 'ply')", at);
+      continue;
+    }
+    const kw = w[0]!;
+    if (kw === 'end_header') break;
+    if (kw === 'comment' || kw === 'obj_info' || kw === '') continue;
+    if (kw === 'format') {
+      if (format !== null) throw inputError('second format line', at);
+      if (w[1] !== 'ascii' && w[1] !== 'binary_little_endian' && w[1] !== 'binary_big_endian') {
+        throw inputError(`unknown format '${w[1] ?? ''}'`, at);
+      }
+      if (w[2] !== '1.0') throw inputError(`unsupported PLY version '${w[2] ?? ''}'`, at);
+      format = w[1];
+    } else if (kw === 'element') {
+      if (w.length !== 3 || !/^\d{1,10}$/.test(w[2]!) || Number(w[2]) > 4294967295) {
+        throw inputError(`malformed element line '${text.trim()}'`, at);
+      }
+      if (elements.some((e) => e.name === w[1])) throw inputError(`second element '${w[1]}'`, at);
+      elements.push({ name: w[1]!, count: Number(w[2]), props: [], line });
+    } else if (kw === 'property') {
+      const el = elements[elements.length - 1];
+      if (el === undefined) throw inputError('property before any element', at);
+      const list = w[1] === 'list';
+      if (w.length !== (list ? 5 : 3)) throw inputError(`malformed property line '${text.trim()}'`, at);
+      const t = TYPE_CODES[w[list ? 3 : 1]!];
+      const ct = list ? TYPE_CODES[w[2]!] : -1;
+      if (t === undefined) throw inputError(`unknown property type '${w[list ? 3 : 1]}'`, at);
+      if (ct === undefined) throw inputError(`unknown list count type '${w[2]}'`, at);
+      if (list && ct! >= 6) throw inputError(`list count type '${w[2]}' is not an integer type`, at);
+      el.props.push({ name: w[list ? 4 : 2]!, type: t, countType: ct! });
+    } else {
+      throw inputError(`unknown header keyword '${kw.slice(0, 40)}'`, at);
+    }
+  }
+  if (format === null) throw inputError('no format line', `${name}: header`);
+  return { format, elements, bodyStart: p };
+}
+
+function rd(dv: DataView, o: number, t: number, le: boolean): number {
+  switch (t) {
+    case 0: return dv.getInt8(o);
+    case 1: return dv.getUint8(o);
+    case 2: return dv.getInt16(o, le);
+    case 3: return dv.getUint16(o, le);
+    case 4: return dv.getInt32(o, le);
+    case 5: return dv.getUint32(o, le);
+    case 6: return dv.getFloat32(o, le);
+    default: return dv.getFloat64(o, le);
+  }
+}
+
+/** Where each scalar value of an element goes: `dst[i * stride + base]`, or nowhere. */
+interface Sink { dst: Float64Array | null; stride: number; base: number }
+
+/** Parses a PLY file (any of the three encodings) into {@link MeshData}. */
+export function parsePly(bytes: Uint8Array, name: string): MeshData {
+  const b = bytes;
+  const h = parsePlyHeader(b, name);
+  const ascii = h.format === 'ascii';
+  const le = h.format === 'binary_little_endian';
+  const vEl = h.elements.find((e) => e.name === 'vertex');
+  const fEl = h.elements.find((e) => e.name === 'face');
+  if (vEl === undefined || vEl.count === 0) throw inputError('no vertices', name);
+  if (fEl === undefined || fEl.count === 0) throw inputError('no faces', name);
+  for (const axis of ['x', 'y', 'z']) {
+    const pr = vEl.props.find((q) => q.name === axis);
+    if (pr === undefined || pr.countType >= 0) throw inputError(`vertex element has no scalar '${axis}'`, `${name}: header line ${vEl.line}`);
+  }
+  const fi = fEl.props.findIndex((q) => q.countType >= 0 && (q.name === 'vertex_indices' || q.name === 'vertex_index'));
+  if (fi < 0) throw inputError('face element has no vertex_indices list', `${name}: header line ${fEl.line}`);
+
+  // Smallest body an element can have: its scalars and list counts (binary), or
+  // one digit and one separator per value (ascii). The face list needs 3 items.
+  let budget = b.length - h.bodyStart + (ascii ? 1 : 0);
+  for (const el of h.elements) {
+    let min = 0;
+    el.props.forEach((q, j) => {
+      if (ascii) min += q.countType >= 0 && el === fEl && j === fi ? 8 : 2;
+      else min += q.countType >= 0 ? TYPE_SIZES[q.countType]! + (el === fEl && j === fi ? 3 * TYPE_SIZES[q.type]! : 0) : TYPE_SIZES[q.type]!;
+    });
+    if (min > 0 && el.count > Math.floor(budget / min)) {
+      throw inputError(
+        `element '${el.name}' declares ${el.count} items but the rest of the file can hold at most ${Math.max(0, Math.floor(budget / min))}`,
+        `${name}: header line ${el.line}`,
+      );
+    }
+    budget -= el.count * min;
+  }
+
+  const nv = vEl.count;
+  const positions = new Float64Array(3 * nv);
+  const vertexProps: PropertyColumn[] = [];
+  const faceProps: PropertyColumn[] = [];
+  const faceOffsets = new Uint32Array(fEl.count + 1);
+  let faceIndices = new Uint32Array(3 * fEl.count);
+  let ni = 0;
+  const dv = new DataView(b.buffer, b.byteOffset, b.byteLength);
+  const n = b.length;
+  let p = h.bodyStart;
+  let item = 0, elName = '';
+  const fail = (msg: string): never => {
+    throw inputError(msg, `${name}: ${elName} ${item}`);
+  };
+  // Next value: an ascii token or a binary scalar of type t.
+  const next = (t: number): number => {
+    if (ascii) {
+      while (p < n && (b[p] === 32 || b[p] === 9 || b[p] === 13 || b[p] === 10)) p++;
+      if (p >= n) fail('file ends early');
+      const v = scanReal(b, p, n);
+      if (scanCursor.bad) fail(`malformed number '${latin1(b, p, Math.min(scanCursor.pos + 1, p + 24)).replace(/[^\x20-\x7e]/g, '?')}'`);
+      p = scanCursor.pos;
+      if (t < 6 && !(Number.isInteger(v) && v >= LO[t]! && v <= HI[t]!)) fail(`value ${v} does not fit its type ${SCALAR_TYPES[t]}`);
+      return v;
+    }
+    const s = TYPE_SIZES[t]!;
+    if (p + s > n) fail('file ends inside this item');
+    const v = rd(dv, p, t, le);
+    p += s;
+    return v;
+  };
+
+  for (const el of h.elements) {
+    elName = el.name;
+    const sinks: Sink[] = el.props.map((q) => {
+      if (q.countType >= 0) return { dst: null, stride: 0, base: 0 };
+      if (el === vEl && (q.name === 'x' || q.name === 'y' || q.name === 'z')) {
+        return { dst: positions, stride: 3, base: q.name.charCodeAt(0) - 120 };
+      }
+      if (el !== vEl && el !== fEl) return { dst: null, stride: 0, base: 0 };
+      const col: PropertyColumn = { name: q.name, type: SCALAR_TYPES[q.type]!, values: new Float64Array(el.count) };
+      (el === vEl ? vertexProps : faceProps).push(col);
+      return { dst: col.values, stride: 1, base: 0 };
+    });
+    const np = el.props.length;
+    if (!ascii && el !== fEl && el.props.every((q) => q.countType < 0)) {
+      // Fixed-size items: bounds were checked above, read without per-value checks.
+      let stride = 0;
+      for (const q of el.props) stride += TYPE_SIZES[q.type]!;
+      if (el !== vEl && sinks.every((s) => s.dst === null)) {
+        p += stride * el.count;
+        continue;
+      }
+      for (let i = 0; i < el.count; i++) {
+        for (let j = 0; j < np; j++) {
+          const q = el.props[j]!, s = sinks[j]!;
+          const v = rd(dv, p, q.type, le);
+          p += TYPE_SIZES[q.type]!;
+          if (s.dst !== null) s.dst[i * s.stride + s.base] = v;
+        }
+      }
+    } else {
+      for (item = 0; item < el.count; item++) {
+        for (let j = 0; j < np; j++) {
+          const q = el.props[j]!, s = sinks[j]!;
+          if (q.countType < 0) {
+            const v = next(q.type);
+            if (s.dst !== null) s.dst[item * s.stride + s.base] = v;
+            continue;
+          }
+          const k = next(q.countType);
+          if (k < 0) fail(`negative list length ${k}`);
+          if (el === fEl && j === fi) {
+            if (k < 3) fail(`face has ${k} ${k === 1 ? 'vertex' : 'vertices'} (at least 3 needed)`);
+            if (!ascii && p + k * TYPE_SIZES[q.type]! > n) fail('file ends inside this item');
+            if (ni + k > faceIndices.length) {
+              const g = new Uint32Array(Math.max(2 * faceIndices.length, ni + k));
+              g.set(faceIndices.subarray(0, ni));
+              faceIndices = g;
+            }
+            for (let c = 0; c < k; c++) {
+              const v = next(q.type);
+              if (!(v >= 0 && v < nv && Number.isInteger(v))) fail(`vertex index ${v} out of range (the file has ${nv} vertices)`);
+              faceIndices[ni++] = v;
+            }
+            faceOffsets[item + 1] = ni;
+          } else if (ascii) {
+            for (let c = 0; c < k; c++) next(q.type);
+          } else {
+            if (p + k * TYPE_SIZES[q.type]! > n) fail('file ends inside this item');
+            p += k * TYPE_SIZES[q.type]!;
+          }
+        }
+      }
+    }
+  }
+  elName = 'vertex';
+  for (let k = 0; k < 3 * nv; k++) {
+    if (!Number.isFinite(positions[k]!)) {
+      item = Math.floor(k / 3);
+      fail('non-finite coordinate');
+    }
+  }
+  return {
+    positions,
+    faceOffsets,
+    faceIndices: ni === faceIndices.length ? faceIndices : faceIndices.slice(0, ni),
+    vertexProps,
+    faceProps,
+    name,
+  };
+}
