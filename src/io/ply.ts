@@ -125,6 +125,21 @@ function rd(dv: DataView, o: number, t: number, le: boolean): number {
   }
 }
 
+/** Reads `count` values of type `t` spaced `stride` bytes apart from `o` into `dst[i * ds + base]`. */
+function readColumn(dv: DataView, o: number, stride: number, count: number, t: number, le: boolean, dst: Float64Array, ds: number, base: number): void {
+  let d = base;
+  switch (t) {
+    case 6:
+      for (let i = 0; i < count; i++, o += stride, d += ds) dst[d] = dv.getFloat32(o, le);
+      return;
+    case 7:
+      for (let i = 0; i < count; i++, o += stride, d += ds) dst[d] = dv.getFloat64(o, le);
+      return;
+    default:
+      for (let i = 0; i < count; i++, o += stride, d += ds) dst[d] = rd(dv, o, t, le);
+  }
+}
+
 /** Where each scalar value of an element goes: `dst[i * stride + base]`, or nowhere. */
 interface Sink { dst: Float64Array | null; stride: number; base: number }
 
@@ -216,13 +231,33 @@ export function parsePly(bytes: Uint8Array, name: string): MeshData {
         p += stride * el.count;
         continue;
       }
-      for (let i = 0; i < el.count; i++) {
-        for (let j = 0; j < np; j++) {
-          const q = el.props[j]!, s = sinks[j]!;
-          const v = rd(dv, p, q.type, le);
-          p += TYPE_SIZES[q.type]!;
-          if (s.dst !== null) s.dst[i * s.stride + s.base] = v;
+      let o = p;
+      for (let j = 0; j < np; j++) {
+        const q = el.props[j]!, s = sinks[j]!;
+        if (s.dst !== null) readColumn(dv, o, stride, el.count, q.type, le, s.dst, s.stride, s.base);
+        o += TYPE_SIZES[q.type]!;
+      }
+      p += stride * el.count;
+    } else if (!ascii && el === fEl && np === 1) {
+      // Faces with only their index list: the common case, one tight loop.
+      const q = el.props[0]!, cs = TYPE_SIZES[q.countType]!, is = TYPE_SIZES[q.type]!;
+      for (item = 0; item < el.count; item++) {
+        if (p + cs > n) fail('file ends inside this item');
+        const k = q.countType === 1 ? b[p]! : rd(dv, p, q.countType, le);
+        p += cs;
+        if (!(k >= 3)) fail(`face has ${k} ${k === 1 ? 'vertex' : 'vertices'} (at least 3 needed)`);
+        if (p + k * is > n) fail('file ends inside this item');
+        if (ni + k > faceIndices.length) {
+          const g = new Uint32Array(Math.max(2 * faceIndices.length, ni + k));
+          g.set(faceIndices.subarray(0, ni));
+          faceIndices = g;
         }
+        for (let c = 0; c < k; c++, p += is) {
+          const v = q.type === 4 ? dv.getInt32(p, le) : q.type === 5 ? dv.getUint32(p, le) : rd(dv, p, q.type, le);
+          if (!(v >= 0 && v < nv && Number.isInteger(v))) fail(`vertex index ${v} out of range (the file has ${nv} vertices)`);
+          faceIndices[ni++] = v;
+        }
+        faceOffsets[item + 1] = ni;
       }
     } else {
       for (item = 0; item < el.count; item++) {
