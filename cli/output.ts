@@ -20,6 +20,11 @@ export interface VertexColumn {
   values: Float64Array;
   /** Integer flag columns are written as uint8 in PLY. */
   flag?: boolean;
+  /**
+   * Value written in PLY for a non-finite entry (PLY has no null). CSV writes
+   * an empty field and JSON writes null instead. Default 0.
+   */
+  plyFill?: number;
 }
 
 /** Output formats chosen by extension. */
@@ -56,7 +61,7 @@ export async function writeVertexColumns(path: string, s: Surface, columns: Vert
     const vertexProps = cols.map((c) => ({
       name: c.name,
       type: c.flag ? ('uint8' as const) : ('float64' as const),
-      values: c.flag ? c.values.map((x) => (Number.isFinite(x) ? x : 0)) : c.values,
+      values: c.values.map((x) => (Number.isFinite(x) ? x : (c.plyFill ?? 0))),
     }));
     const colors = cols.length ? colorize(cols[0]!.values) : undefined;
     const bytes = writePly(

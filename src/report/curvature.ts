@@ -17,7 +17,9 @@ export interface Stat {
 /** Per-vertex curvature arrays plus summary. */
 export interface CurvatureResult {
   angleDefect: Float64Array;
+  /** Gaussian curvature per vertex; NaN at boundary vertices (not defined there). */
   gaussianCurvature: Float64Array;
+  /** Mean curvature per vertex; NaN at boundary vertices (not defined there). */
   meanCurvature: Float64Array;
   boundary: Uint8Array;
   summary: {
@@ -55,6 +57,13 @@ export function curvatureSummary(s: Surface): CurvatureResult {
   const used = (v: number) => t.vertexHalfedge[v]! >= 0;
   let nb = 0, ni = 0;
   for (let v = 0; v < t.nv; v++) if (used(v)) c.boundary[v] ? nb++ : ni++;
+  // Gaussian and mean curvature are not defined at boundary vertices by these formulas
+  for (let v = 0; v < t.nv; v++) {
+    if (c.boundary[v]) {
+      c.gaussian[v] = NaN;
+      H[v] = NaN;
+    }
+  }
   return {
     angleDefect: c.angleDefect,
     gaussianCurvature: c.gaussian,
