@@ -1,0 +1,103 @@
+/**
+ * Source sets as initial heat for the heat method, and the source values used
+ * to shift the recovered field to zero.
+ *
+ * Every surface point is a convex combination of the ORIGINAL mesh vertices:
+ * a vertex is itself, a point on an edge is (1−t)·tail + t·tip, a point in a
+ * face is Σ b_k·corner_k. Intrinsic flips keep the vertex set, so these
+ * weights stay valid on the flipped triangulation even though the original
+ * face may no longer be one of its faces.
+ *
+ * Heat (the right-hand side δ of (M + tL) u = δ):
+ * - a point carries unit heat, spread by its vertex weights;
+ * - a curve segment p→q of length ℓ carries ℓ / h (h = mean edge length, so a
+ *   segment as long as one edge weighs like one point), spread by
+ *   ∫ φ_i ds = ℓ (λ_i(p) + λ_i(q)) / 2, the hat functions being linear along
+ *   the segment inside one face.
+ */
+import type { IntrinsicMesh } from '../metric/intrinsic.js';
+import type { Topology } from '../mesh/topology.js';
+import type { SourceSet } from './sources.js';
+import type { SurfacePoint } from '../query/surface-point.js';
+import { checkSurfacePoint } from '../query/surface-point.js';
+import { next } from '../mesh/topology.js';
+import { usageError } from '../errors.js';
+import { layoutFace, pointInLayout, commonFaces } from './exact/layout.js';
+
+/**
+ * Calls visit(v, λ_v) for every original vertex carrying weight in p
+ * (weights sum to one). Throws `USAGE` for out-of-range indices, edge
+ * parameters outside [0, 1] and negative or vanishing barycentric coordinates.
+ */
+export function forEachPointWeight(t: Topology, p: SurfacePoint, visit: (v: number, w: number) => void, label = 'source'): void {
+  checkSurfacePoint(p, t, label);
+  if (p.kind === 'vertex') {
+    visit(p.vertex, 1);
+  } else if (p.kind === 'edge') {
+    if (!(p.t >= 0 && p.t <= 1)) throw usageError(`edge parameter ${p.t} must lie in [0, 1]`, label);
+    const h = t.edgeHalfedge[p.edge]!;
+    if (p.t < 1) visit(t.tri[h]!, 1 - p.t);
+    if (p.t > 0) visit(t.tri[next(h)]!, p.t);
+  } else {
+    const [b0, b1, b2] = p.bary;
+    const s = b0 + b1 + b2;
+    if (!(b0 >= 0 && b1 >= 0 && b2 >= 0 && s > 0 && Number.isFinite(s))) {
+      throw usageError(`barycentric coordinates ${b0}, ${b1}, ${b2} must be non-negative and not all zero`, label);
+    }
+    const f = 3 * p.face;
+    if (b0 > 0) visit(t.tri[f]!, b0 / s);
+    if (b1 > 0) visit(t.tri[f + 1]!, b1 / s);
+    if (b2 > 0) visit(t.tri[f + 2]!, b2 / s);
+  }
+}
+
+/** Value of a per-vertex field at a surface point, by its vertex weights. */
+export function valueAtPoint(t: Topology, p: SurfacePoint, field: Float64Array): number {
+  let s = 0;
+  forEachPointWeight(t, p, (v, w) => { s += w * field[v]!; });
+  return s;
+}
+
+/** Straight in-face length of the segment between two points sharing a face of `m`. */
+export function segmentLength(m: IntrinsicMesh, a: SurfacePoint, b: SurfacePoint, label: string): number {
+  const fs = commonFaces(m.topology, a, b);
+  if (fs.length === 0) throw usageError('consecutive curve points share no face', label);
+  const lay = new Float64Array(6), p = new Float64Array(2), q = new Float64Array(2);
+  layoutFace(m, fs[0]!, lay);
+  pointInLayout(m.topology, fs[0]!, a, lay, p);
+  pointInLayout(m.topology, fs[0]!, b, lay, q);
+  return Math.hypot(p[0]! - q[0]!, p[1]! - q[1]!);
+}
+
+/**
+ * Adds the initial heat of `sources` to `out` (per original vertex; see the
+ * module comment) and returns the total heat. `m` is the mesh the source
+ * indices refer to, `h` its mean edge length.
+ */
+export function addSourceHeat(m: IntrinsicMesh, sources: SourceSet, h: number, out: Float64Array): number {
+  const t = m.topology;
+  let total = 0;
+  const add = (scale: number) => (v: number, w: number): void => {
+    out[v]! += scale * w;
+    total += scale * w;
+  };
+  sources.points.forEach((p, i) => forEachPointWeight(t, p, add(1), `source ${i}`));
+  sources.curves.forEach((curve, ci) => {
+    const label = `curve ${ci}`;
+    if (curve.length === 1) forEachPointWeight(t, curve[0]!, add(1), label);
+    let length = 0;
+    for (let i = 1; i < curve.length; i++) {
+      const a = curve[i - 1]!, b = curve[i]!;
+      checkSurfacePoint(a, t, label);
+      checkSurfacePoint(b, t, label);
+      const l = segmentLength(m, a, b, `${label}, points ${i - 1}-${i}`);
+      length += l;
+      const s = (0.5 * l) / (h > 0 ? h : 1);
+      forEachPointWeight(t, a, add(s), label);
+      forEachPointWeight(t, b, add(s), label);
+    }
+    // a curve whose points all coincide still marks a source
+    if (curve.length > 1 && !(length > 0)) forEachPointWeight(t, curve[0]!, add(1), label);
+  });
+  return total;
+}

@@ -1,0 +1,317 @@
+/**
+ * Heat-method geodesic distance (Crane, Weischedel, Wardetzky, "Geodesics in
+ * Heat", ACM TOG 32(5), 2013), working from edge lengths only.
+ *
+ * 1. heat:     (M + t L) u = δ          t = m·h², h = mean edge length
+ * 2. field:    X_f = −∇u_f / |∇u_f|     per face, X = 0 where ∇u = 0
+ * 3. distance: L φ = b,  b_i = Σ_f A_f ∇φ_i·X_f   (least squares ∇φ ≈ X)
+ * 4. shift φ so its least value at the sources is zero, clamp below at 0.
+ *
+ * L is the PSD cotan Laplacian and M the lumped mass on an intrinsic
+ * Delaunay triangulation of the mollified metric (both on by default): all
+ * cotan weights are then ≥ 0, so M + tL is an M-matrix, its Cholesky factor
+ * has no positive off-diagonal and the triangular solves add only terms of
+ * one sign. Tiny heat values far from the source keep their relative
+ * accuracy down to the double range (~e^-708), which on a mesh means about
+ * 600 edge rings from the source at m = 1 (the heat decays like e^(−r/√t)).
+ *
+ * Boundaries: 'neumann' uses the natural condition, 'dirichlet' fixes u = 0 on
+ * the boundary, 'average' (default, the paper's recommendation) averages the
+ * two heat solutions. A component whose sources all lie on the boundary has
+ * u = 0 under Dirichlet; there the Neumann solution is used instead.
+ *
+ * The Poisson step pins one vertex per connected component (identity row,
+ * φ = 0) instead of adding εM: b sums to zero over each component
+ * (Σ_i ∇φ_i = 0 in every face), so the pinned system has the same solution
+ * up to a constant, with no ε to trade between bias and conditioning, and the
+ * pattern (hence the symbolic analysis) is unchanged. If a component is only
+ * held together by faces without area (possible with mollification off) the
+ * pinned matrix is singular; then L + εM (ε = 1e-8/h²) is factored instead.
+ *
+ * All matrices share one lower-triangle pattern and one symbolic analysis;
+ * per-source work is two or three triangular solve pairs and two sweeps
+ * over the faces, in preallocated buffers.
+ */
+import type { IntrinsicMesh } from '../metric/intrinsic.js';
+import type { DistanceField } from './field.js';
+import type { SourceSet } from './sources.js';
+import type { SurfacePoint } from '../query/surface-point.js';
+import type { CholeskySymbolic } from '../linalg/index.js';
+import { analyzeCholesky, CholeskyFactor } from '../linalg/index.js';
+import { meanEdgeLength } from '../metric/intrinsic.js';
+import { mollify, DEFAULT_MOLLIFY_DELTA } from '../metric/mollify.js';
+import { intrinsicDelaunay } from '../metric/delaunay.js';
+import {
+  edgePattern, cotanLaplacian, lumpedMass, faceGeometry, combine, constrainRows, patternMatrix,
+  type EdgePattern, type FaceGeometry,
+} from '../metric/laplacian.js';
+import { components } from '../mesh/components.js';
+import { boundaryVertexMask } from '../mesh/boundary.js';
+import { addSourceHeat, forEachPointWeight } from './heat-sources.js';
+import { usageError, isOrthodromeError } from '../errors.js';
+
+/** Options of {@link HeatSolver.prepare}. */
+export interface HeatOptions {
+  /** m in t = m·h² (h = mean edge length); default 1. */
+  timeScale?: number;
+  /** Boundary condition of the heat step; default 'average'. */
+  boundary?: 'average' | 'neumann' | 'dirichlet';
+  /** Flip to an intrinsic Delaunay triangulation first; default true. */
+  intrinsicDelaunay?: boolean;
+  /** Mollify edge lengths first (Sharp & Crane 2020); default true. */
+  mollify?: boolean;
+  /** Mollification margin δ as a fraction of h; default 1e-5. */
+  mollifyDelta?: number;
+  /** Fill-reducing ordering of the Cholesky factorizations; default the linalg default. */
+  ordering?: 'amd' | 'nd' | 'natural';
+}
+
+/** What {@link HeatSolver.prepare} did and how long it took. */
+export interface HeatStats {
+  /** Wall time of prepare, ms. */
+  prepareMs: number;
+  /** Of which: mollification + intrinsic flips, ms. */
+  remeshMs: number;
+  /** Of which: ordering + symbolic analysis, ms. */
+  analysisMs: number;
+  /** Of which: numeric factorizations, ms. */
+  factorMs: number;
+  /** Intrinsic flips made. */
+  flips: number;
+  /** True when the flip cap stopped the Delaunay loop early. */
+  flipsCapped: boolean;
+  /** Uniform length added by mollification (mesh units; 0 when none was needed). */
+  mollifyEpsilon: number;
+  /** Nonzeros of one Cholesky factor (diagonal included). */
+  nnzL: number;
+  /** Number of numeric factorizations (2 or 3). */
+  factorizations: number;
+  /** The ordering used. */
+  ordering: string;
+  /** Mean edge length h of the input mesh (mesh units). */
+  meanEdgeLength: number;
+  /** Time step t = m·h² (mesh units squared). */
+  timeStep: number;
+  /** True when the Poisson step fell back from pinning to L + εM. */
+  poissonShifted: boolean;
+}
+
+/** Timing and diagnostics of the last {@link HeatSolver.distance} call. */
+export interface HeatSolveStats {
+  /** Wall time, ms. */
+  solveMs: number;
+  /** Faces with ∇u = 0 (heat underflowed or constant), where X was set to 0. */
+  flatFaces: number;
+}
+
+/** Factors, geometry and masks a prepared solver keeps. */
+interface HeatParts {
+  boundaryMode: 'average' | 'neumann' | 'dirichlet';
+  geom: FaceGeometry;
+  vertexComponent: Int32Array;
+  componentCount: number;
+  onBoundary: Uint8Array;
+  /** Rows of the Poisson system fixed to 0: pinned or inactive vertices. */
+  blocked: Uint8Array;
+  heatN: CholeskyFactor;
+  heatD: CholeskyFactor | null;
+  poisson: CholeskyFactor;
+}
+
+/** A prepared heat-method solver: factor once, then answer many source sets. */
+export class HeatSolver {
+  /** The input mesh (source indices refer to it). */
+  readonly mesh: IntrinsicMesh;
+  /** The intrinsic triangulation the solver works on (same vertices as `mesh`). */
+  readonly triangulation: IntrinsicMesh;
+  /** Preparation figures. */
+  readonly stats: HeatStats;
+  /** Figures of the last distance() call. */
+  lastSolve: HeatSolveStats = { solveMs: 0, flatFaces: 0 };
+
+  private readonly parts: HeatParts;
+  private readonly rhs: Float64Array;
+  private readonly uN: Float64Array;
+  private readonly uD: Float64Array;
+  private readonly b: Float64Array;
+  private readonly compMax: Float64Array;
+  private readonly compShift: Float64Array;
+
+  private constructor(mesh: IntrinsicMesh, triangulation: IntrinsicMesh, stats: HeatStats, parts: HeatParts) {
+    this.mesh = mesh;
+    this.triangulation = triangulation;
+    this.stats = stats;
+    this.parts = parts;
+    const nv = mesh.topology.nv;
+    this.rhs = new Float64Array(nv);
+    this.uN = new Float64Array(nv);
+    this.uD = new Float64Array(nv);
+    this.b = new Float64Array(nv);
+    this.compMax = new Float64Array(parts.componentCount);
+    this.compShift = new Float64Array(parts.componentCount);
+  }
+
+  /**
+   * Builds the intrinsic triangulation, the matrices, one symbolic analysis
+   * and the numeric factorizations. Throws `USAGE` for bad options or an
+   * empty mesh, `NUMERIC` when a matrix cannot be factored.
+   */
+  static prepare(mesh: IntrinsicMesh, opts: HeatOptions = {}): HeatSolver {
+    const t0 = performance.now();
+    const m = opts.timeScale ?? 1;
+    if (!(m > 0 && Number.isFinite(m))) throw usageError(`timeScale must be a positive number, got ${m}`, 'heat');
+    const boundary = opts.boundary ?? 'average';
+    if (!['average', 'neumann', 'dirichlet'].includes(boundary)) throw usageError(`unknown boundary condition '${boundary}'`, 'heat');
+    const delta = opts.mollifyDelta ?? DEFAULT_MOLLIFY_DELTA;
+    if (!(delta >= 0 && Number.isFinite(delta))) throw usageError(`mollifyDelta must be a non-negative number, got ${delta}`, 'heat');
+    if (opts.ordering !== undefined && !['amd', 'nd', 'natural'].includes(opts.ordering)) {
+      throw usageError(`unknown ordering '${opts.ordering}'`, 'heat');
+    }
+    const t = mesh.topology;
+    if (t.nf === 0 || t.nv === 0) throw usageError('mesh has no faces', 'heat');
+    const h = meanEdgeLength(mesh);
+    if (!(h > 0)) throw usageError('mesh has no positive edge length', 'heat');
+    const step = m * h * h;
+
+    let work = mesh, epsilon = 0, flips = 0, flipsCapped = false;
+    if (opts.mollify ?? true) ({ mesh: work, epsilon } = mollify(work, delta));
+    if (opts.intrinsicDelaunay ?? true) {
+      const r = intrinsicDelaunay(work);
+      work = r.mesh; flips = r.flips; flipsCapped = r.capped;
+    }
+    const t1 = performance.now();
+
+    const p = edgePattern(work.topology);
+    const Lv = cotanLaplacian(work, p), Mv = lumpedMass(work);
+    const geom = faceGeometry(work);
+    const comp = components(work.topology);
+    const onBoundary = boundaryVertexMask(work.topology);
+    // rows without area (isolated vertices, or only zero-area faces) are fixed to u = 0
+    const inactive = new Uint8Array(t.nv);
+    for (let v = 0; v < t.nv; v++) if (!(Mv[v]! > 0)) inactive[v] = 1;
+    const sym = analyzeCholesky(patternMatrix(p, Lv), opts.ordering ? { ordering: opts.ordering } : {});
+    const t2 = performance.now();
+
+    const A = combine(p, step, Lv, 1, Mv);
+    constrainRows(p, A, inactive);
+    const heatN = CholeskyFactor.factor(patternMatrix(p, A), sym);
+    let heatD: CholeskyFactor | null = null;
+    let hasBoundary = false;
+    for (let v = 0; v < t.nv && !hasBoundary; v++) hasBoundary = onBoundary[v] === 1 && !inactive[v];
+    if (boundary !== 'neumann' && hasBoundary) {
+      const fixed = new Uint8Array(t.nv);
+      for (let v = 0; v < t.nv; v++) fixed[v] = inactive[v]! | onBoundary[v]!;
+      constrainRows(p, A, fixed);
+      heatD = CholeskyFactor.factor(patternMatrix(p, A), sym);
+    }
+    const { factor: poisson, blocked, shifted } = factorPoisson(p, sym, Lv, Mv, inactive, comp.vertexComponent, comp.count, h);
+    const t3 = performance.now();
+
+    const stats: HeatStats = {
+      prepareMs: t3 - t0, remeshMs: t1 - t0, analysisMs: t2 - t1, factorMs: t3 - t2,
+      flips, flipsCapped, mollifyEpsilon: epsilon, nnzL: sym.nnzL, factorizations: heatD ? 3 : 2,
+      ordering: sym.ordering, meanEdgeLength: h, timeStep: step, poissonShifted: shifted,
+    };
+    return new HeatSolver(mesh, work, stats, {
+      boundaryMode: boundary, geom, vertexComponent: comp.vertexComponent, componentCount: comp.count,
+      onBoundary, blocked, heatN, heatD, poisson,
+    });
+  }
+
+  /**
+   * Distance from a source set (points and curves on the input mesh) to every
+   * vertex, in mesh units. Vertices of components without a source get
+   * Infinity. Throws `USAGE` for invalid or empty source sets.
+   */
+  distance(sources: SourceSet): DistanceField {
+    const t0 = performance.now();
+    const { rhs, uN, uD, b } = this;
+    const { heatD, geom, onBoundary, blocked, vertexComponent: comp, componentCount: nc } = this.parts;
+    const t = this.triangulation.topology;
+    const nv = t.nv;
+    rhs.fill(0);
+    const total = addSourceHeat(this.mesh, sources, this.stats.meanEdgeLength, rhs);
+    if (!(total > 0)) throw usageError('the source set is empty', 'heat');
+
+    this.parts.heatN.solve(rhs, uN);
+    if (heatD) {
+      for (let v = 0; v < nv; v++) if (onBoundary[v]) rhs[v] = 0;
+      heatD.solve(rhs, uD);
+      const cmax = this.compMax.fill(0);
+      for (let v = 0; v < nv; v++) if (comp[v]! >= 0 && uD[v]! > cmax[comp[v]!]!) cmax[comp[v]!] = uD[v]!;
+      const avg = this.parts.boundaryMode === 'average';
+      for (let v = 0; v < nv; v++) {
+        const c = comp[v]!;
+        if (c >= 0 && cmax[c]! > 0) uN[v] = avg ? 0.5 * (uN[v]! + uD[v]!) : uD[v]!;
+      }
+    }
+
+    // X = −∇u/|∇u| per face, scattered straight into b_i = Σ_f A_f ∇φ_i·X_f
+    const G = geom.grad, area = geom.area, tri = t.tri, u = uN;
+    b.fill(0);
+    let flat = 0;
+    for (let f = 0; f < t.nf; f++) {
+      const i0 = tri[3 * f]!, i1 = tri[3 * f + 1]!, i2 = tri[3 * f + 2]!, o = 6 * f;
+      const u0 = u[i0]!, u1 = u[i1]!, u2 = u[i2]!;
+      const gx = u0 * G[o]! + u1 * G[o + 2]! + u2 * G[o + 4]!;
+      const gy = u0 * G[o + 1]! + u1 * G[o + 3]! + u2 * G[o + 5]!;
+      const norm = Math.hypot(gx, gy);
+      if (!(norm > 0 && norm < Infinity)) { flat++; continue; }
+      const s = -area[f]! / norm, ax = s * gx, ay = s * gy;
+      b[i0]! += ax * G[o]! + ay * G[o + 1]!;
+      b[i1]! += ax * G[o + 2]! + ay * G[o + 3]!;
+      b[i2]! += ax * G[o + 4]! + ay * G[o + 5]!;
+    }
+    for (let v = 0; v < nv; v++) if (blocked[v]) b[v] = 0;
+    const phi = new Float64Array(nv);
+    this.parts.poisson.solve(b, phi);
+
+    // shift each component so its least source value is zero
+    const shift = this.compShift.fill(Infinity);
+    const seen = (p: SurfacePoint): void => {
+      let val = 0, c = -1;
+      forEachPointWeight(this.mesh.topology, p, (v, w) => { val += w * phi[v]!; c = comp[v]!; });
+      if (c >= 0 && val < shift[c]!) shift[c] = val;
+    };
+    for (const p of sources.points) seen(p);
+    for (const curve of sources.curves) for (const p of curve) seen(p);
+    for (let v = 0; v < nv; v++) {
+      const c = comp[v]!;
+      const s = c >= 0 && c < nc ? shift[c]! : Infinity;
+      const d = s < Infinity ? phi[v]! - s : Infinity;
+      phi[v] = d > 0 ? d : d === Infinity ? Infinity : 0; // clamps tiny negatives; NaN cannot pass `d > 0`
+    }
+    this.lastSolve = { solveMs: performance.now() - t0, flatFaces: flat };
+    return { method: 'heat', distance: phi, sources: [...sources.points, ...sources.curves.flat()] };
+  }
+}
+
+/**
+ * Factors the Poisson matrix: L with one pinned vertex per component (see the
+ * module comment), falling back to L + εM when that is singular.
+ */
+function factorPoisson(
+  p: EdgePattern, sym: CholeskySymbolic, Lv: Float64Array, Mv: Float64Array, inactive: Uint8Array,
+  vertexComponent: Int32Array, count: number, h: number,
+): { factor: CholeskyFactor; blocked: Uint8Array; shifted: boolean } {
+  const nv = p.n;
+  const blocked = inactive.slice();
+  // pin the vertex of largest mass in each component (best-conditioned row)
+  const best = new Int32Array(count).fill(-1);
+  for (let v = 0; v < nv; v++) {
+    const c = vertexComponent[v]!;
+    if (c < 0 || inactive[v]) continue;
+    if (best[c]! < 0 || Mv[v]! > Mv[best[c]!]!) best[c] = v;
+  }
+  for (let c = 0; c < count; c++) if (best[c]! >= 0) blocked[best[c]!] = 1;
+  const P = Lv.slice();
+  constrainRows(p, P, blocked);
+  try {
+    return { factor: CholeskyFactor.factor(patternMatrix(p, P), sym), blocked, shifted: false };
+  } catch (e) {
+    if (!isOrthodromeError(e) || e.code !== 'NUMERIC') throw e;
+  }
+  const S = combine(p, 1, Lv, 1e-8 / (h * h), Mv);
+  constrainRows(p, S, inactive);
+  return { factor: CholeskyFactor.factor(patternMatrix(p, S), sym), blocked: inactive.slice(), shifted: true };
+}
