@@ -175,7 +175,9 @@ export function parseObj(bytes: Uint8Array, name: string): MeshData {
     if (c === 32 || c === 9 || c === 13 || c === 11 || c === 12) { p++; continue; }
     if (c === 10) { p++; line++; continue; }
     const c1 = b[p + 1];
-    if (c === 118 && (c1 === 32 || c1 === 9)) {
+    // A keyword ends at a blank, a newline or the end of the file.
+    const kwEnd = c1 === 32 || c1 === 9 || c1 === 10 || c1 === 13 || c1 === undefined;
+    if (c === 118 && kwEnd) {
       p++;
       if (3 * nv + 3 > pos.length) pos = grow(pos, 3 * nv);
       let k = 0, r = 0, g = 0, bl = 0;
@@ -203,7 +205,7 @@ export function parseObj(bytes: Uint8Array, name: string): MeshData {
         colored++;
       }
       nv++;
-    } else if (c === 102 && (c1 === 32 || c1 === 9)) {
+    } else if (c === 102 && kwEnd) {
       p++;
       let k = 0;
       for (;;) {
@@ -218,6 +220,7 @@ export function parseObj(bytes: Uint8Array, name: string): MeshData {
           d++;
         }
         if (d === 0) fail(`malformed vertex index ${tokenAt(b, t0)}`);
+        if (v > 4294967295) fail(`vertex index ${tokenAt(b, t0)} out of range`);
         // Texture and normal references: `/t`, `//n`, `/t/n`; checked for form only.
         for (let part = 0; part < 2 && b[p] === 47; part++) {
           p++;

@@ -125,6 +125,13 @@ function rd(dv: DataView, o: number, t: number, le: boolean): number {
   }
 }
 
+/** The token at `p` (up to 24 bytes, non-printable bytes as `?`), quoted. */
+function excerpt(b: Uint8Array, p: number): string {
+  let q = p;
+  while (q < b.length && q - p < 24 && b[q] !== 32 && b[q] !== 9 && b[q] !== 10 && b[q] !== 13) q++;
+  return `'${latin1(b, p, q).replace(/[^\x20-\x7e]/g, '?')}'`;
+}
+
 /** Reads `count` values of type `t` spaced `stride` bytes apart from `o` into `dst[i * ds + base]`. */
 function readColumn(dv: DataView, o: number, stride: number, count: number, t: number, le: boolean, dst: Float64Array, ds: number, base: number): void {
   let d = base;
@@ -161,17 +168,18 @@ export function parsePly(bytes: Uint8Array, name: string): MeshData {
   if (fi < 0) throw inputError('face element has no vertex_indices list', `${name}: header line ${fEl.line}`);
 
   // Smallest body an element can have: its scalars and list counts (binary), or
-  // one digit and one separator per value (ascii). The face list needs 3 items.
+  // one digit and one separator per value (ascii). A binary face list needs 3
+  // items (fewer is an error anyway).
   let budget = b.length - h.bodyStart + (ascii ? 1 : 0);
   for (const el of h.elements) {
     let min = 0;
     el.props.forEach((q, j) => {
-      if (ascii) min += q.countType >= 0 && el === fEl && j === fi ? 8 : 2;
+      if (ascii) min += 2;
       else min += q.countType >= 0 ? TYPE_SIZES[q.countType]! + (el === fEl && j === fi ? 3 * TYPE_SIZES[q.type]! : 0) : TYPE_SIZES[q.type]!;
     });
     if (min > 0 && el.count > Math.floor(budget / min)) {
       throw inputError(
-        `element '${el.name}' declares ${el.count} items but the rest of the file can hold at most ${Math.max(0, Math.floor(budget / min))}`,
+        `element '${el.name}' declares ${el.count} ${el.count === 1 ? 'item' : 'items'} but the rest of the file can hold at most ${Math.max(0, Math.floor(budget / min))}`,
         `${name}: header line ${el.line}`,
       );
     }
@@ -198,7 +206,7 @@ export function parsePly(bytes: Uint8Array, name: string): MeshData {
       while (p < n && (b[p] === 32 || b[p] === 9 || b[p] === 13 || b[p] === 10)) p++;
       if (p >= n) fail('file ends early');
       const v = scanReal(b, p, n);
-      if (scanCursor.bad) fail(`malformed number '${latin1(b, p, Math.min(scanCursor.pos + 1, p + 24)).replace(/[^\x20-\x7e]/g, '?')}'`);
+      if (scanCursor.bad) fail(`malformed number ${excerpt(b, p)}`);
       p = scanCursor.pos;
       if (t < 6 && !(Number.isInteger(v) && v >= LO[t]! && v <= HI[t]!)) fail(`value ${v} does not fit its type ${SCALAR_TYPES[t]}`);
       return v;
