@@ -1,116 +1,53 @@
 /**
- * Numeric Cholesky factorization P·A·Pᵀ = L·Lᵀ, up-looking (Davis 2006, §4.7):
- * row k of L is found by a sparse triangular solve with the rows above it,
- *
- * ```
- *   [ L₁₁  0  ] [ L₁₁ᵀ l₁₂ ]   [ C₁₁ c₁₂ ]      L₁₁ l₁₂ = c₁₂        (sparse solve)
- *   [ l₁₂ᵀ λ  ] [  0   λ   ] = [ c₁₂ᵀ γ  ]      λ = sqrt(γ − l₁₂ᵀl₁₂)
- * ```
- *
- * The pattern of l₁₂ is the set of nodes reached from the entries of c₁₂
- * climbing the elimination tree (the row subtree), visited so that each
- * L(k, i) is final before it is used. Columns of L are appended to in
- * increasing row order, so rows come out sorted with the diagonal first.
- * All memory is allocated once per factor; refactorization reuses it.
+ * The numeric Cholesky factor P·A·Pᵀ = L·Lᵀ: owns L's values and every
+ * workspace, so refactorization and solves never allocate. The method
+ * (supernodal multifrontal or simplicial up-looking) is fixed by the
+ * symbolic analysis.
  */
 import type { CscMatrix } from './csc.js';
 import type { CholeskySymbolic } from './symbolic.js';
+import { upLookingFactor } from './simplicial.js';
+import { multifrontalFactor, multifrontalWork, supernodalLowerSolve, supernodalLowerTransposeSolve } from './multifrontal.js';
+import type { MultifrontalWork } from './multifrontal.js';
 import { lowerSolve, lowerTransposeSolve } from './solve.js';
 import { numericError, usageError } from '../errors.js';
-
-/**
- * Up-looking factorization kernel. Returns −1 on success, or the pivot column
- * k where γ − l₁₂ᵀl₁₂ was not a positive finite number (then `Lx[Lp[k]]` holds
- * that value and the factor is incomplete). Never throws.
- */
-function upLooking(
-  sym: CholeskySymbolic,
-  Cx: Float64Array,
-  Li: Int32Array,
-  Lx: Float64Array,
-  x: Float64Array,
-  next: Int32Array,
-  stack: Int32Array,
-  mark: Int32Array,
-): number {
-  const { n, parent, cColPtr: Cp, cRowIdx: Ci, lColPtr: Lp } = sym;
-  mark.fill(-1);
-  for (let k = 0; k < n; k++) {
-    // pattern of row k: nodes on etree paths from each C(i,k), i < k, up to k,
-    // stored in topological order in stack[top..n)
-    let top = n;
-    mark[k] = k;
-    x[k] = 0;
-    const p1 = Cp[k + 1]!;
-    for (let p = Cp[k]!; p < p1; p++) {
-      let i = Ci[p]!;
-      x[i] = Cx[p]!; // scatter column k of the upper triangle
-      let len = 0;
-      while (mark[i] !== k) {
-        stack[len++] = i;
-        mark[i] = k;
-        i = parent[i]!;
-      }
-      while (len > 0) stack[--top] = stack[--len]!;
-    }
-    let d = x[k]!;
-    x[k] = 0;
-    for (; top < n; top++) {
-      const i = stack[top]!;
-      const pd = Lp[i]!;
-      const lki = x[i]! / Lx[pd]!; // L(k,i) = x(i) / L(i,i)
-      x[i] = 0;
-      const pe = next[i]!;
-      for (let p = pd + 1; p < pe; p++) x[Li[p]!]! -= Lx[p]! * lki;
-      d -= lki * lki;
-      Li[pe] = k;
-      Lx[pe] = lki;
-      next[i] = pe + 1;
-    }
-    const pk = Lp[k]!;
-    Li[pk] = k;
-    if (!(d > 0 && d < Infinity)) {
-      Lx[pk] = d;
-      return k;
-    }
-    Lx[pk] = Math.sqrt(d);
-    next[k] = pk + 1;
-  }
-  return -1;
-}
 
 /** A numeric Cholesky factor P·A·Pᵀ = L·Lᵀ of a symmetric positive definite matrix. */
 export class CholeskyFactor {
   /** Matrix size. */
   readonly n: number;
-  /** Nonzeros of L, diagonal included. */
+  /** Nonzeros of L, diagonal included (structural count; the supernodal storage adds explicit zeros). */
   readonly nnzL: number;
   /** The symbolic analysis this factor was built on. */
   readonly symbolic: CholeskySymbolic;
-  /** Column pointers of L (shared with the analysis). */
-  readonly Lp: Int32Array;
-  /** Row indices of L, sorted per column, diagonal first. */
-  readonly Li: Int32Array;
-  /** Values of L. */
-  readonly Lx: Float64Array;
+  /** Values of L: CSC columns (simplicial) or row-major supernode blocks (supernodal). */
+  private readonly Lx: Float64Array;
+  /** Row indices of L (simplicial only). */
+  private readonly Li: Int32Array;
   private readonly Cx: Float64Array;
   private readonly x: Float64Array;
-  private readonly nextSlot: Int32Array;
-  private readonly stack: Int32Array;
-  private readonly mark: Int32Array;
+  private readonly intWork: Int32Array;
+  private readonly mf: MultifrontalWork | null;
+  private readonly pivot = new Float64Array(1);
 
   private constructor(sym: CholeskySymbolic) {
-    this.n = sym.n;
+    const n = sym.n;
+    this.n = n;
     this.nnzL = sym.nnzL;
     this.symbolic = sym;
-    this.Lp = sym.lColPtr;
-    this.Li = new Int32Array(sym.nnzL);
-    this.Lx = new Float64Array(sym.nnzL);
     this.Cx = new Float64Array(sym.cRowIdx.length);
-    this.x = new Float64Array(sym.n);
-    this.nextSlot = new Int32Array(sym.n);
-    this.stack = new Int32Array(sym.n);
-    this.mark = new Int32Array(sym.n);
+    this.x = new Float64Array(n);
+    if (sym.supernodal) {
+      this.Lx = new Float64Array(sym.supernodal.valPtr[sym.supernodal.nsuper]!);
+      this.Li = new Int32Array(0);
+      this.intWork = new Int32Array(0);
+      this.mf = multifrontalWork(n, sym.supernodal);
+    } else {
+      this.Lx = new Float64Array(sym.nnzL);
+      this.Li = new Int32Array(sym.nnzL);
+      this.intWork = new Int32Array(3 * n);
+      this.mf = null;
+    }
   }
 
   /**
@@ -127,7 +64,8 @@ export class CholeskyFactor {
   /**
    * Factors new values with the same pattern, reusing all memory. Throws
    * `USAGE` when the pattern differs from the analysed one, `NUMERIC` on a
-   * non-positive or non-finite pivot.
+   * non-positive or non-finite pivot (the factor is then unusable until a
+   * successful refactorization).
    */
   refactor(Alower: CscMatrix): void {
     const sym = this.symbolic;
@@ -144,12 +82,19 @@ export class CholeskyFactor {
     }
     const Cx = this.Cx, Ax = Alower.values;
     for (let p = 0; p < nz; p++) Cx[valueMap[p]!] = Ax[p]!;
-    this.nextSlot.set(sym.lColPtr.subarray(0, n));
-    const bad = upLooking(sym, Cx, this.Li, this.Lx, this.x, this.nextSlot, this.stack, this.mark);
+    let bad: number;
+    if (sym.supernodal) {
+      bad = multifrontalFactor(sym.supernodal, sym.cColPtr, sym.cRowIdx, Cx, this.Lx, this.mf!, this.pivot);
+    } else {
+      const w = this.intWork;
+      const next = w.subarray(0, n);
+      next.set(sym.lColPtr.subarray(0, n));
+      bad = upLookingFactor(sym, Cx, this.Li, this.Lx, this.x, next, w.subarray(n, 2 * n), w.subarray(2 * n, 3 * n));
+      if (bad >= 0) this.pivot[0] = this.Lx[sym.lColPtr[bad]!]!;
+    }
     if (bad >= 0) {
-      const pivot = this.Lx[this.Lp[bad]!]!;
       this.Lx.fill(0);
-      throw numericError(`matrix is not positive definite (pivot ${pivot} at column ${sym.perm[bad]})`);
+      throw numericError(`matrix is not positive definite (pivot ${this.pivot[0]} at column ${sym.perm[bad]})`);
     }
   }
 
@@ -160,10 +105,47 @@ export class CholeskyFactor {
    */
   solve(b: Float64Array, out: Float64Array): void {
     const { n, x } = this;
-    const perm = this.symbolic.perm;
+    const sym = this.symbolic;
+    const perm = sym.perm;
     for (let k = 0; k < n; k++) x[k] = b[perm[k]!]!;
-    lowerSolve(n, this.Lp, this.Li, this.Lx, x);
-    lowerTransposeSolve(n, this.Lp, this.Li, this.Lx, x);
+    if (sym.supernodal) {
+      supernodalLowerSolve(sym.supernodal, this.Lx, x);
+      supernodalLowerTransposeSolve(sym.supernodal, this.Lx, x);
+    } else {
+      lowerSolve(n, sym.lColPtr, this.Li, this.Lx, x);
+      lowerTransposeSolve(n, sym.lColPtr, this.Li, this.Lx, x);
+    }
     for (let k = 0; k < n; k++) out[perm[k]!] = x[k]!;
+  }
+
+  /**
+   * L as a CSC matrix (rows sorted, diagonal first, explicit zeros of the
+   * supernodal storage dropped) in the permuted numbering: P·A·Pᵀ = L·Lᵀ with
+   * P from `symbolic.perm`. Allocates; for inspection and tests.
+   */
+  lowerFactor(): CscMatrix {
+    const sym = this.symbolic;
+    const n = this.n;
+    if (!sym.supernodal) {
+      return { n, colPtr: sym.lColPtr.slice(), rowIdx: this.Li.slice(), values: this.Lx.slice() };
+    }
+    const { nsuper, superStart, rowPtr, rows, valPtr } = sym.supernodal;
+    const colPtr = new Int32Array(n + 1);
+    const ri: number[] = [];
+    const vx: number[] = [];
+    for (let s = 0; s < nsuper; s++) {
+      const f = superStart[s]!, nc = superStart[s + 1]! - f;
+      const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
+      for (let k = 0; k < nc; k++) {
+        for (let r = k; r < nr; r++) {
+          const v = this.Lx[valPtr[s]! + r * nc + k]!;
+          if (v === 0 && r !== k) continue;
+          ri.push(rows[r0 + r]!);
+          vx.push(v);
+        }
+        colPtr[f + k + 1] = ri.length;
+      }
+    }
+    return { n, colPtr, rowIdx: Int32Array.from(ri), values: Float64Array.from(vx) };
   }
 }

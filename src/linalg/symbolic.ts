@@ -11,6 +11,8 @@ import { eliminationTree, postorder } from './etree.js';
 import { columnCounts } from './colcounts.js';
 import { nestedDissection } from './ordering-nd.js';
 import { approximateMinimumDegree } from './ordering-amd.js';
+import { findSupernodes } from './supernodes.js';
+import type { SupernodalStructure } from './supernodes.js';
 import { usageError, limitError } from '../errors.js';
 
 /** Fill-reducing orderings: approximate minimum degree, nested dissection, or none. */
@@ -39,12 +41,20 @@ export interface CholeskySymbolic {
   readonly colCount: Int32Array;
   /** Column pointers of L (cumulative colCount), length n + 1. */
   readonly lColPtr: Int32Array;
-  /** Upper triangle of C = P·A·Pᵀ in CSC: column k lists rows i ≤ k (unsorted). */
+  /** Numeric method the analysis prepared for. */
+  readonly method: CholeskyMethod;
+  /**
+   * Pattern of C = P·A·Pᵀ in CSC as the method reads it: the upper triangle
+   * (column k lists rows i ≤ k) for 'simplicial', the lower triangle (rows
+   * i ≥ k) for 'supernodal'. Rows unsorted.
+   */
   readonly cColPtr: Int32Array;
-  /** Row indices of the upper triangle of C. */
+  /** Row indices of C (see `cColPtr`). */
   readonly cRowIdx: Int32Array;
   /** For entry p of the lower-triangle input, its slot in C's values. */
   readonly valueMap: Int32Array;
+  /** Supernode partition and patterns ('supernodal' only, else null). */
+  readonly supernodal: SupernodalStructure | null;
   /** Pattern of the analysed input, to check that a refactorization matches. */
   readonly inputColPtr: Int32Array;
   /** Row indices of the analysed input. */
@@ -57,7 +67,15 @@ export interface CholeskySymbolic {
 export interface AnalyzeOptions {
   /** Fill-reducing ordering (default {@link DEFAULT_ORDERING}). */
   ordering?: Ordering;
+  /**
+   * Numeric method: 'supernodal' (multifrontal with dense blocks, default) or
+   * 'simplicial' (up-looking, one column at a time).
+   */
+  method?: CholeskyMethod;
 }
+
+/** Numeric factorization methods. */
+export type CholeskyMethod = 'supernodal' | 'simplicial';
 
 /** nnz(L) beyond this cannot be indexed by Int32Array offsets. */
 const MAX_NNZ_L = 2 ** 31 - 1;
@@ -69,6 +87,8 @@ const MAX_NNZ_L = 2 ** 31 - 1;
  */
 export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): CholeskySymbolic {
   const ordering = opts.ordering ?? DEFAULT_ORDERING;
+  const method = opts.method ?? 'supernodal';
+  if (method !== 'supernodal' && method !== 'simplicial') throw usageError(`unknown Cholesky method '${String(method)}'`);
   const { n, colPtr, rowIdx } = Alower;
   if (colPtr.length !== n + 1 || colPtr[0] !== 0) throw usageError(`Cholesky input: colPtr must have n + 1 = ${n + 1} entries starting at 0`);
   for (let j = 0; j < n; j++) {
@@ -81,58 +101,32 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
       last = i;
     }
   }
+  const nz = colPtr[n]!;
   const t0 = performance.now();
-  let perm: Int32Array;
+  let perm0: Int32Array;
   if (ordering === 'natural') {
-    perm = new Int32Array(n);
-    for (let k = 0; k < n; k++) perm[k] = k;
+    perm0 = new Int32Array(n);
+    for (let k = 0; k < n; k++) perm0[k] = k;
   } else if (ordering === 'nd') {
-    perm = nestedDissection(adjacencyFromLower(Alower));
+    perm0 = nestedDissection(adjacencyFromLower(Alower));
   } else if (ordering === 'amd') {
-    perm = approximateMinimumDegree(adjacencyFromLower(Alower));
+    perm0 = approximateMinimumDegree(adjacencyFromLower(Alower));
   } else {
     throw usageError(`unknown ordering '${String(ordering)}' (expected amd, nd or natural)`);
   }
   const t1 = performance.now();
-  const pinv = new Int32Array(n);
-  for (let k = 0; k < n; k++) pinv[perm[k]!] = k;
-
-  // C = P A Pᵀ: entry (i, j) moves to (pinv[i], pinv[j]); keep it in the upper
-  // triangle (column max, row min) and also count it for the lower triangle.
-  const nz = colPtr[n]!;
-  const cColPtr = new Int32Array(n + 1);
-  const lowPtr = new Int32Array(n + 1);
-  for (let j = 0; j < n; j++) {
-    const pj = pinv[j]!;
-    for (let p = colPtr[j]!; p < colPtr[j + 1]!; p++) {
-      const pi = pinv[rowIdx[p]!]!;
-      cColPtr[(pi > pj ? pi : pj) + 1]!++;
-      lowPtr[(pi < pj ? pi : pj) + 1]!++;
-    }
-  }
-  for (let k = 0; k < n; k++) {
-    cColPtr[k + 1]! += cColPtr[k]!;
-    lowPtr[k + 1]! += lowPtr[k]!;
-  }
-  const cRowIdx = new Int32Array(nz);
-  const lowRowIdx = new Int32Array(nz);
-  const valueMap = new Int32Array(nz);
-  const fillU = cColPtr.slice(0, n);
-  const fillL = lowPtr.slice(0, n);
-  for (let j = 0; j < n; j++) {
-    const pj = pinv[j]!;
-    for (let p = colPtr[j]!; p < colPtr[j + 1]!; p++) {
-      const pi = pinv[rowIdx[p]!]!;
-      const hi = pi > pj ? pi : pj, lo = pi < pj ? pi : pj;
-      const q = fillU[hi]!++;
-      cRowIdx[q] = lo;
-      valueMap[p] = q;
-      lowRowIdx[fillL[lo]!++] = hi;
-    }
-  }
-  const parent = eliminationTree(n, cColPtr, cRowIdx);
+  // Follow the ordering by a postorder of its elimination tree: same fill,
+  // but subtrees become contiguous column ranges (supernodes, frontal stack).
+  const pinv0 = inversePermutation(perm0);
+  const first = permutedPattern(Alower, pinv0);
+  const post0 = postorder(eliminationTree(n, first.upPtr, first.upIdx), n);
+  const perm = new Int32Array(n);
+  for (let k = 0; k < n; k++) perm[k] = perm0[post0[k]!]!;
+  const pinv = inversePermutation(perm);
+  const C = permutedPattern(Alower, pinv);
+  const parent = eliminationTree(n, C.upPtr, C.upIdx);
   const post = postorder(parent, n);
-  const colCount = columnCounts(n, lowPtr, lowRowIdx, parent, post);
+  const colCount = columnCounts(n, C.lowPtr, C.lowIdx, parent, post);
   const lColPtr = new Int32Array(n + 1);
   let total = 0;
   for (let k = 0; k < n; k++) {
@@ -140,6 +134,7 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
     if (total > MAX_NNZ_L) throw limitError(`Cholesky factor would have more than ${MAX_NNZ_L} nonzeros`);
     lColPtr[k + 1] = total;
   }
+  const supernodal = method === 'supernodal' ? findSupernodes(n, parent, colCount, C.lowPtr, C.lowIdx) : null;
   const t2 = performance.now();
   return {
     n,
@@ -151,11 +146,61 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
     post,
     colCount,
     lColPtr,
-    cColPtr,
-    cRowIdx,
-    valueMap,
+    method,
+    cColPtr: method === 'supernodal' ? C.lowPtr : C.upPtr,
+    cRowIdx: method === 'supernodal' ? C.lowIdx : C.upIdx,
+    valueMap: method === 'supernodal' ? C.lowMap : C.upMap,
+    supernodal,
     inputColPtr: colPtr.slice(),
     inputRowIdx: rowIdx.slice(0, nz),
     timing: { orderingMs: t1 - t0, symbolicMs: t2 - t1 },
   };
+}
+
+function inversePermutation(perm: Int32Array): Int32Array {
+  const pinv = new Int32Array(perm.length);
+  for (let k = 0; k < perm.length; k++) pinv[perm[k]!] = k;
+  return pinv;
+}
+
+/**
+ * Pattern of C = P·A·Pᵀ from the lower triangle of A: entry (i, j) moves to
+ * (pinv[i], pinv[j]) and is kept both in the upper triangle (column = larger
+ * index) and in the lower one (column = smaller index), with the slot of
+ * every input entry in each.
+ */
+function permutedPattern(Alower: CscMatrix, pinv: Int32Array) {
+  const { n, colPtr, rowIdx } = Alower;
+  const nz = colPtr[n]!;
+  const upPtr = new Int32Array(n + 1);
+  const lowPtr = new Int32Array(n + 1);
+  for (let j = 0; j < n; j++) {
+    const pj = pinv[j]!;
+    for (let p = colPtr[j]!; p < colPtr[j + 1]!; p++) {
+      const pi = pinv[rowIdx[p]!]!;
+      upPtr[(pi > pj ? pi : pj) + 1]!++;
+      lowPtr[(pi < pj ? pi : pj) + 1]!++;
+    }
+  }
+  for (let k = 0; k < n; k++) {
+    upPtr[k + 1]! += upPtr[k]!;
+    lowPtr[k + 1]! += lowPtr[k]!;
+  }
+  const upIdx = new Int32Array(nz), lowIdx = new Int32Array(nz);
+  const upMap = new Int32Array(nz), lowMap = new Int32Array(nz);
+  const fillU = upPtr.slice(0, n), fillL = lowPtr.slice(0, n);
+  for (let j = 0; j < n; j++) {
+    const pj = pinv[j]!;
+    for (let p = colPtr[j]!; p < colPtr[j + 1]!; p++) {
+      const pi = pinv[rowIdx[p]!]!;
+      const hi = pi > pj ? pi : pj, lo = pi < pj ? pi : pj;
+      let q = fillU[hi]!++;
+      upIdx[q] = lo;
+      upMap[p] = q;
+      q = fillL[lo]!++;
+      lowIdx[q] = hi;
+      lowMap[p] = q;
+    }
+  }
+  return { upPtr, upIdx, upMap, lowPtr, lowIdx, lowMap };
 }

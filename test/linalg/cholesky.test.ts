@@ -4,7 +4,7 @@
 import { describe, expect, it } from 'vitest';
 import { test as fcTest, fc } from '@fast-check/vitest';
 import { analyzeCholesky, CholeskyFactor, symmetricSpmvLower, TripletMatrix } from '../../src/linalg/index.js';
-import type { Ordering } from '../../src/linalg/index.js';
+import type { CholeskyMethod, Ordering } from '../../src/linalg/index.js';
 import { denseCholesky, denseCholeskySolve } from '../../src/linalg/dense.js';
 import { OrthodromeError } from '../../src/errors.js';
 import { denseFromLower, gridLaplacianLower, normInf, normOneLower, randomSpdLower } from './helpers.js';
@@ -12,6 +12,7 @@ import { rng } from '../fixtures/shapes.js';
 import type { CscMatrix } from '../../src/linalg/index.js';
 
 const ORDERINGS: Ordering[] = ['natural', 'nd', 'amd'];
+const METHODS: CholeskyMethod[] = ['supernodal', 'simplicial'];
 
 /** Scaled residual ‖Ax − b‖∞ / (‖A‖·‖x‖∞ + ‖b‖∞). */
 function scaledResidual(A: CscMatrix, x: Float64Array, b: Float64Array): number {
@@ -30,19 +31,19 @@ describe('sparse Cholesky residuals', () => {
   // Backward stability of Cholesky: the scaled residual is a small multiple of
   // machine epsilon (Davis 2006, ch. 4; Higham, Accuracy and Stability of
   // Numerical Algorithms, 2002, Thm 10.3 — from memory).
-  for (const ordering of ORDERINGS) {
-    it(`grid Laplacian + shift, ${ordering}`, () => {
+  for (const ordering of ORDERINGS) for (const method of METHODS) {
+    it(`grid Laplacian + shift, ${ordering}, ${method}`, () => {
       const A = gridLaplacianLower(60, 45, 1e-4, true, 7);
-      const f = CholeskyFactor.factor(A, analyzeCholesky(A, { ordering }));
+      const f = CholeskyFactor.factor(A, analyzeCholesky(A, { ordering, method }));
       const b = randomVector(A.n, 3);
       const x = new Float64Array(A.n);
       f.solve(b, x);
       expect(scaledResidual(A, x, b)).toBeLessThan(1e-14);
     });
-    it(`random sparse SPD, ${ordering}`, () => {
+    it(`random sparse SPD, ${ordering}, ${method}`, () => {
       for (let seed = 1; seed <= 5; seed++) {
         const A = randomSpdLower(400, 3, seed);
-        const f = CholeskyFactor.factor(A, analyzeCholesky(A, { ordering }));
+        const f = CholeskyFactor.factor(A, analyzeCholesky(A, { ordering, method }));
         const b = randomVector(A.n, seed + 100);
         const x = new Float64Array(A.n);
         f.solve(b, x);
@@ -65,13 +66,19 @@ describe('sparse Cholesky residuals', () => {
   it('the factor has exactly the predicted nnz(L), diagonal first and rows sorted', () => {
     const A = randomSpdLower(300, 4, 11);
     for (const ordering of ORDERINGS) {
-      const sym = analyzeCholesky(A, { ordering });
-      const f = CholeskyFactor.factor(A, sym);
-      expect(f.nnzL).toBe(sym.lColPtr[A.n]);
+      const sym = analyzeCholesky(A, { ordering, method: 'simplicial' });
+      const L = CholeskyFactor.factor(A, sym).lowerFactor();
+      expect(L.colPtr[A.n]).toBe(sym.nnzL);
       for (let j = 0; j < A.n; j++) {
-        expect(f.Li[f.Lp[j]!]).toBe(j);
-        for (let p = f.Lp[j]! + 1; p < f.Lp[j + 1]!; p++) expect(f.Li[p]!).toBeGreaterThan(f.Li[p - 1]!);
+        expect(L.rowIdx[L.colPtr[j]!]).toBe(j);
+        for (let p = L.colPtr[j]! + 1; p < L.colPtr[j + 1]!; p++) expect(L.rowIdx[p]!).toBeGreaterThan(L.rowIdx[p - 1]!);
       }
+      // the supernodal factor has the same structural pattern (explicit zeros aside)
+      const Ls = CholeskyFactor.factor(A, analyzeCholesky(A, { ordering })).lowerFactor();
+      expect(Ls.colPtr[A.n]).toBeLessThanOrEqual(sym.nnzL);
+      const inPattern = new Set<number>();
+      for (let j = 0; j < A.n; j++) for (let p = L.colPtr[j]!; p < L.colPtr[j + 1]!; p++) inPattern.add(L.rowIdx[p]! * A.n + j);
+      for (let j = 0; j < A.n; j++) for (let p = Ls.colPtr[j]!; p < Ls.colPtr[j + 1]!; p++) expect(inPattern.has(Ls.rowIdx[p]! * A.n + j)).toBe(true);
     }
   });
 });
@@ -101,16 +108,17 @@ const spdArb = fc
   });
 
 describe('dense Cholesky oracle (Golub & Van Loan Alg. 4.2.1, in src/linalg/dense.ts)', () => {
-  fcTest.prop([spdArb, fc.constantFrom<Ordering>('natural', 'nd', 'amd')], { numRuns: 150 })(
+  fcTest.prop([spdArb, fc.constantFrom<Ordering>('natural', 'nd', 'amd'), fc.constantFrom<CholeskyMethod>(...METHODS)], { numRuns: 200 })(
     'L·Lᵀ = P·A·Pᵀ and solutions agree',
-    (A, ordering) => {
+    (A, ordering, method) => {
       const n = A.n;
-      const sym = analyzeCholesky(A, { ordering });
+      const sym = analyzeCholesky(A, { ordering, method });
       const f = CholeskyFactor.factor(A, sym);
       const Ad = denseFromLower(A);
       // PAPᵀ(k, l) = A(perm[k], perm[l]); LLᵀ from the sparse factor
       const Ld = new Float64Array(n * n);
-      for (let j = 0; j < n; j++) for (let p = f.Lp[j]!; p < f.Lp[j + 1]!; p++) Ld[f.Li[p]! * n + j] = f.Lx[p]!;
+      const Lc = f.lowerFactor();
+      for (let j = 0; j < n; j++) for (let p = Lc.colPtr[j]!; p < Lc.colPtr[j + 1]!; p++) Ld[Lc.rowIdx[p]! * n + j] = Lc.values[p]!;
       let scale = 0;
       for (let k = 0; k < n * n; k++) scale = Math.max(scale, Math.abs(Ad[k]!));
       for (let k = 0; k < n; k++) {
@@ -141,7 +149,7 @@ describe('refactorization', () => {
     const f = CholeskyFactor.factor(A1, sym);
     f.refactor(A2);
     const g = CholeskyFactor.factor(A2, sym);
-    expect(Array.from(f.Lx)).toEqual(Array.from(g.Lx));
+    expect(Array.from(f.lowerFactor().values)).toEqual(Array.from(g.lowerFactor().values));
     const b = randomVector(A2.n, 4);
     const x = new Float64Array(A2.n);
     f.solve(b, x);

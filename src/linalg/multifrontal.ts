@@ -1,0 +1,158 @@
+/**
+ * Supernodal multifrontal numeric Cholesky (Duff & Reid 1983; Liu, SIAM
+ * Review 34, 1992). Supernodes are visited in postorder; for supernode s with
+ * pattern R_s (nr rows, nc own columns) the frontal matrix
+ *
+ *   F_s = C(R_s, cols s) assembled  ⊕  Σ_{children c} U_c   (extend-add)
+ *
+ * is factored on its first nc columns (dense kernels), which gives L's block
+ * for s, and leaves the update matrix U_s = F₂₂ − L₂₁L₂₁ᵀ (order nr − nc) for
+ * the parent. Postorder makes the children's update matrices the topmost
+ * entries of a stack, so one preallocated Float64Array holds them all.
+ * Extend-add maps a child's rows to the parent's positions through `pos`
+ * (global row → local row, valid while s is being assembled).
+ */
+import type { SupernodalStructure } from './supernodes.js';
+import { factorPanel, schurUpdate } from './dense-kernels.js';
+
+/** Workspaces of {@link multifrontalFactor}, allocated once per factor. */
+export interface MultifrontalWork {
+  /** Frontal matrix, maxRows² doubles. */
+  readonly front: Float64Array;
+  /** Update-matrix stack. */
+  readonly stack: Float64Array;
+  /** Row position map, n entries. */
+  readonly pos: Int32Array;
+  /** Supernode ids on the stack. */
+  readonly stackIds: Int32Array;
+}
+
+/** Allocates the workspaces for a supernodal structure. */
+export function multifrontalWork(n: number, sn: SupernodalStructure): MultifrontalWork {
+  return {
+    front: new Float64Array(sn.maxRows * sn.maxRows),
+    stack: new Float64Array(Math.max(1, sn.stackSize)),
+    pos: new Int32Array(n),
+    stackIds: new Int32Array(Math.max(1, sn.nsuper)),
+  };
+}
+
+/**
+ * Factors C (lower triangle in CSC: cp, ci, cx; rows ≥ column) into the
+ * row-major supernode blocks Lx. Returns −1 on success or the (permuted)
+ * column with a non-positive or non-finite pivot; `pivotOut[0]` receives
+ * that pivot value. Never throws, never allocates.
+ */
+export function multifrontalFactor(
+  sn: SupernodalStructure,
+  cp: Int32Array,
+  ci: Int32Array,
+  cx: Float64Array,
+  Lx: Float64Array,
+  work: MultifrontalWork,
+  pivotOut: Float64Array,
+): number {
+  const { nsuper, superStart, childCount, rowPtr, rows, valPtr } = sn;
+  const { front: F, stack, pos, stackIds } = work;
+  let nStack = 0; // entries on the stack
+  let stackTop = 0; // doubles used
+  for (let s = 0; s < nsuper; s++) {
+    const f = superStart[s]!, l = superStart[s + 1]!;
+    const nc = l - f;
+    const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
+    for (let r = 0; r < nr; r++) pos[rows[r0 + r]!] = r;
+    F.fill(0, 0, nr * nr);
+    // assemble the columns of C owned by s: F(pos i, j − f) = C(i, j)
+    for (let j = f; j < l; j++) {
+      const jc = j - f;
+      for (let p = cp[j]!; p < cp[j + 1]!; p++) F[pos[ci[p]!]! * nr + jc]! += cx[p]!;
+    }
+    // extend-add the children's update matrices (topmost on the stack)
+    for (let c = 0; c < childCount[s]!; c++) {
+      const ch = stackIds[--nStack]!;
+      const cr0 = rowPtr[ch]! + (superStart[ch + 1]! - superStart[ch]!);
+      const m = rowPtr[ch + 1]! - cr0;
+      stackTop -= m * m;
+      const base = stackTop;
+      for (let a = 0; a < m; a++) {
+        const ra = pos[rows[cr0 + a]!]! * nr;
+        const ua = base + a * m;
+        for (let b = 0; b <= a; b++) F[ra + pos[rows[cr0 + b]!]!]! += stack[ua + b]!;
+      }
+    }
+    const bad = factorPanel(F, 0, nr, nc);
+    if (bad >= 0) {
+      pivotOut[0] = F[bad * nr + bad]!;
+      return f + bad;
+    }
+    // copy L's block (first nc entries of every row)
+    const v0 = valPtr[s]!;
+    for (let r = 0; r < nr; r++) {
+      const src = r * nr;
+      const dst = v0 + r * nc;
+      for (let k = 0; k < nc; k++) Lx[dst + k] = F[src + k]!;
+    }
+    const m = nr - nc;
+    if (m > 0) {
+      schurUpdate(F, 0, nr, nc);
+      // push U_s (lower triangle of the trailing block) as an m × m row-major square
+      for (let a = 0; a < m; a++) {
+        const src = (nc + a) * nr + nc;
+        const dst = stackTop + a * m;
+        for (let b = 0; b <= a; b++) stack[dst + b] = F[src + b]!;
+      }
+      stackTop += m * m;
+      stackIds[nStack++] = s;
+    }
+  }
+  return -1;
+}
+
+/**
+ * Forward solve L y = x in place with the supernodal factor:
+ * per supernode, y_s = L₁₁⁻¹ x_s, then x(R₂) −= L₂₁ y_s.
+ */
+export function supernodalLowerSolve(sn: SupernodalStructure, Lx: Float64Array, x: Float64Array): void {
+  const { nsuper, superStart, rowPtr, rows, valPtr } = sn;
+  for (let s = 0; s < nsuper; s++) {
+    const f = superStart[s]!, nc = superStart[s + 1]! - f;
+    const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
+    const v0 = valPtr[s]!;
+    for (let j = 0; j < nc; j++) {
+      const rj = v0 + j * nc;
+      let t = x[f + j]!;
+      for (let k = 0; k < j; k++) t -= Lx[rj + k]! * x[f + k]!;
+      x[f + j] = t / Lx[rj + j]!;
+    }
+    for (let r = nc; r < nr; r++) {
+      const rr = v0 + r * nc;
+      let t = 0;
+      for (let k = 0; k < nc; k++) t += Lx[rr + k]! * x[f + k]!;
+      x[rows[r0 + r]!]! -= t;
+    }
+  }
+}
+
+/**
+ * Backward solve Lᵀ x = y in place: per supernode in reverse,
+ * y_s −= L₂₁ᵀ x(R₂), then x_s = L₁₁⁻ᵀ y_s.
+ */
+export function supernodalLowerTransposeSolve(sn: SupernodalStructure, Lx: Float64Array, x: Float64Array): void {
+  const { nsuper, superStart, rowPtr, rows, valPtr } = sn;
+  for (let s = nsuper - 1; s >= 0; s--) {
+    const f = superStart[s]!, nc = superStart[s + 1]! - f;
+    const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
+    const v0 = valPtr[s]!;
+    for (let r = nc; r < nr; r++) {
+      const rr = v0 + r * nc;
+      const xr = x[rows[r0 + r]!]!;
+      if (xr === 0) continue;
+      for (let k = 0; k < nc; k++) x[f + k]! -= Lx[rr + k]! * xr;
+    }
+    for (let j = nc - 1; j >= 0; j--) {
+      let t = x[f + j]!;
+      for (let k = j + 1; k < nc; k++) t -= Lx[v0 + k * nc + j]! * x[f + k]!;
+      x[f + j] = t / Lx[v0 + j * nc + j]!;
+    }
+  }
+}

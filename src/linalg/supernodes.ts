@@ -1,0 +1,191 @@
+/**
+ * Supernodal structure of a Cholesky factor whose columns are in postorder.
+ *
+ * A supernode is a run of consecutive columns f..l that share one row
+ * pattern below the diagonal block, so L restricted to it is one dense block:
+ *
+ * ```
+ *        f     l
+ *      [ x         ]  f    rows R_s = f..l, then the rows below
+ *      [ x  x      ]       (sorted); stored row-major, nr × nc
+ *      [ x  x  x   ]  l
+ *      [ x  x  x   ]  r₁
+ *      [ x  x  x   ]  r₂
+ * ```
+ *
+ * Fundamental supernodes (Liu, Ng, Peyton 1993): j joins j−1 when j is the
+ * only child of … of j−1's parent, i.e. parent[j−1] = j, j has one child and
+ * colCount[j−1] = colCount[j] + 1. Relaxed amalgamation then merges a block
+ * into its parent when they are adjacent and the explicit zeros this adds
+ * stay small (thresholds of common practice: any merge up to 4 columns,
+ * < 80% zeros up to 16, < 10% up to 48, < 5% beyond). The row pattern of a
+ * supernode is its own columns plus the rows below them in C's columns and in
+ * its children's patterns (Struct(L_s) = Struct(C_s) ∪ ⋃ Struct(L_c) \ …).
+ */
+import { limitError } from '../errors.js';
+
+/** Supernode partition, patterns and workspace sizes. */
+export interface SupernodalStructure {
+  /** Number of supernodes. */
+  readonly nsuper: number;
+  /** Supernode s owns columns superStart[s] .. superStart[s+1]−1. */
+  readonly superStart: Int32Array;
+  /** Parent supernode (−1 at roots); parents come after children. */
+  readonly superParent: Int32Array;
+  /** Number of child supernodes. */
+  readonly childCount: Int32Array;
+  /** Offsets of each supernode's row pattern in `rows`, length nsuper + 1. */
+  readonly rowPtr: Int32Array;
+  /** Row patterns: own columns first, then the rows below, increasing. */
+  readonly rows: Int32Array;
+  /** Offsets of each supernode's nr × nc row-major block of values, length nsuper + 1. */
+  readonly valPtr: Int32Array;
+  /** Largest row count of a supernode (frontal matrix order). */
+  readonly maxRows: number;
+  /** Peak number of doubles on the update-matrix stack during factorization. */
+  readonly stackSize: number;
+}
+
+/** Largest typed-array length used for the value storage. */
+const MAX_VALUES = 2 ** 31 - 1;
+
+/**
+ * Supernodes of the factor of the matrix C whose lower triangle pattern is
+ * (lowColPtr, lowRowIdx), with elimination tree `parent` in postorder (every
+ * parent index greater than its child's, subtrees contiguous) and column
+ * counts `colCount`.
+ */
+export function findSupernodes(
+  n: number,
+  parent: Int32Array,
+  colCount: Int32Array,
+  lowColPtr: Int32Array,
+  lowRowIdx: Int32Array,
+  relax = true,
+): SupernodalStructure {
+  const nchild = new Int32Array(n);
+  for (let j = 0; j < n; j++) if (parent[j] !== -1) nchild[parent[j]!]!++;
+
+  // fundamental supernodes merged greedily with their parent (scan in order:
+  // the current block [a, b] can only merge with the next fundamental block,
+  // and only when that block is its parent, i.e. parent[b] = b + 1)
+  const start: number[] = [];
+  let a = 0; // current block's first column
+  let j = 0;
+  while (j < n) {
+    // fundamental block t = [j, e)
+    let e = j + 1;
+    while (e < n && parent[e - 1] === e && colCount[e - 1] === colCount[e]! + 1 && nchild[e] === 1) e++;
+    if (j === 0) {
+      a = 0;
+    } else {
+      let merge = false;
+      if (relax && parent[j - 1] === j) {
+        const nc = e - a;
+        const nr = j - a + colCount[j]!;
+        const entries = nc * nr - (nc * (nc - 1)) / 2;
+        let actual = 0;
+        for (let c = a; c < e; c++) actual += colCount[c]!;
+        const z = (entries - actual) / entries;
+        merge = nc <= 4 || (nc <= 16 && z < 0.8) || (nc <= 48 && z < 0.1) || z < 0.05;
+      }
+      if (!merge) {
+        start.push(a);
+        a = j;
+      }
+    }
+    j = e;
+  }
+  if (n > 0) start.push(a);
+  const nsuper = start.length;
+  const superStart = new Int32Array(nsuper + 1);
+  superStart.set(start);
+  superStart[nsuper] = n;
+  const superOf = new Int32Array(n);
+  for (let s = 0; s < nsuper; s++) for (let c = superStart[s]!; c < superStart[s + 1]!; c++) superOf[c] = s;
+  const superParent = new Int32Array(nsuper);
+  const childCount = new Int32Array(nsuper);
+  for (let s = 0; s < nsuper; s++) {
+    const p = parent[superStart[s + 1]! - 1]!;
+    superParent[s] = p === -1 ? -1 : superOf[p]!;
+    if (p !== -1) childCount[superParent[s]!]!++;
+  }
+  // child lists (in increasing order) for the pattern union
+  const childHead = new Int32Array(nsuper).fill(-1);
+  const childNext = new Int32Array(nsuper);
+  for (let s = nsuper - 1; s >= 0; s--) {
+    const p = superParent[s]!;
+    if (p === -1) continue;
+    childNext[s] = childHead[p]!;
+    childHead[p] = s;
+  }
+  // row counts: nr(s) = nc(s) + |rows of L below l| = (l − f) + colCount[l]... computed exactly below
+  const rowPtr = new Int32Array(nsuper + 1);
+  let rowsCap = 0;
+  for (let s = 0; s < nsuper; s++) {
+    const f = superStart[s]!, l = superStart[s + 1]! - 1;
+    // the first column's pattern contains every row of the block (relaxed: a superset of each column's)
+    rowsCap += Math.max(colCount[f]!, l - f + colCount[l]!);
+  }
+  let rows: Int32Array = new Int32Array(rowsCap);
+  const mark = new Int32Array(n).fill(-1);
+  let top = 0, maxRows = 0;
+  for (let s = 0; s < nsuper; s++) {
+    const f = superStart[s]!, l = superStart[s + 1]! - 1;
+    rowPtr[s] = top;
+    for (let c = f; c <= l; c++) {
+      rows[top++] = c;
+      mark[c] = s;
+    }
+    const below = top;
+    for (let c = f; c <= l; c++) {
+      for (let p = lowColPtr[c]!; p < lowColPtr[c + 1]!; p++) {
+        const i = lowRowIdx[p]!;
+        if (i > l && mark[i] !== s) {
+          mark[i] = s;
+          if (top === rows.length) rows = growInt(rows);
+          rows[top++] = i;
+        }
+      }
+    }
+    for (let ch = childHead[s]!; ch !== -1; ch = childNext[ch]!) {
+      for (let p = rowPtr[ch]!; p < rowPtr[ch + 1]!; p++) {
+        const i = rows[p]!;
+        if (i > l && mark[i] !== s) {
+          mark[i] = s;
+          if (top === rows.length) rows = growInt(rows);
+          rows[top++] = i;
+        }
+      }
+    }
+    rows.subarray(below, top).sort();
+    rowPtr[s + 1] = top;
+    maxRows = Math.max(maxRows, top - rowPtr[s]!);
+  }
+  rows = rows.slice(0, top);
+  // value offsets and the peak of the update-matrix stack (postorder: children on top)
+  const valPtr = new Int32Array(nsuper + 1);
+  let v = 0, stack = 0, peak = 0;
+  for (let s = 0; s < nsuper; s++) {
+    const nc = superStart[s + 1]! - superStart[s]!;
+    const nr = rowPtr[s + 1]! - rowPtr[s]!;
+    valPtr[s] = v;
+    v += nr * nc;
+    if (v > MAX_VALUES) throw limitError(`supernodal Cholesky factor would need more than ${MAX_VALUES} values`);
+    for (let ch = childHead[s]!; ch !== -1; ch = childNext[ch]!) {
+      const m = rowPtr[ch + 1]! - rowPtr[ch]! - (superStart[ch + 1]! - superStart[ch]!);
+      stack -= m * m;
+    }
+    const m = nr - nc;
+    stack += m * m;
+    peak = Math.max(peak, stack);
+  }
+  valPtr[nsuper] = v;
+  return { nsuper, superStart, superParent, childCount, rowPtr, rows, valPtr, maxRows, stackSize: peak };
+}
+
+function growInt(a: Int32Array): Int32Array {
+  const b = new Int32Array(Math.max(16, 2 * a.length));
+  b.set(a);
+  return b;
+}
