@@ -51,10 +51,36 @@ export function forEachPointWeight(t: Topology, p: SurfacePoint, visit: (v: numb
   }
 }
 
-/** Value of a per-vertex field at a surface point, by its vertex weights. */
+/** Value of a per-vertex field at a surface point, by its vertex weights (linear interpolation). */
 export function valueAtPoint(t: Topology, p: SurfacePoint, field: Float64Array): number {
   let s = 0;
   forEachPointWeight(t, p, (v, w) => { s += w * field[v]!; });
+  return s;
+}
+
+/**
+ * Estimate of a distance field's value at surface point p from the corners
+ * carrying p's weight: Σ_k λ_k (d_k − r_k), with r_k the straight in-face
+ * distance from p to corner k. Plain interpolation Σ λ_k d_k would read the
+ * cone d(x) = |x − p| around a source as Σ λ_k r_k > 0 at p itself; this
+ * form is exact for d = |x − p| and equals d_v at a vertex.
+ */
+export function sourceValue(m: IntrinsicMesh, p: SurfacePoint, field: Float64Array, lay: Float64Array, xy: Float64Array): number {
+  const t = m.topology;
+  if (p.kind === 'vertex') return field[p.vertex]!;
+  let s = 0;
+  if (p.kind === 'edge') {
+    const h = t.edgeHalfedge[p.edge]!, l = m.edgeLength[p.edge]!;
+    s += (1 - p.t) * (field[t.tri[h]!]! - p.t * l) + p.t * (field[t.tri[next(h)]!]! - (1 - p.t) * l);
+    return s;
+  }
+  layoutFace(m, p.face, lay);
+  pointInLayout(t, p.face, p, lay, xy);
+  const sum = p.bary[0] + p.bary[1] + p.bary[2];
+  for (let k = 0; k < 3; k++) {
+    const r = Math.hypot(lay[2 * k]! - xy[0]!, lay[2 * k + 1]! - xy[1]!);
+    s += (p.bary[k]! / sum) * (field[t.tri[3 * p.face + k]!]! - r);
+  }
   return s;
 }
 

@@ -47,7 +47,7 @@ import {
 } from '../metric/laplacian.js';
 import { components } from '../mesh/components.js';
 import { boundaryVertexMask } from '../mesh/boundary.js';
-import { addSourceHeat, forEachPointWeight } from './heat-sources.js';
+import { addSourceHeat, sourceValue } from './heat-sources.js';
 import { usageError, isOrthodromeError } from '../errors.js';
 
 /** Options of {@link HeatSolver.prepare}. */
@@ -136,6 +136,8 @@ export class HeatSolver {
   private readonly b: Float64Array;
   private readonly compMax: Float64Array;
   private readonly compShift: Float64Array;
+  private readonly lay = new Float64Array(6);
+  private readonly xy = new Float64Array(2);
 
   private constructor(mesh: IntrinsicMesh, triangulation: IntrinsicMesh, stats: HeatStats, parts: HeatParts) {
     this.mesh = mesh;
@@ -266,11 +268,11 @@ export class HeatSolver {
     const phi = new Float64Array(nv);
     this.parts.poisson.solve(b, phi);
 
-    // shift each component so its least source value is zero
+    // shift each component so its least source value is zero (see sourceValue)
     const shift = this.compShift.fill(Infinity);
     const seen = (p: SurfacePoint): void => {
-      let val = 0, c = -1;
-      forEachPointWeight(this.mesh.topology, p, (v, w) => { val += w * phi[v]!; c = comp[v]!; });
+      const c = comp[p.kind === 'vertex' ? p.vertex : p.kind === 'edge' ? t0v(this.mesh, p.edge) : this.mesh.topology.tri[3 * p.face]!]!;
+      const val = sourceValue(this.mesh, p, phi, this.lay, this.xy);
       if (c >= 0 && val < shift[c]!) shift[c] = val;
     };
     for (const p of sources.points) seen(p);
@@ -314,4 +316,9 @@ function factorPoisson(
   const S = combine(p, 1, Lv, 1e-8 / (h * h), Mv);
   constrainRows(p, S, inactive);
   return { factor: CholeskyFactor.factor(patternMatrix(p, S), sym), blocked: inactive.slice(), shifted: true };
+}
+
+/** Tail vertex of edge e's stored half-edge. */
+function t0v(m: IntrinsicMesh, e: number): number {
+  return m.topology.tri[m.topology.edgeHalfedge[e]!]!;
 }
