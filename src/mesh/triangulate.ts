@@ -16,9 +16,11 @@
  *         ╲   ╲
  *          a ─ ...
  *
- *    Among the ears the best-shaped one (largest 2·area / Σ side²) is clipped
- *    for polygons up to {@link BEST_EAR_LIMIT} corners; larger ones take the
- *    first ear found (classic O(n²)).
+ *    Among the ears, one next to a straight corner (collinear neighbours) goes
+ *    first, since a straight corner can only be clipped after its corner
+ *    changes; otherwise the best-shaped one (largest 2·area / Σ side²). This
+ *    search runs for polygons up to {@link BEST_EAR_LIMIT} corners; larger
+ *    ones take the first ear found (classic O(n²)).
  * 3. When no ear exists (self-intersecting or folded input) the left-turning
  *    corner with the largest area is clipped; when no corner turns left at all
  *    (collinear or degenerate remainder) the rest is fanned.
@@ -91,7 +93,11 @@ export function triangulate(m: MeshData): Triangulation {
 
 /**
  * Projects polygon `FI[s..s+n)` to its Newell plane into `w.xy`. Returns the
- * squared size scale (0 when the polygon has no area).
+ * signed-area tolerance below which a corner counts as straight, or -1 when
+ * the polygon has no area. The tolerance covers relative rounding (1e-12 of
+ * the squared size r²) and the absolute rounding of the input coordinates:
+ * a coordinate of magnitude M carries an error up to δ = 4·ε·M, which moves
+ * twice a corner's area by about δ·r per side.
  */
 function project(P: Float64Array, FI: Uint32Array, s: number, n: number, xy: Float64Array): number {
   let cx = 0, cy = 0, cz = 0;
@@ -100,16 +106,17 @@ function project(P: Float64Array, FI: Uint32Array, s: number, n: number, xy: Flo
     cx += P[o]!; cy += P[o + 1]!; cz += P[o + 2]!;
   }
   cx /= n; cy /= n; cz /= n;
-  let nx = 0, ny = 0, nz = 0, r2 = 0;
+  let nx = 0, ny = 0, nz = 0, r2 = 0, big = 0;
   for (let k = 0; k < n; k++) {
     const o = 3 * FI[s + k]!, q = 3 * FI[s + ((k + 1) % n)]!;
     const ax = P[o]! - cx, ay = P[o + 1]! - cy, az = P[o + 2]! - cz;
     const bx = P[q]! - cx, by = P[q + 1]! - cy, bz = P[q + 2]! - cz;
     nx += ay * bz - az * by; ny += az * bx - ax * bz; nz += ax * by - ay * bx;
     r2 = Math.max(r2, ax * ax + ay * ay + az * az);
+    big = Math.max(big, Math.abs(P[o]!), Math.abs(P[o + 1]!), Math.abs(P[o + 2]!));
   }
   const nl = Math.hypot(nx, ny, nz);
-  if (!(nl > 0) || !Number.isFinite(nl)) return 0;
+  if (!(nl > 0) || !Number.isFinite(nl)) return -1;
   nx /= nl; ny /= nl; nz /= nl;
   // u ⟂ N from the coordinate axis least aligned with N; v = N × u.
   const ax = Math.abs(nx), ay = Math.abs(ny), az = Math.abs(nz);
@@ -126,23 +133,21 @@ function project(P: Float64Array, FI: Uint32Array, s: number, n: number, xy: Flo
     xy[2 * k] = dx * ux + dy * uy + dz * uz;
     xy[2 * k + 1] = dx * vx + dy * vy + dz * vz;
   }
-  return r2;
+  return 1e-12 * r2 + 16 * Number.EPSILON * big * Math.sqrt(r2);
 }
 
 /** Clips polygon `FI[s..s+n)` into `out` from triangle `t`; returns the next free triangle. */
 function clipPolygon(P: Float64Array, FI: Uint32Array, s: number, n: number, w: Work, out: Uint32Array, t: number): number {
   const { xy, nextOf, prevOf } = w;
-  const r2 = project(P, FI, s, n, xy);
+  const tol = project(P, FI, s, n, xy);
   const emit = (a: number, b: number, c: number): void => {
     out[3 * t] = FI[s + a]!; out[3 * t + 1] = FI[s + b]!; out[3 * t + 2] = FI[s + c]!;
     t++;
   };
-  if (r2 === 0) {
+  if (!(tol > 0)) {
     for (let k = 1; k + 1 < n; k++) emit(0, k, k + 1);
     return t;
   }
-  // Corners with less signed area than this are treated as straight.
-  const tol = 1e-13 * r2;
   for (let k = 0; k < n; k++) { nextOf[k] = (k + 1) % n; prevOf[k] = (k + n - 1) % n; }
   let left = n, start = 0;
   const best = n <= BEST_EAR_LIMIT;
@@ -155,7 +160,10 @@ function clipPolygon(P: Float64Array, FI: Uint32Array, s: number, n: number, w: 
       if (!(area > tol)) continue;
       if (area > bulgeA) { bulgeA = area; bulge = i; }
       if (!isEmpty(xy, FI, s, a, i, c, nextOf)) continue;
-      const q = area / (dist2(xy, a, i) + dist2(xy, i, c) + dist2(xy, c, a));
+      // Straight corners can only go once a neighbour is clipped (their corner
+      // then bends), so ears next to one come first; else the best shape.
+      const nearStraight = Math.abs(orient(xy, prevOf[a]!, a, i)) <= tol || Math.abs(orient(xy, i, c, nextOf[c]!)) <= tol;
+      const q = area / (dist2(xy, a, i) + dist2(xy, i, c) + dist2(xy, c, a)) + (nearStraight ? 1 : 0);
       if (q > earQ) { earQ = q; ear = i; }
       if (!best) break;
     }
