@@ -1,0 +1,168 @@
+import { describe, it, expect } from 'vitest';
+import { buildTopology } from '../../src/mesh/build.js';
+import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
+import { HeatSolver } from '../../src/geodesic/heat.js';
+import { isOrthodromeError } from '../../src/errors.js';
+import type { SourceSet } from '../../src/geodesic/sources.js';
+import { flatGrid, icosphere, terrain, transform, rng, type Shape } from '../fixtures/shapes.js';
+
+function meshOf(s: Shape, nv = s.positions.length / 3): IntrinsicMesh {
+  const { topology } = buildTopology(s.triangles, nv);
+  const pos = new Float64Array(3 * topology.nv);
+  pos.set(s.positions.subarray(0, 3 * topology.nv));
+  return intrinsicFromPositions(topology, pos);
+}
+
+const vsrc = (...vs: number[]): SourceSet => ({ points: vs.map((vertex) => ({ kind: 'vertex' as const, vertex })), curves: [] });
+
+function hills(): Shape {
+  const s = terrain(24, 20, 3, 2.5, (x, y) => 0.3 * Math.sin(2 * x) * Math.cos(3 * y));
+  const r = rng(11);
+  for (let i = 0; i < s.positions.length; i += 3) {
+    s.positions[i]! += 0.03 * (r() - 0.5);
+    s.positions[i + 1]! += 0.03 * (r() - 0.5);
+  }
+  return s;
+}
+
+function expectUsage(fn: () => unknown): void {
+  try {
+    fn();
+  } catch (e) {
+    expect(isOrthodromeError(e) && e.code === 'USAGE').toBe(true);
+    return;
+  }
+  throw new Error('expected a USAGE error');
+}
+
+describe('HeatSolver invariants', () => {
+  it('is invariant under rigid motion and scales with uniform scaling', () => {
+    // distances are intrinsic: a rigid motion keeps them, scaling by k multiplies them by k (common practice)
+    const s = hills();
+    const src = vsrc(7, 300);
+    const d0 = HeatSolver.prepare(meshOf(s)).distance(src).distance;
+    const dr = HeatSolver.prepare(meshOf(transform(s, 1.1, [5, -3, 2]))).distance(src).distance;
+    const ds = HeatSolver.prepare(meshOf(transform(s, -0.4, [0, 1, 0], 2.5))).distance(src).distance;
+    let max = 0;
+    for (const x of d0) max = Math.max(max, x);
+    for (let v = 0; v < d0.length; v++) {
+      expect(Math.abs(dr[v]! - d0[v]!)).toBeLessThan(1e-8 * max);
+      expect(Math.abs(ds[v]! - 2.5 * d0[v]!)).toBeLessThan(1e-8 * 2.5 * max);
+    }
+  });
+
+  it('gives the same answers for many source sets from one prepare as fresh solvers', () => {
+    const m = meshOf(hills());
+    const solver = HeatSolver.prepare(m);
+    const sets: SourceSet[] = [
+      vsrc(0), vsrc(100, 200),
+      { points: [{ kind: 'face', face: 50, bary: [0.1, 0.2, 0.7] }], curves: [] },
+      { points: [], curves: [[{ kind: 'vertex', vertex: 60 }, { kind: 'vertex', vertex: 61 }, { kind: 'vertex', vertex: 62 }]] },
+    ];
+    const first = sets.map((s) => solver.distance(s).distance.slice());
+    const again = sets.map((s) => solver.distance(s).distance);
+    sets.forEach((s, i) => {
+      const fresh = HeatSolver.prepare(m).distance(s).distance;
+      expect(again[i]).toEqual(first[i]);
+      expect(fresh).toEqual(first[i]);
+    });
+  });
+
+  it('is zero at vertex sources, non-negative, finite and roughly symmetric', () => {
+    // d(a, b) = d(b, a) for a metric; the heat method is symmetric only approximately (common practice)
+    const m = meshOf(icosphere(3));
+    const solver = HeatSolver.prepare(m);
+    const a = 3, b = 400;
+    const da = solver.distance(vsrc(a)).distance, db = solver.distance(vsrc(b)).distance;
+    expect(da[a]).toBe(0);
+    expect(db[b]).toBe(0);
+    for (const x of da) expect(x >= 0 && Number.isFinite(x)).toBe(true);
+    expect(Math.abs(da[b]! - db[a]!) / da[b]!).toBeLessThan(0.02);
+  });
+
+  it('gives Infinity on components without a source and on isolated vertices, never NaN', () => {
+    const sph = icosphere(2), grid = flatGrid(8, 8, 1, 1, 0.2, 4);
+    const nS = sph.positions.length / 3, nG = grid.positions.length / 3;
+    const positions = new Float64Array(3 * (nS + nG + 1));
+    positions.set(sph.positions);
+    positions.set(grid.positions.map((x, i) => (i % 3 === 0 ? x + 5 : x)), 3 * nS);
+    const triangles = new Uint32Array(sph.triangles.length + grid.triangles.length);
+    triangles.set(sph.triangles);
+    triangles.set(grid.triangles.map((v) => v + nS), sph.triangles.length);
+    const m = meshOf({ positions, triangles }, nS + nG + 1); // last vertex belongs to no face
+    const solver = HeatSolver.prepare(m);
+    const d = solver.distance(vsrc(0)).distance;
+    for (let v = 0; v < nS; v++) expect(Number.isFinite(d[v]!)).toBe(true);
+    for (let v = nS; v < nS + nG + 1; v++) expect(d[v]).toBe(Infinity);
+    const both = solver.distance(vsrc(0, nS + 40)).distance;
+    expect(both[0]).toBe(0);
+    expect(both[nS + 40]).toBe(0);
+    for (let v = 0; v < nS + nG; v++) expect(Number.isFinite(both[v]!)).toBe(true);
+    expect(both[nS + nG]).toBe(Infinity);
+    // the two components are solved independently: the sphere part is unchanged
+    for (let v = 0; v < nS; v++) expect(both[v]).toBeCloseTo(d[v]!, 12);
+  });
+
+  it('supports every boundary mode; Dirichlet falls back to Neumann for boundary sources', () => {
+    const s = flatGrid(30, 30, 1, 1, 0.2, 6);
+    const m = meshOf(s);
+    const P = s.positions;
+    for (const boundary of ['average', 'neumann', 'dirichlet'] as const) {
+      const solver = HeatSolver.prepare(m, { boundary });
+      expect(solver.stats.factorizations).toBe(boundary === 'neumann' ? 2 : 3);
+      for (const src of [15 * 31 + 15, 15]) { // an interior vertex, then a boundary vertex
+        const d = solver.distance(vsrc(src)).distance;
+        let err = 0, n = 0;
+        for (let v = 0; v < d.length; v++) {
+          const g = Math.hypot(P[3 * v]! - P[3 * src]!, P[3 * v + 1]! - P[3 * src + 1]!);
+          if (g < 0.1) continue;
+          err += Math.abs(d[v]! - g) / g; n++;
+        }
+        // straight-line distance in a convex flat domain (elementary); Dirichlet alone is the least accurate
+        expect(err / n).toBeLessThan(boundary === 'dirichlet' ? 0.08 : 0.03);
+      }
+    }
+  });
+
+  it('stays finite on degenerate faces with mollification and flips off, and mollifies when on', () => {
+    const s = flatGrid(10, 10, 1, 1);
+    const P = s.positions;
+    // squash three interior vertices onto their right neighbours: zero-area and inverted faces
+    for (const v of [12, 35, 58]) { P[3 * v] = P[3 * (v + 1)]!; P[3 * v + 1] = P[3 * (v + 1) + 1]!; }
+    const m = meshOf(s);
+    const plain = HeatSolver.prepare(m, { mollify: false, intrinsicDelaunay: false }).distance(vsrc(60)).distance;
+    for (const x of plain) expect(Number.isFinite(x) && x >= 0).toBe(true);
+    const good = HeatSolver.prepare(m);
+    expect(good.stats.mollifyEpsilon).toBeGreaterThan(0);
+    for (const x of good.distance(vsrc(60)).distance) expect(Number.isFinite(x) && x >= 0).toBe(true);
+  });
+
+  it('rejects bad options and bad source sets with USAGE errors', () => {
+    const m = meshOf(flatGrid(4, 4));
+    expectUsage(() => HeatSolver.prepare(m, { timeScale: 0 }));
+    expectUsage(() => HeatSolver.prepare(m, { timeScale: Number.NaN }));
+    expectUsage(() => HeatSolver.prepare(m, { mollifyDelta: -1 }));
+    expectUsage(() => HeatSolver.prepare(m, { boundary: 'robin' as never }));
+    expectUsage(() => HeatSolver.prepare(m, { ordering: 'best' as never }));
+    const solver = HeatSolver.prepare(m);
+    expectUsage(() => solver.distance({ points: [], curves: [] }));
+    expectUsage(() => solver.distance(vsrc(1000)));
+    expectUsage(() => solver.distance({ points: [{ kind: 'face', face: 0, bary: [-1, 1, 1] }], curves: [] }));
+    expectUsage(() => solver.distance({ points: [{ kind: 'edge', edge: 0, t: 1.5 }], curves: [] }));
+    // consecutive curve points must share a face
+    expectUsage(() => solver.distance({ points: [], curves: [[{ kind: 'vertex', vertex: 0 }, { kind: 'vertex', vertex: 24 }]] }));
+  });
+
+  it('honours timeScale: a larger t smooths the field and changes it', () => {
+    // larger m = more smoothing (Crane et al. 2013, section 3.2); the field must differ and stay finite
+    const m = meshOf(hills());
+    const d1 = HeatSolver.prepare(m).distance(vsrc(250)).distance;
+    const s10 = HeatSolver.prepare(m, { timeScale: 10 });
+    expect(s10.stats.timeStep).toBeCloseTo(10 * s10.stats.meanEdgeLength ** 2, 12);
+    const d10 = s10.distance(vsrc(250)).distance;
+    let diff = 0;
+    for (let v = 0; v < d1.length; v++) diff = Math.max(diff, Math.abs(d10[v]! - d1[v]!));
+    expect(diff).toBeGreaterThan(1e-3);
+    for (const x of d10) expect(Number.isFinite(x)).toBe(true);
+  });
+});
