@@ -9,11 +9,14 @@
  *
  * L is the PSD cotan Laplacian and M the lumped mass on an intrinsic
  * Delaunay triangulation of the mollified metric (both on by default): all
- * cotan weights are then ≥ 0, so M + tL is an M-matrix, its Cholesky factor
- * has no positive off-diagonal and the triangular solves add only terms of
- * one sign. Tiny heat values far from the source keep their relative
- * accuracy down to the double range (~e^-708), which on a mesh means about
- * 600 edge rings from the source at m = 1 (the heat decays like e^(−r/√t)).
+ * interior cotan weights are then ≥ 0 (a boundary edge keeps its single
+ * cotangent, negative only opposite an obtuse boundary corner), so M + tL is
+ * normally an M-matrix, its Cholesky factor has no positive off-diagonal and
+ * the triangular solves add only terms of one sign. Tiny heat values far
+ * from the source then keep their relative accuracy down to the double range
+ * (~e^-708), which on a mesh means about 600 edge rings from the source at
+ * m = 1 (the heat decays like e^(−r/√t)); beyond that the heat underflows,
+ * ∇u = 0 and those faces are counted in `lastSolve.flatFaces`.
  *
  * Boundaries: 'neumann' uses the natural condition, 'dirichlet' fixes u = 0 on
  * the boundary, 'average' (default, the paper's recommendation) averages the

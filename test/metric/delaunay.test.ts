@@ -3,6 +3,9 @@ import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { intrinsicDelaunay, edgeCotanSum } from '../../src/metric/delaunay.js';
 import { mollify } from '../../src/metric/mollify.js';
+import { edgePattern, cotanLaplacian, patternMatrix } from '../../src/metric/laplacian.js';
+import { symmetricSpmvLower } from '../../src/linalg/csc.js';
+import { boundaryVertexMask } from '../../src/mesh/boundary.js';
 import { cornerAngles, faceAreas } from '../../src/metric/triangle.js';
 import { next, prev, type Topology } from '../../src/mesh/topology.js';
 import { flatGrid, icosphere, terrain, rng, type Shape } from '../fixtures/shapes.js';
@@ -100,6 +103,24 @@ describe('intrinsic Delaunay flips', () => {
         expect(Math.hypot(P[3 * v]! - ux, P[3 * v + 1]! - uy)).toBeGreaterThan(R * (1 - 1e-7));
       }
     }
+  });
+
+  it('gives a cotan Laplacian with non-negative weights and linear precision after flipping', () => {
+    // Delaunay ⇒ all interior cotan weights ≥ 0 (Bobenko & Springborn 2007); the cotan
+    // Laplacian of any planar triangulation annihilates linear functions at
+    // interior vertices (common practice), flipped or not.
+    const s = shearedGrid(9, 9, 6);
+    const r = intrinsicDelaunay(meshOf(s));
+    const p = edgePattern(r.mesh.topology);
+    const Lv = cotanLaplacian(r.mesh, p);
+    const t = r.mesh.topology;
+    // interior edges only: a boundary edge has one opposite angle and is never flipped
+    for (let e = 0; e < t.ne; e++) if (t.twin[t.edgeHalfedge[e]!]! >= 0) expect(Lv[p.edgeSlot[e]!]).toBeLessThanOrEqual(1e-12);
+    const x = Float64Array.from({ length: p.n }, (_, v) => 2 * s.positions[3 * v]! - s.positions[3 * v + 1]!);
+    const out = new Float64Array(p.n);
+    symmetricSpmvLower(patternMatrix(p, Lv), x, out);
+    const onB = boundaryVertexMask(r.mesh.topology);
+    for (let v = 0; v < p.n; v++) if (!onB[v]) expect(Math.abs(out[v]!)).toBeLessThan(1e-10);
   });
 
   it('preserves total area and every vertex angle sum on curved surfaces', () => {

@@ -1,0 +1,97 @@
+/**
+ * Heat-method benchmark: preparation (mollify + intrinsic flips, ordering +
+ * symbolic analysis, numeric factorizations), nnz(L), single-source solve
+ * time and peak memory, with ratios against edge-graph Dijkstra measured in
+ * the same run on the same mesh.
+ *
+ * Meshes: jittered terrain grids (~10k, ~100k, ~1M vertices) and perturbed
+ * icospheres (levels 5, 7, 8: 10242, 163842, 655362 vertices, the levels
+ * nearest those sizes). `--quick` runs the 10k and 100k sizes only.
+ * Goals at 1M: solve ≤ 1.5× Dijkstra, factorization ≤ 20× Dijkstra, peak RSS < 3 GB.
+ */
+import { emit, timeMedian, peakRssMB, quick } from './harness.js';
+import { buildTopology } from '../../src/mesh/build.js';
+import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
+import { HeatSolver, type HeatOptions } from '../../src/geodesic/heat.js';
+import { graphDistance } from '../../src/geodesic/graph.js';
+import { icosphere, terrain, rng, type Shape } from '../fixtures/shapes.js';
+
+const BENCH = 'heat';
+
+function jitteredTerrain(n: number, seed: number): Shape {
+  const s = terrain(n, n, 1000, 1000, (x, y) => 40 * Math.sin(x / 90) * Math.cos(y / 130) + 15 * Math.sin((x + y) / 37));
+  const r = rng(seed), cell = 1000 / n;
+  for (let i = 0; i < s.positions.length; i += 3) {
+    const x = s.positions[i]!, y = s.positions[i + 1]!;
+    if (x > 0 && x < 1000 && y > 0 && y < 1000) {
+      s.positions[i] = x + 0.6 * cell * (r() - 0.5);
+      s.positions[i + 1] = y + 0.6 * cell * (r() - 0.5);
+    }
+  }
+  return s;
+}
+
+function bumpySphere(level: number, seed: number): Shape {
+  const s = icosphere(level, 100);
+  const r = rng(seed);
+  for (let i = 0; i < s.positions.length; i += 3) {
+    const k = 1 + 0.002 * (r() - 0.5) + 0.05 * Math.sin(3 * s.positions[i]! / 100) * Math.cos(2 * s.positions[i + 2]! / 100);
+    for (let d = 0; d < 3; d++) s.positions[i + d]! *= k;
+  }
+  return s;
+}
+
+function meshOf(s: Shape): IntrinsicMesh {
+  const { topology } = buildTopology(s.triangles, s.positions.length / 3);
+  return intrinsicFromPositions(topology, s.positions);
+}
+
+async function runCase(name: string, make: () => Shape, opts: HeatOptions): Promise<void> {
+  const mesh = meshOf(make());
+  const nv = mesh.topology.nv;
+  const extra = { nv, nf: mesh.topology.nf };
+  (globalThis as { gc?: () => void }).gc?.();
+
+  const runs = nv > 500_000 ? 3 : 5;
+  const centre = (nv / 2) | 0;
+  const dijkstra = await timeMedian(() => graphDistance(mesh, { points: [{ kind: 'vertex', vertex: centre }], curves: [] }), runs, 1);
+
+  const t0 = performance.now();
+  const solver = HeatSolver.prepare(mesh, opts);
+  const prepareMs = performance.now() - t0;
+  const st = solver.stats;
+  let k = 0;
+  const sources = [centre, 0, (nv / 3) | 0, (2 * nv / 3) | 0, nv - 1];
+  const solve = await timeMedian(() => solver.distance({ points: [{ kind: 'vertex', vertex: sources[k++ % sources.length]! }], curves: [] }), runs, 1);
+
+  // sanity: heat distance should be within a few percent of (and mostly below) the graph distance
+  const dh = solver.distance({ points: [{ kind: 'vertex', vertex: centre }], curves: [] }).distance;
+  const dg = dijkstra.result.distance;
+  let ratioSum = 0, n = 0;
+  for (let v = 0; v < nv; v += 97) if (dg[v]! > 0 && Number.isFinite(dg[v]!)) { ratioSum += dh[v]! / dg[v]!; n++; }
+
+  const rec = (metric: string, value: number, unit: string, more: Record<string, unknown> = {}) =>
+    emit({ bench: BENCH, case: name, metric, value, unit, ...extra, ...more });
+  rec('dijkstra', dijkstra.ms, 'ms');
+  rec('prepare', prepareMs, 'ms', { ratioToDijkstra: prepareMs / dijkstra.ms });
+  rec('remesh', st.remeshMs, 'ms', { flips: st.flips, mollifyEpsilon: st.mollifyEpsilon });
+  rec('ordering+symbolic', st.analysisMs, 'ms', { ordering: st.ordering });
+  rec('factorization', st.factorMs, 'ms', {
+    factorizations: st.factorizations, ratioToDijkstra: st.factorMs / dijkstra.ms,
+    orderingPlusFactorRatio: (st.analysisMs + st.factorMs) / dijkstra.ms,
+  });
+  rec('nnzL', st.nnzL, 'entries', { perVertex: st.nnzL / nv });
+  rec('solve', solve.ms, 'ms', { ratioToDijkstra: solve.ms / dijkstra.ms, flatFaces: solver.lastSolve.flatFaces });
+  rec('heatOverGraph', ratioSum / n, 'ratio');
+  rec('peakRss', peakRssMB(), 'MB');
+}
+
+const sizes = quick() ? [0, 1] : [0, 1, 2];
+const grid = [100, 316, 1000];
+const level = [5, 7, 8];
+const ordering = process.argv.find((a) => a.startsWith('--ordering='))?.slice(11) as HeatOptions['ordering'];
+const opts: HeatOptions = ordering ? { ordering } : {};
+for (const i of sizes) {
+  await runCase(`terrain-${grid[i]}x${grid[i]}`, () => jitteredTerrain(grid[i]!, 3), opts);
+  await runCase(`sphere-level${level[i]}`, () => bumpySphere(level[i]!, 5), opts);
+}
