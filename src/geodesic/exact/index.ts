@@ -1,0 +1,199 @@
+/**
+ * Exact polyhedral geodesic distances and shortest paths by window
+ * propagation.
+ *
+ * Method. Continuous Dijkstra with windows (Mitchell, Mount, Papadimitriou,
+ * SIAM J. Comput. 16(4), 1987) in the practical form of Surazhsky,
+ * Surazhsky, Kirsanov, Gortler & Hoppe, "Fast exact and approximate
+ * geodesics on meshes", ACM TOG 24(3), 2005: windows on edges, one priority
+ * queue ordered by each window's smallest distance, saddle and boundary
+ * vertices as pseudo-sources. Where that paper intersects and trims
+ * overlapping windows on an edge, this solver keeps windows immutable and
+ * prunes them with the vertex-distance test of Xin & Wang, ACM TOG 28(4),
+ * 2009 (see propagate.ts for the two-line proof). Why this choice over the
+ * triangle-oriented scheme of Qin et al. (ACM TOG 35(4), 2016):
+ * - the queue order by distance is what makes early stopping exact: a
+ *   two-point query or a distance cap only touches faces up to that distance;
+ * - immutable windows keep every parent link valid, so back-tracing an exact
+ *   path is a walk up the parent chain, and evaluating any surface point is a
+ *   scan of its face's windows;
+ * - no window-intersection quadratic (the fragile part of MMP under
+ *   rounding): every test is a comparison of two real path lengths, so
+ *   every reported value is the length of a real path, never NaN.
+ *
+ * The solver reads edge lengths only (faces laid out in the plane from
+ * their three lengths), so any intrinsic metric works.
+ *
+ * Sources: vertices; points on edges and in faces (their faces' edges get
+ * windows, their faces' corners straight distances); curves, as the union
+ * of their points and straight segments (see segments.ts).
+ */
+import type { IntrinsicMesh } from '../../metric/intrinsic.js';
+import type { SurfacePoint } from '../../query/surface-point.js';
+import { checkSurfacePoint } from '../../query/surface-point.js';
+import type { DistanceField, SurfacePath } from '../field.js';
+import type { SourceSet } from '../sources.js';
+import { limitError, usageError } from '../../errors.js';
+import { facesOfPoint } from './layout.js';
+import { createState, addRoot, relaxVertex, VIA_ROOT, VIA_SOURCE } from './state.js';
+import type { ExactState } from './state.js';
+import { emitFromPoint, runEvents } from './propagate.js';
+import { markPseudoSources } from './pseudo-sources.js';
+import { baryInFace, evaluateInFace } from './evaluate.js';
+import type { Evaluation } from './evaluate.js';
+import { tracePath } from './backtrace.js';
+import { pathLength } from '../path.js';
+
+/** Options of {@link exactDistance}. */
+export interface ExactOptions {
+  /** Stop at this distance (mesh units): farther vertices and points report Infinity. */
+  maxDistance?: number;
+  /** Stop as soon as every target's distance is final (a two-point query). */
+  targets?: SurfacePoint[];
+  /** Guard on the number of windows (default 64 per face, at least 200 000, at most 24 million). */
+  maxWindows?: number;
+}
+
+/** Result of {@link exactDistance}. */
+export interface ExactResult {
+  /** Per-vertex distances (method 'exact'); Infinity when unreachable or beyond where the run stopped. */
+  field: DistanceField;
+  /** Windows created. */
+  windows: number;
+  /** Faces that received a window or hold a source. */
+  facesTouched: number;
+  /** False when the run stopped early (maxDistance or targets). */
+  complete: boolean;
+  /** Exact distance at any surface point (Infinity when unreachable or beyond where the run stopped). */
+  distanceAt(p: SurfacePoint): number;
+  /** An exact shortest path from the sources to p; empty with length Infinity when p was not reached. */
+  pathTo(p: SurfacePoint): SurfacePath;
+}
+
+/** Default window cap for a mesh of nf faces. */
+export function defaultMaxWindows(nf: number): number {
+  return Math.min(Math.max(200_000, 64 * nf), 24_000_000);
+}
+
+/**
+ * Exact geodesic distance from a source set on an intrinsic mesh.
+ * Throws USAGE for bad sources or options and LIMIT when the window cap trips.
+ */
+export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: ExactOptions = {}): ExactResult {
+  const t = mesh.topology;
+  const maxD = opts.maxDistance ?? Infinity;
+  if (!(maxD >= 0)) throw usageError(`maxDistance must be a non-negative number, got ${opts.maxDistance}`);
+  const maxW = opts.maxWindows ?? defaultMaxWindows(t.nf);
+  if (!(maxW >= 1)) throw usageError(`maxWindows must be a positive number, got ${opts.maxWindows}`);
+  const all: SurfacePoint[] = [];
+  sources.points.forEach((p) => all.push(checkSurfacePoint(p, t, 'source')));
+  sources.curves.forEach((c, i) => c.forEach((p) => checkSurfacePoint(p, t, `curve ${i}`)));
+  const targets = (opts.targets ?? []).map((p) => checkSurfacePoint(p, t, 'target'));
+
+  const s = createState(mesh, maxD, maxW, Math.min(maxW, 8 * t.nf + 1024));
+  markPseudoSources(s);
+  const bary = [0, 0, 0];
+  const seedPoint = (p: SurfacePoint, index: number) => {
+    if (p.kind === 'vertex') {
+      s.pseudo[p.vertex] = 1;
+      relaxVertex(s, p.vertex, 0, VIA_SOURCE, -1);
+      return;
+    }
+    const root = addRoot(s, -1, 0);
+    const faces = facesOfPoint(t, p);
+    const bs: number[] = [];
+    for (const f of faces) {
+      baryInFace(t, f, p, bary);
+      bs.push(...bary);
+    }
+    s.pointRoots.push({ root, source: index, faces, bary: bs });
+    faces.forEach((f, j) => {
+      const b = bs.slice(3 * j, 3 * j + 3);
+      emitFromPoint(s, f, b, 0, root);
+      for (let k = 0; k < 3; k++) {
+        const g = 3 * f + k;
+        // corner k sits at the origin of the frame of g; the point at pointInFrame(f, k)
+        const px = b[(k + 1) % 3]! * s.hl[g]! + b[(k + 2) % 3]! * s.hc[2 * g]!;
+        const py = b[(k + 2) % 3]! * s.hc[2 * g + 1]!;
+        relaxVertex(s, t.tri[g]!, Math.hypot(px, py), VIA_ROOT, root);
+      }
+    });
+  };
+  all.forEach((p, i) => seedPoint(p, i));
+  if (sources.curves.some((c) => c.length > 1)) seedCurves(s, sources.curves, all, seedPoint);
+  else sources.curves.forEach((c) => c.forEach((p) => { all.push(p); seedPoint(p, all.length - 1); }));
+
+  const ev: Evaluation = { value: Infinity, kind: 0, id: -1, x: 0 };
+  const best = (p: SurfacePoint): Evaluation => {
+    const out: Evaluation = { value: Infinity, kind: 0, id: -1, x: 0 };
+    for (const f of facesOfPoint(t, p)) {
+      baryInFace(t, f, p, bary);
+      evaluateInFace(s, f, bary, ev);
+      if (ev.value < out.value) Object.assign(out, ev);
+    }
+    if (p.kind === 'vertex' && s.dist[p.vertex]! <= out.value) {
+      Object.assign(out, { value: s.dist[p.vertex]!, kind: 2, id: p.vertex, x: 0 });
+    }
+    return out;
+  };
+  let stop: ((key: number) => boolean) | undefined;
+  if (targets.length) {
+    const done = new Uint8Array(targets.length);
+    stop = (key) => {
+      let all = true;
+      for (let i = 0; i < targets.length; i++) {
+        if (done[i]) continue;
+        if (best(targets[i]!).value <= key) done[i] = 1;
+        else all = false;
+      }
+      return all;
+    };
+  }
+  const stopKey = runEvents(s, stop);
+  if (s.overflow) {
+    throw limitError(
+      `exact geodesics: the window cap of ${maxW} was reached (mesh of ${t.nf} faces); ` +
+        'raise maxWindows, set maxDistance, or use the heat or graph method',
+    );
+  }
+  const reach = Math.min(stopKey, maxD);
+  const distance = new Float64Array(t.nv);
+  for (let v = 0; v < t.nv; v++) distance[v] = s.dist[v]! <= reach ? s.dist[v]! : Infinity;
+  const field: DistanceField = { method: 'exact', distance, sources: [...sources.points, ...sources.curves.flat()] };
+  const sourcePoint = (root: number): SurfacePoint => all[s.pointRoots.find((r) => r.root === root)!.source]!;
+  return {
+    field,
+    windows: s.win.count,
+    facesTouched: countTouched(s),
+    complete: stopKey === Infinity,
+    distanceAt(p) {
+      checkSurfacePoint(p, t, 'point');
+      const v = best(p).value;
+      return v <= reach ? v : Infinity;
+    },
+    pathTo(p) {
+      checkSurfacePoint(p, t, 'point');
+      const b = best(p);
+      if (!(b.value <= reach)) return { points: [], length: Infinity };
+      const points = tracePath(s, p, b, sourcePoint);
+      return { points, length: pathLength(mesh, points) };
+    },
+  };
+}
+
+function countTouched(s: ExactState): number {
+  const seen = new Uint8Array(s.t.nf);
+  const W = s.win;
+  for (let h = 0; h < W.heHead.length; h++) {
+    for (let w = W.heHead[h]!; w >= 0; w = W.nextOnHe[w]!) if (W.state[w] !== 2) { seen[(h / 3) | 0] = 1; break; }
+  }
+  for (const r of s.pointRoots) for (const f of r.faces) seen[f] = 1;
+  let n = 0;
+  for (let f = 0; f < s.t.nf; f++) n += seen[f]!;
+  return n;
+}
+
+/** Placeholder until segment sources exist: every curve point becomes a point source. */
+function seedCurves(_s: ExactState, curves: SurfacePoint[][], all: SurfacePoint[], seedPoint: (p: SurfacePoint, i: number) => void): void {
+  for (const c of curves) for (const p of c) { all.push(p); seedPoint(p, all.length - 1); }
+}

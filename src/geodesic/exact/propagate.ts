@@ -1,0 +1,254 @@
+/**
+ * Window creation, filtering and propagation through one face, and the
+ * event loop.
+ *
+ * Propagating window w on half-edge h (frame of h: A = (0,0), B = (L,0),
+ * C = (cx, cy) above, image I = (sx, sy) below):
+ *
+ * ```
+ *                    C
+ *                   /·\          xC = where the ray I→C crosses AB
+ *     child on     / · \    child on
+ *     twin(CA)    /  ·  \   twin(BC)
+ *                /   ·   \
+ *             A ──[b0·xC··b1]── B
+ *                   \ · /
+ *                     I
+ * ```
+ *
+ * Rays through [b0, min(b1, xC)] leave through CA, rays through
+ * [max(b0, xC), b1] leave through BC; when xC ∈ [b0, b1], C itself is lit
+ * and gets the bound σ + |I − C|. A child is stored on the twin half-edge,
+ * in whose frame the image is again below the axis.
+ *
+ * Filter (Xin & Wang 2009, vertex-distance test): a window on A→B is
+ * useless when even its far end is reached sooner from an end vertex:
+ *   σ + |I − b1| > d(A) + b1        or   σ + |I − b0| > d(B) + (L − b0).
+ * Proof for the B test: g(x) = σ + |I − x| − d(B) − (L − x) is
+ * non-decreasing in x (d|I − x|/dx ≥ −1), so g(b0) > 0 gives g > 0 on the
+ * whole window; for any point q reached through x, σ + |I − q| =
+ * σ + |I − x| + |x − q| > d(B) + |B − x| + |x − q| ≥ d(B) + |B − q|, so no
+ * shortest path uses the window. Bounds d(·) are lengths of real paths, so
+ * the test only ever removes non-shortest paths.
+ */
+import { next, prev, faceOf } from '../../mesh/topology.js';
+import type { ExactState } from './state.js';
+import { addRoot, relaxVertex, VIA_WINDOW, VIA_VERTEX } from './state.js';
+import { trimInterval } from './trim.js';
+
+const TMP = new Float64Array(2);
+
+/** Relative slack of the filter and of degenerate-width tests. */
+const REL = 1e-12;
+/** Relative tolerance under which two windows count as the same image and σ (merged). */
+const MERGE = 1e-11;
+
+/** Stores a window after clamping and filtering; returns its id or −1. */
+export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: number, sy: number, sigma: number, parent: number): number {
+  const L = s.hl[h]!;
+  if (b0 < 0) b0 = 0;
+  if (b1 > L) b1 = L;
+  if (!(b1 - b0 > REL * L)) return -1;
+  if (!(sy <= 0)) sy = 0; // rounding (or NaN) guard: image never above the edge
+  const t = s.t;
+  const A = t.tri[h]!, B = t.tri[next(h)]!;
+  const v1 = sigma + Math.hypot(b1 - sx, sy);
+  const v0 = sigma + Math.hypot(b0 - sx, sy);
+  const dA = s.dist[A]!, dB = s.dist[B]!;
+  if (v1 > (dA + b1) * (1 + REL) || v0 > (dB + (L - b0)) * (1 + REL)) return -1;
+  // partial cut: g_A(y) = σ + |I − y| − d(A) − y is non-increasing, so where it is > 0 is a prefix;
+  // its zero solves √((y−sx)² + sy²) = y + k, k = d(A) − σ: y* = (sx² + sy² − k²) / (2(k + sx))
+  if (v0 > (dA + b0) * (1 + REL)) {
+    const k = dA - sigma, den = 2 * (k + sx);
+    const y = den > 0 ? (sx * sx + sy * sy - k * k) / den : NaN;
+    if (y > b0 && y < b1) b0 = y;
+  }
+  // mirrored for B: g_B(y) = σ + |I − y| − d(B) − (L − y) is non-decreasing, > 0 on a suffix
+  if (v1 > (dB + (L - b1)) * (1 + REL)) {
+    const k = dB - sigma, mx = L - sx, den = 2 * (k + mx);
+    const y = den > 0 ? L - (mx * mx + sy * sy - k * k) / den : NaN;
+    if (y > b0 && y < b1) b1 = y;
+  }
+  // trim against the windows already on this edge (either side), then trim queued ones against this
+  const W = s.win, g = t.twin[h]!;
+  // passes repeat until nothing changes: a cut by one window can expose an overlap with another
+  for (let pass = 0, changed = true; changed && pass < 8; pass++) {
+    changed = false;
+    for (let side = 0; side < 2; side++) {
+      const e = side === 0 ? h : g;
+      if (e < 0) continue;
+      for (let o = W.heHead[e]!; o >= 0; o = W.nextOnHe[o]!) {
+        if (W.state[o] === 2) continue;
+        const oLo = side === 0 ? W.b0[o]! : L - W.b1[o]!, oHi = side === 0 ? W.b1[o]! : L - W.b0[o]!;
+        if (!(oHi > b0 && oLo < b1)) continue;
+        const oc = side === 0 ? W.sx[o]! : L - W.sx[o]!;
+        if (!trimInterval(b0, b1, sx, sy, sigma, oLo, oHi, oc, W.sy[o]!, W.sigma[o]!, TMP)) return -1;
+        if (TMP[0] !== b0 || TMP[1] !== b1) changed = true;
+        b0 = TMP[0]!; b1 = TMP[1]!;
+      }
+    }
+  }
+  if (!(b1 - b0 > REL * L)) return -1;
+  const xm = sx < b0 ? b0 : sx > b1 ? b1 : sx;
+  const key = sigma + Math.hypot(xm - sx, sy);
+  if (key > s.maxDistance) return -1;
+  if (W.count >= s.maxWindows) {
+    s.overflow = true;
+    return -1;
+  }
+  for (let side = 0; side < 2; side++) {
+    const e = side === 0 ? h : g;
+    if (e < 0) continue;
+    for (let o = W.heHead[e]!; o >= 0; o = W.nextOnHe[o]!) {
+      if (W.state[o] !== 0) continue;
+      const oLo = side === 0 ? W.b0[o]! : L - W.b1[o]!, oHi = side === 0 ? W.b1[o]! : L - W.b0[o]!;
+      const oc = side === 0 ? W.sx[o]! : L - W.sx[o]!;
+      if (!trimInterval(oLo, oHi, oc, W.sy[o]!, W.sigma[o]!, b0, b1, sx, sy, sigma, TMP) || !(TMP[1]! - TMP[0]! > REL * L)) {
+        W.state[o] = 2;
+      } else if (side === 0) {
+        W.b0[o] = TMP[0]!; W.b1[o] = TMP[1]!;
+      } else {
+        W.b0[o] = L - TMP[1]!; W.b1[o] = L - TMP[0]!;
+      }
+    }
+  }
+  // a queued window on this half-edge with the same image and σ that touches N: grow it instead
+  const tolI = MERGE * (L + Math.abs(sx) - sy + sigma);
+  for (let o = W.heHead[h]!; o >= 0; o = W.nextOnHe[o]!) {
+    if (W.state[o] !== 0) continue;
+    if (Math.abs(W.sx[o]! - sx) > tolI || Math.abs(W.sy[o]! - sy) > tolI || Math.abs(W.sigma[o]! - sigma) > tolI) continue;
+    const o0 = W.b0[o]!, o1 = W.b1[o]!;
+    if (o1 < b0 - tolI || o0 > b1 + tolI) continue;
+    const n0 = o0 < b0 ? o0 : b0, n1 = o1 > b1 ? o1 : b1;
+    W.b0[o] = n0; W.b1[o] = n1;
+    const osx = W.sx[o]!, osy = W.sy[o]!;
+    const om = osx < n0 ? n0 : osx > n1 ? n1 : osx;
+    const okey = W.sigma[o]! + Math.hypot(om - osx, osy);
+    const oldKey = W.sigma[o]! + Math.hypot((osx < o0 ? o0 : osx > o1 ? o1 : osx) - osx, osy);
+    if (okey < oldKey) s.queue.push(okey, o); // the old entry pops later and is skipped
+    if (n0 <= REL * L) relaxVertex(s, A, W.sigma[o]! + Math.hypot(osx, osy), VIA_WINDOW, o);
+    if (n1 >= L * (1 - REL)) relaxVertex(s, B, W.sigma[o]! + Math.hypot(L - osx, osy), VIA_WINDOW, o);
+    return o;
+  }
+  const w = W.add(h, b0, b1, sx, sy, sigma, parent);
+  s.queue.push(key, w);
+  if (b0 <= REL * L) relaxVertex(s, A, sigma + Math.hypot(sx, sy), VIA_WINDOW, w);
+  if (b1 >= L * (1 - REL)) relaxVertex(s, B, sigma + Math.hypot(L - sx, sy), VIA_WINDOW, w);
+  return w;
+}
+
+/** u ∈ [0, 1] from a ratio, NaN and ±Infinity mapped into range. */
+function unit(num: number, den: number): number {
+  const u = num / den;
+  return u > 0 ? (u < 1 ? u : 1) : 0;
+}
+
+/** Propagates window w through its face (see the module sketch). */
+export function propagateWindow(s: ExactState, w: number): void {
+  const W = s.win, t = s.t;
+  if (W.state[w] !== 0) return;
+  W.state[w] = 1;
+  const h = W.he[w]!, b0 = W.b0[w]!, b1 = W.b1[w]!, sx = W.sx[w]!, sy = W.sy[w]!, sigma = W.sigma[w]!;
+  const L = s.hl[h]!;
+  // re-test against bounds that may have dropped since the window was queued
+  const A = t.tri[h]!, B = t.tri[next(h)]!;
+  if (sigma + Math.hypot(b1 - sx, sy) > (s.dist[A]! + b1) * (1 + REL)) return;
+  if (sigma + Math.hypot(b0 - sx, sy) > (s.dist[B]! + (L - b0)) * (1 + REL)) return;
+  const cx = s.hc[2 * h]!, cy = s.hc[2 * h + 1]!;
+  const den = cy - sy;
+  // ray I→C meets the axis at xC = sx + (cx − sx)·(−sy)/(cy − sy)
+  const xC = den > 0 ? sx + ((cx - sx) * -sy) / den : cx;
+  const hp = prev(h), hn = next(h);
+  if (xC >= b0 && xC <= b1) relaxVertex(s, t.tri[hp]!, sigma + Math.hypot(cx - sx, den), VIA_WINDOW, w);
+  const gp = t.twin[hp]!;
+  if (gp >= 0 && b0 < xC) {
+    // line A + u·(C − A): u(x) = x·sy / ((x − sx)·cy + sy·cx)
+    const x1 = b1 < xC ? b1 : xC;
+    const u0 = unit(b0 * sy, (b0 - sx) * cy + sy * cx);
+    const u1 = unit(x1 * sy, (x1 - sx) * cy + sy * cx);
+    const lca = Math.hypot(cx, cy), Lc = s.hl[gp]!;
+    if (lca > 0) {
+      const ex = cx / lca, ey = cy / lca; // frame of twin(CA) = A→C
+      addWindow(s, gp, u0 * Lc, u1 * Lc, sx * ex + sy * ey, -sx * ey + sy * ex, sigma, w);
+    }
+  }
+  const gn = t.twin[hn]!;
+  if (gn >= 0 && b1 > xC) {
+    // line B + u·(C − B): u(x) = sy·(x − L) / ((x − sx)·cy + sy·(cx − L))
+    const x0 = b0 > xC ? b0 : xC;
+    const u0 = unit(sy * (x0 - L), (x0 - sx) * cy + sy * (cx - L));
+    const u1 = unit(sy * (b1 - L), (b1 - sx) * cy + sy * (cx - L));
+    const dx = L - cx, dy = -cy, lbc = Math.hypot(dx, dy), Lc = s.hl[gn]!;
+    if (lbc > 0) {
+      const ex = dx / lbc, ey = dy / lbc; // frame of twin(BC) = C→B
+      const px = sx - cx, py = sy - cy;
+      addWindow(s, gn, (1 - u0) * Lc, (1 - u1) * Lc, px * ex + py * ey, -px * ey + py * ex, sigma, w);
+    }
+  }
+}
+
+/**
+ * Emits windows from a point of face f (barycentric b0, b1, b2 on its
+ * corners) at distance σ onto the twins of the face's edges that do not hold
+ * the point. In the frame of g = 3f+k the point is
+ * P = (b[k+1]·L + b[k+2]·cx, b[k+2]·cy) and in the frame of twin(g) it is
+ * (L − Px, −Py), lighting the whole edge.
+ */
+export function emitFromPoint(s: ExactState, f: number, b: ArrayLike<number>, sigma: number, root: number): void {
+  for (let k = 0; k < 3; k++) {
+    const g = 3 * f + k;
+    const gt = s.t.twin[g]!;
+    if (gt < 0) continue;
+    const bk1 = b[(k + 1) % 3]!, bk2 = b[(k + 2) % 3]!;
+    const L = s.hl[g]!;
+    const px = bk1 * L + bk2 * s.hc[2 * g]!, py = bk2 * s.hc[2 * g + 1]!;
+    if (!(py > 0)) continue;
+    addWindow(s, gt, 0, L, L - px, -py, sigma, -1 - root);
+  }
+}
+
+const CORNER: [number, number, number][] = [[1, 0, 0], [0, 1, 0], [0, 0, 1]];
+
+/** Settles vertex v: relaxes its edge neighbours and, for a pseudo-source, emits windows over its fan. */
+export function settleVertex(s: ExactState, v: number): void {
+  const t = s.t;
+  s.settled[v] = 1;
+  const dv = s.dist[v]!;
+  const start = t.vertexHalfedge[v]!;
+  if (start < 0) return;
+  const root = s.pseudo[v] ? addRoot(s, v, dv) : -1;
+  let h = start, steps = 0;
+  for (;;) {
+    relaxVertex(s, t.tri[next(h)]!, dv + s.hl[h]!, VIA_VERTEX, v);
+    if (root >= 0) emitFromPoint(s, faceOf(h), CORNER[h % 3]!, dv, root);
+    const hp = prev(h);
+    const o = t.twin[hp]!;
+    if (o < 0) {
+      relaxVertex(s, t.tri[hp]!, dv + s.hl[hp]!, VIA_VERTEX, v);
+      break;
+    }
+    h = o;
+    if (h === start || ++steps > t.tri.length) break;
+  }
+}
+
+/**
+ * Runs the event loop until the queue is empty, the next key passes
+ * `maxDistance`, `stop(key)` returns true (checked every 32 events) or the
+ * window cap trips. Returns the key at which it stopped (Infinity when the
+ * queue ran dry): every vertex bound ≤ that key is exact.
+ */
+export function runEvents(s: ExactState, stop?: (key: number) => boolean): number {
+  const q = s.queue;
+  let n = 0;
+  while (q.size > 0) {
+    const key = q.peekKey();
+    if (key > s.maxDistance) return key;
+    if (stop && (n++ & 31) === 0 && stop(key)) return key;
+    const id = q.pop();
+    if (id >= 0) propagateWindow(s, id);
+    else if (!s.settled[-1 - id]) settleVertex(s, -1 - id);
+    if (s.overflow) return key;
+  }
+  return Infinity;
+}

@@ -1,0 +1,110 @@
+/**
+ * Shared state of one exact run: per-vertex distance bounds and how each
+ * bound was reached, the window store, the event queue and the roots.
+ */
+import type { IntrinsicMesh } from '../../metric/intrinsic.js';
+import type { Topology } from '../../mesh/topology.js';
+import { layoutAlong } from './layout.js';
+import { WindowStore } from './windows.js';
+import { EventQueue } from './queue.js';
+
+/** How a vertex's distance bound was reached (`viaType`); see each constant. */
+export type Via = 0 | 1 | 2 | 3 | 4;
+/** No bound yet. */
+export const VIA_NONE = 0;
+/** Straight from a window: viaId = window id. */
+export const VIA_WINDOW = 1;
+/** Straight from a root inside one face: viaId = root id. */
+export const VIA_ROOT = 2;
+/** Along an edge from a settled vertex: viaId = that vertex. */
+export const VIA_VERTEX = 3;
+/** The vertex is itself a source. */
+export const VIA_SOURCE = 4;
+
+/** A point source off the vertices: the faces holding it and its barycentric coordinates in each. */
+export interface PointRoot {
+  /** Root id. */
+  root: number;
+  /** Index of the point in the run's source list. */
+  source: number;
+  /** Faces whose closure holds the point. */
+  faces: number[];
+  /** Barycentric coordinates in each face, three per face. */
+  bary: number[];
+}
+
+/** Everything a run reads and writes. */
+export interface ExactState {
+  readonly mesh: IntrinsicMesh;
+  readonly t: Topology;
+  /** Length of each half-edge. */
+  readonly hl: Float64Array;
+  /** Third corner (cx, cy) of the face of each half-edge laid out along it (see layout.ts). */
+  readonly hc: Float64Array;
+  /** Upper bound on the distance of each vertex; exact once settled. */
+  readonly dist: Float64Array;
+  readonly viaType: Uint8Array;
+  readonly viaId: Int32Array;
+  readonly settled: Uint8Array;
+  /** 1 for vertices that emit windows when settled (sources, saddles, boundary vertices). */
+  readonly pseudo: Uint8Array;
+  readonly win: WindowStore;
+  readonly queue: EventQueue;
+  /** Root r: vertex (−1 for a point source) and its distance σ. */
+  rootVertex: Int32Array;
+  rootSigma: Float64Array;
+  nRoots: number;
+  /** Point sources off the vertices. */
+  pointRoots: PointRoot[];
+  /** Windows beyond this key are not stored. */
+  readonly maxDistance: number;
+  readonly maxWindows: number;
+  /** Set when the window cap tripped. */
+  overflow: boolean;
+}
+
+/** Allocates the state for a mesh; `capacity` is the initial window capacity. */
+export function createState(mesh: IntrinsicMesh, maxDistance: number, maxWindows: number, capacity: number): ExactState {
+  const t = mesh.topology;
+  const nh = 3 * t.nf;
+  const hl = new Float64Array(nh), hc = new Float64Array(2 * nh);
+  for (let h = 0; h < nh; h++) hl[h] = layoutAlong(mesh, h, hc, 2 * h);
+  return {
+    mesh, t, hl, hc,
+    dist: new Float64Array(t.nv).fill(Infinity),
+    viaType: new Uint8Array(t.nv),
+    viaId: new Int32Array(t.nv).fill(-1),
+    settled: new Uint8Array(t.nv),
+    pseudo: new Uint8Array(t.nv),
+    win: new WindowStore(t.nf, capacity),
+    queue: new EventQueue(capacity),
+    rootVertex: new Int32Array(64),
+    rootSigma: new Float64Array(64),
+    nRoots: 0,
+    pointRoots: [],
+    maxDistance,
+    maxWindows,
+    overflow: false,
+  };
+}
+
+/** Registers a root and returns its id. */
+export function addRoot(s: ExactState, vertex: number, sigma: number): number {
+  if (s.nRoots === s.rootVertex.length) {
+    const v = new Int32Array(2 * s.nRoots), g = new Float64Array(2 * s.nRoots);
+    v.set(s.rootVertex); g.set(s.rootSigma);
+    s.rootVertex = v; s.rootSigma = g;
+  }
+  s.rootVertex[s.nRoots] = vertex;
+  s.rootSigma[s.nRoots] = sigma;
+  return s.nRoots++;
+}
+
+/** Lowers vertex v's bound to d (recording how) and queues it; ignores settled vertices. */
+export function relaxVertex(s: ExactState, v: number, d: number, type: Via, id: number): void {
+  if (s.settled[v] || !(d < s.dist[v]!)) return;
+  s.dist[v] = d;
+  s.viaType[v] = type;
+  s.viaId[v] = id;
+  if (d <= s.maxDistance) s.queue.push(d, -1 - v);
+}

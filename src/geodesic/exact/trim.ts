@@ -1,0 +1,86 @@
+/**
+ * Trimming overlapping windows on one edge (Surazhsky et al. 2005, §3.3).
+ *
+ * On the common line of an edge, window N gives f_N(x) = σ_N + √((x−a)² + b²)
+ * and window O gives f_O(x) = σ_O + √((x−c)² + d²). Where f_N > f_O, every
+ * path through N at x is beaten by the real path through O to x, so N is
+ * useless there (on either side of the edge). D = f_N − f_O vanishes where
+ *
+ *   √((x−a)² + b²) = Δ + √((x−c)² + d²),            Δ = σ_O − σ_N;
+ *   αx + β = 2Δ·√((x−c)² + d²),   α = 2(c − a),  β = a² − c² + b² − d² − Δ²;
+ *   (α² − 4Δ²)x² + (2αβ + 8Δ²c)x + β² − 4Δ²(c² + d²) = 0,
+ *
+ * so at most two zeros. The overlap is cut at those zeros; the sign of D at
+ * the middle of each piece says where N is worse. Only a worse prefix or
+ * suffix of N's interval is cut (a worse middle is kept: keeping too much is
+ * always safe), and only where D exceeds a relative slack, so near-ties keep
+ * both windows.
+ */
+
+/** Relative slack: N must be worse by more than this fraction of its distance. */
+const SLACK = 1e-10;
+
+const bp = new Float64Array(4);
+const worse = new Uint8Array(3);
+
+/**
+ * Shrinks N's interval [lo, hi] to exclude a prefix/suffix where it is worse
+ * than O (interval [oLo, oHi], same frame). Writes the new interval to
+ * out[0], out[1]; returns false when N is worse on all of [lo, hi].
+ */
+export function trimInterval(
+  lo: number, hi: number, a: number, b: number, sN: number,
+  oLo: number, oHi: number, c: number, d: number, sO: number,
+  out: Float64Array,
+): boolean {
+  out[0] = lo; out[1] = hi;
+  const p = lo > oLo ? lo : oLo, q = hi < oHi ? hi : oHi;
+  if (!(q > p)) return true;
+  // zeros of D in coordinates relative to p (keeps large map coordinates accurate)
+  const A = a - p, C = c - p;
+  const dl = sO - sN;
+  const al = 2 * (C - A);
+  const be = A * A - C * C + b * b - d * d - dl * dl;
+  const q2 = al * al - 4 * dl * dl, q1 = 2 * al * be + 8 * dl * dl * C, q0 = be * be - 4 * dl * dl * (C * C + d * d);
+  let n = 0;
+  bp[n++] = p;
+  const span = q - p;
+  let r1 = NaN, r2 = NaN;
+  if (Math.abs(q2) * span * span <= 1e-14 * (Math.abs(q1) * span + Math.abs(q0))) {
+    if (q1 !== 0) r1 = -q0 / q1;
+  } else {
+    const disc = q1 * q1 - 4 * q2 * q0;
+    if (disc >= 0) {
+      const qq = -0.5 * (q1 + (q1 >= 0 ? 1 : -1) * Math.sqrt(disc));
+      if (qq !== 0) {
+        r1 = qq / q2; r2 = q0 / qq;
+        if (r2 < r1) { const x = r1; r1 = r2; r2 = x; }
+      } else r1 = 0;
+    }
+  }
+  // zeros strictly inside (p, q), in increasing order (NaN fails both tests)
+  if (r1 > 0 && r1 < span) bp[n++] = r1 + p;
+  if (r2 > 0 && r2 < span && r2 > r1) bp[n++] = r2 + p;
+  bp[n++] = q;
+  // worse[i]: N loses to O on the whole piece [bp[i], bp[i+1]] (D keeps its sign between zeros)
+  const pieces = n - 1;
+  for (let i = 0; i < pieces; i++) {
+    const m = 0.5 * (bp[i]! + bp[i + 1]!);
+    const fN = sN + Math.hypot(m - a, b), fO = sO + Math.hypot(m - c, d);
+    worse[i] = fN - fO > SLACK * fN ? 1 : 0;
+  }
+  let k = 0;
+  while (k < pieces && worse[k]) k++;
+  if (k === pieces) {
+    if (p <= lo && q >= hi) return false;
+    if (p <= lo) out[0] = q;
+    else if (q >= hi) out[1] = p;
+  } else {
+    let j = pieces - 1;
+    while (j >= 0 && worse[j]) j--;
+    if (p <= lo && k > 0) out[0] = bp[k]!;
+    if (q >= hi && j < pieces - 1) out[1] = bp[j + 1]!;
+  }
+  if (!(out[1] > out[0])) return false;
+  return true;
+}

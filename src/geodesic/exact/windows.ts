@@ -1,0 +1,81 @@
+/**
+ * Window storage for the exact solver: struct-of-arrays, growable.
+ *
+ * A window lies on half-edge `he` and propagates into `faceOf(he)`. In the
+ * frame of `he` (tail at the origin, tip at (L, 0), its face above the x
+ * axis) the window is the interval [b0, b1] of the x axis lit by the image
+ * I = (sx, sy), sy ≤ 0, of a (pseudo-)source at distance σ:
+ *
+ * ```
+ *            face(he)
+ *      ───────[b0=====b1]──────▶ he
+ *               \     /
+ *                \   /     distance at x ∈ [b0, b1] = σ + |x − I|
+ *                 \ /
+ *                  I (unfolded source image, below the axis)
+ * ```
+ *
+ * `parent` is the window it was propagated from (≥ 0) or −1 − r for a root
+ * r (a source or pseudo-source). A window may shrink or die only while it
+ * is still queued (`state` 0); once propagated (`state` 1) it never
+ * changes, so parent links and intervals stay valid for back-tracing. Each
+ * half-edge keeps a singly linked list (`heHead`, `nextOnHe`) of the
+ * windows lying on it.
+ */
+export class WindowStore {
+  /** Number of windows stored. */
+  count = 0;
+  he: Int32Array;
+  b0: Float64Array;
+  b1: Float64Array;
+  sx: Float64Array;
+  sy: Float64Array;
+  sigma: Float64Array;
+  parent: Int32Array;
+  nextOnHe: Int32Array;
+  /** 0 queued, 1 propagated, 2 dead (trimmed away before propagation). */
+  state: Uint8Array;
+  /** First window on each half-edge, −1 when none. */
+  readonly heHead: Int32Array;
+
+  /** @param nf - number of faces; @param capacity - initial capacity (grows by doubling) */
+  constructor(nf: number, capacity: number) {
+    const c = Math.max(64, capacity);
+    this.he = new Int32Array(c);
+    this.b0 = new Float64Array(c);
+    this.b1 = new Float64Array(c);
+    this.sx = new Float64Array(c);
+    this.sy = new Float64Array(c);
+    this.sigma = new Float64Array(c);
+    this.parent = new Int32Array(c);
+    this.nextOnHe = new Int32Array(c);
+    this.state = new Uint8Array(c);
+    this.heHead = new Int32Array(3 * nf).fill(-1);
+  }
+
+  /** Stores a window and returns its id. */
+  add(he: number, b0: number, b1: number, sx: number, sy: number, sigma: number, parent: number): number {
+    if (this.count === this.he.length) this.grow();
+    const w = this.count++;
+    this.he[w] = he; this.b0[w] = b0; this.b1[w] = b1;
+    this.sx[w] = sx; this.sy[w] = sy; this.sigma[w] = sigma; this.parent[w] = parent;
+    this.state[w] = 0;
+    this.nextOnHe[w] = this.heHead[he]!;
+    this.heHead[he] = w;
+    return w;
+  }
+
+  /** Bytes held by the window arrays. */
+  get bytes(): number {
+    return this.he.length * 53 + this.heHead.byteLength;
+  }
+
+  private grow(): void {
+    const c = 2 * this.he.length;
+    const gi = (a: Int32Array) => { const b = new Int32Array(c); b.set(a); return b; };
+    const gf = (a: Float64Array) => { const b = new Float64Array(c); b.set(a); return b; };
+    this.he = gi(this.he); this.parent = gi(this.parent); this.nextOnHe = gi(this.nextOnHe);
+    const st = new Uint8Array(c); st.set(this.state); this.state = st;
+    this.b0 = gf(this.b0); this.b1 = gf(this.b1); this.sx = gf(this.sx); this.sy = gf(this.sy); this.sigma = gf(this.sigma);
+  }
+}
