@@ -7,6 +7,8 @@ import { Command, CommanderError } from 'commander';
 import { registerInspect } from './commands/inspect.js';
 import { registerCurvature } from './commands/curvature.js';
 import { registerDemo } from './commands/demo.js';
+import { registerDistance } from './commands/distance.js';
+import { registerPath } from './commands/path.js';
 import { EXIT_INPUT, reportError } from './run.js';
 
 const program = new Command();
@@ -22,6 +24,8 @@ program
 
 registerInspect(program);
 registerCurvature(program);
+registerDistance(program);
+registerPath(program);
 registerDemo(program);
 
 try {

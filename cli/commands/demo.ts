@@ -5,7 +5,7 @@
  */
 import type { Command } from 'commander';
 import { mkdirSync } from 'node:fs';
-import { dirname, join, resolve } from 'node:path';
+import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { loadSurface } from '../load.js';
 import { inspectSurface } from '../../src/report/inspect.js';
@@ -13,6 +13,16 @@ import { curvatureSummary } from '../../src/report/curvature.js';
 import { writeVertexColumns } from '../output.js';
 import { action, fmt } from '../run.js';
 import { formatInspect } from './inspect.js';
+import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
+import { PointResolver } from '../../src/query/resolve.js';
+import { prepareDistance } from '../../src/geodesic/solver.js';
+import { fieldStats } from '../../src/geodesic/field.js';
+import { boundaryCurves } from '../../src/geodesic/sources.js';
+import { shortestPathThrough } from '../../src/geodesic/waypoints.js';
+import { pathPolyline } from '../../src/geodesic/path.js';
+import { writeObjPolyline } from '../../src/io/write-obj.js';
+import { writeFileAtomic } from '../../src/io/atomic.js';
+import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
 
 
 function meshDir(): string {
@@ -30,11 +40,12 @@ export function registerDemo(program: Command): void {
     .action(
       action(async (opts: { out: string }) => {
         const dir = meshDir();
+        const rel = (p: string) => relative(process.cwd(), p);
         const out = resolve(opts.out);
         mkdirSync(out, { recursive: true });
         const say = (s: string) => process.stdout.write(s + '\n');
         say('orthodrome demo — invented scenario: the Ostrel Knoll hillside scan (metres) and the PX-7 drawn cup (millimetres)');
-        say(`outputs go to ${out}\n`);
+        say(`outputs go to ${rel(out) || '.'}\n`);
 
         // 1. hillside: health and curvature
         const knoll = await loadSurface(join(dir, 'ostrel-knoll.obj'), { requireManifold: true });
@@ -46,9 +57,36 @@ export function registerDemo(program: Command): void {
           { name: 'gaussianCurvature', unit: '1/m²', values: kc.gaussianCurvature },
           { name: 'meanCurvature', unit: '1/m', values: kc.meanCurvature },
         ]);
-        say(`  curvature: Gaussian ${fmt(kc.summary.gaussian.min, 3)} … ${fmt(kc.summary.gaussian.max, 3)} 1/m², mean ${fmt(kc.summary.mean.min, 3)} … ${fmt(kc.summary.mean.max, 3)} 1/m → ${kFile}\n`);
+        say(`  curvature: Gaussian ${fmt(kc.summary.gaussian.min, 3)} … ${fmt(kc.summary.gaussian.max, 3)} 1/m², mean ${fmt(kc.summary.mean.min, 3)} … ${fmt(kc.summary.mean.max, 3)} 1/m → ${rel(kFile)}`);
 
-        // 2. part: health and curvature
+        // 2. hillside: walking distance on the ground from the trailhead car park
+        const kt = knoll.surface.topology;
+        const kMesh = intrinsicFromPositions(kt, knoll.surface.positions);
+        const kPoints = new PointResolver(kt, knoll.surface.positions);
+        const trailhead = kPoints.resolve('p:431212,6170412,230', 'trailhead');
+        const summit = kPoints.resolve('p:431280,6170470,260', 'summit cairn');
+        const saddle = kPoints.resolve('p:431322,6170483,240', 'saddle');
+        const exact = prepareDistance(kMesh, 'exact').solve({ points: [trailhead], curves: [] });
+        const heatSolver = prepareDistance(kMesh, 'heat');
+        const heat = heatSolver.solve({ points: [trailhead], curves: [] });
+        let diff = 0, n = 0;
+        for (let v = 0; v < kt.nv; v++) {
+          const e = exact.field.distance[v]!, h = heat.field.distance[v]!;
+          if (Number.isFinite(e) && e > 0) { diff += Math.abs(h - e) / e; n++; }
+        }
+        const kdFile = join(out, 'knoll-distance.ply');
+        await writeVertexColumns(kdFile, knoll.surface, [
+          { name: 'distance', unit: 'm', values: exact.field.distance, plyFill: -1 },
+          { name: 'heatDistance', unit: 'm', values: heat.field.distance, plyFill: -1 },
+        ]);
+        const ks = fieldStats(exact.field.distance);
+        say('== Ostrel Knoll: distance on the ground from the trailhead car park');
+        say(`  exact (window propagation): to the summit cairn ${fmt(exact.at(summit), 6)} m, to the saddle ${fmt(exact.at(saddle), 6)} m; farthest point of the scan ${fmt(ks.max, 6)} m`);
+        say(`  heat method: to the summit cairn ${fmt(heat.at(summit), 6)} m (mean difference from exact ${fmt((100 * diff) / Math.max(n, 1), 3)}%), prepared in ${fmt(heatSolver.prepareMs, 3)} ms, solved in ${fmt(heat.solveMs, 3)} ms`);
+        say(`  → ${rel(kdFile)}`);
+        say('  (planning aid only: see the terrain caution below)\n');
+
+        // 3. part: health and curvature
         const cup = await loadSurface(join(dir, 'px7-cup.ply'), { requireManifold: true });
         say('== PX-7 drawn cup: mesh health');
         say(formatInspect(inspectSurface(cup.surface)));
@@ -59,7 +97,25 @@ export function registerDemo(program: Command): void {
           { name: 'gaussianCurvature', unit: '1/mm²', values: cc.gaussianCurvature },
           { name: 'meanCurvature', unit: '1/mm', values: cc.meanCurvature },
         ]);
-        say(`  curvature: mean curvature ${fmt(cc.summary.mean.min, 3)} … ${fmt(cc.summary.mean.max, 3)} 1/mm; Gauss–Bonnet residual ${fmt(cc.summary.gaussBonnetResidual, 3)} rad → ${cFile}`);
+        say(`  curvature: mean curvature ${fmt(cc.summary.mean.min, 3)} … ${fmt(cc.summary.mean.max, 3)} 1/mm; Gauss–Bonnet residual ${fmt(cc.summary.gaussBonnetResidual, 3)} rad → ${rel(cFile)}`);
+
+        // 4. part: on-surface distance from the part's edges, and an exact cut path
+        const ct = cup.surface.topology;
+        const cMesh = intrinsicFromPositions(ct, cup.surface.positions);
+        const cPoints = new PointResolver(ct, cup.surface.positions);
+        const edges = prepareDistance(cMesh, 'exact').solve({ points: [], curves: boundaryCurves(ct) });
+        const ceFile = join(out, 'cup-edge-distance.csv');
+        await writeVertexColumns(ceFile, cup.surface, [{ name: 'distanceFromEdge', unit: 'mm', values: edges.field.distance }]);
+        const es = fieldStats(edges.field.distance);
+        say('== PX-7 cup: on-surface distance from the hole and flange edges, and a cut path');
+        say(`  distance from the nearest edge: up to ${fmt(es.max, 5)} mm (mean ${fmt(es.mean, 4)} mm) → ${rel(ceFile)}`);
+        const stops = ['p:6,0,0', 'p:0,30,26', 'p:-46,0,26'].map((x, i) => cPoints.resolve(x, ['hole edge', 'wall top', 'flange rim'][i]));
+        const route = shortestPathThrough(cMesh, stops);
+        const cpFile = join(out, 'cup-cut-path.obj');
+        await writeFileAtomic(cpFile, writeObjPolyline(pathPolyline(route.path, ct, cup.surface.positions), 'px7_cut_path'));
+        say(`  exact shortest cut path hole edge → wall top → flange rim: ${fmt(route.length, 6)} mm (legs ${route.legs.map((l) => fmt(l.length, 5)).join(' + ')} mm), ${route.path.points.length} points → ${rel(cpFile)}`);
+        say(TERRAIN_CAUTION);
+        say(MACHINING_CAUTION);
       }),
     );
 }

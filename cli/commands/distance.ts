@@ -1,0 +1,154 @@
+/**
+ * `orthodrome distance MESH --from POINT... [--to POINT...] [--method M]`:
+ * geodesic distance from a set of sources to every vertex and to chosen
+ * target points.
+ */
+import { Command, Option } from 'commander';
+import { loadSurface } from '../load.js';
+import { checkFieldOutput, writeVertexColumns } from '../output.js';
+import { action, fmt, since, toJson } from '../run.js';
+import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
+import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
+import { PointResolver } from '../../src/query/resolve.js';
+import { formatSurfacePoint, type SurfacePoint } from '../../src/query/surface-point.js';
+import { boundaryCurves, type SourceSet } from '../../src/geodesic/sources.js';
+import { prepareDistance, type DistanceOptions } from '../../src/geodesic/solver.js';
+import { fieldStats, type DistanceMethod } from '../../src/geodesic/field.js';
+import { usageError } from '../../src/errors.js';
+
+interface DistanceCliOptions {
+  from: string[];
+  to?: string[];
+  each?: boolean;
+  method: DistanceMethod;
+  output?: string;
+  json?: boolean;
+  maxDistance?: string;
+  timeScale?: string;
+  heatBoundary?: 'average' | 'neumann' | 'dirichlet';
+  intrinsicDelaunay: boolean;
+  mollify: boolean;
+  splitNonmanifold?: boolean;
+}
+
+const collect = (v: string, prev: string[] = []) => [...prev, v];
+
+function positiveNumber(text: string | undefined, name: string): number | undefined {
+  if (text === undefined) return undefined;
+  const x = Number(text);
+  if (!(x > 0) || !Number.isFinite(x)) throw usageError(`${name} must be a positive number, got '${text}'`);
+  return x;
+}
+
+/** Registers the command. */
+export function registerDistance(program: Command): void {
+  program
+    .command('distance')
+    .description('geodesic distance on the surface from sources to every vertex and to target points')
+    .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
+    .requiredOption('--from <point>', "source: v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2, p:X,Y,Z (nearest surface point) or 'boundary' (all boundary loops); repeat for several", collect)
+    .option('--to <point>', 'target point whose distance is printed; repeat for several', collect)
+    .option('--each', 'treat each --from as its own source set (one field per source, one prepared solver)')
+    .addOption(new Option('--method <method>', 'exact (window propagation), heat (heat method, approximate) or graph (along edges)').choices(['exact', 'heat', 'graph']).default('exact'))
+    .option('-o, --output <file>', 'write the per-vertex distances: .ply (binary, coloured), .csv or .json')
+    .option('--json', 'print the result as JSON')
+    .option('--max-distance <d>', 'exact and graph: stop at this distance (mesh units); farther vertices get no distance')
+    .option('--time-scale <m>', 'heat: time step t = m·h², h the mean edge length (default 1)')
+    .addOption(new Option('--heat-boundary <mode>', 'heat: boundary condition of the heat step').choices(['average', 'neumann', 'dirichlet']))
+    .option('--no-intrinsic-delaunay', 'heat: build the Laplacian on the input triangles instead of the intrinsic Delaunay triangulation')
+    .option('--no-mollify', 'heat: do not mollify near-degenerate triangles')
+    .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
+    .addHelpText('after', `\nDistances are in the mesh's own units; unreachable points get null (JSON) or an empty field (CSV).\n${TERRAIN_CAUTION}\n${MACHINING_CAUTION}`)
+    .action(action(async (mesh: string, o: DistanceCliOptions) => runDistance(mesh, o)));
+}
+
+async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number> {
+  if (o.output) checkFieldOutput(o.output);
+  const maxDistance = positiveNumber(o.maxDistance, '--max-distance');
+  const timeScale = positiveNumber(o.timeScale, '--time-scale');
+  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold });
+  const t = surface.topology;
+  const resolver = new PointResolver(t, surface.positions);
+
+  // source sets
+  const specs: string[] = o.from;
+  const toSet = (list: string[]): SourceSet => {
+    const set: SourceSet = { points: [], curves: [] };
+    for (const s of list) {
+      if (s.trim() === 'boundary') {
+        const loops = boundaryCurves(t);
+        if (loops.length === 0) throw usageError('--from boundary: the mesh has no boundary', mesh);
+        set.curves.push(...loops);
+      } else set.points.push(resolver.resolve(s, '--from'));
+    }
+    return set;
+  };
+  const sets = o.each ? specs.map((s) => ({ specs: [s], set: toSet([s]) })) : [{ specs, set: toSet(specs) }];
+  const targets: SurfacePoint[] = (o.to ?? []).map((s) => resolver.resolve(s, '--to'));
+
+  const opts: DistanceOptions = {};
+  if (maxDistance !== undefined) opts.maxDistance = maxDistance;
+  if (o.method === 'heat') {
+    opts.heat = { intrinsicDelaunay: o.intrinsicDelaunay, mollify: o.mollify };
+    if (timeScale !== undefined) opts.heat.timeScale = timeScale;
+    if (o.heatBoundary) opts.heat.boundary = o.heatBoundary;
+  }
+  const t0 = performance.now();
+  const im = intrinsicFromPositions(t, surface.positions);
+  const solver = prepareDistance(im, o.method, opts);
+  const prepareMs = since(t0);
+
+  const fieldNeeded = Boolean(o.output) || !o.to || o.to.length === 0 || o.json === true;
+  let solveMs = 0;
+  const results = sets.map(({ specs: sp, set }) => {
+    const r = solver.solve(set, { targets, fieldNeeded });
+    solveMs += r.solveMs;
+    return {
+      sources: sp,
+      result: r,
+      targets: targets.map((p, i) => ({ point: o.to![i]!, surfacePoint: formatSurfacePoint(p), distance: r.at(p) })),
+      stats: fieldStats(r.field.distance),
+    };
+  });
+
+  if (o.output) {
+    await writeVertexColumns(
+      o.output,
+      surface,
+      results.map((r, i) => ({
+        name: results.length > 1 ? `distance_${i}` : 'distance',
+        unit: 'mesh units',
+        values: r.result.field.distance,
+        plyFill: -1,
+      })),
+    );
+  }
+
+  const timings = { load: loadMs, prepare: prepareMs, solve: Math.round(solveMs * 100) / 100 };
+  if (o.json) {
+    const one = (r: (typeof results)[number]) => ({
+      sources: r.sources,
+      targets: r.targets,
+      field: { min: r.stats.min, max: r.stats.max, mean: r.stats.mean, unreachableVertices: r.stats.unreachable },
+      complete: r.result.complete,
+      details: r.result.details,
+    });
+    const base = { method: o.method, unit: 'mesh units', mesh, output: o.output ?? null };
+    const body = results.length === 1 ? { ...base, ...one(results[0]!) } : { ...base, sets: results.map(one) };
+    process.stdout.write(toJson({ ...body, timings, prepare: solver.prepareDetails }) + '\n');
+  } else {
+    const L: string[] = [`${mesh}: ${o.method} distances (mesh units), ${t.nv} vertices`];
+    for (const r of results) {
+      if (r.result.complete) {
+        L.push(`  from ${r.sources.join(' ')}: min ${fmt(r.stats.min)}, mean ${fmt(r.stats.mean)}, max ${fmt(r.stats.max)}${r.stats.unreachable ? `; ${r.stats.unreachable} vertices unreachable` : ''}`);
+      } else {
+        L.push(`  from ${r.sources.join(' ')}: stopped once the targets were settled (${r.stats.unreachable} of ${t.nv} vertices not computed; give -o or --json for the whole field)`);
+      }
+      for (const tg of r.targets) L.push(`    to ${tg.point}: ${Number.isFinite(tg.distance) ? fmt(tg.distance, 9) : 'unreachable'}`);
+    }
+    L.push(`  timings: load ${fmt(timings.load, 4)} ms, prepare ${fmt(timings.prepare, 4)} ms, solve ${fmt(timings.solve, 4)} ms`);
+    if (o.output) L.push(`  wrote ${o.output}`);
+    process.stdout.write(L.join('\n') + '\n');
+  }
+  return 0;
+}

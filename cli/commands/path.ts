@@ -1,0 +1,119 @@
+/**
+ * `orthodrome path MESH --from POINT --to POINT [--via POINT...] [--closed]`:
+ * the exact shortest path on the surface through waypoints.
+ */
+import type { Command } from 'commander';
+import { extname } from 'node:path';
+import { loadSurface } from '../load.js';
+import { action, fmt, since, toJson } from '../run.js';
+import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
+import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
+import { PointResolver } from '../../src/query/resolve.js';
+import { formatSurfacePoint } from '../../src/query/surface-point.js';
+import { shortestPathThrough } from '../../src/geodesic/waypoints.js';
+import { pathPolyline } from '../../src/geodesic/path.js';
+import { writeObjPolyline } from '../../src/io/write-obj.js';
+import { toCsv } from '../../src/io/csv.js';
+import { writeFileAtomic } from '../../src/io/atomic.js';
+import { usageError } from '../../src/errors.js';
+
+const PATH_FORMATS = ['.obj', '.csv', '.geojson', '.json'];
+const collect = (v: string, prev: string[] = []) => [...prev, v];
+
+interface PathCliOptions {
+  from: string;
+  to?: string;
+  via?: string[];
+  closed?: boolean;
+  output?: string;
+  json?: boolean;
+  splitNonmanifold?: boolean;
+}
+
+/** Registers the command. */
+export function registerPath(program: Command): void {
+  program
+    .command('path')
+    .description('exact shortest path on the surface from a point to another, through optional waypoints')
+    .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
+    .requiredOption('--from <point>', 'start: v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2 or p:X,Y,Z (nearest surface point)')
+    .option('--to <point>', 'end point (required unless --closed)')
+    .option('--via <point>', 'waypoint visited in order between --from and --to; repeat for several', collect)
+    .option('--closed', 'return to the start after the last point (a closed loop)')
+    .option('-o, --output <file>', 'write the path: .obj (polyline), .csv (x,y,z,length,face), .geojson (LineString with z, mesh coordinates) or .json')
+    .option('--json', 'print the result as JSON')
+    .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
+    .addHelpText(
+      'after',
+      `\nLengths are in the mesh's own units. GeoJSON coordinates are the mesh's own coordinates (RFC 7946 expects\nWGS 84 longitude/latitude; use the file only where another system is agreed).\n${TERRAIN_CAUTION}\n${MACHINING_CAUTION}`,
+    )
+    .action(action(async (mesh: string, o: PathCliOptions) => runPath(mesh, o)));
+}
+
+async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
+  if (o.output) {
+    const ext = extname(o.output).toLowerCase();
+    if (!PATH_FORMATS.includes(ext)) throw usageError(`unsupported output format '${ext || o.output}' (use ${PATH_FORMATS.join(', ')})`, o.output);
+  }
+  if (!o.to && !o.closed) throw usageError('give --to, or --closed to return to the start');
+  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold });
+  const t = surface.topology;
+  const resolver = new PointResolver(t, surface.positions);
+  const specs = [o.from, ...(o.via ?? []), ...(o.to ? [o.to] : [])];
+  const labels = ['--from', ...(o.via ?? []).map(() => '--via'), ...(o.to ? ['--to'] : [])];
+  const stops = specs.map((s, i) => resolver.resolve(s, labels[i]));
+  if (o.closed) stops.push(stops[0]!);
+  if (stops.length < 2) throw usageError('a path needs at least two points');
+
+  const t0 = performance.now();
+  const im = intrinsicFromPositions(t, surface.positions);
+  const route = shortestPathThrough(im, stops);
+  const solveMs = since(t0);
+  if (!Number.isFinite(route.length)) {
+    const leg = route.legs.findIndex((l) => !Number.isFinite(l.length));
+    throw usageError(`no path on the surface from ${specs[leg] ?? o.from} to ${specs[leg + 1] ?? o.from}: the points lie on different components`, mesh);
+  }
+  const xyz = pathPolyline(route.path, t, surface.positions);
+  const n = route.path.points.length;
+  const points: [number, number, number][] = [];
+  for (let i = 0; i < n; i++) points.push([xyz[3 * i]!, xyz[3 * i + 1]!, xyz[3 * i + 2]!]);
+
+  if (o.output) {
+    const ext = extname(o.output).toLowerCase();
+    if (ext === '.obj') {
+      await writeFileAtomic(o.output, writeObjPolyline(xyz, 'shortest_path'));
+    } else if (ext === '.csv') {
+      const rows = points.map((p, i) => [p[0], p[1], p[2], route.cumulative[i]!, route.faces[i]!]);
+      await writeFileAtomic(o.output, toCsv(['x', 'y', 'z', 'length', 'face'], rows));
+    } else if (ext === '.geojson') {
+      const gj = {
+        type: 'Feature',
+        properties: { length: route.length, unit: 'mesh units', closed: Boolean(o.closed), waypoints: specs },
+        geometry: { type: 'LineString', coordinates: points },
+      };
+      await writeFileAtomic(o.output, toJson(gj, 0) + '\n');
+    } else {
+      await writeFileAtomic(o.output, toJson(resultJson(), 0) + '\n');
+    }
+  }
+  function resultJson() {
+    return {
+      length: route.length,
+      unit: 'mesh units',
+      points,
+      surfacePoints: route.path.points.map(formatSurfacePoint),
+      legs: route.legs.map((l, i) => ({ from: specs[i] ?? specs[0], to: specs[i + 1] ?? specs[0], length: l.length })),
+      timings: { load: loadMs, solve: solveMs },
+    };
+  }
+  if (o.json) {
+    process.stdout.write(toJson({ mesh, ...resultJson(), output: o.output ?? null }) + '\n');
+  } else {
+    const L = [`${mesh}: shortest path ${fmt(route.length, 9)} mesh units, ${n} points, ${route.legs.length} leg(s)`];
+    route.legs.forEach((l, i) => L.push(`  leg ${i + 1}: ${specs[i] ?? specs[0]} → ${specs[i + 1] ?? specs[0]}: ${fmt(l.length, 9)}`));
+    L.push(`  timings: load ${fmt(loadMs, 4)} ms, solve ${fmt(solveMs, 4)} ms`);
+    if (o.output) L.push(`  wrote ${o.output}`);
+    process.stdout.write(L.join('\n') + '\n');
+  }
+  return 0;
+}

@@ -1,0 +1,68 @@
+/**
+ * The browser-safe core of orthodrome: everything in the public API except
+ * the Node file adapters. Nothing reachable from here imports a `node:`
+ * module (a test bundles this file for the browser and runs it in Chromium).
+ *
+ * @packageDocumentation
+ */
+
+// errors
+export { OrthodromeError, isOrthodromeError, type ErrorCode } from './errors.js';
+
+// reading and writing
+export type { MeshData, PropertyColumn, ScalarType } from './io/mesh-data.js';
+export { meshFromTriangles, vertexCount, faceCount } from './io/mesh-data.js';
+export { parseObj } from './io/obj.js';
+export { parsePly } from './io/ply.js';
+export { parseMesh, sniffMesh, isGzip } from './io/sniff.js';
+export { writePly, type PlyMeshInput, type WritePlyOptions } from './io/write-ply.js';
+export { writeObj, writeObjPolyline, type ObjMeshInput, type WriteObjOptions } from './io/write-obj.js';
+export { writeVertexCsv, toCsv, type CsvColumn, type CsvOptions } from './io/csv.js';
+export { colorize, rampColor, type ColorizeOptions } from './io/colormap.js';
+
+// the half-edge mesh
+export type { Topology } from './mesh/topology.js';
+export { next, prev, faceOf, tail, tip, isBoundaryVertex, isBoundaryEdge, forEachOutgoing } from './mesh/topology.js';
+export { buildTopology, type BuildReport, type BuildOptions, type BuiltMesh, type NonManifoldEdge } from './mesh/build.js';
+export { triangulate, type Triangulation } from './mesh/triangulate.js';
+export { boundaryLoops, boundaryVertexMask } from './mesh/boundary.js';
+export { components, type Components, type ComponentInfo } from './mesh/components.js';
+export { surfaceFromMeshData, isManifold, type Surface } from './mesh/surface.js';
+
+// the metric
+export type { IntrinsicMesh } from './metric/intrinsic.js';
+export { intrinsicFromPositions, intrinsicFromLengths, edgeLengthsFromPositions, meanEdgeLength, triangleInequalityViolations } from './metric/intrinsic.js';
+export {
+  triangleArea, angleOpposite, cotOpposite, faceAreas, cornerAngles, halfedgeCotans, edgeCotanWeights,
+  barycentricVertexAreas, mixedVoronoiVertexAreas, COT_LIMIT,
+} from './metric/triangle.js';
+export { gaussianCurvature, meanCurvature, gaussBonnetResidual, type Curvature } from './metric/curvature.js';
+export { intrinsicDelaunay, type DelaunayOptions, type DelaunayResult } from './metric/delaunay.js';
+export { mollify, type Mollified } from './metric/mollify.js';
+
+// sparse linear algebra
+export { TripletMatrix, analyzeCholesky, CholeskyFactor, type CscMatrix, type Ordering, type CholeskySymbolic } from './linalg/index.js';
+
+// geodesics
+export type { DistanceField, DistanceMethod, SurfacePath } from './geodesic/field.js';
+export { fieldStats } from './geodesic/field.js';
+export { pointSources, boundaryCurves, type SourceSet } from './geodesic/sources.js';
+export { HeatSolver, type HeatOptions, type HeatStats } from './geodesic/heat.js';
+export { graphDistance, type GraphOptions } from './geodesic/graph.js';
+export { exactDistance, type ExactOptions, type ExactResult } from './geodesic/exact/index.js';
+export { pathPolyline, pathLength } from './geodesic/path.js';
+export {
+  prepareDistance, type DistanceSolver, type DistanceResult, type DistanceOptions, type SolveOptions,
+} from './geodesic/solver.js';
+
+// points on the surface
+export {
+  parsePointSpec, formatSurfacePoint, checkSurfacePoint, surfacePointPosition, type SurfacePoint, type PointSpec,
+} from './query/surface-point.js';
+export { SurfaceLocator, closestOnTriangle, type SnapResult } from './query/snap.js';
+export { PointResolver } from './query/resolve.js';
+
+// reports
+export { inspectSurface, type InspectReport } from './report/inspect.js';
+export { curvatureSummary, type CurvatureResult } from './report/curvature.js';
+export { shortestPathThrough, type WaypointPath } from './geodesic/waypoints.js';

@@ -1,0 +1,129 @@
+/**
+ * One front for every distance method: prepare once for a mesh, then solve
+ * for any number of source sets, and evaluate the result at surface points.
+ *
+ * | method  | what it computes                                           | at a surface point            |
+ * |---------|------------------------------------------------------------|-------------------------------|
+ * | `exact` | exact polyhedral distance (window propagation)             | exact, from the face's windows|
+ * | `heat`  | heat-method approximation (prefactored; fast per source)   | linear in the face            |
+ * | `graph` | shortest path along mesh edges (an upper bound)            | linear in the face            |
+ */
+import type { IntrinsicMesh } from '../metric/intrinsic.js';
+import type { SurfacePoint } from '../query/surface-point.js';
+import type { DistanceField, DistanceMethod } from './field.js';
+import type { SourceSet } from './sources.js';
+import { HeatSolver, type HeatOptions } from './heat.js';
+import { graphDistance } from './graph.js';
+import { valueAtPoint } from './heat-sources.js';
+import { exactDistance } from './exact/index.js';
+
+/** Options for {@link prepareDistance}. */
+export interface DistanceOptions {
+  /** Heat-method options (method `heat` only). */
+  heat?: HeatOptions;
+  /** Stop at this distance (methods `exact` and `graph`); farther vertices are Infinity. */
+  maxDistance?: number;
+}
+
+/** Options of one solve. */
+export interface SolveOptions {
+  /**
+   * Points whose distances are wanted. With `fieldNeeded: false` the exact
+   * method may stop as soon as these are settled.
+   */
+  targets?: SurfacePoint[];
+  /** Whether every vertex's distance is needed (default true). */
+  fieldNeeded?: boolean;
+}
+
+/** The outcome of one solve. */
+export interface DistanceResult {
+  /** Per-vertex distances (complete unless the solve stopped early; see `complete`). */
+  field: DistanceField;
+  /** Distance at a surface point in mesh units (Infinity when unreachable). */
+  at(p: SurfacePoint): number;
+  /** Wall time of the solve, ms. */
+  solveMs: number;
+  /** False when the method stopped early (targets settled or maxDistance reached). */
+  complete: boolean;
+  /** Method-specific figures (windows, faces touched, …). */
+  details: Record<string, number | boolean | string>;
+}
+
+/** A prepared solver. */
+export interface DistanceSolver {
+  /** The method. */
+  readonly method: DistanceMethod;
+  /** Wall time of preparation, ms. */
+  readonly prepareMs: number;
+  /** Method-specific preparation figures. */
+  readonly prepareDetails: Record<string, number | boolean | string>;
+  /** Distances from one source set. */
+  solve(sources: SourceSet, opts?: SolveOptions): DistanceResult;
+}
+
+/** Prepares a solver of the given method for `mesh`. */
+export function prepareDistance(mesh: IntrinsicMesh, method: DistanceMethod, opts: DistanceOptions = {}): DistanceSolver {
+  const t = mesh.topology;
+  if (method === 'heat') {
+    const heat = HeatSolver.prepare(mesh, opts.heat ?? {});
+    const s = heat.stats;
+    return {
+      method,
+      prepareMs: s.prepareMs,
+      prepareDetails: {
+        flips: s.flips,
+        mollifyEpsilon: s.mollifyEpsilon,
+        nnzL: s.nnzL,
+        ordering: s.ordering,
+        timeStep: s.timeStep,
+        factorMs: s.factorMs,
+        analysisMs: s.analysisMs,
+      },
+      solve(sources) {
+        const field = heat.distance(sources);
+        const d = field.distance;
+        return {
+          field,
+          at: (p) => valueAtPoint(t, p, d),
+          solveMs: heat.lastSolve.solveMs,
+          complete: true,
+          details: { flatFaces: heat.lastSolve.flatFaces },
+        };
+      },
+    };
+  }
+  if (method === 'graph') {
+    return {
+      method,
+      prepareMs: 0,
+      prepareDetails: {},
+      solve(sources) {
+        const t0 = performance.now();
+        const field = graphDistance(mesh, sources, opts.maxDistance !== undefined ? { maxDistance: opts.maxDistance } : {});
+        const d = field.distance;
+        return { field, at: (p) => valueAtPoint(t, p, d), solveMs: performance.now() - t0, complete: true, details: {} };
+      },
+    };
+  }
+  return {
+    method,
+    prepareMs: 0,
+    prepareDetails: {},
+    solve(sources, so = {}) {
+      const t0 = performance.now();
+      const early = so.fieldNeeded === false && so.targets && so.targets.length > 0;
+      const r = exactDistance(mesh, sources, {
+        ...(opts.maxDistance !== undefined ? { maxDistance: opts.maxDistance } : {}),
+        ...(early ? { targets: so.targets } : {}),
+      });
+      return {
+        field: r.field,
+        at: (p) => r.distanceAt(p),
+        solveMs: performance.now() - t0,
+        complete: r.complete,
+        details: { windows: r.windows, facesTouched: r.facesTouched, faceFraction: t.nf ? r.facesTouched / t.nf : 0 },
+      };
+    },
+  };
+}

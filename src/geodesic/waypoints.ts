@@ -1,0 +1,61 @@
+/**
+ * Shortest paths through waypoints: each consecutive pair of stops is joined
+ * by an exact shortest path (a two-point query that stops as soon as the
+ * next stop is settled), and the legs are concatenated.
+ */
+import type { IntrinsicMesh } from '../metric/intrinsic.js';
+import type { SurfacePoint } from '../query/surface-point.js';
+import type { SurfacePath } from './field.js';
+import { exactDistance } from './exact/index.js';
+import { commonFaces, layoutFace, pointInLayout } from './exact/layout.js';
+
+/** A path through waypoints with per-point bookkeeping. */
+export interface WaypointPath {
+  /** The whole path (legs joined; the shared stop appears once). */
+  path: SurfacePath;
+  /** Total length, mesh units (Infinity when some leg has no path). */
+  length: number;
+  /** Each leg and its length. */
+  legs: { path: SurfacePath; length: number }[];
+  /** Cumulative intrinsic length at each point of `path`. */
+  cumulative: Float64Array;
+  /** A face containing the segment from each point to the next (the last point: from the previous). */
+  faces: Int32Array;
+}
+
+/** Exact shortest path visiting `stops` in order. */
+export function shortestPathThrough(mesh: IntrinsicMesh, stops: SurfacePoint[]): WaypointPath {
+  const legs: { path: SurfacePath; length: number }[] = [];
+  const points: SurfacePoint[] = [];
+  let length = 0;
+  for (let i = 0; i + 1 < stops.length; i++) {
+    const a = stops[i]!, b = stops[i + 1]!;
+    const r = exactDistance(mesh, { points: [a], curves: [] }, { targets: [b] });
+    const p = r.pathTo(b);
+    legs.push({ path: p, length: p.length });
+    length += p.length;
+    if (!Number.isFinite(p.length)) continue;
+    points.push(...(points.length ? p.points.slice(1) : p.points));
+  }
+  const t = mesh.topology;
+  const n = points.length;
+  const cumulative = new Float64Array(n);
+  const faces = new Int32Array(n).fill(-1);
+  const lay = new Float64Array(6), pa = new Float64Array(2), pb = new Float64Array(2);
+  for (let i = 1; i < n; i++) {
+    const fs = commonFaces(t, points[i - 1]!, points[i]!);
+    let best = Infinity, bestFace = -1;
+    for (const f of fs) {
+      layoutFace(mesh, f, lay);
+      pointInLayout(t, f, points[i - 1]!, lay, pa);
+      pointInLayout(t, f, points[i]!, lay, pb);
+      const d = Math.hypot(pa[0]! - pb[0]!, pa[1]! - pb[1]!);
+      if (d < best) { best = d; bestFace = f; }
+    }
+    cumulative[i] = cumulative[i - 1]! + (Number.isFinite(best) ? best : 0);
+    faces[i - 1] = bestFace;
+  }
+  if (n > 1) faces[n - 1] = faces[n - 2]!;
+  else if (n === 1) faces[0] = commonFaces(t, points[0]!, points[0]!)[0] ?? -1;
+  return { path: { points, length }, length, legs, cumulative, faces };
+}
