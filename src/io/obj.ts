@@ -110,11 +110,23 @@ export function latin1(b: Uint8Array, s: number, e: number): string {
   return out;
 }
 
-/** Doubles a typed buffer, keeping its first `used` entries. */
-function grow<T extends Float64Array | Uint32Array>(a: T, used: number): T {
-  const g = new (a.constructor as new (n: number) => T)(Math.max(16, 2 * a.length));
+/**
+ * A larger copy of a typed buffer keeping its first `used` entries. The new
+ * size extrapolates the fill rate to the whole file (`used · n / p`, as far as
+ * byte `p` of `n`), bounded to 1.5×..4× the old size, so a big file grows a
+ * few times instead of doubling from small.
+ */
+function grow<T extends Float64Array | Uint32Array>(a: T, used: number, p: number, n: number): T {
+  const guess = p > 0 ? Math.ceil((used * n) / p * 1.05) + 64 : 0;
+  const size = Math.max(Math.ceil(1.5 * a.length) + 64, Math.min(4 * a.length, guess));
+  const g = new (a.constructor as new (n: number) => T)(size);
   g.set(a.subarray(0, used));
   return g;
+}
+
+/** The first `k` entries; shared with `a` when the spare room is small (< 1/8). */
+function trim<T extends Float64Array | Uint32Array>(a: T, k: number): T {
+  return (k >= a.length - (a.length >> 3) ? a.subarray(0, k) : a.slice(0, k)) as T;
 }
 
 /** A short, printable excerpt of the token at `p` for messages. */
@@ -139,54 +151,24 @@ export function parseObj(bytes: Uint8Array, name: string): MeshData {
   let off = new Uint32Array(1024);
   let rgb: Float64Array | null = null;
   let nv = 0, ni = 0, nf = 0, colored = 0;
-  let maxIdx = -1, maxLine = 0;
-  let line = 1, p = 0;
-  const fail = (msg: string): never => {
-    throw inputError(msg, `${name}:${line}`);
-  };
-  // Skips blanks and `\`-newline continuations inside a statement.
-  const blank = (): void => {
-    for (;;) {
-      const c = b[p];
-      if (c === 32 || c === 9 || c === 11 || c === 12) p++;
-      else if (c === 13 && b[p + 1] !== 10) p++;
-      else if (c === 92 && (b[p + 1] === 10 || (b[p + 1] === 13 && b[p + 2] === 10))) {
-        p += b[p + 1] === 10 ? 2 : 3;
-        line++;
-      } else return;
-    }
-  };
-  // True at the end of a statement: newline, CRLF, comment or end of file.
-  const atEnd = (): boolean => p >= n || b[p] === 10 || b[p] === 35 || (b[p] === 13 && b[p + 1] === 10);
-  // Moves past the rest of the line (continuations included) and its newline.
-  const skipLine = (): void => {
-    for (;;) {
-      const q = b.indexOf(10, p);
-      if (q < 0) { p = n; return; }
-      let r = q - 1;
-      if (r >= p && b[r] === 13) r--;
-      p = q + 1;
-      line++;
-      if (!(r >= 0 && b[r] === 92)) return;
-    }
-  };
+  let maxIdx = -1, maxAt = 0;
+  let p = 0;
   while (p < n) {
     const c = b[p]!;
-    if (c === 32 || c === 9 || c === 13 || c === 11 || c === 12) { p++; continue; }
-    if (c === 10) { p++; line++; continue; }
+    if (c === 32 || c === 9 || c === 13 || c === 10 || c === 11 || c === 12) { p++; continue; }
     const c1 = b[p + 1];
     // A keyword ends at a blank, a newline or the end of the file.
     const kwEnd = c1 === 32 || c1 === 9 || c1 === 10 || c1 === 13 || c1 === undefined;
     if (c === 118 && kwEnd) {
       p++;
-      if (3 * nv + 3 > pos.length) pos = grow(pos, 3 * nv);
+      if (3 * nv + 3 > pos.length) pos = grow(pos, 3 * nv, p, n);
       let k = 0, r = 0, g = 0, bl = 0;
       for (;;) {
-        blank();
-        if (atEnd()) break;
+        p = skipBlank(b, p);
+        if (p >= n || b[p] === 10 || b[p] === 35 || b[p] === 13) break;
         const v = scanReal(b, p, n);
-        if (scanCursor.bad) fail(`malformed number ${tokenAt(b, p)}`);
-        if (!Number.isFinite(v)) fail(`non-finite coordinate ${tokenAt(b, p)}`);
+        if (scanCursor.bad) fail(b, p, name, `malformed number ${tokenAt(b, p)}`);
+        if (!Number.isFinite(v)) fail(b, p, name, `non-finite coordinate ${tokenAt(b, p)}`);
         p = scanCursor.pos;
         if (k < 3) pos[3 * nv + k] = v;
         else if (k === 3) r = v;
@@ -194,7 +176,7 @@ export function parseObj(bytes: Uint8Array, name: string): MeshData {
         else if (k === 5) bl = v;
         k++;
       }
-      if (k !== 3 && k !== 4 && k !== 6) fail(`vertex has ${k} numbers (expected 3, 4 or 6)`);
+      if (k !== 3 && k !== 4 && k !== 6) fail(b, p - 1, name, `vertex has ${k} numbers (expected 3, 4 or 6)`);
       if (k === 6) {
         if (rgb === null || rgb.length < pos.length) {
           const t = new Float64Array(pos.length);
@@ -209,8 +191,8 @@ export function parseObj(bytes: Uint8Array, name: string): MeshData {
       p++;
       let k = 0;
       for (;;) {
-        blank();
-        if (atEnd()) break;
+        p = skipBlank(b, p);
+        if (p >= n || b[p] === 10 || b[p] === 35 || b[p] === 13) break;
         const t0 = p;
         let neg = false;
         if (b[p] === 45) { neg = true; p++; }
@@ -219,46 +201,44 @@ export function parseObj(bytes: Uint8Array, name: string): MeshData {
           if (v < 1e15) v = v * 10 + (ch - 48);
           d++;
         }
-        if (d === 0) fail(`malformed vertex index ${tokenAt(b, t0)}`);
-        if (v > 4294967295) fail(`vertex index ${tokenAt(b, t0)} out of range`);
+        if (d === 0) fail(b, t0, name, `malformed vertex index ${tokenAt(b, t0)}`);
+        if (v > 4294967295) fail(b, t0, name, `vertex index ${tokenAt(b, t0)} out of range`);
         // Texture and normal references: `/t`, `//n`, `/t/n`; checked for form only.
         for (let part = 0; part < 2 && b[p] === 47; part++) {
           p++;
           if (b[p] === 45) p++;
           while (p < n && b[p]! >= 48 && b[p]! <= 57) p++;
         }
-        if (p < n && !(b[p] === 32 || b[p] === 9 || b[p] === 13 || b[p] === 10 || b[p] === 35 || b[p] === 92 || b[p] === 11 || b[p] === 12)) {
-          fail(`malformed face corner ${tokenAt(b, t0)}`);
+        const e = b[p];
+        if (p < n && !(e === 32 || e === 9 || e === 13 || e === 10 || e === 35 || e === 92 || e === 11 || e === 12)) {
+          fail(b, t0, name, `malformed face corner ${tokenAt(b, t0)}`);
         }
         let i: number;
-        if (v === 0) return fail('vertex index 0 (OBJ indices start at 1)');
+        if (v === 0) fail(b, t0, name, 'vertex index 0 (OBJ indices start at 1)');
         if (neg) {
           i = nv - v;
-          if (i < 0) fail(`relative vertex index -${v} reaches before the first vertex (${nv} so far)`);
+          if (i < 0) fail(b, t0, name, `relative vertex index -${v} reaches before the first vertex (${nv} so far)`);
         } else {
           i = v - 1;
-          if (i > maxIdx) { maxIdx = i; maxLine = line; }
+          if (i > maxIdx) { maxIdx = i; maxAt = t0; }
         }
-        if (ni >= idx.length) idx = grow(idx, ni);
+        if (ni >= idx.length) idx = grow(idx, ni, p, n);
         idx[ni++] = i;
         k++;
       }
-      if (k < 3) fail(`face has ${k} ${k === 1 ? 'vertex' : 'vertices'} (at least 3 needed)`);
-      if (nf + 2 > off.length) off = grow(off, nf + 1);
+      if (k < 3) fail(b, p - 1, name, `face has ${k} ${k === 1 ? 'vertex' : 'vertices'} (at least 3 needed)`);
+      if (nf + 2 > off.length) off = grow(off, nf + 1, p, n);
       off[++nf] = ni;
     } else {
-      skipLine();
+      p = skipLine(b, p);
       continue;
     }
-    if (p < n && b[p] === 35) { skipLine(); continue; }
-    if (p < n && b[p] === 13) p++;
-    if (p < n) { p++; line++; }
+    if (p < n && b[p] !== 10) p = skipLine(b, p);
+    else p++;
   }
   if (nv === 0) throw inputError('no vertices', name);
   if (nf === 0) throw inputError('no faces', name);
-  if (maxIdx >= nv) {
-    throw inputError(`vertex index ${maxIdx + 1} out of range (the file has ${nv} vertices)`, `${name}:${maxLine}`);
-  }
+  if (maxIdx >= nv) fail(b, maxAt, name, `vertex index ${maxIdx + 1} out of range (the file has ${nv} vertices)`);
   const vertexProps: PropertyColumn[] = [];
   if (rgb !== null && colored === nv) {
     const names = ['red', 'green', 'blue'];
@@ -269,11 +249,44 @@ export function parseObj(bytes: Uint8Array, name: string): MeshData {
     }
   }
   return {
-    positions: pos.slice(0, 3 * nv),
-    faceOffsets: off.slice(0, nf + 1),
-    faceIndices: idx.slice(0, ni),
+    positions: trim(pos, 3 * nv),
+    faceOffsets: trim(off, nf + 1),
+    faceIndices: trim(idx, ni),
     vertexProps,
     faceProps: [],
     name,
   };
+}
+
+/**
+ * Throws the `INPUT` error for byte offset `at`. Line numbers are counted only
+ * here (1 + newlines before `at`), so the scan itself never tracks them.
+ */
+function fail(b: Uint8Array, at: number, name: string, msg: string): never {
+  let line = 1;
+  for (let q = b.indexOf(10); q >= 0 && q < at; q = b.indexOf(10, q + 1)) line++;
+  throw inputError(msg, `${name}:${line}`);
+}
+
+/** Skips blanks and `\`-newline continuations inside a statement. */
+function skipBlank(b: Uint8Array, p: number): number {
+  for (;;) {
+    const c = b[p];
+    if (c === 32 || c === 9 || c === 11 || c === 12) p++;
+    else if (c === 13 && b[p + 1] !== 10) p++;
+    else if (c === 92 && (b[p + 1] === 10 || (b[p + 1] === 13 && b[p + 2] === 10))) p += b[p + 1] === 10 ? 2 : 3;
+    else return p;
+  }
+}
+
+/** Offset after the newline ending the statement at `p` (continuations followed). */
+function skipLine(b: Uint8Array, p: number): number {
+  for (;;) {
+    const q = b.indexOf(10, p);
+    if (q < 0) return b.length;
+    let r = q - 1;
+    if (r >= p && b[r] === 13) r--;
+    if (!(r >= p && b[r] === 92)) return q + 1;
+    p = q + 1;
+  }
 }
