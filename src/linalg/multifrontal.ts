@@ -13,7 +13,7 @@
  * (global row → local row, valid while s is being assembled).
  */
 import type { SupernodalStructure } from './supernodes.js';
-import { factorPanel, schurUpdate } from './dense-kernels.js';
+import { factorFront } from './dense-kernels.js';
 
 /** Workspaces of {@link multifrontalFactor}, allocated once per factor. */
 export interface MultifrontalWork {
@@ -80,7 +80,7 @@ export function multifrontalFactor(
         for (let b = 0; b <= a; b++) F[ra + pos[rows[cr0 + b]!]!]! += stack[ua + b]!;
       }
     }
-    const bad = factorPanel(F, 0, nr, nc);
+    const bad = factorFront(F, nr, nc);
     if (bad >= 0) {
       pivotOut[0] = F[bad * nr + bad]!;
       return f + bad;
@@ -94,7 +94,6 @@ export function multifrontalFactor(
     }
     const m = nr - nc;
     if (m > 0) {
-      schurUpdate(F, 0, nr, nc);
       // push U_s (lower triangle of the trailing block) as an m × m row-major square
       for (let a = 0; a < m; a++) {
         const src = (nc + a) * nr + nc;

@@ -15,22 +15,26 @@
  * vertex (the level that is smallest among the balanced ones), trimmed: a
  * level vertex with no neighbour in the next level moves to A. Disconnected
  * subgraphs are split by component with an empty separator. Subgraphs below
- * `leafSize` vertices keep their BFS order from the parent's level structure.
+ * `leafSize` vertices are ordered by approximate minimum degree on their own
+ * subgraph (a hybrid common in practice), or keep their BFS order.
  * Everything lives in a few n-length typed arrays; ranges of one permutation
  * array are rearranged in place.
  */
 import type { AdjacencyGraph } from './graph.js';
+import { approximateMinimumDegree } from './ordering-amd.js';
 
 /** Options of {@link nestedDissection}. */
 export interface NestedDissectionOptions {
-  /** Subgraphs with at most this many vertices are not split further (default 64). */
+  /** Subgraphs with at most this many vertices are not split further (default 256). */
   leafSize?: number;
+  /** How leaves are ordered: approximate minimum degree on the leaf's subgraph (default) or BFS order. */
+  leafOrder?: 'amd' | 'bfs';
 }
 
 /** Returns perm with perm[k] = the vertex eliminated k-th. */
 export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOptions = {}): Int32Array {
   const { n, xadj, adj } = g;
-  const leafSize = Math.max(2, opts.leafSize ?? 64);
+  const leafSize = Math.max(2, opts.leafSize ?? 256);
   const verts = new Int32Array(n);
   for (let v = 0; v < n; v++) verts[v] = v;
   const label = new Int32Array(n).fill(-1);
@@ -39,6 +43,29 @@ export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOption
   const tmp = new Int32Array(n);
   const levelPtr = new Int32Array(n + 2);
   const ranges: number[] = [0, n];
+  const leafAmd = (opts.leafOrder ?? 'amd') === 'amd';
+  const local = new Int32Array(n);
+
+  /** Orders verts[lo..hi) (all labelled `lab`) by AMD on their induced subgraph. */
+  const orderLeaf = (lo: number, hi: number, lab: number): void => {
+    const m = hi - lo;
+    for (let k = lo; k < hi; k++) local[verts[k]!] = k - lo;
+    const lx = new Int32Array(m + 1);
+    for (let k = lo; k < hi; k++) {
+      const v = verts[k]!;
+      let d = 0;
+      for (let p = xadj[v]!; p < xadj[v + 1]!; p++) if (label[adj[p]!] === lab) d++;
+      lx[k - lo + 1] = lx[k - lo]! + d;
+    }
+    const la = new Int32Array(lx[m]!);
+    for (let k = lo, q = 0; k < hi; k++) {
+      const v = verts[k]!;
+      for (let p = xadj[v]!; p < xadj[v + 1]!; p++) if (label[adj[p]!] === lab) la[q++] = local[adj[p]!]!;
+    }
+    const lp = approximateMinimumDegree({ n: m, xadj: lx, adj: la });
+    for (let k = 0; k < m; k++) tmp[k] = verts[lo + lp[k]!]!;
+    verts.set(tmp.subarray(0, m), lo);
+  };
   let id = 0;
 
   const visit = new Int32Array(n).fill(-1);
@@ -77,9 +104,12 @@ export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOption
     const hi = ranges.pop()!;
     const lo = ranges.pop()!;
     const m = hi - lo;
-    if (m <= leafSize) continue;
     const lab = id++;
     for (let k = lo; k < hi; k++) label[verts[k]!] = lab;
+    if (m <= leafSize) {
+      if (leafAmd && m > 2) orderLeaf(lo, hi, lab);
+      continue;
+    }
 
     let root = verts[lo]!;
     let nlev = bfs(root, lab);
