@@ -9,8 +9,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { build } from 'esbuild';
 import { createServer, type Server } from 'node:http';
-import { existsSync, mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { existsSync } from 'node:fs';
 import { join, resolve, dirname } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { chromium, type Browser } from 'playwright-core';
@@ -53,7 +52,7 @@ beforeAll(async () => {
   url = `http://127.0.0.1:${typeof addr === 'object' && addr ? addr.port : 0}/`;
   browser = await chromium.launch({
     executablePath: CHROMIUM,
-    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic', `--user-data-dir=${mkdtempSync(join(tmpdir(), 'orthodrome-chromium-'))}`],
+    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic'],
   });
 }, 60_000);
 
