@@ -38,15 +38,21 @@ const HI = [127, 255, 32767, 65535, 2147483647, 4294967295, Infinity, Infinity];
 
 /** One property of a PLY element; `countType` is -1 for a scalar. */
 export interface PlyProperty {
+  /** Property name as in the header. */
   name: string;
+  /** Type code of the value (of each item, for a list). */
   type: number;
+  /** Type code of a list's length, or -1 for a scalar. */
   countType: number;
 }
 
 /** One element declared in a PLY header. */
 export interface PlyElement {
+  /** Element name (`vertex`, `face`, `edge`, ...). */
   name: string;
+  /** Number of items declared. */
   count: number;
+  /** Properties in body order. */
   props: PlyProperty[];
   /** 1-based header line of the `element` statement. */
   line: number;
@@ -54,7 +60,9 @@ export interface PlyElement {
 
 /** A parsed PLY header. */
 export interface PlyHeader {
+  /** Body encoding. */
   format: 'ascii' | 'binary_little_endian' | 'binary_big_endian';
+  /** Elements in body order. */
   elements: PlyElement[];
   /** Offset of the first body byte. */
   bodyStart: number;
@@ -69,6 +77,7 @@ export function parsePlyHeader(b: Uint8Array, name: string): PlyHeader {
     const q = b.indexOf(10, p);
     line++;
     if (q < 0) throw inputError('missing end_header', `${name}: header line ${line}`);
+    if (q - p > 4096) throw inputError('header line longer than 4096 bytes (missing end_header?)', `${name}: header line ${line}`);
     const text = latin1(b, p, q > p && b[q - 1] === 13 ? q - 1 : q);
     p = q + 1;
     const w = text.trim().split(/[ \t]+/);

@@ -31,9 +31,8 @@ export function gunzipIfNeeded(bytes: Uint8Array, path: string): Uint8Array {
 
 /** Parses bytes read from `path` (gzip allowed); names the path in errors. */
 function parseFile(bytes: Uint8Array, path: string): MeshData {
-  const raw = gunzipIfNeeded(bytes, path);
-  // The format hint comes from the name without `.gz`.
-  return parseMesh(raw, isGzip(bytes) ? path.replace(/\.gz$/i, '') : path);
+  // Messages name the real file (`hill.obj.gz:12`); the format hint ignores `.gz`.
+  return parseMesh(gunzipIfNeeded(bytes, path), path);
 }
 
 /** Reads and parses an OBJ or PLY file (optionally gzip-compressed). */

@@ -54,6 +54,7 @@ const CASES: [string, string | Uint8Array, string][] = [
   ['part.ply', 'ply\nformat ascii 1.0\nelement vertex 3\nproperty float128 x\nend_header\n', "part.ply: header line 4: unknown property type 'float128'"],
   ['part.ply', 'ply\nformat ascii 1.0\nelement vertex 3\nproperty list float int idx\nend_header\n', "part.ply: header line 4: list count type 'float' is not an integer type"],
   ['part.ply', 'ply\nformat ascii 1.0\nelement vertex 3\nproperty float x\n', 'part.ply: header line 5: missing end_header'],
+  ['part.ply', 'ply\nformat ascii 1.0\ncomment ' + 'x'.repeat(5000) + '\nend_header\n', 'part.ply: header line 3: header line longer than 4096 bytes (missing end_header?)'],
   ['part.ply', 'ply\nformat ascii 2.0\nend_header\n', "part.ply: header line 2: unsupported PLY version '2.0'"],
   ['part.ply', 'ply\nformat text 1.0\nend_header\n', "part.ply: header line 2: unknown format 'text'"],
   ['part.ply', 'ply\nelement vertex 3\nend_header\n', 'part.ply: header: no format line'],
