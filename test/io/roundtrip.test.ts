@@ -135,4 +135,23 @@ describe('round trips (fixed cases)', () => {
       expect(p.faceProps[0]!.values[0]).toBe(Infinity);
     }
   });
+
+  it('a polygon of more than 255 corners gets a uint list count (PLY description: typed list counts)', () => {
+    const n = 300;
+    const positions = new Float64Array(3 * n);
+    for (let k = 0; k < n; k++) positions.set([Math.cos((2 * Math.PI * k) / n), Math.sin((2 * Math.PI * k) / n), 0], 3 * k);
+    const m: MeshData = { positions, faceOffsets: Uint32Array.from([0, n]), faceIndices: Uint32Array.from({ length: n }, (_, i) => i), vertexProps: [], faceProps: [], name: 'big' };
+    for (const o of ENCODINGS) {
+      const b = writePly(m, o);
+      expect(new TextDecoder().decode(b.subarray(0, 300))).toContain('property list uint uint vertex_indices');
+      expectSameMesh(m, parsePly(b, 'big.ply'), false);
+    }
+  });
+
+  it('the writer refuses mismatched or clashing columns with USAGE', () => {
+    const m = { positions: new Float64Array(9), faceOffsets: Uint32Array.from([0, 3]), faceIndices: Uint32Array.from([0, 1, 2]) };
+    expect(() => writePly({ ...m, vertexProps: [{ name: 'q', type: 'float64', values: new Float64Array(2) }] })).toThrow("vertex property 'q' has 2 values, expected 3");
+    expect(() => writePly({ ...m, vertexProps: [{ name: 'x', type: 'float64', values: new Float64Array(3) }] })).toThrow("vertex property name 'x' is repeated or has spaces");
+    expect(() => writePly({ ...m, faceProps: [{ name: 'a b', type: 'int8', values: new Float64Array(1) }] })).toThrow("face property name 'a b' is repeated or has spaces");
+  });
 });
