@@ -240,6 +240,7 @@ export function parsePly(bytes: Uint8Array, name: string): MeshData {
       return { dst: col.values, stride: 1, base: 0 };
     });
     const np = el.props.length;
+    if (np === 0) continue; // items without properties occupy no bytes
     if (!ascii && el !== fEl && el.props.every((q) => q.countType < 0)) {
       // Fixed-size items: bounds were checked above, read without per-value checks.
       let stride = 0;

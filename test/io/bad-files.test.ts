@@ -108,4 +108,9 @@ describe('bad files give an INPUT error with an exact message (table)', () => {
     expect(parseMesh(enc.encode(plyAscii(['0 0 0', '1 0 0', '0 1 0', '3 0 1 2'])), 'part.ply').faceIndices.length).toBe(3);
     expect(Array.from(parseMesh(plyBinary(0, [3, 0, 1, 2]), 'part.ply').positions)).toEqual([0, 0, 0, 1, 0, 0, 0, 1, 0]);
   });
+
+  it('an element without properties takes no bytes, however large its count (no hang)', () => {
+    const text = plyAscii(['0 0 0', '1 0 0', '0 1 0', '3 0 1 2']).replace('end_header', 'element marker 4294967295\nend_header');
+    expect(parseMesh(enc.encode(text), 'part.ply').faceIndices.length).toBe(3);
+  });
 });
