@@ -67,6 +67,7 @@ export function tracePath(s: ExactState, end: SurfacePoint, best: Evaluation, so
   const b = [0, 0, 0];
   let kind = best.kind, id = best.id, x = best.x;
   const P = [0, 0];
+  const seen = new Set<number>();
   while (--guard > 0) {
     if (kind === 3) { out.push(sourcePoint(s.pointRoots[id]!.root)); break; }
     if (kind === 1) {
@@ -91,13 +92,15 @@ export function tracePath(s: ExactState, end: SurfacePoint, best: Evaluation, so
     const last = out[out.length - 1]!;
     if (!(last.kind === 'vertex' && last.vertex === v)) out.push({ kind: 'vertex', vertex: v });
     const type = s.viaType[v]!, via = s.viaId[v]!;
+    if (seen.has(v)) break; // a zero-length cycle: cannot happen with exact bounds, guarded anyway
+    seen.add(v);
     if (type === VIA_VERTEX) { id = via; continue; }
     if (type === VIA_WINDOW) {
       const h = W.he[via]!;
       if (t.tri[h] === v) { P[0] = 0; P[1] = 0; }
       else if (t.tri[next(h)] === v) { P[0] = s.hl[h]!; P[1] = 0; }
       else { P[0] = s.hc[2 * h]!; P[1] = s.hc[2 * h + 1]!; }
-      // the window lit v when it was stored; it may have been trimmed since, so do not clamp
+      // v is the third corner of the window's face, lit when the window was propagated
       x = crossing(s, via, P[0]!, P[1]!, false);
       kind = 1; id = via;
       continue;

@@ -19,7 +19,10 @@
  * Rays through [b0, min(b1, xC)] leave through CA, rays through
  * [max(b0, xC), b1] leave through BC; when xC ∈ [b0, b1], C itself is lit
  * and gets the bound σ + |I − C|. A child is stored on the twin half-edge,
- * in whose frame the image is again below the axis.
+ * in whose frame the image is again below the axis. Vertices get bounds only
+ * as a lit third corner C (or along an edge from a settled vertex): the last
+ * straight piece of a shortest path to v crosses the face opposite v, or
+ * runs along an edge from a vertex it passed through.
  *
  * Filter (Xin & Wang 2009, vertex-distance test): a window on A→B is
  * useless when even its far end is reached sooner from an end vertex:
@@ -126,14 +129,10 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     const okey = W.sigma[o]! + Math.hypot(om - osx, osy);
     const oldKey = W.sigma[o]! + Math.hypot((osx < o0 ? o0 : osx > o1 ? o1 : osx) - osx, osy);
     if (okey < oldKey) s.queue.push(okey, o); // the old entry pops later and is skipped
-    if (n0 <= REL * L) relaxVertex(s, A, W.sigma[o]! + Math.hypot(osx, osy), VIA_WINDOW, o);
-    if (n1 >= L * (1 - REL)) relaxVertex(s, B, W.sigma[o]! + Math.hypot(L - osx, osy), VIA_WINDOW, o);
     return o;
   }
   const w = W.add(h, b0, b1, sx, sy, sigma, parent);
   s.queue.push(key, w);
-  if (b0 <= REL * L) relaxVertex(s, A, sigma + Math.hypot(sx, sy), VIA_WINDOW, w);
-  if (b1 >= L * (1 - REL)) relaxVertex(s, B, sigma + Math.hypot(L - sx, sy), VIA_WINDOW, w);
   return w;
 }
 
