@@ -115,7 +115,7 @@ function project(P: Float64Array, FI: Uint32Array, s: number, n: number, xy: Flo
     r2 = Math.max(r2, ax * ax + ay * ay + az * az);
     big = Math.max(big, Math.abs(P[o]!), Math.abs(P[o + 1]!), Math.abs(P[o + 2]!));
   }
-  const nl = Math.hypot(nx, ny, nz);
+  const nl = Math.sqrt(nx * nx + ny * ny + nz * nz);
   if (!(nl > 0) || !Number.isFinite(nl)) return -1;
   nx /= nl; ny /= nl; nz /= nl;
   // u ⟂ N from the coordinate axis least aligned with N; v = N × u.
@@ -124,7 +124,7 @@ function project(P: Float64Array, FI: Uint32Array, s: number, n: number, xy: Flo
   if (ax <= ay && ax <= az) { ux = 0; uy = -nz; uz = ny; }
   else if (ay <= az) { ux = nz; uy = 0; uz = -nx; }
   else { ux = -ny; uy = nx; uz = 0; }
-  const ul = Math.hypot(ux, uy, uz);
+  const ul = Math.sqrt(ux * ux + uy * uy + uz * uz);
   ux /= ul; uy /= ul; uz /= ul;
   const vx = ny * uz - nz * uy, vy = nz * ux - nx * uz, vz = nx * uy - ny * ux;
   for (let k = 0; k < n; k++) {
@@ -140,12 +140,8 @@ function project(P: Float64Array, FI: Uint32Array, s: number, n: number, xy: Flo
 function clipPolygon(P: Float64Array, FI: Uint32Array, s: number, n: number, w: Work, out: Uint32Array, t: number): number {
   const { xy, nextOf, prevOf } = w;
   const tol = project(P, FI, s, n, xy);
-  const emit = (a: number, b: number, c: number): void => {
-    out[3 * t] = FI[s + a]!; out[3 * t + 1] = FI[s + b]!; out[3 * t + 2] = FI[s + c]!;
-    t++;
-  };
   if (!(tol > 0)) {
-    for (let k = 1; k + 1 < n; k++) emit(0, k, k + 1);
+    for (let k = 1; k + 1 < n; k++) put(out, t++, FI, s, 0, k, k + 1);
     return t;
   }
   for (let k = 0; k < n; k++) { nextOf[k] = (k + 1) % n; prevOf[k] = (k + n - 1) % n; }
@@ -170,15 +166,22 @@ function clipPolygon(P: Float64Array, FI: Uint32Array, s: number, n: number, w: 
     if (ear < 0) ear = bulge;
     if (ear < 0) break;
     const a = prevOf[ear]!, c = nextOf[ear]!;
-    emit(a, ear, c);
+    put(out, t++, FI, s, a, ear, c);
     nextOf[a] = c; prevOf[c] = a;
     start = c;
     left--;
   }
   // Three corners left, or a remainder without any left turn: fan it.
   const a = start;
-  for (let b = nextOf[a]!; nextOf[b]! !== a; b = nextOf[b]!) emit(a, b, nextOf[b]!);
+  for (let b = nextOf[a]!; nextOf[b]! !== a; b = nextOf[b]!) put(out, t++, FI, s, a, b, nextOf[b]!);
   return t;
+}
+
+/** Writes triangle t as corners a, b, c of the polygon starting at `FI[s]`. */
+function put(out: Uint32Array, t: number, FI: Uint32Array, s: number, a: number, b: number, c: number): void {
+  out[3 * t] = FI[s + a]!;
+  out[3 * t + 1] = FI[s + b]!;
+  out[3 * t + 2] = FI[s + c]!;
 }
 
 function dist2(xy: Float64Array, a: number, b: number): number {

@@ -8,7 +8,8 @@
  * Records: parse time (median) and throughput (MB/s) per reader and file,
  * and our throughput over three's (goals: OBJ ≥ 20×, binary PLY ≥ 5×). Our
  * reader and three's are timed alternately so machine load hits both alike.
- * Case `obj-shortest` is the same mesh written by our OBJ writer (shortest
+ * Cases `triangulate-*` time the all-triangle fast path and ear clipping of
+ * the same grid as quads. Case `obj-shortest` is the same mesh written by our OBJ writer (shortest
  * round-trip decimals, up to 17 digits, which take the slow exact path).
  */
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -22,7 +23,8 @@ import { parseObj } from '../../src/io/obj.js';
 import { parsePly } from '../../src/io/ply.js';
 import { writePly } from '../../src/io/write-ply.js';
 import { writeObj } from '../../src/io/write-obj.js';
-import { meshFromTriangles } from '../../src/io/mesh-data.js';
+import { meshFromTriangles, type MeshData } from '../../src/io/mesh-data.js';
+import { triangulate } from '../../src/mesh/triangulate.js';
 
 const BENCH = 'io';
 
@@ -121,6 +123,21 @@ async function main(): Promise<void> {
       emit({ bench: BENCH, case: 'ply-binary', metric: 'throughput', value: mb / (ms / 1000), unit: 'MB/s', reader, size });
     }
     emit({ bench: BENCH, case: 'ply-binary', metric: 'speedup', value: q.msB / q.msA, unit: 'x', baseline: 'three PLYLoader', goal: 5 });
+
+    // Triangulation: the all-triangle fast path, and ear clipping of the same grid as quads.
+    const tri = await timeMedian(() => triangulate(mesh), 5, 1);
+    emit({ bench: BENCH, case: 'triangulate-triangles', metric: 'time', value: tri.ms, unit: 'ms', size });
+    const quadOffsets = new Uint32Array(faces / 2 + 1);
+    const quadIndices = new Uint32Array(2 * faces);
+    for (let f = 0; f < faces / 2; f++) {
+      const t = 6 * f; // triangles (a, b, d) and (a, d, c) of one cell → quad a, b, d, c
+      quadIndices.set([g.triangles[t]!, g.triangles[t + 1]!, g.triangles[t + 2]!, g.triangles[t + 5]!], 4 * f);
+      quadOffsets[f + 1] = 4 * (f + 1);
+    }
+    const quads: MeshData = { ...mesh, faceOffsets: quadOffsets, faceIndices: quadIndices };
+    const ear = await timeMedian(() => triangulate(quads), 3, 1);
+    emit({ bench: BENCH, case: 'triangulate-quads', metric: 'time', value: ear.ms, unit: 'ms', size: `${faces / 2} quads` });
+    emit({ bench: BENCH, case: 'triangulate-quads', metric: 'ratio', value: ear.ms / tri.ms, unit: 'x', baseline: 'triangle fast path' });
     emit({ bench: BENCH, case: 'all', metric: 'peak-rss', value: peakRssMB(), unit: 'MB', size });
   } finally {
     rmSync(dir, { recursive: true, force: true });
