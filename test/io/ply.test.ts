@@ -103,6 +103,30 @@ describe('parsePly on hand-assembled files (PLY format description)', () => {
   });
 });
 
+describe('list properties other than the face index list are skipped (PLY description: typed lists)', () => {
+  const header = (fmt: string) => ['ply', `format ${fmt} 1.0`, 'element vertex 3', 'property float x', 'property list uchar float uv', 'property float y', 'property float z',
+    'element face 1', 'property list uchar float texcoord', 'property list ushort uint vertex_indices', 'property short id', 'end_header', ''].join('\n');
+  const check = (b: Uint8Array) => {
+    const m = parsePly(b, 'l.ply');
+    expect(Array.from(m.positions)).toEqual([0, 0, 0, 1, 0, 0, 0, 1, 0]);
+    expect(Array.from(m.faceIndices)).toEqual([2, 0, 1]);
+    expect(m.vertexProps).toEqual([]);
+    expect(m.faceProps.map((c) => [c.name, c.type, Array.from(c.values)])).toEqual([['id', 'int16', [-9]]]);
+  };
+  it('binary big-endian', () => {
+    check(binary(header('binary_big_endian'), [
+      ['float', 0], ['uchar', 2], ['float', 0.5], ['float', 0.5], ['float', 0], ['float', 0],
+      ['float', 1], ['uchar', 0], ['float', 0], ['float', 0],
+      ['float', 0], ['uchar', 1], ['float', 7], ['float', 1], ['float', 0],
+      ['uchar', 6], ['float', 0], ['float', 0], ['float', 1], ['float', 0], ['float', 0], ['float', 1],
+      ['ushort', 3], ['uint', 2], ['uint', 0], ['uint', 1], ['short', -9],
+    ], false));
+  });
+  it('ascii', () => {
+    check(enc.encode(header('ascii') + '0 2 0.5 0.5 0 0\n1 0 0 0\n0 1 7 1 0\n6 0 0 1 0 0 1 3 2 0 1 -9\n'));
+  });
+});
+
 describe('our PLY output read by three PLYLoader (general-purpose reference library)', () => {
   it('gives the same indices and float32-rounded positions, in both byte orders and ascii', () => {
     const positions = Float64Array.from([512000.25, 4200000.5, 301.125, 512001.75, 4200000.5, 302, 512000.25, 4200002, 299.5, 512002, 4200003, 300]);
