@@ -3,7 +3,7 @@
  * Heat", ACM TOG 32(5), 2013), working from edge lengths only.
  *
  * 1. heat:     (M + t L) u = δ          t = m·h², h = mean edge length
- * 2. field:    X_f = −∇u_f / |∇u_f|     per face, X = 0 where ∇u = 0
+ * 2. field:    X_f = −∇u_f / |∇u_f|     per face, relayed where u underflows (heat-relay.ts)
  * 3. distance: L φ = b,  b_i = Σ_f A_f ∇φ_i·X_f   (least squares ∇φ ≈ X)
  * 4. shift φ so its least value at the sources is zero, clamp below at 0.
  *
@@ -23,13 +23,7 @@
  * two heat solutions. A component whose sources all lie on the boundary has
  * u = 0 under Dirichlet; there the Neumann solution is used instead.
  *
- * The Poisson step pins one vertex per connected component (identity row,
- * φ = 0) instead of adding εM: b sums to zero over each component
- * (Σ_i ∇φ_i = 0 in every face), so the pinned system has the same solution
- * up to a constant, with no ε to trade between bias and conditioning, and the
- * pattern (hence the symbolic analysis) is unchanged. If a component is only
- * held together by faces without area (possible with mollification off) the
- * pinned matrix is singular; then L + εM (ε = 1e-8/h²) is factored instead.
+ * The Poisson step pins one vertex per connected component (heat-poisson.ts).
  *
  * All matrices share one lower-triangle pattern and one symbolic analysis;
  * per-source work is two or three triangular solve pairs and two sweeps
@@ -39,25 +33,30 @@ import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { DistanceField } from './field.js';
 import type { SourceSet } from './sources.js';
 import type { SurfacePoint } from '../query/surface-point.js';
-import type { CholeskySymbolic } from '../linalg/index.js';
 import { analyzeCholesky, CholeskyFactor } from '../linalg/index.js';
 import { meanEdgeLength } from '../metric/intrinsic.js';
 import { mollify, DEFAULT_MOLLIFY_DELTA } from '../metric/mollify.js';
 import { intrinsicDelaunay } from '../metric/delaunay.js';
 import {
   edgePattern, cotanLaplacian, lumpedMass, faceGeometry, combine, constrainRows, patternMatrix,
-  type EdgePattern, type FaceGeometry,
+  type FaceGeometry,
 } from '../metric/laplacian.js';
 import { components } from '../mesh/components.js';
 import { boundaryVertexMask } from '../mesh/boundary.js';
 import { addSourceHeat, sourceValue } from './heat-sources.js';
-import { usageError, isOrthodromeError } from '../errors.js';
+import { factorPoisson } from './heat-poisson.js';
+import { assembleDivergence, type RelayWork } from './heat-relay.js';
+import { usageError } from '../errors.js';
 
 /** Options of {@link HeatSolver.prepare}. */
 export interface HeatOptions {
   /** m in t = m·h² (h = mean edge length); default 1. */
   timeScale?: number;
-  /** Boundary condition of the heat step; default 'average'. */
+  /**
+   * Boundary condition of the heat step; default 'average' (the paper's
+   * recommendation). 'dirichlet' alone bends the field towards the boundary
+   * and is poor in regions only a few edges wide.
+   */
   boundary?: 'average' | 'neumann' | 'dirichlet';
   /** Flip to an intrinsic Delaunay triangulation first; default true. */
   intrinsicDelaunay?: boolean;
@@ -103,14 +102,21 @@ export interface HeatStats {
 export interface HeatSolveStats {
   /** Wall time, ms. */
   solveMs: number;
-  /** Faces with ∇u = 0 (heat underflowed or constant), where X was set to 0. */
+  /**
+   * Faces left with X = 0: ∇u = 0 even after relaying (see heat-relay.ts).
+   * In 'dirichlet' mode, faces with three boundary corners always count here.
+   */
   flatFaces: number;
+  /** Heat solves (stages) needed: 1 unless the heat underflowed far from the sources. */
+  relayStages: number;
 }
 
 /** Factors, geometry and masks a prepared solver keeps. */
 interface HeatParts {
   boundaryMode: 'average' | 'neumann' | 'dirichlet';
   geom: FaceGeometry;
+  /** Vertices without area (isolated, or only zero-area faces): identity rows. */
+  inactive: Uint8Array;
   vertexComponent: Int32Array;
   componentCount: number;
   onBoundary: Uint8Array;
@@ -130,11 +136,12 @@ export class HeatSolver {
   /** Preparation figures. */
   readonly stats: HeatStats;
   /** Figures of the last distance() call. */
-  lastSolve: HeatSolveStats = { solveMs: 0, flatFaces: 0 };
+  lastSolve: HeatSolveStats = { solveMs: 0, flatFaces: 0, relayStages: 0 };
 
   private readonly parts: HeatParts;
+  private readonly relay: RelayWork;
   private readonly rhs: Float64Array;
-  private readonly uN: Float64Array;
+  private readonly u: Float64Array;
   private readonly uD: Float64Array;
   private readonly b: Float64Array;
   private readonly compMax: Float64Array;
@@ -149,12 +156,39 @@ export class HeatSolver {
     this.parts = parts;
     const nv = mesh.topology.nv;
     this.rhs = new Float64Array(nv);
-    this.uN = new Float64Array(nv);
+    this.u = new Float64Array(nv);
     this.uD = new Float64Array(nv);
     this.b = new Float64Array(nv);
     this.compMax = new Float64Array(parts.componentCount);
     this.compShift = new Float64Array(parts.componentCount);
+    const wildcard = parts.inactive.slice();
+    if (parts.boundaryMode === 'dirichlet' && parts.heatD) for (let v = 0; v < nv; v++) wildcard[v]! |= parts.onBoundary[v]!;
+    this.relay = {
+      t: triangulation.topology, geom: parts.geom, comp: parts.vertexComponent, wildcard,
+      stage: new Int32Array(nv), compTau: new Float64Array(parts.componentCount), compHot: new Uint8Array(parts.componentCount),
+    };
   }
+
+  /**
+   * One heat step u = (M + tL)⁻¹ rhs under the boundary mode; may overwrite
+   * rhs. A component whose Dirichlet heat is identically zero (all its
+   * sources on the boundary) keeps the Neumann solution.
+   */
+  private readonly heatStep = (rhs: Float64Array, u: Float64Array): void => {
+    const { heatN, heatD, onBoundary, vertexComponent: comp, boundaryMode } = this.parts;
+    heatN.solve(rhs, u);
+    if (!heatD) return;
+    const nv = u.length, uD = this.uD;
+    for (let v = 0; v < nv; v++) if (onBoundary[v]) rhs[v] = 0;
+    heatD.solve(rhs, uD);
+    const cmax = this.compMax.fill(0);
+    for (let v = 0; v < nv; v++) if (comp[v]! >= 0 && uD[v]! > cmax[comp[v]!]!) cmax[comp[v]!] = uD[v]!;
+    const avg = boundaryMode === 'average';
+    for (let v = 0; v < nv; v++) {
+      const c = comp[v]!;
+      if (c >= 0 && cmax[c]! > 0) u[v] = avg ? 0.5 * (u[v]! + uD[v]!) : uD[v]!;
+    }
+  };
 
   /**
    * Builds the intrinsic triangulation, the matrices, one symbolic analysis
@@ -218,7 +252,7 @@ export class HeatSolver {
       ordering: sym.ordering, meanEdgeLength: h, timeStep: step, poissonShifted: shifted,
     };
     return new HeatSolver(mesh, work, stats, {
-      boundaryMode: boundary, geom, vertexComponent: comp.vertexComponent, componentCount: comp.count,
+      boundaryMode: boundary, geom, inactive, vertexComponent: comp.vertexComponent, componentCount: comp.count,
       onBoundary, blocked, heatN, heatD, poisson,
     });
   }
@@ -230,43 +264,15 @@ export class HeatSolver {
    */
   distance(sources: SourceSet): DistanceField {
     const t0 = performance.now();
-    const { rhs, uN, uD, b } = this;
-    const { heatD, geom, onBoundary, blocked, vertexComponent: comp, componentCount: nc } = this.parts;
+    const { rhs, b } = this;
+    const { blocked, vertexComponent: comp, componentCount: nc } = this.parts;
     const t = this.triangulation.topology;
     const nv = t.nv;
     rhs.fill(0);
     const total = addSourceHeat(this.mesh, sources, this.stats.meanEdgeLength, rhs);
     if (!(total > 0)) throw usageError('the source set is empty', 'heat');
 
-    this.parts.heatN.solve(rhs, uN);
-    if (heatD) {
-      for (let v = 0; v < nv; v++) if (onBoundary[v]) rhs[v] = 0;
-      heatD.solve(rhs, uD);
-      const cmax = this.compMax.fill(0);
-      for (let v = 0; v < nv; v++) if (comp[v]! >= 0 && uD[v]! > cmax[comp[v]!]!) cmax[comp[v]!] = uD[v]!;
-      const avg = this.parts.boundaryMode === 'average';
-      for (let v = 0; v < nv; v++) {
-        const c = comp[v]!;
-        if (c >= 0 && cmax[c]! > 0) uN[v] = avg ? 0.5 * (uN[v]! + uD[v]!) : uD[v]!;
-      }
-    }
-
-    // X = −∇u/|∇u| per face, scattered straight into b_i = Σ_f A_f ∇φ_i·X_f
-    const G = geom.grad, area = geom.area, tri = t.tri, u = uN;
-    b.fill(0);
-    let flat = 0;
-    for (let f = 0; f < t.nf; f++) {
-      const i0 = tri[3 * f]!, i1 = tri[3 * f + 1]!, i2 = tri[3 * f + 2]!, o = 6 * f;
-      const u0 = u[i0]!, u1 = u[i1]!, u2 = u[i2]!;
-      const gx = u0 * G[o]! + u1 * G[o + 2]! + u2 * G[o + 4]!;
-      const gy = u0 * G[o + 1]! + u1 * G[o + 3]! + u2 * G[o + 5]!;
-      const norm = Math.hypot(gx, gy);
-      if (!(norm > 0 && norm < Infinity)) { flat++; continue; }
-      const s = -area[f]! / norm, ax = s * gx, ay = s * gy;
-      b[i0]! += ax * G[o]! + ay * G[o + 1]!;
-      b[i1]! += ax * G[o + 2]! + ay * G[o + 3]!;
-      b[i2]! += ax * G[o + 4]! + ay * G[o + 5]!;
-    }
+    const { flatFaces, stages } = assembleDivergence(this.relay, this.heatStep, rhs, this.u, b);
     for (let v = 0; v < nv; v++) if (blocked[v]) b[v] = 0;
     const phi = new Float64Array(nv);
     this.parts.poisson.solve(b, phi);
@@ -286,39 +292,9 @@ export class HeatSolver {
       const d = s < Infinity ? phi[v]! - s : Infinity;
       phi[v] = d > 0 ? d : d === Infinity ? Infinity : 0; // clamps tiny negatives; NaN cannot pass `d > 0`
     }
-    this.lastSolve = { solveMs: performance.now() - t0, flatFaces: flat };
+    this.lastSolve = { solveMs: performance.now() - t0, flatFaces, relayStages: stages };
     return { method: 'heat', distance: phi, sources: [...sources.points, ...sources.curves.flat()] };
   }
-}
-
-/**
- * Factors the Poisson matrix: L with one pinned vertex per component (see the
- * module comment), falling back to L + εM when that is singular.
- */
-function factorPoisson(
-  p: EdgePattern, sym: CholeskySymbolic, Lv: Float64Array, Mv: Float64Array, inactive: Uint8Array,
-  vertexComponent: Int32Array, count: number, h: number,
-): { factor: CholeskyFactor; blocked: Uint8Array; shifted: boolean } {
-  const nv = p.n;
-  const blocked = inactive.slice();
-  // pin the vertex of largest mass in each component (best-conditioned row)
-  const best = new Int32Array(count).fill(-1);
-  for (let v = 0; v < nv; v++) {
-    const c = vertexComponent[v]!;
-    if (c < 0 || inactive[v]) continue;
-    if (best[c]! < 0 || Mv[v]! > Mv[best[c]!]!) best[c] = v;
-  }
-  for (let c = 0; c < count; c++) if (best[c]! >= 0) blocked[best[c]!] = 1;
-  const P = Lv.slice();
-  constrainRows(p, P, blocked);
-  try {
-    return { factor: CholeskyFactor.factor(patternMatrix(p, P), sym), blocked, shifted: false };
-  } catch (e) {
-    if (!isOrthodromeError(e) || e.code !== 'NUMERIC') throw e;
-  }
-  const S = combine(p, 1, Lv, 1e-8 / (h * h), Mv);
-  constrainRows(p, S, inactive);
-  return { factor: CholeskyFactor.factor(patternMatrix(p, S), sym), blocked: inactive.slice(), shifted: true };
 }
 
 /** Tail vertex of edge e's stored half-edge. */

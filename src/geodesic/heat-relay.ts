@@ -1,0 +1,129 @@
+/**
+ * The heat method's middle step, X = −∇u/|∇u| and b_i = Σ_f A_f ∇φ_i·X_f,
+ * made safe against the heat underflowing far from the sources.
+ *
+ * Backward-Euler heat decays like e^(−r/√t): with t = h² the values leave the
+ * double range about 700 edge rings from a source, where ∇u becomes 0 (or
+ * subnormal noise) and the direction field is lost. Only directions matter,
+ * so the heat is relayed: vertices whose heat is above τ = max·1e-240 (per
+ * component) are settled in stage 0; the settled vertices next to unsettled
+ * ones form a front, and heat released from the front (weighted by u/τ, so
+ * of order one) settles the next band in stage 1, and so on:
+ * ```
+ *   source ●~~~~~ stage 0 ~~~~~|front|~~~~~ stage 1 ~~~~~|front|~~~ stage 2 …
+ * ```
+ * Beyond a front the relayed heat is the heat of a curve source along a level
+ * set of u, whose normalised gradient is the same direction field (Huygens'
+ * principle for distance: d(x) = d(front) + dist(front, x)). Each face takes
+ * X from the stage that settled its last corner. On most meshes everything
+ * settles in stage 0 and this is one sweep over the faces.
+ */
+import type { Topology } from '../mesh/topology.js';
+import type { FaceGeometry } from '../metric/laplacian.js';
+import { next } from '../mesh/topology.js';
+
+/** Workspaces and per-mesh data for {@link assembleDivergence}. */
+export interface RelayWork {
+  /** Working topology (the intrinsic triangulation). */
+  readonly t: Topology;
+  /** Face areas and hat gradients of `t`. */
+  readonly geom: FaceGeometry;
+  /** Component of each vertex (-1 isolated). */
+  readonly comp: Int32Array;
+  /** Vertices that never block settling (Dirichlet-fixed boundary, inactive rows). */
+  readonly wildcard: Uint8Array;
+  /** Stage per vertex, size nv. */
+  readonly stage: Int32Array;
+  /** Per-component maximum / threshold, size = component count. */
+  readonly compTau: Float64Array;
+  /** Per-component flag: has heat, size = component count. */
+  readonly compHot: Uint8Array;
+}
+
+/** Largest number of relay stages before the rest is left with X = 0. */
+export const MAX_RELAY_STAGES = 256;
+/** Settling threshold relative to a component's largest heat value. */
+const RELATIVE_TAU = 1e-240;
+/** Lowest absolute settling threshold (keeps away from subnormal numbers). */
+const MIN_TAU = 1e-290;
+
+/**
+ * Runs the heat solve(s) through `heat(rhs, u)` (which may overwrite rhs)
+ * and accumulates b (zeroed here). `rhs` holds the initial heat on entry and
+ * is used as the relay workspace. Returns the number of faces left with
+ * X = 0 in components that carry heat, and the number of stages used.
+ */
+export function assembleDivergence(
+  w: RelayWork,
+  heat: (rhs: Float64Array, u: Float64Array) => void,
+  rhs: Float64Array,
+  u: Float64Array,
+  b: Float64Array,
+): { flatFaces: number; stages: number } {
+  const { t, comp, wildcard, stage, compTau: tau, compHot: hot } = w;
+  const nv = t.nv;
+  hot.fill(0);
+  for (let v = 0; v < nv; v++) if (rhs[v]! > 0 && comp[v]! >= 0) hot[comp[v]!] = 1;
+  stage.fill(-1);
+  b.fill(0);
+  let flat = 0, k = 0;
+  for (;; k++) {
+    heat(rhs, u);
+    tau.fill(0);
+    for (let v = 0; v < nv; v++) {
+      const c = comp[v]!;
+      if (c >= 0 && u[v]! > tau[c]!) tau[c] = u[v]!;
+    }
+    for (let c = 0; c < tau.length; c++) tau[c] = Math.max(tau[c]! * RELATIVE_TAU, MIN_TAU);
+    let settled = 0, pending = 0;
+    for (let v = 0; v < nv; v++) {
+      const c = comp[v]!;
+      if (c < 0 || !hot[c] || stage[v] !== -1) continue;
+      if (wildcard[v] || u[v]! >= tau[c]!) { stage[v] = k; settled++; } else pending++;
+    }
+    const last = pending === 0 || settled === 0 || k + 1 >= MAX_RELAY_STAGES;
+    flat += scatterStage(w, k, u, b, last);
+    if (last) break;
+    // front: settled-in-this-stage vertices with an unsettled neighbour release u/τ
+    rhs.fill(0);
+    const tri = t.tri;
+    for (let h = 0; h < tri.length; h++) {
+      const a = tri[h]!, c = tri[next(h)]!;
+      if (stage[a] === k && stage[c] === -1 && !wildcard[a]) rhs[a] = u[a]! / tau[comp[a]!]!;
+      if (stage[c] === k && stage[a] === -1 && !wildcard[c]) rhs[c] = u[c]! / tau[comp[c]!]!;
+    }
+  }
+  return { flatFaces: flat, stages: k + 1 };
+}
+
+/**
+ * Adds A_f ∇φ_i·X_f for the faces whose latest-settled corner settled in
+ * stage k (with X from this stage's u). With `last`, faces that still have
+ * an unsettled corner in a hot component are counted as flat.
+ */
+function scatterStage(w: RelayWork, k: number, u: Float64Array, b: Float64Array, last: boolean): number {
+  const { t, geom, comp, stage, compHot: hot } = w;
+  const G = geom.grad, area = geom.area, tri = t.tri;
+  let flat = 0;
+  for (let f = 0; f < t.nf; f++) {
+    const i0 = tri[3 * f]!, i1 = tri[3 * f + 1]!, i2 = tri[3 * f + 2]!;
+    const s0 = stage[i0]!, s1 = stage[i1]!, s2 = stage[i2]!;
+    if (s0 < 0 || s1 < 0 || s2 < 0) {
+      if (last && hot[comp[i0]!]) flat++;
+      continue;
+    }
+    if (Math.max(s0, s1, s2) !== k) continue;
+    const o = 6 * f, u0 = u[i0]!, u1 = u[i1]!, u2 = u[i2]!;
+    const gx = u0 * G[o]! + u1 * G[o + 2]! + u2 * G[o + 4]!;
+    const gy = u0 * G[o + 1]! + u1 * G[o + 3]! + u2 * G[o + 5]!;
+    // normalise via the larger component: −A/|∇u| would overflow for subnormal gradients
+    const big = Math.max(Math.abs(gx), Math.abs(gy));
+    if (!(big > 0 && big < Infinity)) { flat++; continue; }
+    const sx = gx / big, sy = gy / big;
+    const s = -area[f]! / Math.sqrt(sx * sx + sy * sy), ax = s * sx, ay = s * sy;
+    b[i0]! += ax * G[o]! + ay * G[o + 1]!;
+    b[i1]! += ax * G[o + 2]! + ay * G[o + 3]!;
+    b[i2]! += ax * G[o + 4]! + ay * G[o + 5]!;
+  }
+  return flat;
+}
