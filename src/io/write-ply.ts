@@ -1,6 +1,7 @@
 /**
  * PLY writer: a polygon mesh with any per-vertex and per-face scalar columns
  * (and optional 8-bit colours) to bytes, binary little-endian by default.
+ * A {@link MeshData} can be passed as is; columns without a type are `double`.
  *
  * Positions are written as `double`, so coordinates survive bit for bit.
  * Each column is written in its declared {@link ScalarType}; integer columns
@@ -9,15 +10,37 @@
  * the shortest decimal that reads back to the same double.
  */
 import { usageError } from '../errors.js';
-import type { PropertyColumn, ScalarType } from './mesh-data.js';
+import type { ScalarType } from './mesh-data.js';
+
+/** A column to write: like a `PropertyColumn`, but the type may be left out (then `float64`, PLY `double`). */
+export interface PlyColumnInput {
+  /** Property name (no spaces). */
+  name: string;
+  /** One value per vertex or face. */
+  values: ArrayLike<number>;
+  /** Storage type (default `float64`). */
+  type?: ScalarType;
+}
 
 /** What {@link writePly} needs from a mesh (a {@link MeshData} fits). */
 export interface PlyMeshInput {
+  /** x, y, z per vertex. */
   positions: Float64Array;
+  /** Face `f` is `faceIndices[faceOffsets[f] .. faceOffsets[f+1])`. */
   faceOffsets: Uint32Array;
+  /** Concatenated 0-based vertex indices of all faces. */
   faceIndices: Uint32Array;
-  vertexProps?: PropertyColumn[];
-  faceProps?: PropertyColumn[];
+  /** Extra per-vertex scalar columns. */
+  vertexProps?: PlyColumnInput[];
+  /** Extra per-face scalar columns. */
+  faceProps?: PlyColumnInput[];
+}
+
+/** A column with its type settled. */
+interface Column {
+  name: string;
+  values: ArrayLike<number>;
+  type: ScalarType;
 }
 
 /** Options of {@link writePly}. */
@@ -82,7 +105,7 @@ export function writePly(mesh: PlyMeshInput, opts: WritePlyOptions = {}): Uint8A
   const nf = mesh.faceOffsets.length - 1;
   const le = opts.littleEndian !== false;
   const ascii = opts.format === 'ascii';
-  const vcols: PropertyColumn[] = [...(mesh.vertexProps ?? [])];
+  const vcols: Column[] = (mesh.vertexProps ?? []).map((c) => ({ name: c.name, values: c.values, type: c.type ?? 'float64' }));
   if (opts.colors) {
     if (opts.colors.length !== 3 * nv) throw usageError(`colors has ${opts.colors.length} values, expected ${3 * nv}`);
     ['red', 'green', 'blue'].forEach((name, ch) => {
@@ -91,7 +114,7 @@ export function writePly(mesh: PlyMeshInput, opts: WritePlyOptions = {}): Uint8A
       vcols.push({ name, type: 'uint8', values });
     });
   }
-  const fcols = mesh.faceProps ?? [];
+  const fcols: Column[] = (mesh.faceProps ?? []).map((c) => ({ name: c.name, values: c.values, type: c.type ?? 'float64' }));
   const seen = new Set(['x', 'y', 'z']);
   for (const c of vcols) {
     if (c.values.length !== nv) throw usageError(`vertex property '${c.name}' has ${c.values.length} values, expected ${nv}`);
@@ -146,7 +169,7 @@ export function writePly(mesh: PlyMeshInput, opts: WritePlyOptions = {}): Uint8A
 }
 
 /** ASCII body, built in chunks of lines so no single huge string is needed. */
-function asciiBody(header: Uint8Array, mesh: PlyMeshInput, vcols: PropertyColumn[], fcols: PropertyColumn[]): Uint8Array {
+function asciiBody(header: Uint8Array, mesh: PlyMeshInput, vcols: Column[], fcols: Column[]): Uint8Array {
   const enc = new TextEncoder();
   const parts: Uint8Array[] = [header];
   let lines: string[] = [];

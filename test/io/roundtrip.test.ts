@@ -148,6 +148,12 @@ describe('round trips (fixed cases)', () => {
     }
   });
 
+  it('columns without a type are written as double and plain arrays are accepted', () => {
+    const m = { positions: new Float64Array(9), faceOffsets: Uint32Array.from([0, 3]), faceIndices: Uint32Array.from([0, 1, 2]) };
+    const p = parsePly(writePly({ ...m, vertexProps: [{ name: 'distance', values: [0, 0.1, Infinity] }] }), 'd.ply');
+    expect(p.vertexProps.map((c) => [c.name, c.type, Array.from(c.values)])).toEqual([['distance', 'float64', [0, 0.1, Infinity]]]);
+  });
+
   it('the writer refuses mismatched or clashing columns with USAGE', () => {
     const m = { positions: new Float64Array(9), faceOffsets: Uint32Array.from([0, 3]), faceIndices: Uint32Array.from([0, 1, 2]) };
     expect(() => writePly({ ...m, vertexProps: [{ name: 'q', type: 'float64', values: new Float64Array(2) }] })).toThrow("vertex property 'q' has 2 values, expected 3");
