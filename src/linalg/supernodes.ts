@@ -174,10 +174,10 @@ export function findSupernodes(
     if (v > MAX_VALUES) throw limitError(`supernodal Cholesky factor would need more than ${MAX_VALUES} values`);
     for (let ch = childHead[s]!; ch !== -1; ch = childNext[ch]!) {
       const m = rowPtr[ch + 1]! - rowPtr[ch]! - (superStart[ch + 1]! - superStart[ch]!);
-      stack -= m * m;
+      stack -= (m * (m + 1)) / 2;
     }
     const m = nr - nc;
-    stack += m * m;
+    stack += (m * (m + 1)) / 2;
     peak = Math.max(peak, stack);
   }
   valPtr[nsuper] = v;
