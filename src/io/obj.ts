@@ -35,47 +35,49 @@ function lower(c: number): number {
 
 /**
  * Reads a decimal real (`-12`, `3.25`, `.5`, `6.02e23`, `nan`, `inf`,
- * `infinity`) from `b` at `p` (bounded by `end`). Sets `scanCursor.pos` to the
+ * `infinity`) from `b` at `p`; the token ends at a delimiter or the end of
+ * `b` (reads past the end give `undefined`, which no test matches). Sets `scanCursor.pos` to the
  * first byte after the token and `scanCursor.bad` when no number starts at `p`
  * or it is not followed by a delimiter. The result is the correctly rounded
  * double: short mantissas take the exact fast path, longer ones go through
  * `Number()` on the token.
  */
-export function scanReal(b: Uint8Array, p: number, end: number): number {
+export function scanReal(b: Uint8Array, p: number): number {
+  const end = b.length;
   const start = p;
   let neg = false;
-  let c = p < end ? b[p]! : 0;
+  let c = b[p]!;
   if (c === 45 || c === 43) {
     neg = c === 45;
-    c = ++p < end ? b[p]! : 0;
+    c = b[++p]!;
   }
   let m = 0, nd = 0, digits = 0, frac = 0;
   while (c >= 48 && c <= 57) {
     if (nd > 0 || c !== 48) { m = m * 10 + (c - 48); nd++; }
     digits++;
-    c = ++p < end ? b[p]! : 0;
+    c = b[++p]!;
   }
   if (c === 46) {
-    c = ++p < end ? b[p]! : 0;
+    c = b[++p]!;
     while (c >= 48 && c <= 57) {
       if (nd > 0 || c !== 48) { m = m * 10 + (c - 48); nd++; }
       digits++; frac++;
-      c = ++p < end ? b[p]! : 0;
+      c = b[++p]!;
     }
   }
   if (digits === 0) {
     if (p > start + (neg || b[start] === 43 ? 1 : 0)) { scanCursor.pos = p; scanCursor.bad = true; return 0; }
-    return scanWord(b, p, end, neg);
+    return scanWord(b, p, neg);
   }
   let e = 0;
   if (c === 101 || c === 69) {
-    c = ++p < end ? b[p]! : 0;
+    c = b[++p]!;
     let eneg = false;
-    if (c === 45 || c === 43) { eneg = c === 45; c = ++p < end ? b[p]! : 0; }
-    if (c < 48 || c > 57) { scanCursor.pos = p; scanCursor.bad = true; return 0; }
+    if (c === 45 || c === 43) { eneg = c === 45; c = b[++p]!; }
+    if (!(c >= 48 && c <= 57)) { scanCursor.pos = p; scanCursor.bad = true; return 0; }
     while (c >= 48 && c <= 57) {
       if (e < 100000) e = e * 10 + (c - 48);
-      c = ++p < end ? b[p]! : 0;
+      c = b[++p]!;
     }
     if (eneg) e = -e;
   }
@@ -90,7 +92,8 @@ export function scanReal(b: Uint8Array, p: number, end: number): number {
 }
 
 /** `nan`, `inf`, `infinity` (any case) after an optional sign; otherwise bad. */
-function scanWord(b: Uint8Array, p: number, end: number, neg: boolean): number {
+function scanWord(b: Uint8Array, p: number, neg: boolean): number {
+  const end = b.length;
   let q = p;
   while (q < end && !isDelimiter(b[q]!)) q++;
   const n = q - p;
@@ -166,7 +169,7 @@ export function parseObj(bytes: Uint8Array, name: string): MeshData {
       for (;;) {
         p = skipBlank(b, p);
         if (p >= n || b[p] === 10 || b[p] === 35 || b[p] === 13) break;
-        const v = scanReal(b, p, n);
+        const v = scanReal(b, p);
         if (scanCursor.bad) fail(b, p, name, `malformed number ${tokenAt(b, p)}`);
         if (!Number.isFinite(v)) fail(b, p, name, `non-finite coordinate ${tokenAt(b, p)}`);
         p = scanCursor.pos;

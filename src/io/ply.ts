@@ -214,7 +214,7 @@ export function parsePly(bytes: Uint8Array, name: string): MeshData {
     if (ascii) {
       while (p < n && (b[p] === 32 || b[p] === 9 || b[p] === 13 || b[p] === 10)) p++;
       if (p >= n) fail('file ends early');
-      const v = scanReal(b, p, n);
+      const v = scanReal(b, p);
       if (scanCursor.bad) fail(`malformed number ${excerpt(b, p)}`);
       p = scanCursor.pos;
       if (t < 6 && !(Number.isInteger(v) && v >= LO[t]! && v <= HI[t]!)) fail(`value ${v} does not fit its type ${SCALAR_TYPES[t]}`);

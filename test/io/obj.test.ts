@@ -77,7 +77,7 @@ describe('parseObj statements', () => {
 describe('scanReal against Number() (ECMAScript StringToNumber, correctly rounded)', () => {
   const scan = (s: string) => {
     const b = enc.encode(s);
-    const v = scanReal(b, 0, b.length);
+    const v = scanReal(b, 0);
     return { v, bad: scanCursor.bad, pos: scanCursor.pos };
   };
 
