@@ -165,7 +165,7 @@ export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: Exa
     field,
     windows: s.win.count,
     facesTouched: countTouched(s),
-    complete: stopKey === Infinity,
+    complete: stopKey === Infinity && !s.capped,
     distanceAt(p) {
       checkSurfacePoint(p, t, 'point');
       const v = best(p).value;

@@ -94,7 +94,10 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
   if (!(b1 - b0 > REL * L)) return -1;
   const xm = sx < b0 ? b0 : sx > b1 ? b1 : sx;
   const key = sigma + Math.hypot(xm - sx, sy);
-  if (key > s.maxDistance) return -1;
+  if (key > s.maxDistance) {
+    s.capped = true;
+    return -1;
+  }
   if (W.count >= s.maxWindows) {
     s.overflow = true;
     return -1;

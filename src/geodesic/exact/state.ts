@@ -61,6 +61,8 @@ export interface ExactState {
   readonly maxWindows: number;
   /** Set when the window cap tripped. */
   overflow: boolean;
+  /** Set when something was left out for lying beyond maxDistance. */
+  capped: boolean;
 }
 
 /** Allocates the state for a mesh; `capacity` is the initial window capacity. */
@@ -85,6 +87,7 @@ export function createState(mesh: IntrinsicMesh, maxDistance: number, maxWindows
     maxDistance,
     maxWindows,
     overflow: false,
+    capped: false,
   };
 }
 
@@ -107,4 +110,5 @@ export function relaxVertex(s: ExactState, v: number, d: number, type: Via, id: 
   s.viaType[v] = type;
   s.viaId[v] = id;
   if (d <= s.maxDistance) s.queue.push(d, -1 - v);
+  else s.capped = true;
 }

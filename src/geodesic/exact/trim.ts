@@ -46,10 +46,14 @@ export function trimInterval(
   bp[n++] = p;
   const span = q - p;
   let r1 = NaN, r2 = NaN;
-  if (Math.abs(q2) * span * span <= 1e-14 * (Math.abs(q1) * span + Math.abs(q0))) {
+  if (Math.abs(dl) <= 1e-15 * (sN + sO + span)) {
+    // equal σ: the zero set is the perpendicular bisector of the images, αx + β = 0
+    if (al !== 0) r1 = -be / al;
+  } else if (Math.abs(q2) * span * span <= 1e-14 * (Math.abs(q1) * span + Math.abs(q0))) {
     if (q1 !== 0) r1 = -q0 / q1;
   } else {
-    const disc = q1 * q1 - 4 * q2 * q0;
+    let disc = q1 * q1 - 4 * q2 * q0;
+    if (disc < 0 && disc > -1e-12 * q1 * q1) disc = 0; // a double root lost to rounding
     if (disc >= 0) {
       const qq = -0.5 * (q1 + (q1 >= 0 ? 1 : -1) * Math.sqrt(disc));
       if (qq !== 0) {
@@ -67,7 +71,11 @@ export function trimInterval(
   for (let i = 0; i < pieces; i++) {
     const m = 0.5 * (bp[i]! + bp[i + 1]!);
     const fN = sN + Math.hypot(m - a, b), fO = sO + Math.hypot(m - c, d);
-    worse[i] = fN - fO > SLACK * fN ? 1 : 0;
+    // also not clearly better at either end: a zero missed to rounding cannot hide a better stretch
+    const x0 = bp[i]!, x1 = bp[i + 1]!;
+    const e0 = sN + Math.hypot(x0 - a, b) - sO - Math.hypot(x0 - c, d);
+    const e1 = sN + Math.hypot(x1 - a, b) - sO - Math.hypot(x1 - c, d);
+    worse[i] = fN - fO > SLACK * fN && e0 > -SLACK * fN && e1 > -SLACK * fN ? 1 : 0;
   }
   let k = 0;
   while (k < pieces && worse[k]) k++;
