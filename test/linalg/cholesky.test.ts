@@ -69,16 +69,20 @@ describe('sparse Cholesky residuals', () => {
       const sym = analyzeCholesky(A, { ordering, method: 'simplicial' });
       const L = CholeskyFactor.factor(A, sym).lowerFactor();
       expect(L.colPtr[A.n]).toBe(sym.nnzL);
+      let bad = 0;
       for (let j = 0; j < A.n; j++) {
-        expect(L.rowIdx[L.colPtr[j]!]).toBe(j);
-        for (let p = L.colPtr[j]! + 1; p < L.colPtr[j + 1]!; p++) expect(L.rowIdx[p]!).toBeGreaterThan(L.rowIdx[p - 1]!);
+        if (L.rowIdx[L.colPtr[j]!] !== j) bad++;
+        for (let p = L.colPtr[j]! + 1; p < L.colPtr[j + 1]!; p++) if (L.rowIdx[p]! <= L.rowIdx[p - 1]!) bad++;
       }
+      expect(bad).toBe(0);
       // the supernodal factor has the same structural pattern (explicit zeros aside)
       const Ls = CholeskyFactor.factor(A, analyzeCholesky(A, { ordering })).lowerFactor();
       expect(Ls.colPtr[A.n]).toBeLessThanOrEqual(sym.nnzL);
       const inPattern = new Set<number>();
       for (let j = 0; j < A.n; j++) for (let p = L.colPtr[j]!; p < L.colPtr[j + 1]!; p++) inPattern.add(L.rowIdx[p]! * A.n + j);
-      for (let j = 0; j < A.n; j++) for (let p = Ls.colPtr[j]!; p < Ls.colPtr[j + 1]!; p++) expect(inPattern.has(Ls.rowIdx[p]! * A.n + j)).toBe(true);
+      let outside = 0;
+      for (let j = 0; j < A.n; j++) for (let p = Ls.colPtr[j]!; p < Ls.colPtr[j + 1]!; p++) if (!inPattern.has(Ls.rowIdx[p]! * A.n + j)) outside++;
+      expect(outside).toBe(0);
     }
   });
 });
