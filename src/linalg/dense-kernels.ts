@@ -21,6 +21,8 @@
  * values. Kernels never throw.
  */
 
+import type { SimdFront } from './wasm-update.js';
+
 /** Columns per block of the right-looking loop. */
 const NB = 64;
 
@@ -30,12 +32,12 @@ const NB = 64;
  * local column whose pivot is not a positive finite number (then F(j,j)
  * holds that value).
  */
-export function factorFront(F: Float64Array, nr: number, nc: number): number {
+export function factorFront(F: Float64Array, nr: number, nc: number, simd: SimdFront | null = null): number {
   for (let jb = 0; jb < nc; jb += NB) {
     const je = Math.min(jb + NB, nc);
     const bad = factorBlock(F, nr, jb, je);
     if (bad >= 0) return bad;
-    if (je < nr) trailingUpdate(F, nr, je, jb, je);
+    if (je < nr) trailingUpdate(F, nr, je, jb, je, simd);
   }
   return -1;
 }
@@ -85,40 +87,60 @@ function factorBlock(F: Float64Array, nr: number, jb: number, je: number): numbe
 /**
  * F(i, j) −= Σ_{k0 ≤ k < k1} F(i, k) F(j, k) for c0 ≤ j ≤ i < nr (lower
  * triangle of the trailing block). Rows go four at a time against pairs of
- * columns (4×2 tiles: 6 loads feed 8 multiply-adds); the 4×4 triangle on the
- * diagonal and the last nr − c0 mod 4 rows use single inner products.
+ * columns (4×2 tiles: 6 loads feed 8 multiply-adds), in WebAssembly SIMD when
+ * `simd` is given (F must then be `simd.front`); the 4×4 triangles on the
+ * diagonal and the last (nr − c0) mod 4 rows use single inner products.
  */
-export function trailingUpdate(F: Float64Array, nr: number, c0: number, k0: number, k1: number): void {
-  let i = c0;
-  for (; i + 3 < nr; i += 4) {
-    const r0 = i * nr, r1 = r0 + nr, r2 = r1 + nr, r3 = r2 + nr;
-    for (let j = c0; j < i; j += 2) {
-      const q0 = j * nr, q1 = q0 + nr;
-      let s00 = 0, s01 = 0, s10 = 0, s11 = 0, s20 = 0, s21 = 0, s30 = 0, s31 = 0;
-      for (let k = k0; k < k1; k++) {
-        const b0 = F[q0 + k]!, b1 = F[q1 + k]!;
-        const a0 = F[r0 + k]!, a1 = F[r1 + k]!, a2 = F[r2 + k]!, a3 = F[r3 + k]!;
-        s00 += a0 * b0;
-        s01 += a0 * b1;
-        s10 += a1 * b0;
-        s11 += a1 * b1;
-        s20 += a2 * b0;
-        s21 += a2 * b1;
-        s30 += a3 * b0;
-        s31 += a3 * b1;
+export function trailingUpdate(F: Float64Array, nr: number, c0: number, k0: number, k1: number, simd: SimdFront | null = null): void {
+  const groupsEnd = c0 + 4 * Math.floor((nr - c0) / 4);
+  if (simd !== null && k1 - k0 >= 2) {
+    simd.tiles(nr, c0, k0, (k1 - k0) >> 1);
+    if ((k1 - k0) & 1) {
+      // the odd last k as a rank-1 update of the same tiles
+      const k = k1 - 1;
+      for (let i = c0; i < groupsEnd; i += 4) {
+        for (let a = i; a < i + 4; a++) {
+          const ra = a * nr, la = F[ra + k]!;
+          for (let j = c0; j < i; j++) F[ra + j]! -= la * F[j * nr + k]!;
+        }
       }
-      F[r0 + j]! -= s00;
-      F[r0 + j + 1]! -= s01;
-      F[r1 + j]! -= s10;
-      F[r1 + j + 1]! -= s11;
-      F[r2 + j]! -= s20;
-      F[r2 + j + 1]! -= s21;
-      F[r3 + j]! -= s30;
-      F[r3 + j + 1]! -= s31;
     }
+  } else {
+    for (let i = c0; i < groupsEnd; i += 4) tiles4x2(F, nr, c0, i, k0, k1);
+  }
+  for (let i = c0; i < groupsEnd; i += 4) {
     for (let a = i; a < i + 4; a++) for (let b = i; b <= a; b++) dotUpdate(F, nr, a, b, k0, k1);
   }
-  for (; i < nr; i++) for (let j = c0; j <= i; j++) dotUpdate(F, nr, i, j, k0, k1);
+  for (let i = groupsEnd; i < nr; i++) for (let j = c0; j <= i; j++) dotUpdate(F, nr, i, j, k0, k1);
+}
+
+/** Rows i..i+3 against columns c0..i−1 in 4×2 tiles (i − c0 is a multiple of 4). */
+function tiles4x2(F: Float64Array, nr: number, c0: number, i: number, k0: number, k1: number): void {
+  const r0 = i * nr, r1 = r0 + nr, r2 = r1 + nr, r3 = r2 + nr;
+  for (let j = c0; j < i; j += 2) {
+    const q0 = j * nr, q1 = q0 + nr;
+    let s00 = 0, s01 = 0, s10 = 0, s11 = 0, s20 = 0, s21 = 0, s30 = 0, s31 = 0;
+    for (let k = k0; k < k1; k++) {
+      const b0 = F[q0 + k]!, b1 = F[q1 + k]!;
+      const a0 = F[r0 + k]!, a1 = F[r1 + k]!, a2 = F[r2 + k]!, a3 = F[r3 + k]!;
+      s00 += a0 * b0;
+      s01 += a0 * b1;
+      s10 += a1 * b0;
+      s11 += a1 * b1;
+      s20 += a2 * b0;
+      s21 += a2 * b1;
+      s30 += a3 * b0;
+      s31 += a3 * b1;
+    }
+    F[r0 + j]! -= s00;
+    F[r0 + j + 1]! -= s01;
+    F[r1 + j]! -= s10;
+    F[r1 + j + 1]! -= s11;
+    F[r2 + j]! -= s20;
+    F[r2 + j + 1]! -= s21;
+    F[r3 + j]! -= s30;
+    F[r3 + j + 1]! -= s31;
+  }
 }
 
 /** F(i, j) −= Σ_{k0 ≤ k < k1} F(i, k) F(j, k). */

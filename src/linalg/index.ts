@@ -16,4 +16,5 @@ export type { Ordering, CholeskySymbolic, AnalyzeOptions, CholeskyMethod } from 
 export type { SupernodalStructure } from './supernodes.js';
 export { analyzeCholesky, DEFAULT_ORDERING } from './symbolic.js';
 export { CholeskyFactor } from './numeric.js';
+export type { FactorOptions } from './numeric.js';
 export { lowerSolve, lowerTransposeSolve } from './solve.js';

@@ -15,11 +15,15 @@
  */
 import type { SupernodalStructure } from './supernodes.js';
 import { factorFront } from './dense-kernels.js';
+import { createSimdFront } from './wasm-update.js';
+import type { SimdFront } from './wasm-update.js';
 
 /** Workspaces of {@link multifrontalFactor}, allocated once per factor. */
 export interface MultifrontalWork {
-  /** Frontal matrix, maxRows² doubles. */
+  /** Frontal matrix, maxRows² doubles (in WebAssembly memory when `simd` is set). */
   readonly front: Float64Array;
+  /** The SIMD tile kernel over `front`, or null for the plain kernels. */
+  readonly simd: SimdFront | null;
   /** Update-matrix stack. */
   readonly stack: Float64Array;
   /** Row position map, n entries. */
@@ -31,9 +35,11 @@ export interface MultifrontalWork {
 }
 
 /** Allocates the workspaces for a supernodal structure. */
-export function multifrontalWork(n: number, sn: SupernodalStructure): MultifrontalWork {
+export function multifrontalWork(n: number, sn: SupernodalStructure, useSimd = true): MultifrontalWork {
+  const simd = useSimd ? createSimdFront(sn.maxRows * sn.maxRows) : null;
   return {
-    front: new Float64Array(sn.maxRows * sn.maxRows),
+    front: simd ? simd.front : new Float64Array(sn.maxRows * sn.maxRows),
+    simd,
     stack: new Float64Array(Math.max(1, sn.stackSize)),
     pos: new Int32Array(n),
     stackIds: new Int32Array(Math.max(1, sn.nsuper)),
@@ -57,7 +63,7 @@ export function multifrontalFactor(
   pivotOut: Float64Array,
 ): number {
   const { nsuper, superStart, childCount, rowPtr, rows, valPtr } = sn;
-  const { front: F, stack, pos, stackIds, rel } = work;
+  const { front: F, stack, pos, stackIds, rel, simd } = work;
   let nStack = 0; // entries on the stack
   let stackTop = 0; // doubles used
   for (let s = 0; s < nsuper; s++) {
@@ -85,7 +91,7 @@ export function multifrontalFactor(
         for (let b = 0; b <= a; b++) F[ra + rel[b]!]! += stack[u++]!;
       }
     }
-    const bad = factorFront(F, nr, nc);
+    const bad = factorFront(F, nr, nc, simd);
     if (bad >= 0) {
       pivotOut[0] = F[bad * nr + bad]!;
       return f + bad;

@@ -12,6 +12,15 @@ import type { MultifrontalWork } from './multifrontal.js';
 import { lowerSolve, lowerTransposeSolve } from './solve.js';
 import { numericError, usageError } from '../errors.js';
 
+/** Options of {@link CholeskyFactor.factor}. */
+export interface FactorOptions {
+  /**
+   * Use the WebAssembly SIMD tile kernel for the dense updates when the
+   * platform has it (default true); false forces the plain kernels.
+   */
+  simd?: boolean;
+}
+
 /** A numeric Cholesky factor P·A·Pᵀ = L·Lᵀ of a symmetric positive definite matrix. */
 export class CholeskyFactor {
   /** Matrix size. */
@@ -20,6 +29,10 @@ export class CholeskyFactor {
   readonly nnzL: number;
   /** The symbolic analysis this factor was built on. */
   readonly symbolic: CholeskySymbolic;
+  /** True when the dense updates run in WebAssembly SIMD. */
+  get usesSimd(): boolean {
+    return this.mf?.simd != null;
+  }
   /** Values of L: CSC columns (simplicial) or row-major supernode blocks (supernodal). */
   private readonly Lx: Float64Array;
   /** Row indices of L (simplicial only). */
@@ -30,7 +43,7 @@ export class CholeskyFactor {
   private readonly mf: MultifrontalWork | null;
   private readonly pivot = new Float64Array(1);
 
-  private constructor(sym: CholeskySymbolic) {
+  private constructor(sym: CholeskySymbolic, opts: FactorOptions) {
     const n = sym.n;
     this.n = n;
     this.nnzL = sym.nnzL;
@@ -41,7 +54,7 @@ export class CholeskyFactor {
       this.Lx = new Float64Array(sym.supernodal.valPtr[sym.supernodal.nsuper]!);
       this.Li = new Int32Array(0);
       this.intWork = new Int32Array(0);
-      this.mf = multifrontalWork(n, sym.supernodal);
+      this.mf = multifrontalWork(n, sym.supernodal, opts.simd ?? true);
     } else {
       this.Lx = new Float64Array(sym.nnzL);
       this.Li = new Int32Array(sym.nnzL);
@@ -55,8 +68,8 @@ export class CholeskyFactor {
    * `sym` (made from the same pattern). Throws `NUMERIC` naming the column
    * (in the caller's numbering) on a non-positive or non-finite pivot.
    */
-  static factor(Alower: CscMatrix, sym: CholeskySymbolic): CholeskyFactor {
-    const f = new CholeskyFactor(sym);
+  static factor(Alower: CscMatrix, sym: CholeskySymbolic, opts: FactorOptions = {}): CholeskyFactor {
+    const f = new CholeskyFactor(sym, opts);
     f.refactor(Alower);
     return f;
   }

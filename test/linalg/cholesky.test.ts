@@ -144,6 +144,31 @@ describe('dense Cholesky oracle (Golub & Van Loan Alg. 4.2.1, in src/linalg/dens
   );
 });
 
+describe('dense update kernels', () => {
+  it('the WebAssembly SIMD kernel and the plain one give the same factor to rounding', () => {
+    // large enough for fronts with many 4×2 tiles and odd block widths
+    const A = gridLaplacianLower(70, 70, 1e-3, true, 5);
+    const sym = analyzeCholesky(A);
+    const a = CholeskyFactor.factor(A, sym, { simd: true });
+    const b = CholeskyFactor.factor(A, sym, { simd: false });
+    expect(a.usesSimd).toBe(true); // Node 20 has WebAssembly SIMD
+    expect(b.usesSimd).toBe(false);
+    const la = a.lowerFactor().values, lb = b.lowerFactor().values;
+    expect(la.length).toBe(lb.length);
+    let maxDiff = 0, maxAbs = 0;
+    for (let p = 0; p < la.length; p++) {
+      maxDiff = Math.max(maxDiff, Math.abs(la[p]! - lb[p]!));
+      maxAbs = Math.max(maxAbs, Math.abs(lb[p]!));
+    }
+    // pairwise-lane summation changes rounding only (common practice: ~n·eps relative)
+    expect(maxDiff).toBeLessThanOrEqual(1e-12 * maxAbs);
+    const rhs = randomVector(A.n, 8);
+    const x = new Float64Array(A.n);
+    a.solve(rhs, x);
+    expect(scaledResidual(A, x, rhs)).toBeLessThan(1e-14);
+  });
+});
+
 describe('refactorization', () => {
   it('new values on the same pattern give the same factor as a fresh one', () => {
     const A1 = gridLaplacianLower(30, 30, 1e-3, true, 1);

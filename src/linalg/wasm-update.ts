@@ -1,0 +1,195 @@
+/**
+ * A WebAssembly SIMD version of the 4×2-tile part of the trailing update
+ * (see `trailingUpdate` in dense-kernels.ts), assembled from bytes here so no
+ * build step or file is needed. It runs on a frontal matrix that lives in a
+ * WebAssembly.Memory, handles rows c0 .. c0+4q−1 against columns c0 .. i−1
+ * and an even number of k, using f64x2 lanes: two k at a time,
+ *
+ *   acc(a,b) += F[i+a][k:k+2] ⊙ F[j+b][k:k+2],   F[i+a][j+b] −= lane0 + lane1.
+ *
+ * Where WebAssembly SIMD is missing, `createSimdFront` returns null and the
+ * plain kernels are used.
+ */
+
+/** A front workspace in WebAssembly memory plus the SIMD tile update over it. */
+export interface SimdFront {
+  /** The frontal matrix storage (a view of the module's memory). */
+  readonly front: Float64Array;
+  /**
+   * F(i, j) −= Σ_{k0 ≤ k < k0+2·pairs} F(i, k) F(j, k) for the 4×2 tiles:
+   * i in [c0, c0 + 4⌊(nr−c0)/4⌋), c0 ≤ j < (start of i's group of four).
+   */
+  tiles(nr: number, c0: number, k0: number, pairs: number): void;
+}
+
+// --- a minimal assembler -----------------------------------------------------
+
+function uleb(n: number, out: number[]): void {
+  do {
+    let b = n & 0x7f;
+    n >>>= 7;
+    if (n !== 0) b |= 0x80;
+    out.push(b);
+  } while (n !== 0);
+}
+function sleb(n: number, out: number[]): void {
+  for (;;) {
+    const b = n & 0x7f;
+    n >>= 7;
+    if ((n === 0 && (b & 0x40) === 0) || (n === -1 && (b & 0x40) !== 0)) {
+      out.push(b);
+      return;
+    }
+    out.push(b | 0x80);
+  }
+}
+function section(id: number, body: number[], out: number[]): void {
+  out.push(id);
+  uleb(body.length, out);
+  out.push(...body);
+}
+
+// locals: params first (i32): base nr c0 k0 pairs; then i32 scratch, then v128 accumulators
+const P_BASE = 0, P_NR = 1, P_C0 = 2, P_K0 = 3, P_PAIRS = 4;
+const I = 5, J = 6, OFF = 7, KEND = 8, RB = 9, K0B = 10, ADDR = 11;
+const R0 = 12; // R0..R3 row starts (+k0) of rows i..i+3
+const S0 = 16; // S0..S3 row starts of rows i..i+3 (for stores)
+const Q0 = 20, Q1 = 21, J8 = 22;
+const NI32 = 23 - 5;
+const ACC = 23; // 8 accumulators
+const VA = 31; // a0..a3, b0, b1
+const NV128 = 8 + 6;
+
+function body(): number[] {
+  const c: number[] = [];
+  const op = (...b: number[]) => c.push(...b);
+  const get = (l: number) => (op(0x20), uleb(l, c));
+  const set = (l: number) => (op(0x21), uleb(l, c));
+  const i32 = (v: number) => (op(0x41), sleb(v, c));
+  const add = () => op(0x6a);
+  const mul = () => op(0x6c);
+  const simd = (code: number) => (op(0xfd), uleb(code, c));
+  const v128load = (offset: number) => (simd(0x00), op(3), uleb(offset, c));
+  const memarg = (offset: number) => (op(3), uleb(offset, c));
+
+  // RB = nr*8 ; K0B = k0*8 ; KEND = pairs*16
+  get(P_NR), i32(8), mul(), set(RB);
+  get(P_K0), i32(8), mul(), set(K0B);
+  get(P_PAIRS), i32(16), mul(), set(KEND);
+  get(P_C0), set(I);
+  op(0x02, 0x40); // block (exit i)
+  op(0x03, 0x40); // loop i
+  //   if (i + 3 >= nr) break
+  get(I), i32(3), add(), get(P_NR), op(0x4e), op(0x0d, 1);
+  //   S0 = base + i*RB ; S1..S3 ; R_a = S_a + K0B
+  get(P_BASE), get(I), get(RB), mul(), add(), set(S0);
+  for (let a = 1; a < 4; a++) get(S0 + a - 1), get(RB), add(), set(S0 + a);
+  for (let a = 0; a < 4; a++) get(S0 + a), get(K0B), add(), set(R0 + a);
+  get(P_C0), set(J);
+  op(0x02, 0x40); // block (exit j)
+  op(0x03, 0x40); // loop j
+  //     if (j >= i) break
+  get(J), get(I), op(0x4e), op(0x0d, 1);
+  //     J8 = j*8 ; Q0 = base + j*RB + K0B ; Q1 = Q0 + RB
+  get(J), i32(8), mul(), set(J8);
+  get(P_BASE), get(J), get(RB), mul(), add(), get(K0B), add(), set(Q0);
+  get(Q0), get(RB), add(), set(Q1);
+  for (let t = 0; t < 8; t++) simd(0x0c), op(...new Array(16).fill(0)), set(ACC + t);
+  i32(0), set(OFF);
+  op(0x02, 0x40); // block (exit k)
+  op(0x03, 0x40); // loop k
+  get(OFF), get(KEND), op(0x4e), op(0x0d, 1);
+  get(Q0), get(OFF), add(), v128load(0), set(VA + 4);
+  get(Q1), get(OFF), add(), v128load(0), set(VA + 5);
+  for (let a = 0; a < 4; a++) get(R0 + a), get(OFF), add(), v128load(0), set(VA + a);
+  for (let a = 0; a < 4; a++) {
+    for (let b = 0; b < 2; b++) {
+      const acc = ACC + 2 * a + b;
+      get(acc), get(VA + a), get(VA + 4 + b), simd(0xf2), simd(0xf0), set(acc); // acc += a ⊙ b
+    }
+  }
+  get(OFF), i32(16), add(), set(OFF);
+  op(0x0c, 0); // br loop k
+  op(0x0b, 0x0b); // end loop k, end block k
+  //     F[i+a][j+b] −= lane0(acc) + lane1(acc)
+  for (let a = 0; a < 4; a++) {
+    for (let b = 0; b < 2; b++) {
+      const acc = ACC + 2 * a + b;
+      get(S0 + a), get(J8), add(), set(ADDR);
+      get(ADDR);
+      get(ADDR), op(0x2b), memarg(8 * b); // f64.load
+      get(acc), simd(0x21), op(0), get(acc), simd(0x21), op(1), op(0xa0); // lane0 + lane1
+      op(0xa1); // f64.sub
+      op(0x39), memarg(8 * b); // f64.store
+    }
+  }
+  get(J), i32(2), add(), set(J);
+  op(0x0c, 0); // br loop j
+  op(0x0b, 0x0b);
+  get(I), i32(4), add(), set(I);
+  op(0x0c, 0); // br loop i
+  op(0x0b, 0x0b);
+  op(0x0b); // end function
+  return c;
+}
+
+function moduleBytes(): Uint8Array<ArrayBuffer> {
+  const out: number[] = [0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00];
+  section(1, [1, 0x60, 5, 0x7f, 0x7f, 0x7f, 0x7f, 0x7f, 0], out); // (i32 ×5) → ()
+  const imp: number[] = [1];
+  for (const s of ['env', 'mem']) {
+    uleb(s.length, imp);
+    for (const ch of s) imp.push(ch.charCodeAt(0));
+  }
+  imp.push(0x02, 0x00, 0x01); // memory, min 1 page, no max
+  section(2, imp, out);
+  section(3, [1, 0], out);
+  const exp: number[] = [1, 5, ...Array.from('tiles', (ch) => ch.charCodeAt(0)), 0x00, 0];
+  section(7, exp, out);
+  const fn: number[] = [];
+  uleb(2, fn); // two local groups
+  uleb(NI32, fn), fn.push(0x7f);
+  uleb(NV128, fn), fn.push(0x7b);
+  fn.push(...body());
+  const code: number[] = [1];
+  uleb(fn.length, code);
+  code.push(...fn);
+  section(10, code, out);
+  return new Uint8Array(out);
+}
+
+let compiled: WebAssembly.Module | null | undefined;
+
+function simdModule(): WebAssembly.Module | null {
+  if (compiled !== undefined) return compiled;
+  compiled = null;
+  try {
+    if (typeof WebAssembly === 'object') {
+      const bytes = moduleBytes();
+      if (WebAssembly.validate(bytes)) compiled = new WebAssembly.Module(bytes);
+    }
+  } catch {
+    compiled = null;
+  }
+  return compiled;
+}
+
+/** Largest front (in doubles) placed in WebAssembly memory: 1 GiB. */
+const MAX_DOUBLES = 2 ** 27;
+
+/**
+ * A front workspace of `doubles` entries with the SIMD tile kernel, or null
+ * when WebAssembly SIMD is unavailable or the front is too large.
+ */
+export function createSimdFront(doubles: number): SimdFront | null {
+  const mod = simdModule();
+  if (!mod || doubles > MAX_DOUBLES) return null;
+  const pages = Math.max(1, Math.ceil((doubles * 8) / 65536));
+  const mem = new WebAssembly.Memory({ initial: pages });
+  const inst = new WebAssembly.Instance(mod, { env: { mem } });
+  const fn = inst.exports.tiles as (base: number, nr: number, c0: number, k0: number, pairs: number) => void;
+  return {
+    front: new Float64Array(mem.buffer, 0, Math.max(1, doubles)),
+    tiles: (nr, c0, k0, pairs) => fn(0, nr, c0, k0, pairs),
+  };
+}
