@@ -141,6 +141,30 @@ function tokenAt(b: Uint8Array, p: number): string {
 }
 
 /**
+ * Scan state of one file. The per-statement readers below are small
+ * functions called once per line, so the engine optimizes them as ordinary
+ * calls; a single function holding the whole loop would be optimized
+ * mid-loop and thrown back at its never-run epilogue on every file.
+ */
+class ObjScan {
+  pos = new Float64Array(3 * 1024);
+  idx = new Uint32Array(4096);
+  off = new Uint32Array(1024);
+  rgb: Float64Array | null = null;
+  nv = 0;
+  ni = 0;
+  nf = 0;
+  colored = 0;
+  /** Largest positive 0-based index seen, and the byte offset of its token. */
+  maxIdx = -1;
+  maxAt = 0;
+  constructor(
+    readonly b: Uint8Array,
+    readonly name: string,
+  ) {}
+}
+
+/**
  * Parses an OBJ file. Throws an `INPUT` {@link OrthodromeError} located at
  * `name:line` for malformed numbers, non-finite coordinates, index 0,
  * out-of-range or too-far-back relative indices, faces with fewer than three
@@ -148,102 +172,14 @@ function tokenAt(b: Uint8Array, p: number): string {
  * vertex) are kept; the topology builder drops and counts them.
  */
 export function parseObj(bytes: Uint8Array, name: string): MeshData {
-  const b = bytes, n = b.length;
-  let pos = new Float64Array(3 * 1024);
-  let idx = new Uint32Array(4096);
-  let off = new Uint32Array(1024);
-  let rgb: Float64Array | null = null;
-  let nv = 0, ni = 0, nf = 0, colored = 0;
-  let maxIdx = -1, maxAt = 0;
-  let p = 0;
-  while (p < n) {
-    const c = b[p]!;
-    if (c === 32 || c === 9 || c === 13 || c === 10 || c === 11 || c === 12) { p++; continue; }
-    const c1 = b[p + 1];
-    // A keyword ends at a blank, a newline or the end of the file.
-    const kwEnd = c1 === 32 || c1 === 9 || c1 === 10 || c1 === 13 || c1 === undefined;
-    if (c === 118 && kwEnd) {
-      p++;
-      if (3 * nv + 3 > pos.length) pos = grow(pos, 3 * nv, p, n);
-      let k = 0, r = 0, g = 0, bl = 0;
-      for (;;) {
-        p = skipBlank(b, p);
-        if (p >= n || b[p] === 10 || b[p] === 35 || b[p] === 13) break;
-        const v = scanReal(b, p);
-        if (scanCursor.bad) fail(b, p, name, `malformed number ${tokenAt(b, p)}`);
-        if (!Number.isFinite(v)) fail(b, p, name, `non-finite coordinate ${tokenAt(b, p)}`);
-        p = scanCursor.pos;
-        if (k < 3) pos[3 * nv + k] = v;
-        else if (k === 3) r = v;
-        else if (k === 4) g = v;
-        else if (k === 5) bl = v;
-        k++;
-      }
-      if (k !== 3 && k !== 4 && k !== 6) fail(b, p - 1, name, `vertex has ${k} numbers (expected 3, 4 or 6)`);
-      if (k === 6) {
-        if (rgb === null || rgb.length < pos.length) {
-          const t = new Float64Array(pos.length);
-          if (rgb !== null) t.set(rgb);
-          rgb = t;
-        }
-        rgb[3 * nv] = r; rgb[3 * nv + 1] = g; rgb[3 * nv + 2] = bl;
-        colored++;
-      }
-      nv++;
-    } else if (c === 102 && kwEnd) {
-      p++;
-      let k = 0;
-      for (;;) {
-        p = skipBlank(b, p);
-        if (p >= n || b[p] === 10 || b[p] === 35 || b[p] === 13) break;
-        const t0 = p;
-        let neg = false;
-        if (b[p] === 45) { neg = true; p++; }
-        let v = 0, d = 0;
-        for (let ch = b[p]!; p < n && ch >= 48 && ch <= 57; ch = b[++p]!) {
-          if (v < 1e15) v = v * 10 + (ch - 48);
-          d++;
-        }
-        if (d === 0) fail(b, t0, name, `malformed vertex index ${tokenAt(b, t0)}`);
-        if (v > 4294967295) fail(b, t0, name, `vertex index ${tokenAt(b, t0)} out of range`);
-        // Texture and normal references: `/t`, `//n`, `/t/n`; checked for form only.
-        for (let part = 0; part < 2 && b[p] === 47; part++) {
-          p++;
-          if (b[p] === 45) p++;
-          while (p < n && b[p]! >= 48 && b[p]! <= 57) p++;
-        }
-        const e = b[p];
-        if (p < n && !(e === 32 || e === 9 || e === 13 || e === 10 || e === 35 || e === 92 || e === 11 || e === 12)) {
-          fail(b, t0, name, `malformed face corner ${tokenAt(b, t0)}`);
-        }
-        let i: number;
-        if (v === 0) fail(b, t0, name, 'vertex index 0 (OBJ indices start at 1)');
-        if (neg) {
-          i = nv - v;
-          if (i < 0) fail(b, t0, name, `relative vertex index -${v} reaches before the first vertex (${nv} so far)`);
-        } else {
-          i = v - 1;
-          if (i > maxIdx) { maxIdx = i; maxAt = t0; }
-        }
-        if (ni >= idx.length) idx = grow(idx, ni, p, n);
-        idx[ni++] = i;
-        k++;
-      }
-      if (k < 3) fail(b, p - 1, name, `face has ${k} ${k === 1 ? 'vertex' : 'vertices'} (at least 3 needed)`);
-      if (nf + 2 > off.length) off = grow(off, nf + 1, p, n);
-      off[++nf] = ni;
-    } else {
-      p = skipLine(b, p);
-      continue;
-    }
-    if (p < n && b[p] !== 10) p = skipLine(b, p);
-    else p++;
-  }
+  const s = new ObjScan(bytes, name);
+  scanStatements(s);
+  const { nv, nf, ni, rgb } = s;
   if (nv === 0) throw inputError('no vertices', name);
   if (nf === 0) throw inputError('no faces', name);
-  if (maxIdx >= nv) fail(b, maxAt, name, `vertex index ${maxIdx + 1} out of range (the file has ${nv} vertices)`);
+  if (s.maxIdx >= nv) fail(bytes, s.maxAt, name, `vertex index ${s.maxIdx + 1} out of range (the file has ${nv} vertices)`);
   const vertexProps: PropertyColumn[] = [];
-  if (rgb !== null && colored === nv) {
+  if (rgb !== null && s.colored === nv) {
     const names = ['red', 'green', 'blue'];
     for (let ch = 0; ch < 3; ch++) {
       const values = new Float64Array(nv);
@@ -252,13 +188,112 @@ export function parseObj(bytes: Uint8Array, name: string): MeshData {
     }
   }
   return {
-    positions: trim(pos, 3 * nv),
-    faceOffsets: trim(off, nf + 1),
-    faceIndices: trim(idx, ni),
+    positions: trim(s.pos, 3 * nv),
+    faceOffsets: trim(s.off, nf + 1),
+    faceIndices: trim(s.idx, ni),
     vertexProps,
     faceProps: [],
     name,
   };
+}
+
+/** Walks the statements: `v` and `f` are read, everything else skipped. */
+function scanStatements(s: ObjScan): void {
+  const b = s.b, n = b.length;
+  let p = 0;
+  while (p < n) {
+    const c = b[p]!;
+    if (c === 32 || c === 9 || c === 13 || c === 10 || c === 11 || c === 12) { p++; continue; }
+    const c1 = b[p + 1];
+    // A keyword ends at a blank, a newline or the end of the file.
+    const kwEnd = c1 === 32 || c1 === 9 || c1 === 10 || c1 === 13 || c1 === undefined;
+    if (c === 118 && kwEnd) p = vertexStatement(s, p + 1);
+    else if (c === 102 && kwEnd) p = faceStatement(s, p + 1);
+    else { p = skipLine(b, p); continue; }
+    if (p < n && b[p] !== 10) p = skipLine(b, p);
+    else p++;
+  }
+}
+
+/** Reads `x y z [w]` or `x y z r g b` from `p`; returns the offset of the statement's end. */
+function vertexStatement(s: ObjScan, p: number): number {
+  const b = s.b, n = b.length, nv = s.nv;
+  if (3 * nv + 3 > s.pos.length) s.pos = grow(s.pos, 3 * nv, p, n);
+  const pos = s.pos;
+  let k = 0, r = 0, g = 0, bl = 0;
+  for (;;) {
+    p = skipBlank(b, p);
+    if (p >= n || b[p] === 10 || b[p] === 35 || b[p] === 13) break;
+    const v = scanReal(b, p);
+    if (scanCursor.bad) fail(b, p, s.name, `malformed number ${tokenAt(b, p)}`);
+    if (!Number.isFinite(v)) fail(b, p, s.name, `non-finite coordinate ${tokenAt(b, p)}`);
+    p = scanCursor.pos;
+    if (k < 3) pos[3 * nv + k] = v;
+    else if (k === 3) r = v;
+    else if (k === 4) g = v;
+    else if (k === 5) bl = v;
+    k++;
+  }
+  if (k !== 3 && k !== 4 && k !== 6) fail(b, p - 1, s.name, `vertex has ${k} numbers (expected 3, 4 or 6)`);
+  if (k === 6) {
+    let rgb = s.rgb;
+    if (rgb === null || rgb.length < pos.length) {
+      const t = new Float64Array(pos.length);
+      if (rgb !== null) t.set(rgb);
+      s.rgb = rgb = t;
+    }
+    rgb[3 * nv] = r; rgb[3 * nv + 1] = g; rgb[3 * nv + 2] = bl;
+    s.colored++;
+  }
+  s.nv = nv + 1;
+  return p;
+}
+
+/** Reads the corners of an `f` statement from `p`; returns the offset of the statement's end. */
+function faceStatement(s: ObjScan, p: number): number {
+  const b = s.b, n = b.length, nv = s.nv;
+  let ni = s.ni, idx = s.idx, k = 0;
+  for (;;) {
+    p = skipBlank(b, p);
+    if (p >= n || b[p] === 10 || b[p] === 35 || b[p] === 13) break;
+    const t0 = p;
+    let neg = false;
+    if (b[p] === 45) { neg = true; p++; }
+    let v = 0, d = 0;
+    for (let ch = b[p]!; ch >= 48 && ch <= 57; ch = b[++p]!) {
+      if (v < 1e15) v = v * 10 + (ch - 48);
+      d++;
+    }
+    if (d === 0) fail(b, t0, s.name, `malformed vertex index ${tokenAt(b, t0)}`);
+    if (v > 4294967295) fail(b, t0, s.name, `vertex index ${tokenAt(b, t0)} out of range`);
+    // Texture and normal references: `/t`, `//n`, `/t/n`; checked for form only.
+    for (let part = 0; part < 2 && b[p] === 47; part++) {
+      p++;
+      if (b[p] === 45) p++;
+      while (p < n && b[p]! >= 48 && b[p]! <= 57) p++;
+    }
+    const e = b[p];
+    if (p < n && !(e === 32 || e === 9 || e === 13 || e === 10 || e === 35 || e === 92 || e === 11 || e === 12)) {
+      fail(b, t0, s.name, `malformed face corner ${tokenAt(b, t0)}`);
+    }
+    let i: number;
+    if (v === 0) fail(b, t0, s.name, 'vertex index 0 (OBJ indices start at 1)');
+    if (neg) {
+      i = nv - v;
+      if (i < 0) fail(b, t0, s.name, `relative vertex index -${v} reaches before the first vertex (${nv} so far)`);
+    } else {
+      i = v - 1;
+      if (i > s.maxIdx) { s.maxIdx = i; s.maxAt = t0; }
+    }
+    if (ni >= idx.length) s.idx = idx = grow(idx, ni, p, n);
+    idx[ni++] = i;
+    k++;
+  }
+  if (k < 3) fail(b, p - 1, s.name, `face has ${k} ${k === 1 ? 'vertex' : 'vertices'} (at least 3 needed)`);
+  if (s.nf + 2 > s.off.length) s.off = grow(s.off, s.nf + 1, p, n);
+  s.off[++s.nf] = ni;
+  s.ni = ni;
+  return p;
 }
 
 /**
