@@ -28,7 +28,7 @@ import { next, faceOf } from '../../mesh/topology.js';
 import type { ExactState } from './state.js';
 import { VIA_WINDOW, VIA_VERTEX, VIA_ROOT } from './state.js';
 import type { Evaluation } from './evaluate.js';
-import { evaluateInFace } from './evaluate.js';
+import { evaluateInFace, windowCrossing } from './evaluate.js';
 
 const REL = 1e-12;
 
@@ -46,9 +46,7 @@ function edgePoint(s: ExactState, h: number, x: number): SurfacePoint {
 /** Crossing with window w's axis of the segment from (px, py) (in w's frame) to w's image. */
 function crossing(s: ExactState, w: number, px: number, py: number, clamp: boolean): number {
   const W = s.win;
-  const sx = W.sx[w]!, sy = W.sy[w]!;
-  const den = py - sy;
-  const x = den > 0 ? sx + ((px - sx) * -sy) / den : px;
+  const x = windowCrossing(W.flat[w]!, W.sx[w]!, W.sy[w]!, px, py);
   if (!clamp) return x;
   const b0 = W.b0[w]!, b1 = W.b1[w]!;
   return x < b0 ? b0 : x > b1 ? b1 : x;
@@ -56,10 +54,16 @@ function crossing(s: ExactState, w: number, px: number, py: number, clamp: boole
 
 /**
  * Points of the shortest path from the sources to `end`, given the best
- * evaluation of `end`, in order from source to end. `sourcePoint(r)`
- * returns the source point of point root r.
+ * evaluation of `end`, in order from source to end. `sourcePoint(r, from)`
+ * returns the point of root r nearest to `from` (the point itself, or the
+ * foot on a curve segment).
  */
-export function tracePath(s: ExactState, end: SurfacePoint, best: Evaluation, sourcePoint: (root: number) => SurfacePoint): SurfacePoint[] {
+export function tracePath(
+  s: ExactState,
+  end: SurfacePoint,
+  best: Evaluation,
+  sourcePoint: (root: number, from: SurfacePoint) => SurfacePoint,
+): SurfacePoint[] {
   const out: SurfacePoint[] = [end];
   const t = s.t, W = s.win;
   let guard = 8 * (t.nf + t.nv) + 16;
@@ -69,7 +73,7 @@ export function tracePath(s: ExactState, end: SurfacePoint, best: Evaluation, so
   const P = [0, 0];
   const seen = new Set<number>();
   while (--guard > 0) {
-    if (kind === 3) { out.push(sourcePoint(s.pointRoots[id]!.root)); break; }
+    if (kind === 3) { out.push(sourcePoint(s.pointRoots[id]!.root, out[out.length - 1]!)); break; }
     if (kind === 1) {
       const h = W.he[id]!;
       out.push(edgePoint(s, h, x));
@@ -105,7 +109,7 @@ export function tracePath(s: ExactState, end: SurfacePoint, best: Evaluation, so
       kind = 1; id = via;
       continue;
     }
-    if (type === VIA_ROOT) out.push(sourcePoint(via));
+    if (type === VIA_ROOT) out.push(sourcePoint(via, { kind: 'vertex', vertex: v }));
     break; // a source vertex (or nothing reached it)
   }
   out.reverse();

@@ -7,11 +7,13 @@
  *   crossing of the segment I→P with the window, clamped into [b0, b1]
  *   (equal to σ + |I − P| when P is lit by the window);
  * - every corner c: d(c) + |c − P| (covers pseudo-sources at corners);
- * - every point source on f: |S − P|.
+ * - every point source on f: |S − P|, and every segment of a curve source
+ *   on f: the distance from P to the segment.
  */
 import type { Topology } from '../../mesh/topology.js';
 import type { SurfacePoint } from '../../query/surface-point.js';
 import type { ExactState } from './state.js';
+import { pointSegmentDistance } from './layout.js';
 
 /** Best candidate found by {@link evaluateInFace}. */
 export interface Evaluation {
@@ -59,6 +61,17 @@ export function pointInFrame(s: ExactState, f: number, k: number, b: ArrayLike<n
 const P = [0, 0];
 
 /**
+ * Where the light of a window reaching (px, py) (in the window's frame)
+ * crossed the axis: towards the image for a point window, back along the
+ * direction for a planar one.
+ */
+export function windowCrossing(flat: number, sx: number, sy: number, px: number, py: number): number {
+  if (flat) return sy > 0 ? px - (sx * py) / sy : px;
+  const den = py - sy;
+  return den > 0 ? sx + ((px - sx) * -sy) / den : px;
+}
+
+/**
  * Evaluates the distance at barycentric point b of face f; writes the best
  * candidate to `out`. Windows on half-edge `skip` (if given) are ignored.
  */
@@ -69,12 +82,11 @@ export function evaluateInFace(s: ExactState, f: number, b: ArrayLike<number>, o
     if (W.state[w] === 2 || 3 * f + k === skip) continue;
     pointInFrame(s, f, k, b, P);
     const px = P[0]!, py = P[1]!;
-    const sx = W.sx[w]!, sy = W.sy[w]!;
-    const den = py - sy;
-    let x = den > 0 ? sx + ((px - sx) * -sy) / den : px;
+    const sx = W.sx[w]!, sy = W.sy[w]!, flat = W.flat[w]!;
+    let x = windowCrossing(flat, sx, sy, px, py);
     const b0 = W.b0[w]!, b1 = W.b1[w]!;
     x = x < b0 ? b0 : x > b1 ? b1 : x;
-    const d = W.sigma[w]! + Math.hypot(x - sx, sy) + Math.hypot(px - x, py);
+    const d = (flat ? W.sigma[w]! + sx * x : W.sigma[w]! + Math.hypot(x - sx, sy)) + Math.hypot(px - x, py);
     if (d < out.value) { out.value = d; out.kind = 1; out.id = w; out.x = x; }
   }
   pointInFrame(s, f, 0, b, P);
@@ -89,9 +101,11 @@ export function evaluateInFace(s: ExactState, f: number, b: ArrayLike<number>, o
     const r = s.pointRoots[i]!;
     const j = r.faces.indexOf(f);
     if (j < 0) continue;
-    const sb = r.bary;
+    const sb = r.bary, sq = r.bary2;
     const qx = sb[3 * j + 1]! * L + sb[3 * j + 2]! * cx, qy = sb[3 * j + 2]! * cy;
-    const d = Math.hypot(P[0]! - qx, P[1]! - qy);
+    const d = sq
+      ? pointSegmentDistance(P[0]!, P[1]!, qx, qy, sq[3 * j + 1]! * L + sq[3 * j + 2]! * cx, sq[3 * j + 2]! * cy)
+      : Math.hypot(P[0]! - qx, P[1]! - qy);
     if (d < out.value) { out.value = d; out.kind = 3; out.id = i; }
   }
   return out;

@@ -26,7 +26,8 @@
  *
  * Sources: vertices; points on edges and in faces (their faces' edges get
  * windows, their faces' corners straight distances); curves, as the union
- * of their points and straight segments (see segments.ts).
+ * of their points and straight segments (planar fronts, see planar.ts and
+ * seed.ts).
  */
 import type { IntrinsicMesh } from '../../metric/intrinsic.js';
 import type { SurfacePoint } from '../../query/surface-point.js';
@@ -35,9 +36,10 @@ import type { DistanceField, SurfacePath } from '../field.js';
 import type { SourceSet } from '../sources.js';
 import { limitError, usageError } from '../../errors.js';
 import { facesOfPoint } from './layout.js';
-import { createState, addRoot, relaxVertex, VIA_ROOT, VIA_SOURCE } from './state.js';
+import { createState } from './state.js';
 import type { ExactState } from './state.js';
-import { emitFromPoint, runEvents } from './propagate.js';
+import { runEvents } from './propagate.js';
+import { seedSources, rootPoint } from './seed.js';
 import { markPseudoSources } from './pseudo-sources.js';
 import { baryInFace, evaluateInFace } from './evaluate.js';
 import type { Evaluation } from './evaluate.js';
@@ -85,43 +87,14 @@ export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: Exa
   if (!(maxD >= 0)) throw usageError(`maxDistance must be a non-negative number, got ${opts.maxDistance}`);
   const maxW = opts.maxWindows ?? defaultMaxWindows(t.nf);
   if (!(maxW >= 1)) throw usageError(`maxWindows must be a positive number, got ${opts.maxWindows}`);
-  const all: SurfacePoint[] = [];
-  sources.points.forEach((p) => all.push(checkSurfacePoint(p, t, 'source')));
+  sources.points.forEach((p) => checkSurfacePoint(p, t, 'source'));
   sources.curves.forEach((c, i) => c.forEach((p) => checkSurfacePoint(p, t, `curve ${i}`)));
   const targets = (opts.targets ?? []).map((p) => checkSurfacePoint(p, t, 'target'));
 
   const s = createState(mesh, maxD, maxW, Math.min(maxW, 8 * t.nf + 1024));
   markPseudoSources(s);
+  const all = seedSources(s, sources);
   const bary = [0, 0, 0];
-  const seedPoint = (p: SurfacePoint, index: number) => {
-    if (p.kind === 'vertex') {
-      s.pseudo[p.vertex] = 1;
-      relaxVertex(s, p.vertex, 0, VIA_SOURCE, -1);
-      return;
-    }
-    const root = addRoot(s, -1, 0);
-    const faces = facesOfPoint(t, p);
-    const bs: number[] = [];
-    for (const f of faces) {
-      baryInFace(t, f, p, bary);
-      bs.push(...bary);
-    }
-    s.pointRoots.push({ root, source: index, faces, bary: bs });
-    faces.forEach((f, j) => {
-      const b = bs.slice(3 * j, 3 * j + 3);
-      emitFromPoint(s, f, b, 0, root);
-      for (let k = 0; k < 3; k++) {
-        const g = 3 * f + k;
-        // corner k sits at the origin of the frame of g; the point at pointInFrame(f, k)
-        const px = b[(k + 1) % 3]! * s.hl[g]! + b[(k + 2) % 3]! * s.hc[2 * g]!;
-        const py = b[(k + 2) % 3]! * s.hc[2 * g + 1]!;
-        relaxVertex(s, t.tri[g]!, Math.hypot(px, py), VIA_ROOT, root);
-      }
-    });
-  };
-  all.forEach((p, i) => seedPoint(p, i));
-  if (sources.curves.some((c) => c.length > 1)) seedCurves(s, sources.curves, all, seedPoint);
-  else sources.curves.forEach((c) => c.forEach((p) => { all.push(p); seedPoint(p, all.length - 1); }));
 
   const ev: Evaluation = { value: Infinity, kind: 0, id: -1, x: 0 };
   const best = (p: SurfacePoint): Evaluation => {
@@ -160,7 +133,7 @@ export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: Exa
   const distance = new Float64Array(t.nv);
   for (let v = 0; v < t.nv; v++) distance[v] = s.dist[v]! <= reach ? s.dist[v]! : Infinity;
   const field: DistanceField = { method: 'exact', distance, sources: [...sources.points, ...sources.curves.flat()] };
-  const sourcePoint = (root: number): SurfacePoint => all[s.pointRoots.find((r) => r.root === root)!.source]!;
+  const sourcePoint = (root: number, from: SurfacePoint): SurfacePoint => rootPoint(s, all, root, from);
   return {
     field,
     windows: s.win.count,
@@ -191,9 +164,4 @@ function countTouched(s: ExactState): number {
   let n = 0;
   for (let f = 0; f < s.t.nf; f++) n += seen[f]!;
   return n;
-}
-
-/** Placeholder until segment sources exist: every curve point becomes a point source. */
-function seedCurves(_s: ExactState, curves: SurfacePoint[][], all: SurfacePoint[], seedPoint: (p: SurfacePoint, i: number) => void): void {
-  for (const c of curves) for (const p of c) { all.push(p); seedPoint(p, all.length - 1); }
 }

@@ -38,6 +38,7 @@ import { next, prev, faceOf } from '../../mesh/topology.js';
 import type { ExactState } from './state.js';
 import { addRoot, relaxVertex, VIA_WINDOW, VIA_VERTEX } from './state.js';
 import { trimInterval } from './trim.js';
+import { propagatePlanar } from './planar.js';
 
 const TMP = new Float64Array(2);
 
@@ -46,28 +47,37 @@ const REL = 1e-12;
 /** Relative tolerance under which two windows count as the same image and σ (merged). */
 const MERGE = 1e-11;
 
-/** Stores a window after clamping and filtering; returns its id or −1. */
-export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: number, sy: number, sigma: number, parent: number): number {
+/** Distance of a window's light at x on its own edge (point image or planar front). */
+export function axisValue(flat: number, sx: number, sy: number, sigma: number, x: number): number {
+  return flat ? sigma + sx * x : sigma + Math.hypot(x - sx, sy);
+}
+
+/**
+ * Stores a window after clamping, filtering, trimming and merging; returns
+ * its id (or the id of the window it merged into) or −1. `flat` marks a
+ * planar window (sx, sy = direction, σ = offset; see windows.ts).
+ */
+export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: number, sy: number, sigma: number, parent: number, flat = 0): number {
   const L = s.hl[h]!;
   if (b0 < 0) b0 = 0;
   if (b1 > L) b1 = L;
   if (!(b1 - b0 > REL * L)) return -1;
-  if (!(sy <= 0)) sy = 0; // rounding (or NaN) guard: image never above the edge
+  if (!flat && !(sy <= 0)) sy = 0; // rounding (or NaN) guard: image never above the edge
   const t = s.t;
   const A = t.tri[h]!, B = t.tri[next(h)]!;
-  const v1 = sigma + Math.hypot(b1 - sx, sy);
-  const v0 = sigma + Math.hypot(b0 - sx, sy);
+  const v1 = axisValue(flat, sx, sy, sigma, b1);
+  const v0 = axisValue(flat, sx, sy, sigma, b0);
   const dA = s.dist[A]!, dB = s.dist[B]!;
   if (v1 > (dA + b1) * (1 + REL) || v0 > (dB + (L - b0)) * (1 + REL)) return -1;
   // partial cut: g_A(y) = σ + |I − y| − d(A) − y is non-increasing, so where it is > 0 is a prefix;
   // its zero solves √((y−sx)² + sy²) = y + k, k = d(A) − σ: y* = (sx² + sy² − k²) / (2(k + sx))
-  if (v0 > (dA + b0) * (1 + REL)) {
+  if (!flat && v0 > (dA + b0) * (1 + REL)) {
     const k = dA - sigma, den = 2 * (k + sx);
     const y = den > 0 ? (sx * sx + sy * sy - k * k) / den : NaN;
     if (y > b0 && y < b1) b0 = y;
   }
   // mirrored for B: g_B(y) = σ + |I − y| − d(B) − (L − y) is non-decreasing, > 0 on a suffix
-  if (v1 > (dB + (L - b1)) * (1 + REL)) {
+  if (!flat && v1 > (dB + (L - b1)) * (1 + REL)) {
     const k = dB - sigma, mx = L - sx, den = 2 * (k + mx);
     const y = den > 0 ? L - (mx * mx + sy * sy - k * k) / den : NaN;
     if (y > b0 && y < b1) b1 = y;
@@ -75,13 +85,13 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
   // trim against the windows already on this edge (either side), then trim queued ones against this
   const W = s.win, g = t.twin[h]!;
   // passes repeat until nothing changes: a cut by one window can expose an overlap with another
-  for (let pass = 0, changed = true; changed && pass < 8; pass++) {
+  for (let pass = 0, changed = !flat; changed && pass < 8; pass++) {
     changed = false;
     for (let side = 0; side < 2; side++) {
       const e = side === 0 ? h : g;
       if (e < 0) continue;
       for (let o = W.heHead[e]!; o >= 0; o = W.nextOnHe[o]!) {
-        if (W.state[o] === 2) continue;
+        if (W.state[o] === 2 || W.flat[o]) continue;
         const oLo = side === 0 ? W.b0[o]! : L - W.b1[o]!, oHi = side === 0 ? W.b1[o]! : L - W.b0[o]!;
         if (!(oHi > b0 && oLo < b1)) continue;
         const oc = side === 0 ? W.sx[o]! : L - W.sx[o]!;
@@ -92,8 +102,7 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     }
   }
   if (!(b1 - b0 > REL * L)) return -1;
-  const xm = sx < b0 ? b0 : sx > b1 ? b1 : sx;
-  const key = sigma + Math.hypot(xm - sx, sy);
+  const key = flat ? sigma + sx * (sx > 0 ? b0 : b1) : sigma + Math.hypot((sx < b0 ? b0 : sx > b1 ? b1 : sx) - sx, sy);
   if (key > s.maxDistance) {
     s.capped = true;
     return -1;
@@ -102,11 +111,11 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     s.overflow = true;
     return -1;
   }
-  for (let side = 0; side < 2; side++) {
+  for (let side = 0; side < 2 && !flat; side++) {
     const e = side === 0 ? h : g;
     if (e < 0) continue;
     for (let o = W.heHead[e]!; o >= 0; o = W.nextOnHe[o]!) {
-      if (W.state[o] !== 0) continue;
+      if (W.state[o] !== 0 || W.flat[o]) continue;
       const oLo = side === 0 ? W.b0[o]! : L - W.b1[o]!, oHi = side === 0 ? W.b1[o]! : L - W.b0[o]!;
       const oc = side === 0 ? W.sx[o]! : L - W.sx[o]!;
       if (!trimInterval(oLo, oHi, oc, W.sy[o]!, W.sigma[o]!, b0, b1, sx, sy, sigma, TMP) || !(TMP[1]! - TMP[0]! > REL * L)) {
@@ -119,24 +128,27 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     }
   }
   // a queued window on this half-edge with the same image and σ that touches N: grow it instead
-  const tolI = MERGE * (L + Math.abs(sx) - sy + sigma);
+  const tolI = MERGE * (L + Math.abs(sx) + Math.abs(sy) + Math.abs(sigma));
   for (let o = W.heHead[h]!; o >= 0; o = W.nextOnHe[o]!) {
-    if (W.state[o] !== 0) continue;
+    if (W.state[o] !== 0 || W.flat[o] !== flat) continue;
     if (Math.abs(W.sx[o]! - sx) > tolI || Math.abs(W.sy[o]! - sy) > tolI || Math.abs(W.sigma[o]! - sigma) > tolI) continue;
     const o0 = W.b0[o]!, o1 = W.b1[o]!;
     if (o1 < b0 - tolI || o0 > b1 + tolI) continue;
     const n0 = o0 < b0 ? o0 : b0, n1 = o1 > b1 ? o1 : b1;
     W.b0[o] = n0; W.b1[o] = n1;
-    const osx = W.sx[o]!, osy = W.sy[o]!;
-    const om = osx < n0 ? n0 : osx > n1 ? n1 : osx;
-    const okey = W.sigma[o]! + Math.hypot(om - osx, osy);
-    const oldKey = W.sigma[o]! + Math.hypot((osx < o0 ? o0 : osx > o1 ? o1 : osx) - osx, osy);
-    if (okey < oldKey) s.queue.push(okey, o); // the old entry pops later and is skipped
+    if (key < windowKey(W, o, o0, o1)) s.queue.push(windowKey(W, o, n0, n1), o); // the old entry pops later and is skipped
     return o;
   }
-  const w = W.add(h, b0, b1, sx, sy, sigma, parent);
+  const w = W.add(h, b0, b1, sx, sy, sigma, parent, flat);
   s.queue.push(key, w);
   return w;
+}
+
+/** Smallest distance of window o's light over [b0, b1]. */
+function windowKey(W: ExactState['win'], o: number, b0: number, b1: number): number {
+  const sx = W.sx[o]!, sy = W.sy[o]!, sg = W.sigma[o]!;
+  if (W.flat[o]) return sg + sx * (sx > 0 ? b0 : b1);
+  return sg + Math.hypot((sx < b0 ? b0 : sx > b1 ? b1 : sx) - sx, sy);
 }
 
 /** u ∈ [0, 1] from a ratio, NaN and ±Infinity mapped into range. */
@@ -150,6 +162,7 @@ export function propagateWindow(s: ExactState, w: number): void {
   const W = s.win, t = s.t;
   if (W.state[w] !== 0) return;
   W.state[w] = 1;
+  if (W.flat[w]) return propagatePlanar(s, w);
   const h = W.he[w]!, b0 = W.b0[w]!, b1 = W.b1[w]!, sx = W.sx[w]!, sy = W.sy[w]!, sigma = W.sigma[w]!;
   const L = s.hl[h]!;
   // re-test against bounds that may have dropped since the window was queued

@@ -21,7 +21,7 @@ export const VIA_VERTEX = 3;
 /** The vertex is itself a source. */
 export const VIA_SOURCE = 4;
 
-/** A point source off the vertices: the faces holding it and its barycentric coordinates in each. */
+/** A point source off the vertices, or a segment of a curve source: the faces holding it and its coordinates in each. */
 export interface PointRoot {
   /** Root id. */
   root: number;
@@ -31,6 +31,8 @@ export interface PointRoot {
   faces: number[];
   /** Barycentric coordinates in each face, three per face. */
   bary: number[];
+  /** For a segment of a curve source: its other end, three per face. */
+  bary2?: number[];
 }
 
 /** Everything a run reads and writes. */

@@ -15,6 +15,10 @@
  *                  I (unfolded source image, below the axis)
  * ```
  *
+ * A planar window (`flat` 1, lit by a straight wavefront from a curve
+ * source) stores instead the unit direction of travel (sx, sy) = (ux, uy),
+ * uy > 0, and the offset σ = c: distance at p = c + ux·px + uy·py.
+ *
  * `parent` is the window it was propagated from (≥ 0) or −1 − r for a root
  * r (a source or pseudo-source). A window may shrink or die only while it
  * is still queued (`state` 0); once propagated (`state` 1) it never
@@ -35,6 +39,8 @@ export class WindowStore {
   nextOnHe: Int32Array;
   /** 0 queued, 1 propagated, 2 dead (trimmed away before propagation). */
   state: Uint8Array;
+  /** 1 for a planar window (see the module comment). */
+  flat: Uint8Array;
   /** First window on each half-edge, −1 when none. */
   readonly heHead: Int32Array;
 
@@ -50,16 +56,18 @@ export class WindowStore {
     this.parent = new Int32Array(c);
     this.nextOnHe = new Int32Array(c);
     this.state = new Uint8Array(c);
+    this.flat = new Uint8Array(c);
     this.heHead = new Int32Array(3 * nf).fill(-1);
   }
 
   /** Stores a window and returns its id. */
-  add(he: number, b0: number, b1: number, sx: number, sy: number, sigma: number, parent: number): number {
+  add(he: number, b0: number, b1: number, sx: number, sy: number, sigma: number, parent: number, flat = 0): number {
     if (this.count === this.he.length) this.grow();
     const w = this.count++;
     this.he[w] = he; this.b0[w] = b0; this.b1[w] = b1;
     this.sx[w] = sx; this.sy[w] = sy; this.sigma[w] = sigma; this.parent[w] = parent;
     this.state[w] = 0;
+    this.flat[w] = flat;
     this.nextOnHe[w] = this.heHead[he]!;
     this.heHead[he] = w;
     return w;
@@ -67,7 +75,7 @@ export class WindowStore {
 
   /** Bytes held by the window arrays. */
   get bytes(): number {
-    return this.he.length * 53 + this.heHead.byteLength;
+    return this.he.length * 54 + this.heHead.byteLength;
   }
 
   private grow(): void {
@@ -76,6 +84,7 @@ export class WindowStore {
     const gf = (a: Float64Array) => { const b = new Float64Array(c); b.set(a); return b; };
     this.he = gi(this.he); this.parent = gi(this.parent); this.nextOnHe = gi(this.nextOnHe);
     const st = new Uint8Array(c); st.set(this.state); this.state = st;
+    const fl = new Uint8Array(c); fl.set(this.flat); this.flat = fl;
     this.b0 = gf(this.b0); this.b1 = gf(this.b1); this.sx = gf(this.sx); this.sy = gf(this.sy); this.sigma = gf(this.sigma);
   }
 }
