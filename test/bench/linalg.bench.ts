@@ -7,6 +7,9 @@
  * effective bandwidth 2 × bytes(L) / solve time, peak RSS. Baseline in the same
  * run: Dijkstra with a typed-array binary heap (decrease-key) over the same
  * edge graph, so `factor/dijkstra` and `solve/dijkstra` ratios are emitted.
+ * For nested dissection also: the factor without the SIMD kernel and (up to
+ * 200k) the simplicial up-looking method, as before/after figures.
+ * `BENCH_CASE=grid` runs the cases whose name contains the text.
  */
 import { emit, peakRssMB, quick, timeMedian } from './harness.js';
 import { flatGrid, icosphere, terrain, rng } from '../fixtures/shapes.js';
@@ -157,18 +160,14 @@ async function main(): Promise<void> {
     const b = Float64Array.from({ length: n }, () => r() - 0.5);
     const x = new Float64Array(n);
     for (const ordering of c.orderings) {
-      let sym;
-      try {
-        sym = analyzeCholesky(A, { ordering });
-      } catch (e) {
-        emit({ bench: BENCH, case: c.name, metric: 'skipped', value: 0, unit: '', ordering, reason: String(e) });
-        continue;
-      }
+      const sym = analyzeCholesky(A, { ordering });
       const f = CholeskyFactor.factor(A, sym);
       const big = n > 500_000;
       const fac = await timeMedian(() => f.refactor(A), big ? 2 : 3, 0);
       const sol = await timeMedian(() => f.solve(b, x), big ? 3 : 7, 1);
-      const bytesL = sym.nnzL * 12 + 4 * (n + 1);
+      // bytes of L a solve pass reads: supernodal blocks (values incl. explicit zeros) + one row index per block row
+      const sn = sym.supernodal;
+      const bytesL = sn ? 8 * sn.valPtr[sn.nsuper]! + 4 * sn.rows.length : sym.nnzL * 12 + 4 * (n + 1);
       const extra = { ordering, n };
       emit({ bench: BENCH, case: c.name, metric: 'ordering', value: sym.timing.orderingMs, unit: 'ms', ...extra });
       emit({ bench: BENCH, case: c.name, metric: 'symbolic', value: sym.timing.symbolicMs, unit: 'ms', ...extra });
@@ -179,6 +178,21 @@ async function main(): Promise<void> {
       emit({ bench: BENCH, case: c.name, metric: 'factor/dijkstra', value: fac.ms / dj.ms, unit: 'ratio', ...extra });
       emit({ bench: BENCH, case: c.name, metric: 'solve/dijkstra', value: sol.ms / dj.ms, unit: 'ratio', ...extra });
       emit({ bench: BENCH, case: c.name, metric: 'peak-rss', value: peakRssMB(), unit: 'MB', ...extra });
+      if (ordering !== 'nd') continue;
+      // before/after: the same analysis without the SIMD kernel, and the simplicial method
+      const plain = CholeskyFactor.factor(A, sym, { simd: false });
+      const facPlain = await timeMedian(() => plain.refactor(A), big ? 1 : 3, 0);
+      emit({ bench: BENCH, case: c.name, metric: 'factor-no-simd', value: facPlain.ms, unit: 'ms', ...extra });
+      emit({ bench: BENCH, case: c.name, metric: 'simd-speedup', value: facPlain.ms / fac.ms, unit: 'ratio', ...extra });
+      if (n <= 200_000) {
+        const symS = analyzeCholesky(A, { ordering, method: 'simplicial' });
+        const fs = CholeskyFactor.factor(A, symS);
+        const facS = await timeMedian(() => fs.refactor(A), 3, 0);
+        const solS = await timeMedian(() => fs.solve(b, x), 7, 1);
+        emit({ bench: BENCH, case: c.name, metric: 'factor-simplicial', value: facS.ms, unit: 'ms', ...extra });
+        emit({ bench: BENCH, case: c.name, metric: 'solve-simplicial', value: solS.ms, unit: 'ms', ...extra });
+        emit({ bench: BENCH, case: c.name, metric: 'supernodal-speedup', value: facS.ms / fac.ms, unit: 'ratio', ...extra });
+      }
     }
   }
 }
