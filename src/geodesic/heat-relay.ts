@@ -2,13 +2,17 @@
  * The heat method's middle step, X = −∇u/|∇u| and b_i = Σ_f A_f ∇φ_i·X_f,
  * made safe against the heat underflowing far from the sources.
  *
- * Backward-Euler heat decays like e^(−r/√t): with t = h² the values leave the
- * double range about 700 edge rings from a source, where ∇u becomes 0 (or
+ * Backward-Euler heat decays like e^(−r/√t): with t = h² a unit source
+ * leaves the double range about 700 edge rings out, where ∇u becomes 0 (or
  * subnormal noise) and the direction field is lost. Only directions matter,
- * so the heat is relayed: vertices whose heat is above τ = max·1e-240 (per
- * component) are settled in stage 0; the settled vertices next to unsettled
- * ones form a front, and heat released from the front (weighted by u/τ, so
- * of order one) settles the next band in stage 1, and so on:
+ * so two things are done. The initial heat is scaled up so the largest value
+ * is at most 1e250: with (M + tL)u = δ, Σ_i M_i u_i = Σ δ (1ᵀL = 0) and
+ * u ≥ 0, so u_i ≤ Σδ / min M — the scale is Σδ → 1e250·min M, and the usable
+ * range 1e250 … 1e-280 spans ~1200 rings. Past that the heat is relayed:
+ * vertices whose heat is above τ = max(u_max·1e-530, 1e-280) (per component)
+ * settle in stage 0; the settled vertices next to unsettled ones form a
+ * front, and heat released from the front (weighted by u/τ, then scaled up
+ * the same way) settles the next band in stage 1, and so on:
  * ```
  *   source ●~~~~~ stage 0 ~~~~~|front|~~~~~ stage 1 ~~~~~|front|~~~ stage 2 …
  * ```
@@ -38,14 +42,18 @@ export interface RelayWork {
   readonly compTau: Float64Array;
   /** Per-component flag: has heat, size = component count. */
   readonly compHot: Uint8Array;
+  /** Smallest positive lumped mass (bounds the heat: u_i ≤ Σδ / min M). */
+  readonly minMass: number;
 }
 
 /** Largest number of relay stages before the rest is left with X = 0. */
 export const MAX_RELAY_STAGES = 256;
-/** Settling threshold relative to a component's largest heat value. */
-const RELATIVE_TAU = 1e-240;
+/** Bound on the largest heat value after scaling (leaves room for gradients ~ u/h). */
+const HEAT_CEILING = 1e250;
+/** Settling threshold relative to a component's largest heat value, as two factors (1e-530 underflows). */
+const RELATIVE_TAU = 1e-265;
 /** Lowest absolute settling threshold (keeps away from subnormal numbers). */
-const MIN_TAU = 1e-290;
+const MIN_TAU = 1e-280;
 
 /**
  * Runs the heat solve(s) through `heat(rhs, u)` (which may overwrite rhs)
@@ -68,13 +76,19 @@ export function assembleDivergence(
   b.fill(0);
   let flat = 0, k = 0;
   for (;; k++) {
+    let sum = 0;
+    for (let v = 0; v < nv; v++) sum += rhs[v]!;
+    if (sum > 0 && w.minMass > 0) {
+      const scale = (HEAT_CEILING * w.minMass) / sum;
+      if (scale < Infinity) for (let v = 0; v < nv; v++) rhs[v]! *= scale;
+    }
     heat(rhs, u);
     tau.fill(0);
     for (let v = 0; v < nv; v++) {
       const c = comp[v]!;
       if (c >= 0 && u[v]! > tau[c]!) tau[c] = u[v]!;
     }
-    for (let c = 0; c < tau.length; c++) tau[c] = Math.max(tau[c]! * RELATIVE_TAU, MIN_TAU);
+    for (let c = 0; c < tau.length; c++) tau[c] = Math.max(tau[c]! * RELATIVE_TAU * RELATIVE_TAU, MIN_TAU);
     let settled = 0, pending = 0;
     for (let v = 0; v < nv; v++) {
       const c = comp[v]!;

@@ -46,7 +46,7 @@ import { boundaryVertexMask } from '../mesh/boundary.js';
 import { addSourceHeat, sourceValue } from './heat-sources.js';
 import { factorPoisson } from './heat-poisson.js';
 import { assembleDivergence, type RelayWork } from './heat-relay.js';
-import { usageError } from '../errors.js';
+import { usageError, inputError } from '../errors.js';
 
 /** Options of {@link HeatSolver.prepare}. */
 export interface HeatOptions {
@@ -117,6 +117,8 @@ interface HeatParts {
   geom: FaceGeometry;
   /** Vertices without area (isolated, or only zero-area faces): identity rows. */
   inactive: Uint8Array;
+  /** Smallest positive lumped mass. */
+  minMass: number;
   vertexComponent: Int32Array;
   componentCount: number;
   onBoundary: Uint8Array;
@@ -164,7 +166,7 @@ export class HeatSolver {
     const wildcard = parts.inactive.slice();
     if (parts.boundaryMode === 'dirichlet' && parts.heatD) for (let v = 0; v < nv; v++) wildcard[v]! |= parts.onBoundary[v]!;
     this.relay = {
-      t: triangulation.topology, geom: parts.geom, comp: parts.vertexComponent, wildcard,
+      t: triangulation.topology, geom: parts.geom, comp: parts.vertexComponent, wildcard, minMass: parts.minMass,
       stage: new Int32Array(nv), compTau: new Float64Array(parts.componentCount), compHot: new Uint8Array(parts.componentCount),
     };
   }
@@ -208,6 +210,10 @@ export class HeatSolver {
     }
     const t = mesh.topology;
     if (t.nf === 0 || t.nv === 0) throw usageError('mesh has no faces', 'heat');
+    for (let e = 0; e < t.ne; e++) {
+      const l = mesh.edgeLength[e]!;
+      if (!(l >= 0 && l < Infinity)) throw inputError(`edge ${e} has invalid length ${l}`, 'heat');
+    }
     const h = meanEdgeLength(mesh);
     if (!(h > 0)) throw usageError('mesh has no positive edge length', 'heat');
     const step = m * h * h;
@@ -227,7 +233,11 @@ export class HeatSolver {
     const onBoundary = boundaryVertexMask(work.topology);
     // rows without area (isolated vertices, or only zero-area faces) are fixed to u = 0
     const inactive = new Uint8Array(t.nv);
-    for (let v = 0; v < t.nv; v++) if (!(Mv[v]! > 0)) inactive[v] = 1;
+    let minMass = Infinity;
+    for (let v = 0; v < t.nv; v++) {
+      if (!(Mv[v]! > 0)) inactive[v] = 1;
+      else if (Mv[v]! < minMass) minMass = Mv[v]!;
+    }
     const sym = analyzeCholesky(patternMatrix(p, Lv), opts.ordering ? { ordering: opts.ordering } : {});
     const t2 = performance.now();
 
@@ -252,7 +262,7 @@ export class HeatSolver {
       ordering: sym.ordering, meanEdgeLength: h, timeStep: step, poissonShifted: shifted,
     };
     return new HeatSolver(mesh, work, stats, {
-      boundaryMode: boundary, geom, inactive, vertexComponent: comp.vertexComponent, componentCount: comp.count,
+      boundaryMode: boundary, geom, inactive, minMass, vertexComponent: comp.vertexComponent, componentCount: comp.count,
       onBoundary, blocked, heatN, heatD, poisson,
     });
   }
