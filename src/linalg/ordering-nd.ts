@@ -23,6 +23,9 @@
 import type { AdjacencyGraph } from './graph.js';
 import { approximateMinimumDegree } from './ordering-amd.js';
 
+/** Restarts of the pseudo-peripheral search (each is one BFS). */
+const PERIPHERAL_ROUNDS = 2;
+
 /** Options of {@link nestedDissection}. */
 export interface NestedDissectionOptions {
   /** Subgraphs with at most this many vertices are not split further (default 256). */
@@ -128,7 +131,7 @@ export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOption
       continue;
     }
     // pseudo-peripheral root: restart from a minimum-degree vertex of the last level
-    for (let it = 0; it < 4; it++) {
+    for (let it = 0; it < PERIPHERAL_ROUNDS; it++) {
       let best = -1, bestDeg = Infinity;
       for (let k = levelPtr[nlev - 1]!; k < levelPtr[nlev]!; k++) {
         const v = queue[k]!;
@@ -139,12 +142,10 @@ export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOption
         }
       }
       const nl = bfs(best, lab);
-      if (nl <= nlev) {
-        nlev = bfs(root, lab);
-        break;
-      }
-      root = best;
+      root = best; // an equally deep structure from the far end serves as well
+      const deeper = nl > nlev;
       nlev = nl;
+      if (!deeper) break;
     }
     reached = levelPtr[nlev]!;
 
