@@ -51,19 +51,26 @@ export function scanReal(b: Uint8Array, p: number): number {
     neg = c === 45;
     c = b[++p]!;
   }
-  let m = 0, nd = 0, digits = 0, frac = 0;
+  // m: the digits as an integer (exact while nd <= 15); nd: digits from the
+  // first non-zero one on; frac: digits after the point.
+  let m = 0, nd = 0;
+  const intStart = p;
   while (c >= 48 && c <= 57) {
-    if (nd > 0 || c !== 48) { m = m * 10 + (c - 48); nd++; }
-    digits++;
+    m = m * 10 + (c - 48);
+    if (m !== 0) nd++;
     c = b[++p]!;
   }
+  let digits = p - intStart, frac = 0;
   if (c === 46) {
-    c = b[++p]!;
+    const fracStart = ++p;
+    c = b[p]!;
     while (c >= 48 && c <= 57) {
-      if (nd > 0 || c !== 48) { m = m * 10 + (c - 48); nd++; }
-      digits++; frac++;
+      m = m * 10 + (c - 48);
+      if (m !== 0) nd++;
       c = b[++p]!;
     }
+    frac = p - fracStart;
+    digits += frac;
   }
   if (digits === 0) {
     if (p > start + (neg || b[start] === 43 ? 1 : 0)) { scanCursor.pos = p; scanCursor.bad = true; return 0; }
@@ -147,9 +154,9 @@ function tokenAt(b: Uint8Array, p: number): string {
  * mid-loop and thrown back at its never-run epilogue on every file.
  */
 class ObjScan {
-  pos = new Float64Array(3 * 1024);
-  idx = new Uint32Array(4096);
-  off = new Uint32Array(1024);
+  pos: Float64Array;
+  idx: Uint32Array;
+  off: Uint32Array;
   rgb: Float64Array | null = null;
   nv = 0;
   ni = 0;
@@ -158,10 +165,19 @@ class ObjScan {
   /** Largest positive 0-based index seen, and the byte offset of its token. */
   maxIdx = -1;
   maxAt = 0;
+  /**
+   * Starting sizes: one entry per 32 bytes of file for coordinates and
+   * corners, one per 96 for faces, so a big file grows a couple of times and
+   * the spare room is at most about a quarter of the file size.
+   */
   constructor(
     readonly b: Uint8Array,
     readonly name: string,
-  ) {}
+  ) {
+    this.pos = new Float64Array(Math.max(3072, b.length >>> 5));
+    this.idx = new Uint32Array(Math.max(4096, b.length >>> 5));
+    this.off = new Uint32Array(Math.max(1024, Math.floor(b.length / 96)));
+  }
 }
 
 /**
@@ -222,7 +238,8 @@ function vertexStatement(s: ObjScan, p: number): number {
   const pos = s.pos;
   let k = 0, r = 0, g = 0, bl = 0;
   for (;;) {
-    p = skipBlank(b, p);
+    if (b[p] === 32) p++;
+    if (b[p]! < 33 || b[p] === 92) p = skipBlank(b, p);
     if (p >= n || b[p] === 10 || b[p] === 35 || b[p] === 13) break;
     const v = scanReal(b, p);
     if (scanCursor.bad) fail(b, p, s.name, `malformed number ${tokenAt(b, p)}`);
@@ -252,9 +269,10 @@ function vertexStatement(s: ObjScan, p: number): number {
 /** Reads the corners of an `f` statement from `p`; returns the offset of the statement's end. */
 function faceStatement(s: ObjScan, p: number): number {
   const b = s.b, n = b.length, nv = s.nv;
-  let ni = s.ni, idx = s.idx, k = 0;
+  let ni = s.ni, idx = s.idx, k = 0, maxIdx = s.maxIdx;
   for (;;) {
-    p = skipBlank(b, p);
+    if (b[p] === 32) p++;
+    if (b[p]! < 33 || b[p] === 92) p = skipBlank(b, p);
     if (p >= n || b[p] === 10 || b[p] === 35 || b[p] === 13) break;
     const t0 = p;
     let neg = false;
@@ -283,7 +301,7 @@ function faceStatement(s: ObjScan, p: number): number {
       if (i < 0) fail(b, t0, s.name, `relative vertex index -${v} reaches before the first vertex (${nv} so far)`);
     } else {
       i = v - 1;
-      if (i > s.maxIdx) { s.maxIdx = i; s.maxAt = t0; }
+      if (i > maxIdx) { s.maxIdx = maxIdx = i; s.maxAt = t0; }
     }
     if (ni >= idx.length) s.idx = idx = grow(idx, ni, p, n);
     idx[ni++] = i;
