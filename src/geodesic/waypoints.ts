@@ -31,7 +31,8 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops: SurfacePoint[]):
   for (let i = 0; i + 1 < stops.length; i++) {
     const a = stops[i]!, b = stops[i + 1]!;
     const r = exactDistance(mesh, { points: [a], curves: [] }, { targets: [b] });
-    const p = r.pathTo(b);
+    const reached = Number.isFinite(r.distanceAt(b));
+    const p: SurfacePath = reached ? r.pathTo(b) : { points: [], length: Infinity };
     legs.push({ path: p, length: p.length });
     length += p.length;
     if (!Number.isFinite(p.length)) continue;
