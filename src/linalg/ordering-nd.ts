@@ -11,9 +11,10 @@
  *   [ x  x  S ]
  * ```
  *
- * S is one level of a BFS level structure rooted at a pseudo-peripheral
- * vertex (the level that is smallest among the balanced ones), trimmed: a
- * level vertex with no neighbour in the next level moves to A. Disconnected
+ * S comes from a BFS level structure rooted at a pseudo-peripheral vertex:
+ * for the cut between two consecutive levels, either the vertices of the
+ * lower level that touch the upper one, or those of the upper level that
+ * touch the lower one; the smallest such set among the balanced cuts wins. Disconnected
  * subgraphs are split by component with an empty separator. Subgraphs below
  * `leafSize` vertices are ordered by approximate minimum degree on their own
  * subgraph (a hybrid common in practice), or keep their BFS order.
@@ -72,6 +73,9 @@ export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOption
   let id = 0;
 
   const visit = new Int32Array(n).fill(-1);
+  const flag = new Uint8Array(n);
+  const cntUp = new Int32Array(n + 2);
+  const cntDown = new Int32Array(n + 2);
   let stamp = 0;
 
   /**
@@ -149,48 +153,61 @@ export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOption
     }
     reached = levelPtr[nlev]!;
 
-    // separator level: smallest among levels leaving both sides ≥ 30% of the rest
-    let sepLevel = -1, sepSize = Infinity;
-    for (let L = 1; L < nlev - 1; L++) {
-      const s = levelPtr[L + 1]! - levelPtr[L]!;
-      const a = levelPtr[L]!, b = m - levelPtr[L + 1]!;
-      if (Math.min(a, b) < 0.3 * (m - s)) continue;
-      if (s < sepSize) {
-        sepSize = s;
+    if (nlev < 3) continue; // too shallow to split (nearly complete graph): keep as a leaf
+    // For the cut between levels L and L+1 two separators exist: the level-L
+    // vertices with a neighbour in L+1 ("up"), or the level-(L+1) vertices with
+    // a neighbour in L ("down"); the rest of each level joins the side it
+    // touches. Count both for every L in one pass over the edges.
+    cntUp.fill(0, 0, nlev + 1);
+    cntDown.fill(0, 0, nlev + 1);
+    for (let k = 0; k < m; k++) {
+      const v = queue[k]!, l = level[v]!;
+      let f = 0;
+      for (let p = xadj[v]!; p < xadj[v + 1]!; p++) {
+        const w = adj[p]!;
+        if (label[w] !== lab) continue;
+        const lw = level[w]!;
+        if (lw === l + 1) f |= 1;
+        else if (lw === l - 1) f |= 2;
+      }
+      flag[v] = f;
+      cntUp[l]! += f & 1;
+      cntDown[l]! += f >> 1;
+    }
+    // smallest separator leaving both sides ≥ 30% of the rest
+    let sepLevel = -1, sepDown = false, sepSize = Infinity;
+    for (let L = 0; L + 1 < nlev; L++) {
+      const below = levelPtr[L + 1]!, above = m - below;
+      const su = cntUp[L]!, sd = cntDown[L + 1]!;
+      const au = below - su, bd = above - sd;
+      if (su < sepSize && au > 0 && Math.min(au, above) >= 0.3 * (m - su)) {
+        sepSize = su;
         sepLevel = L;
+        sepDown = false;
+      }
+      if (sd < sepSize && bd > 0 && Math.min(below, bd) >= 0.3 * (m - sd)) {
+        sepSize = sd;
+        sepLevel = L;
+        sepDown = true;
       }
     }
     if (sepLevel < 0) {
-      // no balanced level (e.g. a long path or a star): the median level
+      // no balanced cut (e.g. a star): the "up" separator at the median level
       let L = 1;
-      while (L < nlev - 1 && levelPtr[L + 1]! < m / 2) L++;
-      sepLevel = Math.min(L, Math.max(nlev - 2, 0));
-    }
-    if (nlev < 3) {
-      continue; // too shallow to split (nearly complete graph): keep as a leaf
+      while (L < nlev - 2 && levelPtr[L + 1]! < m / 2) L++;
+      sepLevel = L;
+      sepDown = false;
     }
     // assemble A | B | S into tmp, keeping BFS order inside each part
     let na = 0, nb = 0, ns = 0;
-    const sepStart = levelPtr[sepLevel]!, sepEnd = levelPtr[sepLevel + 1]!;
-    for (let k = 0; k < sepStart; k++) tmp[na++] = queue[k]!;
-    for (let k = sepStart; k < sepEnd; k++) {
-      const v = queue[k]!;
-      let touchesNext = false;
-      for (let p = xadj[v]!; p < xadj[v + 1]!; p++) {
-        const w = adj[p]!;
-        if (label[w] === lab && level[w] === sepLevel + 1) {
-          touchesNext = true;
-          break;
-        }
-      }
-      if (touchesNext) level[v] = -1; // stays in S
-      else tmp[na++] = v;
-    }
-    for (let k = sepEnd; k < m; k++) tmp[na + nb++] = queue[k]!;
-    for (let k = sepStart; k < sepEnd; k++) {
-      const v = queue[k]!;
-      if (level[v] === -1) tmp[na + nb + ns++] = v;
-    }
+    const sl = sepDown ? sepLevel + 1 : sepLevel; // the level the separator is taken from
+    const bit = sepDown ? 2 : 1;
+    const s0 = levelPtr[sl]!, s1 = levelPtr[sl + 1]!;
+    for (let k = 0; k < s0; k++) tmp[na++] = queue[k]!;
+    if (!sepDown) for (let k = s0; k < s1; k++) if (!(flag[queue[k]!]! & bit)) tmp[na++] = queue[k]!;
+    if (sepDown) for (let k = s0; k < s1; k++) if (!(flag[queue[k]!]! & bit)) tmp[na + nb++] = queue[k]!;
+    for (let k = s1; k < m; k++) tmp[na + nb++] = queue[k]!;
+    for (let k = s0; k < s1; k++) if (flag[queue[k]!]! & bit) tmp[na + nb + ns++] = queue[k]!;
     verts.set(tmp.subarray(0, m), lo);
     for (let k = lo; k < hi; k++) label[verts[k]!] = -1;
     ranges.push(lo, lo + na, lo + na, lo + na + nb);
