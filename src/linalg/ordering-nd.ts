@@ -11,10 +11,9 @@
  *   [ x  x  S ]
  * ```
  *
- * S comes from a BFS level structure rooted at a pseudo-peripheral vertex:
- * for the cut between two consecutive levels, either the vertices of the
- * lower level that touch the upper one, or those of the upper level that
- * touch the lower one; the smallest such set among the balanced cuts wins. Disconnected
+ * S is the smallest balanced one-sided cut boundary (see separator.ts) for
+ * two vertex keys: the BFS level from a pseudo-peripheral vertex u, and
+ * d(u, x) − d(v, x) with v at the far end of u's level structure. Disconnected
  * subgraphs are split by component with an empty separator. Subgraphs below
  * `leafSize` vertices are ordered by approximate minimum degree on their own
  * subgraph (a hybrid common in practice), or keep their BFS order.
@@ -23,6 +22,11 @@
  */
 import type { AdjacencyGraph } from './graph.js';
 import { approximateMinimumDegree } from './ordering-amd.js';
+import { bestCut, cutWork, splitByCut } from './separator.js';
+import type { Cut } from './separator.js';
+
+/** Each part keeps at least this share of the vertices outside the separator. */
+const BALANCE = 0.3;
 
 /** Restarts of the pseudo-peripheral search (each is one BFS). */
 const PERIPHERAL_ROUNDS = 2;
@@ -73,9 +77,11 @@ export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOption
   let id = 0;
 
   const visit = new Int32Array(n).fill(-1);
-  const flag = new Uint8Array(n);
-  const cntUp = new Int32Array(n + 2);
-  const cntDown = new Int32Array(n + 2);
+  const keyA = new Int32Array(n);
+  const keyB = new Int32Array(n);
+  const work = cutWork(n);
+  const cutBufA: Cut = { size: 0, t: 0, down: false };
+  const cutBufB: Cut = { size: 0, t: 0, down: false };
   let stamp = 0;
 
   /**
@@ -154,60 +160,35 @@ export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOption
     reached = levelPtr[nlev]!;
 
     if (nlev < 3) continue; // too shallow to split (nearly complete graph): keep as a leaf
-    // For the cut between levels L and L+1 two separators exist: the level-L
-    // vertices with a neighbour in L+1 ("up"), or the level-(L+1) vertices with
-    // a neighbour in L ("down"); the rest of each level joins the side it
-    // touches. Count both for every L in one pass over the edges.
-    cntUp.fill(0, 0, nlev + 1);
-    cntDown.fill(0, 0, nlev + 1);
+    // key 1: distance from the root; key 2: d(root, x) − d(far, x) shifted ≥ 0
+    for (let k = 0; k < m; k++) keyA[queue[k]!] = level[queue[k]!]!;
+    let far = queue[levelPtr[nlev - 1]!]!;
+    for (let k = levelPtr[nlev - 1]!; k < levelPtr[nlev]!; k++) {
+      const v = queue[k]!;
+      if (xadj[v + 1]! - xadj[v]! < xadj[far + 1]! - xadj[far]!) far = v;
+    }
+    const nlevA = nlev;
+    const nlevB = bfs(far, lab);
     for (let k = 0; k < m; k++) {
-      const v = queue[k]!, l = level[v]!;
-      let f = 0;
-      for (let p = xadj[v]!; p < xadj[v + 1]!; p++) {
-        const w = adj[p]!;
-        if (label[w] !== lab) continue;
-        const lw = level[w]!;
-        if (lw === l + 1) f |= 1;
-        else if (lw === l - 1) f |= 2;
-      }
-      flag[v] = f;
-      cntUp[l]! += f & 1;
-      cntDown[l]! += f >> 1;
+      const v = queue[k]!;
+      keyB[v] = keyA[v]! - level[v]! + nlevB;
     }
-    // smallest separator leaving both sides ≥ 30% of the rest
-    let sepLevel = -1, sepDown = false, sepSize = Infinity;
-    for (let L = 0; L + 1 < nlev; L++) {
-      const below = levelPtr[L + 1]!, above = m - below;
-      const su = cntUp[L]!, sd = cntDown[L + 1]!;
-      const au = below - su, bd = above - sd;
-      if (su < sepSize && au > 0 && Math.min(au, above) >= 0.3 * (m - su)) {
-        sepSize = su;
-        sepLevel = L;
-        sepDown = false;
+    const cutA = bestCut(queue, m, keyA, nlevA, xadj, adj, label, lab, BALANCE, work, cutBufA);
+    const cutB = bestCut(queue, m, keyB, nlevA + nlevB + 1, xadj, adj, label, lab, BALANCE, work, cutBufB);
+    let key = keyB, cut = cutB;
+    if (cutA.size <= cutB.size) {
+      key = keyA;
+      cut = cutA;
+      if (cutA.size === Infinity) {
+        // no balanced cut (e.g. a star): the "up" separator at the median level
+        let L = 1;
+        while (L < nlevA - 2 && levelPtr[L + 1]! < m / 2) L++;
+        cut.t = L;
+        cut.down = false;
       }
-      if (sd < sepSize && bd > 0 && Math.min(below, bd) >= 0.3 * (m - sd)) {
-        sepSize = sd;
-        sepLevel = L;
-        sepDown = true;
-      }
+      bestCut(queue, m, keyA, nlevA, xadj, adj, label, lab, BALANCE, work, cutBufB); // refresh min/max keys for key A
     }
-    if (sepLevel < 0) {
-      // no balanced cut (e.g. a star): the "up" separator at the median level
-      let L = 1;
-      while (L < nlev - 2 && levelPtr[L + 1]! < m / 2) L++;
-      sepLevel = L;
-      sepDown = false;
-    }
-    // assemble A | B | S into tmp, keeping BFS order inside each part
-    let na = 0, nb = 0, ns = 0;
-    const sl = sepDown ? sepLevel + 1 : sepLevel; // the level the separator is taken from
-    const bit = sepDown ? 2 : 1;
-    const s0 = levelPtr[sl]!, s1 = levelPtr[sl + 1]!;
-    for (let k = 0; k < s0; k++) tmp[na++] = queue[k]!;
-    if (!sepDown) for (let k = s0; k < s1; k++) if (!(flag[queue[k]!]! & bit)) tmp[na++] = queue[k]!;
-    if (sepDown) for (let k = s0; k < s1; k++) if (!(flag[queue[k]!]! & bit)) tmp[na + nb++] = queue[k]!;
-    for (let k = s1; k < m; k++) tmp[na + nb++] = queue[k]!;
-    for (let k = s0; k < s1; k++) if (flag[queue[k]!]! & bit) tmp[na + nb + ns++] = queue[k]!;
+    const [na, nb] = splitByCut(queue, m, key, cut, work, tmp);
     verts.set(tmp.subarray(0, m), lo);
     for (let k = lo; k < hi; k++) label[verts[k]!] = -1;
     ranges.push(lo, lo + na, lo + na, lo + na + nb);
