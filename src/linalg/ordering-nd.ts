@@ -33,7 +33,7 @@ const PERIPHERAL_ROUNDS = 2;
 
 /** Options of {@link nestedDissection}. */
 export interface NestedDissectionOptions {
-  /** Subgraphs with at most this many vertices are not split further (default 256). */
+  /** Subgraphs with at most this many vertices are not split further (default 512). */
   leafSize?: number;
   /** How leaves are ordered: approximate minimum degree on the leaf's subgraph (default) or BFS order. */
   leafOrder?: 'amd' | 'bfs';
@@ -42,7 +42,7 @@ export interface NestedDissectionOptions {
 /** Returns perm with perm[k] = the vertex eliminated k-th. */
 export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOptions = {}): Int32Array {
   const { n, xadj, adj } = g;
-  const leafSize = Math.max(2, opts.leafSize ?? 256);
+  const leafSize = Math.max(2, opts.leafSize ?? 512);
   const verts = new Int32Array(n);
   for (let v = 0; v < n; v++) verts[v] = v;
   const label = new Int32Array(n).fill(-1);
