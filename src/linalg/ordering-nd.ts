@@ -79,7 +79,8 @@ export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOption
   const visit = new Int32Array(n).fill(-1);
   const keyA = new Int32Array(n);
   const keyB = new Int32Array(n);
-  const work = cutWork(n);
+  const workA = cutWork(n);
+  const workB = cutWork(n);
   const cutBufA: Cut = { size: 0, t: 0, down: false };
   const cutBufB: Cut = { size: 0, t: 0, down: false };
   let stamp = 0;
@@ -173,12 +174,13 @@ export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOption
       const v = queue[k]!;
       keyB[v] = keyA[v]! - level[v]! + nlevB;
     }
-    const cutA = bestCut(queue, m, keyA, nlevA, xadj, adj, label, lab, BALANCE, work, cutBufA);
-    const cutB = bestCut(queue, m, keyB, nlevA + nlevB + 1, xadj, adj, label, lab, BALANCE, work, cutBufB);
-    let key = keyB, cut = cutB;
+    const cutA = bestCut(queue, m, keyA, nlevA, xadj, adj, label, lab, BALANCE, workA, cutBufA);
+    const cutB = bestCut(queue, m, keyB, nlevA + nlevB + 1, xadj, adj, label, lab, BALANCE, workB, cutBufB);
+    let key = keyB, cut = cutB, work = workB;
     if (cutA.size <= cutB.size) {
       key = keyA;
       cut = cutA;
+      work = workA;
       if (cutA.size === Infinity) {
         // no balanced cut (e.g. a star): the "up" separator at the median level
         let L = 1;
@@ -186,7 +188,6 @@ export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOption
         cut.t = L;
         cut.down = false;
       }
-      bestCut(queue, m, keyA, nlevA, xadj, adj, label, lab, BALANCE, work, cutBufB); // refresh min/max keys for key A
     }
     const [na, nb] = splitByCut(queue, m, key, cut, work, tmp);
     verts.set(tmp.subarray(0, m), lo);
