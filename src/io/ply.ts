@@ -33,6 +33,8 @@ const TYPE_CODES: Record<string, number> = {
 export const TYPE_SIZES = [1, 1, 2, 2, 4, 4, 4, 8];
 /** {@link ScalarType} of each type code. */
 export const SCALAR_TYPES: ScalarType[] = ['int8', 'uint8', 'int16', 'uint16', 'int32', 'uint32', 'float32', 'float64'];
+/** True on little-endian hosts (typed arrays use host byte order). */
+const HOST_LE = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
 const LO = [-128, 0, -32768, 0, -2147483648, 0, -Infinity, -Infinity];
 const HI = [127, 255, 32767, 65535, 2147483647, 4294967295, Infinity, Infinity];
 
@@ -156,6 +158,56 @@ function readColumn(dv: DataView, o: number, stride: number, count: number, t: n
   }
 }
 
+/** Position and output of {@link readFaceLists}. */
+interface FaceLists { p: number; ni: number; idx: Uint32Array }
+
+/**
+ * Reads `count` binary faces that hold only their index list `q`, from
+ * `st.p`, appending indices to `st.idx` (grown when needed) and ends to
+ * `offsets`. A function of its own, so it is optimized as a whole rather
+ * than mid-loop inside the caller.
+ */
+function readFaceLists(dv: DataView, b: Uint8Array, st: FaceLists, count: number, q: PlyProperty, le: boolean, nv: number, offsets: Uint32Array, name: string): void {
+  const n = b.length, ct = q.countType, it = q.type;
+  const cs = TYPE_SIZES[ct]!, is = TYPE_SIZES[it]!;
+  const fast = ct === 1 && (it === 4 || it === 5);
+  let p = st.p, ni = st.ni, idx = st.idx;
+  const fail = (f: number, msg: string): never => {
+    throw inputError(msg, `${name}: face ${f}`);
+  };
+  for (let f = 0; f < count; f++) {
+    if (p + cs > n) fail(f, 'file ends inside this item');
+    const k = ct === 1 ? b[p]! : rd(dv, p, ct, le);
+    p += cs;
+    if (!(k >= 3)) fail(f, `face has ${k} ${k === 1 ? 'vertex' : 'vertices'} (at least 3 needed)`);
+    const e = p + k * is;
+    if (e > n) fail(f, 'file ends inside this item');
+    if (ni + k > idx.length) {
+      const g = new Uint32Array(Math.max(2 * idx.length, ni + k));
+      g.set(idx.subarray(0, ni));
+      idx = g;
+    }
+    if (fast) {
+      // int and uint alike: a negative int reads as ≥ 2^31, out of range too.
+      for (; p < e; p += 4) {
+        const v = dv.getUint32(p, le);
+        if (v >= nv) fail(f, `vertex index ${it === 4 ? dv.getInt32(p, le) : v} out of range (the file has ${nv} vertices)`);
+        idx[ni++] = v;
+      }
+    } else {
+      for (; p < e; p += is) {
+        const v = rd(dv, p, it, le);
+        if (!(v >= 0 && v < nv && Number.isInteger(v))) fail(f, `vertex index ${v} out of range (the file has ${nv} vertices)`);
+        idx[ni++] = v;
+      }
+    }
+    offsets[f + 1] = ni;
+  }
+  st.p = p;
+  st.ni = ni;
+  st.idx = idx;
+}
+
 /** Where each scalar value of an element goes: `dst[i * stride + base]`, or nowhere. */
 interface Sink { dst: Float64Array | null; stride: number; base: number }
 
@@ -196,11 +248,11 @@ export function parsePly(bytes: Uint8Array, name: string): MeshData {
   }
 
   const nv = vEl.count;
-  const positions = new Float64Array(3 * nv);
+  let positions = new Float64Array(3 * nv);
   const vertexProps: PropertyColumn[] = [];
   const faceProps: PropertyColumn[] = [];
   const faceOffsets = new Uint32Array(fEl.count + 1);
-  let faceIndices = new Uint32Array(3 * fEl.count);
+  let faceIndices: Uint32Array = new Uint32Array(3 * fEl.count);
   let ni = 0;
   const dv = new DataView(b.buffer, b.byteOffset, b.byteLength);
   const n = b.length;
@@ -249,6 +301,12 @@ export function parsePly(bytes: Uint8Array, name: string): MeshData {
         p += stride * el.count;
         continue;
       }
+      if (el === vEl && le === HOST_LE && stride === 24 && el.props.every((q, j) => q.type === 7 && q.name === 'xyz'[j])) {
+        // Exactly `double x, y, z` in host byte order: the block is the array.
+        positions = new Float64Array(b.slice(p, p + 24 * el.count).buffer);
+        p += 24 * el.count;
+        continue;
+      }
       let o = p;
       for (let j = 0; j < np; j++) {
         const q = el.props[j]!, s = sinks[j]!;
@@ -257,26 +315,12 @@ export function parsePly(bytes: Uint8Array, name: string): MeshData {
       }
       p += stride * el.count;
     } else if (!ascii && el === fEl && np === 1) {
-      // Faces with only their index list: the common case, one tight loop.
-      const q = el.props[0]!, cs = TYPE_SIZES[q.countType]!, is = TYPE_SIZES[q.type]!;
-      for (item = 0; item < el.count; item++) {
-        if (p + cs > n) fail('file ends inside this item');
-        const k = q.countType === 1 ? b[p]! : rd(dv, p, q.countType, le);
-        p += cs;
-        if (!(k >= 3)) fail(`face has ${k} ${k === 1 ? 'vertex' : 'vertices'} (at least 3 needed)`);
-        if (p + k * is > n) fail('file ends inside this item');
-        if (ni + k > faceIndices.length) {
-          const g = new Uint32Array(Math.max(2 * faceIndices.length, ni + k));
-          g.set(faceIndices.subarray(0, ni));
-          faceIndices = g;
-        }
-        for (let c = 0; c < k; c++, p += is) {
-          const v = q.type === 4 ? dv.getInt32(p, le) : q.type === 5 ? dv.getUint32(p, le) : rd(dv, p, q.type, le);
-          if (!(v >= 0 && v < nv && Number.isInteger(v))) fail(`vertex index ${v} out of range (the file has ${nv} vertices)`);
-          faceIndices[ni++] = v;
-        }
-        faceOffsets[item + 1] = ni;
-      }
+      // Faces with only their index list: the common case, its own tight loop.
+      const st: FaceLists = { p, ni, idx: faceIndices };
+      readFaceLists(dv, b, st, el.count, el.props[0]!, le, nv, faceOffsets, name);
+      p = st.p;
+      ni = st.ni;
+      faceIndices = st.idx;
     } else {
       for (item = 0; item < el.count; item++) {
         for (let j = 0; j < np; j++) {

@@ -63,9 +63,13 @@ function fixedObj(positions: Float64Array, triangles: Uint32Array): string {
 
 /**
  * Medians of `a` and `b` timed alternately (a, b, a, b, ...) after `warmup`
- * untimed runs each, so load from other processes on the machine hits both alike.
+ * untimed runs each, so load from other processes on the machine hits both
+ * alike. A full collection (the runner passes --expose-gc) after each pair,
+ * off the clock, keeps three's garbage (JS arrays and strings; ours is a few
+ * typed arrays) from being collected on our reader's clock.
  */
 function interleaved<A, B>(a: () => A, b: () => B, runs: number, warmup = 3): { msA: number; msB: number; resultA: A } {
+  const gc = (globalThis as { gc?: () => void }).gc ?? (() => undefined);
   let resultA = a();
   for (let w = 0; w < warmup; w++) {
     resultA = a();
@@ -79,6 +83,7 @@ function interleaved<A, B>(a: () => A, b: () => B, runs: number, warmup = 3): { 
     t0 = performance.now();
     b();
     tb.push(performance.now() - t0);
+    gc();
   }
   return { msA: median(ta), msB: median(tb), resultA };
 }
