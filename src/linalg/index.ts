@@ -18,3 +18,4 @@ export { analyzeCholesky, DEFAULT_ORDERING } from './symbolic.js';
 export { CholeskyFactor } from './numeric.js';
 export type { FactorOptions } from './numeric.js';
 export { lowerSolve, lowerTransposeSolve } from './solve.js';
+export { supernodalLowerSolve, supernodalLowerTransposeSolve } from './solve-supernodal.js';

@@ -7,7 +7,8 @@
 import type { CscMatrix } from './csc.js';
 import type { CholeskySymbolic } from './symbolic.js';
 import { upLookingFactor } from './simplicial.js';
-import { multifrontalFactor, multifrontalWork, supernodalLowerSolve, supernodalLowerTransposeSolve } from './multifrontal.js';
+import { multifrontalFactor, multifrontalWork } from './multifrontal.js';
+import { supernodalLowerSolve, supernodalLowerTransposeSolve } from './solve-supernodal.js';
 import type { MultifrontalWork } from './multifrontal.js';
 import { lowerSolve, lowerTransposeSolve } from './solve.js';
 import { numericError, usageError } from '../errors.js';

@@ -8,7 +8,11 @@ import type { CholeskyMethod, Ordering } from '../../src/linalg/index.js';
 import { denseCholesky, denseCholeskySolve } from '../../src/linalg/dense.js';
 import { OrthodromeError } from '../../src/errors.js';
 import { denseFromLower, gridLaplacianLower, normInf, normOneLower, randomSpdLower } from './helpers.js';
-import { rng } from '../fixtures/shapes.js';
+import { icosphere, rng, terrain } from '../fixtures/shapes.js';
+import type { Shape } from '../fixtures/shapes.js';
+import { buildTopology } from '../../src/mesh/build.js';
+import { intrinsicFromPositions, meanEdgeLength } from '../../src/metric/intrinsic.js';
+import { barycentricVertexAreas, edgeCotanWeights } from '../../src/metric/triangle.js';
 import type { CscMatrix } from '../../src/linalg/index.js';
 
 const ORDERINGS: Ordering[] = ['natural', 'nd', 'amd'];
@@ -144,6 +148,56 @@ describe('dense Cholesky oracle (Golub & Van Loan Alg. 4.2.1, in src/linalg/dens
   );
 });
 
+describe('heat-method systems from the project\'s own cotangent Laplacian', () => {
+  // M + t·L (t = h², h = mean edge length) and L + ε·M on an icosphere and a
+  // terrain: the systems of the heat method (Crane, Weischedel, Wardetzky,
+  // ACM TOG 32(5), 2013). Both are SPD: L is PSD with kernel = constants
+  // (common practice for Delaunay-like meshes), M is diagonal positive.
+  function heatSystems(s: Shape): [CscMatrix, CscMatrix] {
+    const nv = s.positions.length / 3;
+    const { topology: t } = buildTopology(s.triangles, nv);
+    const m = intrinsicFromPositions(t, s.positions);
+    const w = edgeCotanWeights(m);
+    const area = barycentricVertexAreas(m);
+    const h = meanEdgeLength(m);
+    const build = (a: number, b: number) => {
+      const T = new TripletMatrix(t.nv);
+      for (let e = 0; e < t.ne; e++) {
+        const he = t.edgeHalfedge[e]!;
+        const i = t.tri[he]!, j = t.tri[he % 3 === 2 ? he - 2 : he + 1]!;
+        T.add(Math.max(i, j), Math.min(i, j), -b * w[e]!);
+        T.add(i, i, b * w[e]!);
+        T.add(j, j, b * w[e]!);
+      }
+      for (let v = 0; v < t.nv; v++) T.add(v, v, a * area[v]!);
+      return T.toCsc();
+    };
+    return [build(1, h * h), build(1e-8, 1)];
+  }
+  const shapes: [string, Shape][] = [
+    ['icosphere level 4', icosphere(4)],
+    ['terrain 60×50', terrain(59, 49, 2, 1.5, (x, y) => 0.2 * Math.sin(3 * x) * Math.cos(4 * y))],
+  ];
+  for (const [name, shape] of shapes) {
+    it(`${name}: residual ≤ 1e-14 for M + tL and L + εM, one analysis for both`, () => {
+      const [heat, poisson] = heatSystems(shape);
+      const sym = analyzeCholesky(heat);
+      const f = CholeskyFactor.factor(heat, sym);
+      const b = randomVector(heat.n, 12);
+      const x = new Float64Array(heat.n);
+      f.solve(b, x);
+      expect(scaledResidual(heat, x, b)).toBeLessThan(1e-14);
+      f.refactor(poisson); // same pattern, new values
+      // right-hand side with zero mean, as for the heat method's Poisson step
+      let mean = 0;
+      for (let i = 0; i < b.length; i++) mean += b[i]! / b.length;
+      const b2 = b.map((v) => v - mean);
+      f.solve(b2, x);
+      expect(scaledResidual(poisson, x, b2)).toBeLessThan(1e-14);
+    });
+  }
+});
+
 describe('dense update kernels', () => {
   it('the WebAssembly SIMD kernel and the plain one give the same factor to rounding', () => {
     // large enough for fronts with many 4×2 tiles and odd block widths
@@ -208,17 +262,19 @@ describe('refactorization', () => {
 
 describe('non-SPD input is rejected with NUMERIC, never NaN', () => {
   function expectNumeric(A: CscMatrix, column?: number): void {
-    let err: unknown;
-    try {
-      CholeskyFactor.factor(A, analyzeCholesky(A));
-    } catch (e) {
-      err = e;
+    for (const method of METHODS) {
+      let err: unknown;
+      try {
+        CholeskyFactor.factor(A, analyzeCholesky(A, { method }));
+      } catch (e) {
+        err = e;
+      }
+      expect(err).toBeInstanceOf(OrthodromeError);
+      const e = err as OrthodromeError;
+      expect(e.code).toBe('NUMERIC');
+      expect(e.message).toMatch(/^matrix is not positive definite \(pivot \S+ at column \d+\)$/);
+      if (column !== undefined) expect(e.message).toContain(`at column ${column})`);
     }
-    expect(err).toBeInstanceOf(OrthodromeError);
-    const e = err as OrthodromeError;
-    expect(e.code).toBe('NUMERIC');
-    expect(e.message).toMatch(/^matrix is not positive definite \(pivot \S+ at column \d+\)$/);
-    if (column !== undefined) expect(e.message).toContain(`at column ${column})`);
   }
   it('indefinite: a pure Laplacian minus a shift (smallest eigenvalue −1)', () => {
     expectNumeric(gridLaplacianLower(10, 10, -1));

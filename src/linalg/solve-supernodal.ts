@@ -1,0 +1,86 @@
+/**
+ * Triangular solves with the supernodal factor: supernode s stores its nr × nc
+ * block of L row-major (rows R_s: own columns first, then the rows below),
+ *
+ * ```
+ *   [ L₁₁ ]  nc × nc lower triangle (upper part unused)
+ *   [ L₂₁ ]  (nr − nc) × nc, row r belongs to global row R_s[r]
+ * ```
+ *
+ * so both passes read every block row by row, contiguously, and only touch
+ * x through one index per block row. In place, no allocation.
+ */
+import type { SupernodalStructure } from './supernodes.js';
+
+/**
+ * Forward solve L y = x in place with the supernodal factor:
+ * per supernode, y_s = L₁₁⁻¹ x_s, then x(R₂) −= L₂₁ y_s.
+ */
+export function supernodalLowerSolve(sn: SupernodalStructure, Lx: Float64Array, x: Float64Array): void {
+  const { nsuper, superStart, rowPtr, rows, valPtr } = sn;
+  for (let s = 0; s < nsuper; s++) {
+    const f = superStart[s]!, nc = superStart[s + 1]! - f;
+    const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
+    const v0 = valPtr[s]!;
+    for (let j = 0; j < nc; j++) {
+      const rj = v0 + j * nc;
+      let t = x[f + j]!;
+      for (let k = 0; k < j; k++) t -= Lx[rj + k]! * x[f + k]!;
+      x[f + j] = t / Lx[rj + j]!;
+    }
+    // x(R₂) −= L₂₁ y_s: two rows per pass over y_s
+    let r = nc;
+    for (; r + 1 < nr; r += 2) {
+      const q0 = v0 + r * nc, q1 = q0 + nc;
+      let t0 = 0, t1 = 0;
+      for (let k = 0; k < nc; k++) {
+        const y = x[f + k]!;
+        t0 += Lx[q0 + k]! * y;
+        t1 += Lx[q1 + k]! * y;
+      }
+      x[rows[r0 + r]!]! -= t0;
+      x[rows[r0 + r + 1]!]! -= t1;
+    }
+    if (r < nr) {
+      const q0 = v0 + r * nc;
+      let t0 = 0;
+      for (let k = 0; k < nc; k++) t0 += Lx[q0 + k]! * x[f + k]!;
+      x[rows[r0 + r]!]! -= t0;
+    }
+  }
+}
+
+/**
+ * Backward solve Lᵀ x = y in place: per supernode in reverse,
+ * y_s −= L₂₁ᵀ x(R₂), then x_s = L₁₁⁻ᵀ y_s.
+ */
+export function supernodalLowerTransposeSolve(sn: SupernodalStructure, Lx: Float64Array, x: Float64Array): void {
+  const { nsuper, superStart, rowPtr, rows, valPtr } = sn;
+  for (let s = nsuper - 1; s >= 0; s--) {
+    const f = superStart[s]!, nc = superStart[s + 1]! - f;
+    const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
+    const v0 = valPtr[s]!;
+    // y_s −= L₂₁ᵀ x(R₂): four rows of L₂₁ per pass over y_s (5 loads, 1 store per 4 multiply-adds)
+    let r = nc;
+    for (; r + 3 < nr; r += 4) {
+      const x0 = x[rows[r0 + r]!]!, x1 = x[rows[r0 + r + 1]!]!, x2 = x[rows[r0 + r + 2]!]!, x3 = x[rows[r0 + r + 3]!]!;
+      const q0 = v0 + r * nc, q1 = q0 + nc, q2 = q1 + nc, q3 = q2 + nc;
+      for (let k = 0; k < nc; k++) {
+        x[f + k]! -= Lx[q0 + k]! * x0 + Lx[q1 + k]! * x1 + Lx[q2 + k]! * x2 + Lx[q3 + k]! * x3;
+      }
+    }
+    for (; r < nr; r++) {
+      const xr = x[rows[r0 + r]!]!;
+      const q0 = v0 + r * nc;
+      for (let k = 0; k < nc; k++) x[f + k]! -= Lx[q0 + k]! * xr;
+    }
+    // L₁₁ᵀ x_s = y_s by rows of L₁₁ (contiguous): x_j = y_j / L(j,j), then y_k −= L(j,k) x_j for k < j
+    for (let j = nc - 1; j >= 0; j--) {
+      const rj = v0 + j * nc;
+      const xj = x[f + j]! / Lx[rj + j]!;
+      x[f + j] = xj;
+      if (xj === 0) continue;
+      for (let k = 0; k < j; k++) x[f + k]! -= Lx[rj + k]! * xj;
+    }
+  }
+}
