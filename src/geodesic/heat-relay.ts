@@ -5,11 +5,13 @@
  * Backward-Euler heat decays like e^(−r/√t): with t = h² a unit source
  * leaves the double range about 700 edge rings out, where ∇u becomes 0 (or
  * subnormal noise) and the direction field is lost. Only directions matter,
- * so two things are done. The initial heat is scaled up so the largest value
- * is at most 1e250: with (M + tL)u = δ, Σ_i M_i u_i = Σ δ (1ᵀL = 0) and
- * u ≥ 0, so u_i ≤ Σδ / min M — the scale is Σδ → 1e250·min M, and the usable
- * range 1e250 … 1e-280 spans ~1200 rings. Past that the heat is relayed:
- * vertices whose heat is above τ = max(u_max·1e-530, 1e-280) (per component)
+ * so two things are done. The initial heat is scaled up to a ceiling C: with
+ * (M + tL)u = δ, Σ_i M_i u_i = Σ δ (1ᵀL = 0) and u ≥ 0, so u_i ≤ Σδ / min M,
+ * and Σδ → C·min M keeps u ≤ C. C = 1e300 / (3·max|∇φ| · max(1, √max A_ii))
+ * also keeps the gradients (≤ 3·u·max|∇φ|) and the forward-substitution
+ * values (≤ u·L_ii) finite; for meshes in ordinary units C ≈ 1e297 and the
+ * range C … 1e-290 spans ~1350 rings. Past that the heat is relayed:
+ * vertices whose heat is above τ = max(u_max·1e-580, 1e-290) (per component)
  * settle in stage 0; the settled vertices next to unsettled ones form a
  * front, and heat released from the front (weighted by u/τ, then scaled up
  * the same way) settles the next band in stage 1, and so on:
@@ -44,16 +46,24 @@ export interface RelayWork {
   readonly compHot: Uint8Array;
   /** Smallest positive lumped mass (bounds the heat: u_i ≤ Σδ / min M). */
   readonly minMass: number;
+  /** Ceiling C for the scaled heat (see the module comment). */
+  readonly heatCeiling: number;
 }
 
 /** Largest number of relay stages before the rest is left with X = 0. */
 export const MAX_RELAY_STAGES = 256;
-/** Bound on the largest heat value after scaling (leaves room for gradients ~ u/h). */
-const HEAT_CEILING = 1e250;
-/** Settling threshold relative to a component's largest heat value, as two factors (1e-530 underflows). */
-const RELATIVE_TAU = 1e-265;
+/** Settling threshold relative to a component's largest heat value, as two factors (1e-580 underflows). */
+const RELATIVE_TAU = 1e-290;
 /** Lowest absolute settling threshold (keeps away from subnormal numbers). */
-const MIN_TAU = 1e-280;
+const MIN_TAU = 1e-290;
+
+/**
+ * The ceiling C of the module comment from the largest hat-gradient
+ * component and the largest diagonal entry of the heat matrix.
+ */
+export function heatCeiling(maxGrad: number, maxDiag: number): number {
+  return 1e300 / (Math.max(1, 3 * maxGrad) * Math.max(1, Math.sqrt(maxDiag)));
+}
 
 /**
  * Runs the heat solve(s) through `heat(rhs, u)` (which may overwrite rhs)
@@ -79,7 +89,7 @@ export function assembleDivergence(
     let sum = 0;
     for (let v = 0; v < nv; v++) sum += rhs[v]!;
     if (sum > 0 && w.minMass > 0) {
-      const scale = (HEAT_CEILING * w.minMass) / sum;
+      const scale = (w.heatCeiling * w.minMass) / sum;
       if (scale < Infinity) for (let v = 0; v < nv; v++) rhs[v]! *= scale;
     }
     heat(rhs, u);

@@ -45,7 +45,7 @@ import { components } from '../mesh/components.js';
 import { boundaryVertexMask } from '../mesh/boundary.js';
 import { addSourceHeat, sourceValue } from './heat-sources.js';
 import { factorPoisson } from './heat-poisson.js';
-import { assembleDivergence, type RelayWork } from './heat-relay.js';
+import { assembleDivergence, heatCeiling, type RelayWork } from './heat-relay.js';
 import { usageError, inputError } from '../errors.js';
 
 /** Options of {@link HeatSolver.prepare}. */
@@ -119,6 +119,8 @@ interface HeatParts {
   inactive: Uint8Array;
   /** Smallest positive lumped mass. */
   minMass: number;
+  /** Ceiling for the scaled heat (heat-relay.ts). */
+  heatCeiling: number;
   vertexComponent: Int32Array;
   componentCount: number;
   onBoundary: Uint8Array;
@@ -166,7 +168,7 @@ export class HeatSolver {
     const wildcard = parts.inactive.slice();
     if (parts.boundaryMode === 'dirichlet' && parts.heatD) for (let v = 0; v < nv; v++) wildcard[v]! |= parts.onBoundary[v]!;
     this.relay = {
-      t: triangulation.topology, geom: parts.geom, comp: parts.vertexComponent, wildcard, minMass: parts.minMass,
+      t: triangulation.topology, geom: parts.geom, comp: parts.vertexComponent, wildcard, minMass: parts.minMass, heatCeiling: parts.heatCeiling,
       stage: new Int32Array(nv), compTau: new Float64Array(parts.componentCount), compHot: new Uint8Array(parts.componentCount),
     };
   }
@@ -243,6 +245,9 @@ export class HeatSolver {
 
     const A = combine(p, step, Lv, 1, Mv);
     constrainRows(p, A, inactive);
+    let maxDiag = 0, maxGrad = 0;
+    for (let v = 0; v < t.nv; v++) maxDiag = Math.max(maxDiag, A[p.diagSlot[v]!]!);
+    for (let i = 0; i < geom.grad.length; i++) maxGrad = Math.max(maxGrad, Math.abs(geom.grad[i]!));
     const heatN = CholeskyFactor.factor(patternMatrix(p, A), sym);
     let heatD: CholeskyFactor | null = null;
     let hasBoundary = false;
@@ -262,7 +267,7 @@ export class HeatSolver {
       ordering: sym.ordering, meanEdgeLength: h, timeStep: step, poissonShifted: shifted,
     };
     return new HeatSolver(mesh, work, stats, {
-      boundaryMode: boundary, geom, inactive, minMass, vertexComponent: comp.vertexComponent, componentCount: comp.count,
+      boundaryMode: boundary, geom, inactive, minMass, heatCeiling: heatCeiling(maxGrad, maxDiag), vertexComponent: comp.vertexComponent, componentCount: comp.count,
       onBoundary, blocked, heatN, heatD, poisson,
     });
   }

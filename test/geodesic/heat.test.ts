@@ -49,6 +49,11 @@ describe('HeatSolver invariants', () => {
       expect(Math.abs(dr[v]! - d0[v]!)).toBeLessThan(1e-8 * max);
       expect(Math.abs(ds[v]! - 2.5 * d0[v]!)).toBeLessThan(1e-8 * 2.5 * max);
     }
+    // extreme units (the heat is rescaled internally; nothing may overflow or underflow)
+    for (const k of [1e-15, 1e15]) {
+      const dk = HeatSolver.prepare(meshOf(transform(s, 0, [0, 0, 0], k))).distance(src).distance;
+      for (let v = 0; v < d0.length; v++) expect(Math.abs(dk[v]! - k * d0[v]!)).toBeLessThan(1e-8 * k * max);
+    }
   });
 
   it('gives the same answers for many source sets from one prepare as fresh solvers', () => {
