@@ -279,12 +279,11 @@ function faceStatement(s: ObjScan, p: number): number {
     const t0 = p;
     let neg = false;
     if (b[p] === 45) { neg = true; p++; }
-    let v = 0, d = 0;
-    for (let ch = b[p]!; ch >= 48 && ch <= 57; ch = b[++p]!) {
-      if (v < 1e15) v = v * 10 + (ch - 48);
-      d++;
-    }
-    if (d === 0) fail(b, t0, s.name, `malformed vertex index ${tokenAt(b, t0)}`);
+    // Digits as an integer; past 2^53 it is inexact but far out of range anyway.
+    let v = 0;
+    const d0 = p;
+    for (let ch = b[p]!; ch >= 48 && ch <= 57; ch = b[++p]!) v = v * 10 + (ch - 48);
+    if (p === d0) fail(b, t0, s.name, `malformed vertex index ${tokenAt(b, t0)}`);
     if (v > 4294967295) fail(b, t0, s.name, `vertex index ${tokenAt(b, t0)} out of range`);
     // Texture and normal references: `/t`, `//n`, `/t/n`; checked for form only.
     for (let part = 0; part < 2 && b[p] === 47; part++) {
