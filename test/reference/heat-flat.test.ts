@@ -87,7 +87,7 @@ describe('heat method on flat and developable meshes (closed-form distances)', (
 
   it('open cylinder: unrolled distance sqrt((RΔθ)² + Δz²) within 2%', () => {
     // a cylinder is developable: unrolling is an isometry (elementary)
-    const R = 1, H = 3, nT = 64, nz = 30;
+    const R = 1, H = 3, nT = 96, nz = 45;
     const s = cylinder(nT, nz, R, H);
     const m = meshOf(s);
     const solver = HeatSolver.prepare(m);
