@@ -104,8 +104,8 @@ export function tracePath(
       if (t.tri[h] === v) { P[0] = 0; P[1] = 0; }
       else if (t.tri[next(h)] === v) { P[0] = s.hl[h]!; P[1] = 0; }
       else { P[0] = s.hc[2 * h]!; P[1] = s.hc[2 * h + 1]!; }
-      // v is the third corner of the window's face, lit when the window was propagated
-      x = crossing(s, via, P[0]!, P[1]!, false);
+      // v is the third corner of the window's face, reached when the (then final) window was propagated
+      x = crossing(s, via, P[0]!, P[1]!, true);
       kind = 1; id = via;
       continue;
     }

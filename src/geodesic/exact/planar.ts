@@ -42,7 +42,8 @@ export function propagatePlanar(s: ExactState, w: number): void {
   const cx = s.hc[2 * h]!, cy = s.hc[2 * h + 1]!;
   const xC = cx - (ux * cy) / uy;
   const hp = prev(h), hn = next(h);
-  if (xC >= b0 && xC <= b1) relaxVertex(s, t.tri[hp]!, c + ux * cx + uy * cy, VIA_WINDOW, w);
+  const xc = xC < b0 ? b0 : xC > b1 ? b1 : xC; // as for point windows: exact when lit, a bound otherwise
+  relaxVertex(s, t.tri[hp]!, c + ux * xc + Math.hypot(cx - xc, cy), VIA_WINDOW, w);
   const gp = t.twin[hp]!;
   if (gp >= 0 && b0 < xC) {
     // A→C hit at s(x) = x·uy / (cx·uy − cy·ux)

@@ -18,7 +18,8 @@
  *
  * Rays through [b0, min(b1, xC)] leave through CA, rays through
  * [max(b0, xC), b1] leave through BC; when xC ∈ [b0, b1], C itself is lit
- * and gets the bound σ + |I − C|. A child is stored on the twin half-edge,
+ * and gets the bound σ + |I − C| (otherwise the bound through the nearest
+ * window end). A child is stored on the twin half-edge,
  * in whose frame the image is again below the axis. Vertices get bounds only
  * as a lit third corner C (or along an edge from a settled vertex): the last
  * straight piece of a shortest path to v crosses the face opposite v, or
@@ -174,7 +175,10 @@ export function propagateWindow(s: ExactState, w: number): void {
   // ray I→C meets the axis at xC = sx + (cx − sx)·(−sy)/(cy − sy)
   const xC = den > 0 ? sx + ((cx - sx) * -sy) / den : cx;
   const hp = prev(h), hn = next(h);
-  if (xC >= b0 && xC <= b1) relaxVertex(s, t.tri[hp]!, sigma + Math.hypot(cx - sx, den), VIA_WINDOW, w);
+  // C gets the real path through the window point nearest the ray I→C: exact when C is lit, and a
+  // bound when a ray through a flat vertex grazes it from outside by a rounding error
+  const xc = xC < b0 ? b0 : xC > b1 ? b1 : xC;
+  relaxVertex(s, t.tri[hp]!, sigma + Math.hypot(xc - sx, sy) + Math.hypot(cx - xc, cy), VIA_WINDOW, w);
   const gp = t.twin[hp]!;
   if (gp >= 0 && b0 < xC) {
     // line A + u·(C − A): u(x) = x·sy / ((x − sx)·cy + sy·cx)
@@ -231,6 +235,8 @@ export function settleVertex(s: ExactState, v: number): void {
   const dv = s.dist[v]!;
   const start = t.vertexHalfedge[v]!;
   if (start < 0) return;
+  // a pseudo-source lights its whole fan; windows outside the shadow behind v lose every
+  // comparison at once and are trimmed on their first edges
   const root = s.pseudo[v] ? addRoot(s, v, dv) : -1;
   let h = start, steps = 0;
   for (;;) {

@@ -36,6 +36,11 @@ export function trimInterval(
   out[0] = lo; out[1] = hi;
   const p = lo > oLo ? lo : oLo, q = hi < oHi ? hi : oHi;
   if (!(q > p)) return true;
+  // only a prefix (overlap starting at lo) or a suffix (ending at hi) can be cut, and only where
+  // N is not clearly better at that end: test the ends before solving anything
+  const fp = sN + Math.hypot(p - a, b), fq = sN + Math.hypot(q - a, b);
+  const dp = fp - sO - Math.hypot(p - c, d), dq = fq - sO - Math.hypot(q - c, d);
+  if (!(p <= lo && dp > -SLACK * fp) && !(q >= hi && dq > -SLACK * fq)) return true;
   // zeros of D in coordinates relative to p (keeps large map coordinates accurate)
   const A = a - p, C = c - p;
   const dl = sO - sN;
