@@ -243,10 +243,31 @@ function vertexStatement(s: ObjScan, p: number): number {
     if (b[p] === 32) p++;
     if (b[p]! < 33 || b[p] === 92) p = skipBlank(b, p);
     if (p >= n || b[p] === 10 || b[p] === 35 || b[p] === 13) break;
-    const v = scanReal(b, p);
-    if (scanCursor.bad) fail(b, p, s.name, `malformed number ${tokenAt(b, p)}`);
-    if (!Number.isFinite(v)) fail(b, p, s.name, `non-finite coordinate ${tokenAt(b, p)}`);
-    p = scanCursor.pos;
+    // Common form `[-]digits[.digits]` then a blank or newline, read inline
+    // (exact: m <= 2^53 and at most 22 decimals); anything else via scanReal.
+    let q = p, c = b[p]!, m = 0, v: number;
+    const neg = c === 45;
+    if (neg) c = b[++q]!;
+    const d0 = q;
+    while (c >= 48 && c <= 57) { m = m * 10 + (c - 48); c = b[++q]!; }
+    const id = q - d0;
+    let fd = 0;
+    if (c === 46) {
+      const f0 = ++q;
+      c = b[q]!;
+      while (c >= 48 && c <= 57) { m = m * 10 + (c - 48); c = b[++q]!; }
+      fd = q - f0;
+    }
+    if (id + fd > 0 && m <= 9007199254740992 && fd <= 22 && (c === 32 || c === 10 || c === 13 || c === 9 || q >= n)) {
+      v = fd === 0 ? m : m / POW10[fd]!;
+      if (neg) v = -v;
+      p = q;
+    } else {
+      v = scanReal(b, p);
+      if (scanCursor.bad) fail(b, p, s.name, `malformed number ${tokenAt(b, p)}`);
+      if (!Number.isFinite(v)) fail(b, p, s.name, `non-finite coordinate ${tokenAt(b, p)}`);
+      p = scanCursor.pos;
+    }
     if (k < 3) pos[3 * nv + k] = v;
     else if (k === 3) r = v;
     else if (k === 4) g = v;

@@ -41,6 +41,8 @@ const CASES: [string, string | Uint8Array, string][] = [
   ['hill.obj', 'v 0 0 0\nv 1 0 -inf\nv 0 1 0\nf 1 2 3\n', "hill.obj:2: non-finite coordinate '-inf'"],
   ['hill.obj', 'v 0 0 0\nv 1 0 1e400\nv 0 1 0\nf 1 2 3\n', "hill.obj:2: non-finite coordinate '1e400'"],
   ['hill.obj', 'v 0 0 0\nv 1 0 1.2.3\nv 0 1 0\nf 1 2 3\n', "hill.obj:2: malformed number '1.2.3'"],
+  ['hill.obj', 'v . 0 0\nv 1 0 0\nv 0 1 0\nf 1 2 3\n', "hill.obj:1: malformed number '.'"],
+  ['hill.obj', 'v -. 0 0\nv 1 0 0\nv 0 1 0\nf 1 2 3\n', "hill.obj:1: malformed number '-.'"],
   ['hill.obj', 'v 0 0 0\nv 1,5 0 0\nv 0 1 0\nf 1 2 3\n', "hill.obj:2: malformed number '1,5'"],
   ['hill.obj', 'v 0 0\nv 1 0 0\nv 0 1 0\nf 1 2 3\n', 'hill.obj:1: vertex has 2 numbers (expected 3, 4 or 6)'],
   ['hill.obj', TRI + 'f 1 2\n', 'hill.obj:4: face has 2 vertices (at least 3 needed)'],

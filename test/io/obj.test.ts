@@ -97,6 +97,14 @@ describe('scanReal against Number() (ECMAScript StringToNumber, correctly rounde
     expect(r.v).toBe(Number(s));
   });
 
+  fcTest.prop(
+    [fc.array(fc.oneof(fc.double({ noNaN: true, noDefaultInfinity: true }).map(String), fc.stringMatching(/^-?(\d{1,18}(\.\d{0,24})?|\.\d{1,24})$/)), { minLength: 3, maxLength: 3 })],
+    { numRuns: 500 },
+  )('coordinates read by parseObj (inline fast path and fallback) match Number()', (xs) => {
+    const m = parseObj(enc.encode(`v ${xs.join(' ')}\nv 0 0 0\nv 1 1 1\nf 1 2 3\n`), 'p.obj');
+    expect(Array.from(m.positions.subarray(0, 3))).toEqual(xs.map(Number));
+  });
+
   it('rejects malformed tokens and reads nan/inf words', () => {
     for (const s of ['1.2.3', '1e', '1e+', '-', '.', 'abc', '+.', '.nan', '1x']) expect(scan(s).bad, s).toBe(true);
     expect(Number.isNaN(scan('nan').v)).toBe(true);
