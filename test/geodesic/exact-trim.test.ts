@@ -4,7 +4,7 @@
  * comparison of the two distance functions σ + |x − I|; common practice).
  */
 import { describe, it, expect } from 'vitest';
-import { trimInterval } from '../../src/geodesic/exact/trim.js';
+import { trimInterval, trimBoth } from '../../src/geodesic/exact/trim.js';
 import { rng } from '../fixtures/shapes.js';
 
 function violations(seed: number, n: number, equalSigma: boolean): number {
@@ -49,5 +49,25 @@ describe('trimInterval', () => {
     expect(trimInterval(0, 1, 0.5, -1, 1, 0, 1, 0.5, -1, 0, out)).toBe(false);
     expect(trimInterval(0, 1, 0.5, -1, 0, 0, 1, 0.5, -1, 1, out)).toBe(true);
     expect([...out]).toEqual([0, 1]);
+  });
+
+  it('trimBoth: neither window loses a stretch where it is the better one (sampled oracle)', () => {
+    const r = rng(7);
+    const out = new Float64Array(4);
+    let bad = 0;
+    for (let it = 0; it < 20000; it++) {
+      const lo = r(), hi = lo + r(), oLo = r() * 1.5 - 0.2, oHi = oLo + r();
+      const a = r() * 3 - 1, b = -r() * 2, sN = r() * 2, c = r() * 3 - 1, d = -r() * 2;
+      const sO = it % 3 === 0 ? sN : r() * 2;
+      const res = trimBoth(lo, hi, a, b, sN, oLo, oHi, c, d, sO, true, out);
+      const fN = (x: number) => sN + Math.hypot(x - a, b), fO = (x: number) => sO + Math.hypot(x - c, d);
+      for (let k = 0; k <= 60; k++) {
+        const x = lo + ((hi - lo) * k) / 60;
+        if ((res & 1 || x < out[0]! - 1e-12 || x > out[1]! + 1e-12) && (!(x >= oLo && x <= oHi) || fN(x) < fO(x) - 1e-9)) { bad++; break; }
+        const y = oLo + ((oHi - oLo) * k) / 60;
+        if ((res & 2 || y < out[2]! - 1e-12 || y > out[3]! + 1e-12) && (!(y >= lo && y <= hi) || fO(y) < fN(y) - 1e-9)) { bad++; break; }
+      }
+    }
+    expect(bad).toBe(0);
   });
 });

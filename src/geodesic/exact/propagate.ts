@@ -38,10 +38,10 @@
 import { next, prev, faceOf } from '../../mesh/topology.js';
 import type { ExactState } from './state.js';
 import { addRoot, relaxVertex, VIA_WINDOW, VIA_VERTEX } from './state.js';
-import { trimInterval } from './trim.js';
+import { trimBoth } from './trim.js';
 import { propagatePlanar } from './planar.js';
 
-const TMP = new Float64Array(2);
+const TMP = new Float64Array(4);
 
 /** Relative slack of the filter and of degenerate-width tests. */
 const REL = 1e-12;
@@ -83,9 +83,9 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     const y = den > 0 ? L - (mx * mx + sy * sy - k * k) / den : NaN;
     if (y > b0 && y < b1) b1 = y;
   }
-  // trim against the windows already on this edge (either side), then trim queued ones against this
+  // trim N against the windows already on this edge (either side) and, in the first pass, queued
+  // ones against N; passes repeat while N shrinks (a cut can expose an overlap with another window)
   const W = s.win, g = t.twin[h]!;
-  // passes repeat until nothing changes: a cut by one window can expose an overlap with another
   for (let pass = 0, changed = !flat; changed && pass < 8; pass++) {
     changed = false;
     for (let side = 0; side < 2; side++) {
@@ -96,7 +96,13 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
         const oLo = side === 0 ? W.b0[o]! : L - W.b1[o]!, oHi = side === 0 ? W.b1[o]! : L - W.b0[o]!;
         if (!(oHi > b0 && oLo < b1)) continue;
         const oc = side === 0 ? W.sx[o]! : L - W.sx[o]!;
-        if (!trimInterval(b0, b1, sx, sy, sigma, oLo, oHi, oc, W.sy[o]!, W.sigma[o]!, TMP)) return -1;
+        const r = trimBoth(b0, b1, sx, sy, sigma, oLo, oHi, oc, W.sy[o]!, W.sigma[o]!, pass === 0 && W.state[o] === 0, TMP);
+        if (r & 2 || (TMP[2] !== oLo || TMP[3] !== oHi)) {
+          if (r & 2 || !(TMP[3]! - TMP[2]! > REL * L)) W.state[o] = 2;
+          else if (side === 0) { W.b0[o] = TMP[2]!; W.b1[o] = TMP[3]!; }
+          else { W.b0[o] = L - TMP[3]!; W.b1[o] = L - TMP[2]!; }
+        }
+        if (r & 1) return -1;
         if (TMP[0] !== b0 || TMP[1] !== b1) changed = true;
         b0 = TMP[0]!; b1 = TMP[1]!;
       }
@@ -111,22 +117,6 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
   if (W.count >= s.maxWindows) {
     s.overflow = true;
     return -1;
-  }
-  for (let side = 0; side < 2 && !flat; side++) {
-    const e = side === 0 ? h : g;
-    if (e < 0) continue;
-    for (let o = W.heHead[e]!; o >= 0; o = W.nextOnHe[o]!) {
-      if (W.state[o] !== 0 || W.flat[o]) continue;
-      const oLo = side === 0 ? W.b0[o]! : L - W.b1[o]!, oHi = side === 0 ? W.b1[o]! : L - W.b0[o]!;
-      const oc = side === 0 ? W.sx[o]! : L - W.sx[o]!;
-      if (!trimInterval(oLo, oHi, oc, W.sy[o]!, W.sigma[o]!, b0, b1, sx, sy, sigma, TMP) || !(TMP[1]! - TMP[0]! > REL * L)) {
-        W.state[o] = 2;
-      } else if (side === 0) {
-        W.b0[o] = TMP[0]!; W.b1[o] = TMP[1]!;
-      } else {
-        W.b0[o] = L - TMP[1]!; W.b1[o] = L - TMP[0]!;
-      }
-    }
   }
   // a queued window on this half-edge with the same image and σ that touches N: grow it instead
   const tolI = MERGE * (L + Math.abs(sx) + Math.abs(sy) + Math.abs(sigma));

@@ -80,7 +80,7 @@ export function createState(mesh: IntrinsicMesh, maxDistance: number, maxWindows
     viaId: new Int32Array(t.nv).fill(-1),
     settled: new Uint8Array(t.nv),
     pseudo: new Uint8Array(t.nv),
-    win: new WindowStore(t.nf, capacity),
+    win: new WindowStore(t.nf, capacity, maxWindows),
     queue: new EventQueue(capacity),
     rootVertex: new Int32Array(64),
     rootSigma: new Float64Array(64),

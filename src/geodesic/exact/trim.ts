@@ -97,3 +97,92 @@ export function trimInterval(
   if (!(out[1] > out[0])) return false;
   return true;
 }
+
+/**
+ * Trims N and O against each other in one pass over their overlap (one
+ * solve of D's zeros): N loses a prefix/suffix where it is worse than O, and
+ * O (when `trimO`) a prefix/suffix where it is worse than N. Writes N's
+ * interval to out[0], out[1] and O's to out[2], out[3]; returns a bit set:
+ * 1 when N is worse on all of its interval, 2 when O is.
+ */
+export function trimBoth(
+  lo: number, hi: number, a: number, b: number, sN: number,
+  oLo: number, oHi: number, c: number, d: number, sO: number,
+  trimO: boolean, out: Float64Array,
+): number {
+  out[0] = lo; out[1] = hi; out[2] = oLo; out[3] = oHi;
+  const p = lo > oLo ? lo : oLo, q = hi < oHi ? hi : oHi;
+  if (!(q > p)) return 0;
+  const fNp = sN + Math.hypot(p - a, b), fNq = sN + Math.hypot(q - a, b);
+  const fOp = sO + Math.hypot(p - c, d), fOq = sO + Math.hypot(q - c, d);
+  const dp = fNp - fOp, dq = fNq - fOq;
+  // which prefix/suffix cuts are possible at all (see trimInterval)
+  const nPre = p <= lo && dp > -SLACK * fNp, nSuf = q >= hi && dq > -SLACK * fNq;
+  const oPre = trimO && p <= oLo && -dp > -SLACK * fOp, oSuf = trimO && q >= oHi && -dq > -SLACK * fOq;
+  if (!nPre && !nSuf && !oPre && !oSuf) return 0;
+  const n = pieces(p, q, a, b, sN, c, d, sO);
+  let res = 0;
+  if (nPre || nSuf) res |= cut(n, 1, lo, hi, p, q, out, 0);
+  if (oPre || oSuf) res |= cut(n, 2, oLo, oHi, p, q, out, 2) << 1;
+  return res;
+}
+
+/** Sign of D on each piece between the zeros: 1 = N worse, 2 = O worse, 0 = near tie. */
+const side = new Uint8Array(3);
+
+/** Splits [p, q] at the zeros of D = f_N − f_O and classifies the pieces; returns the piece count. */
+function pieces(p: number, q: number, a: number, b: number, sN: number, c: number, d: number, sO: number): number {
+  const A = a - p, C = c - p;
+  const dl = sO - sN;
+  const al = 2 * (C - A);
+  const be = A * A - C * C + b * b - d * d - dl * dl;
+  const q2 = al * al - 4 * dl * dl, q1 = 2 * al * be + 8 * dl * dl * C, q0 = be * be - 4 * dl * dl * (C * C + d * d);
+  const span = q - p;
+  let r1 = NaN, r2 = NaN;
+  if (Math.abs(dl) <= 1e-15 * (sN + sO + span)) {
+    if (al !== 0) r1 = -be / al;
+  } else if (Math.abs(q2) * span * span <= 1e-14 * (Math.abs(q1) * span + Math.abs(q0))) {
+    if (q1 !== 0) r1 = -q0 / q1;
+  } else {
+    let disc = q1 * q1 - 4 * q2 * q0;
+    if (disc < 0 && disc > -1e-12 * q1 * q1) disc = 0;
+    if (disc >= 0) {
+      const qq = -0.5 * (q1 + (q1 >= 0 ? 1 : -1) * Math.sqrt(disc));
+      if (qq !== 0) {
+        r1 = qq / q2; r2 = q0 / qq;
+        if (r2 < r1) { const x = r1; r1 = r2; r2 = x; }
+      } else r1 = 0;
+    }
+  }
+  let n = 0;
+  bp[n++] = p;
+  if (r1 > 0 && r1 < span) bp[n++] = r1 + p;
+  if (r2 > 0 && r2 < span && r2 > r1) bp[n++] = r2 + p;
+  bp[n++] = q;
+  for (let i = 0; i + 1 < n; i++) {
+    const x0 = bp[i]!, x1 = bp[i + 1]!, m = 0.5 * (x0 + x1);
+    const fN = sN + Math.hypot(m - a, b), fO = sO + Math.hypot(m - c, d);
+    const e0 = sN + Math.hypot(x0 - a, b) - sO - Math.hypot(x0 - c, d);
+    const e1 = sN + Math.hypot(x1 - a, b) - sO - Math.hypot(x1 - c, d);
+    const tN = SLACK * fN, tO = SLACK * fO;
+    side[i] = fN - fO > tN && e0 > -tN && e1 > -tN ? 1 : fO - fN > tO && -e0 > -tO && -e1 > -tO ? 2 : 0;
+  }
+  return n - 1;
+}
+
+/** Cuts the prefix/suffix of [lo, hi] lying in pieces of side `who`; writes out[o], out[o+1]; returns 1 if nothing is left. */
+function cut(np: number, who: number, lo: number, hi: number, p: number, q: number, out: Float64Array, o: number): number {
+  let k = 0;
+  while (k < np && side[k] === who) k++;
+  if (k === np) {
+    if (p <= lo && q >= hi) return 1;
+    if (p <= lo) out[o] = q;
+    else if (q >= hi) out[o + 1] = p;
+  } else {
+    let j = np - 1;
+    while (j >= 0 && side[j] === who) j--;
+    if (p <= lo && k > 0) out[o] = bp[k]!;
+    if (q >= hi && j < np - 1) out[o + 1] = bp[j + 1]!;
+  }
+  return out[o + 1]! > out[o]! ? 0 : 1;
+}

@@ -44,9 +44,16 @@ export class WindowStore {
   /** First window on each half-edge, −1 when none. */
   readonly heHead: Int32Array;
 
-  /** @param nf - number of faces; @param capacity - initial capacity (grows by doubling) */
-  constructor(nf: number, capacity: number) {
-    const c = Math.max(64, capacity);
+  private readonly maxCapacity: number;
+
+  /**
+   * @param nf - number of faces
+   * @param capacity - initial capacity (grows by doubling)
+   * @param maxCapacity - growth never goes past this (the run's window cap)
+   */
+  constructor(nf: number, capacity: number, maxCapacity = Infinity) {
+    const c = Math.max(64, Math.min(capacity, maxCapacity));
+    this.maxCapacity = Math.max(c, maxCapacity);
     this.he = new Int32Array(c);
     this.b0 = new Float64Array(c);
     this.b1 = new Float64Array(c);
@@ -79,7 +86,7 @@ export class WindowStore {
   }
 
   private grow(): void {
-    const c = 2 * this.he.length;
+    const c = Math.min(2 * this.he.length, this.maxCapacity);
     const gi = (a: Int32Array) => { const b = new Int32Array(c); b.set(a); return b; };
     const gf = (a: Float64Array) => { const b = new Float64Array(c); b.set(a); return b; };
     this.he = gi(this.he); this.parent = gi(this.parent); this.nextOnHe = gi(this.nextOnHe);
