@@ -148,8 +148,8 @@ function tokenAt(b: Uint8Array, p: number): string {
 }
 
 /**
- * Scan state of one file. The per-statement readers below are small
- * functions called once per line, so the engine optimizes them as ordinary
+ * Scan state of one file. The readers below each take a run of statements of
+ * one kind and are ordinary functions, so the engine optimizes them as whole
  * calls; a single function holding the whole loop would be optimized
  * mid-loop and thrown back at its never-run epilogue on every file.
  */
@@ -225,114 +225,134 @@ function scanStatements(s: ObjScan): void {
     const c1 = b[p + 1];
     // A keyword ends at a blank, a newline or the end of the file.
     const kwEnd = c1 === 32 || c1 === 9 || c1 === 10 || c1 === 13 || c1 === undefined;
-    if (c === 118 && kwEnd) p = vertexStatement(s, p + 1);
-    else if (c === 102 && kwEnd) p = faceStatement(s, p + 1);
+    if (c === 118 && kwEnd) p = vertexRun(s, p + 1);
+    else if (c === 102 && kwEnd) p = faceRun(s, p + 1);
     else { p = skipLine(b, p); continue; }
     if (p < n && b[p] !== 10) p = skipLine(b, p);
     else p++;
   }
 }
 
-/** Reads `x y z [w]` or `x y z r g b` from `p`; returns the offset of the statement's end. */
-function vertexStatement(s: ObjScan, p: number): number {
-  const b = s.b, n = b.length, nv = s.nv;
-  if (3 * nv + 3 > s.pos.length) s.pos = grow(s.pos, 3 * nv, p, n);
-  const pos = s.pos;
-  let k = 0, r = 0, g = 0, bl = 0;
+/**
+ * Reads `v` statements (`x y z [w]` or `x y z r g b`) from `p` (just after
+ * the keyword) for as long as the next line starts with `v `; returns the
+ * offset where the last statement ends.
+ */
+function vertexRun(s: ObjScan, p: number): number {
+  const b = s.b, n = b.length;
+  let nv = s.nv, pos = s.pos;
   for (;;) {
-    if (b[p] === 32) p++;
-    if (b[p]! < 33 || b[p] === 92) p = skipBlank(b, p);
-    if (p >= n || b[p] === 10 || b[p] === 35 || b[p] === 13) break;
-    // Common form `[-]digits[.digits]` then a blank or newline, read inline
-    // (exact: m <= 2^53 and at most 22 decimals); anything else via scanReal.
-    let q = p, c = b[p]!, m = 0, v: number;
-    const neg = c === 45;
-    if (neg) c = b[++q]!;
-    const d0 = q;
-    while (c >= 48 && c <= 57) { m = m * 10 + (c - 48); c = b[++q]!; }
-    const id = q - d0;
-    let fd = 0;
-    if (c === 46) {
-      const f0 = ++q;
-      c = b[q]!;
+    if (3 * nv + 3 > pos.length) pos = s.pos = grow(pos, 3 * nv, p, n);
+    let k = 0, r = 0, g = 0, bl = 0;
+    for (;;) {
+      if (b[p] === 32) p++;
+      if (b[p]! < 33 || b[p] === 92) p = skipBlank(b, p);
+      if (p >= n || b[p] === 10 || b[p] === 35 || b[p] === 13) break;
+      // Common form `[-]digits[.digits]` then a blank or newline, read inline
+      // (exact: m <= 2^53 and at most 22 decimals); anything else via scanReal.
+      let q = p, c = b[p]!, m = 0, v: number;
+      const neg = c === 45;
+      if (neg) c = b[++q]!;
+      const d0 = q;
       while (c >= 48 && c <= 57) { m = m * 10 + (c - 48); c = b[++q]!; }
-      fd = q - f0;
+      const id = q - d0;
+      let fd = 0;
+      if (c === 46) {
+        const f0 = ++q;
+        c = b[q]!;
+        while (c >= 48 && c <= 57) { m = m * 10 + (c - 48); c = b[++q]!; }
+        fd = q - f0;
+      }
+      if (id + fd > 0 && m <= 9007199254740992 && fd <= 22 && (c === 32 || c === 10 || c === 13 || c === 9 || q >= n)) {
+        v = fd === 0 ? m : m / POW10[fd]!;
+        if (neg) v = -v;
+        p = q;
+      } else {
+        v = scanReal(b, p);
+        if (scanCursor.bad) fail(b, p, s.name, `malformed number ${tokenAt(b, p)}`);
+        if (!Number.isFinite(v)) fail(b, p, s.name, `non-finite coordinate ${tokenAt(b, p)}`);
+        p = scanCursor.pos;
+      }
+      if (k < 3) pos[3 * nv + k] = v;
+      else if (k === 3) r = v;
+      else if (k === 4) g = v;
+      else if (k === 5) bl = v;
+      k++;
     }
-    if (id + fd > 0 && m <= 9007199254740992 && fd <= 22 && (c === 32 || c === 10 || c === 13 || c === 9 || q >= n)) {
-      v = fd === 0 ? m : m / POW10[fd]!;
-      if (neg) v = -v;
-      p = q;
-    } else {
-      v = scanReal(b, p);
-      if (scanCursor.bad) fail(b, p, s.name, `malformed number ${tokenAt(b, p)}`);
-      if (!Number.isFinite(v)) fail(b, p, s.name, `non-finite coordinate ${tokenAt(b, p)}`);
-      p = scanCursor.pos;
+    if (k !== 3 && k !== 4 && k !== 6) fail(b, p - 1, s.name, `vertex has ${k} numbers (expected 3, 4 or 6)`);
+    if (k === 6) {
+      let rgb = s.rgb;
+      if (rgb === null || rgb.length < pos.length) {
+        const t = new Float64Array(pos.length);
+        if (rgb !== null) t.set(rgb);
+        s.rgb = rgb = t;
+      }
+      rgb[3 * nv] = r; rgb[3 * nv + 1] = g; rgb[3 * nv + 2] = bl;
+      s.colored++;
     }
-    if (k < 3) pos[3 * nv + k] = v;
-    else if (k === 3) r = v;
-    else if (k === 4) g = v;
-    else if (k === 5) bl = v;
-    k++;
+    nv++;
+    const q = b[p] === 13 ? p + 1 : p;
+    if (b[q] === 10 && b[q + 1] === 118 && (b[q + 2] === 32 || b[q + 2] === 9)) p = q + 2;
+    else break;
   }
-  if (k !== 3 && k !== 4 && k !== 6) fail(b, p - 1, s.name, `vertex has ${k} numbers (expected 3, 4 or 6)`);
-  if (k === 6) {
-    let rgb = s.rgb;
-    if (rgb === null || rgb.length < pos.length) {
-      const t = new Float64Array(pos.length);
-      if (rgb !== null) t.set(rgb);
-      s.rgb = rgb = t;
-    }
-    rgb[3 * nv] = r; rgb[3 * nv + 1] = g; rgb[3 * nv + 2] = bl;
-    s.colored++;
-  }
-  s.nv = nv + 1;
+  s.nv = nv;
   return p;
 }
 
-/** Reads the corners of an `f` statement from `p`; returns the offset of the statement's end. */
-function faceStatement(s: ObjScan, p: number): number {
+/**
+ * Reads `f` statements from `p` (just after the keyword) for as long as the
+ * next line starts with `f `, keeping the buffers in locals meanwhile;
+ * returns the offset where the last statement ends.
+ */
+function faceRun(s: ObjScan, p: number): number {
   const b = s.b, n = b.length, nv = s.nv;
-  let ni = s.ni, idx = s.idx, k = 0, maxIdx = s.maxIdx;
+  let ni = s.ni, idx = s.idx, nf = s.nf, off = s.off, maxIdx = s.maxIdx, maxAt = s.maxAt;
   for (;;) {
-    if (b[p] === 32) p++;
-    if (b[p]! < 33 || b[p] === 92) p = skipBlank(b, p);
-    if (p >= n || b[p] === 10 || b[p] === 35 || b[p] === 13) break;
-    const t0 = p;
-    let neg = false;
-    if (b[p] === 45) { neg = true; p++; }
-    // Digits as an integer; past 2^53 it is inexact but far out of range anyway.
-    let v = 0;
-    const d0 = p;
-    for (let ch = b[p]!; ch >= 48 && ch <= 57; ch = b[++p]!) v = v * 10 + (ch - 48);
-    if (p === d0) fail(b, t0, s.name, `malformed vertex index ${tokenAt(b, t0)}`);
-    if (v > 4294967295) fail(b, t0, s.name, `vertex index ${tokenAt(b, t0)} out of range`);
-    // Texture and normal references: `/t`, `//n`, `/t/n`; checked for form only.
-    for (let part = 0; part < 2 && b[p] === 47; part++) {
-      p++;
-      if (b[p] === 45) p++;
-      while (p < n && b[p]! >= 48 && b[p]! <= 57) p++;
+    let k = 0;
+    for (;;) {
+      if (b[p] === 32) p++;
+      if (b[p]! < 33 || b[p] === 92) p = skipBlank(b, p);
+      if (p >= n || b[p] === 10 || b[p] === 35 || b[p] === 13) break;
+      const t0 = p;
+      let neg = false;
+      if (b[p] === 45) { neg = true; p++; }
+      // Digits as an integer; past 2^53 it is inexact but far out of range anyway.
+      let v = 0;
+      const d0 = p;
+      for (let ch = b[p]!; ch >= 48 && ch <= 57; ch = b[++p]!) v = v * 10 + (ch - 48);
+      if (p === d0) fail(b, t0, s.name, `malformed vertex index ${tokenAt(b, t0)}`);
+      if (v > 4294967295) fail(b, t0, s.name, `vertex index ${tokenAt(b, t0)} out of range`);
+      // Texture and normal references: `/t`, `//n`, `/t/n`; checked for form only.
+      for (let part = 0; part < 2 && b[p] === 47; part++) {
+        p++;
+        if (b[p] === 45) p++;
+        while (p < n && b[p]! >= 48 && b[p]! <= 57) p++;
+      }
+      const e = b[p];
+      if (p < n && !(e === 32 || e === 9 || e === 13 || e === 10 || e === 35 || e === 92 || e === 11 || e === 12)) {
+        fail(b, t0, s.name, `malformed face corner ${tokenAt(b, t0)}`);
+      }
+      let i: number;
+      if (v === 0) fail(b, t0, s.name, 'vertex index 0 (OBJ indices start at 1)');
+      if (neg) {
+        i = nv - v;
+        if (i < 0) fail(b, t0, s.name, `relative vertex index -${v} reaches before the first vertex (${nv} so far)`);
+      } else {
+        i = v - 1;
+        if (i > maxIdx) { maxIdx = i; maxAt = t0; }
+      }
+      if (ni >= idx.length) idx = grow(idx, ni, p, n);
+      idx[ni++] = i;
+      k++;
     }
-    const e = b[p];
-    if (p < n && !(e === 32 || e === 9 || e === 13 || e === 10 || e === 35 || e === 92 || e === 11 || e === 12)) {
-      fail(b, t0, s.name, `malformed face corner ${tokenAt(b, t0)}`);
-    }
-    let i: number;
-    if (v === 0) fail(b, t0, s.name, 'vertex index 0 (OBJ indices start at 1)');
-    if (neg) {
-      i = nv - v;
-      if (i < 0) fail(b, t0, s.name, `relative vertex index -${v} reaches before the first vertex (${nv} so far)`);
-    } else {
-      i = v - 1;
-      if (i > maxIdx) { s.maxIdx = maxIdx = i; s.maxAt = t0; }
-    }
-    if (ni >= idx.length) s.idx = idx = grow(idx, ni, p, n);
-    idx[ni++] = i;
-    k++;
+    if (k < 3) fail(b, p - 1, s.name, `face has ${k} ${k === 1 ? 'vertex' : 'vertices'} (at least 3 needed)`);
+    if (nf + 2 > off.length) off = grow(off, nf + 1, p, n);
+    off[++nf] = ni;
+    const q = b[p] === 13 ? p + 1 : p;
+    if (b[q] === 10 && b[q + 1] === 102 && (b[q + 2] === 32 || b[q + 2] === 9)) p = q + 2;
+    else break;
   }
-  if (k < 3) fail(b, p - 1, s.name, `face has ${k} ${k === 1 ? 'vertex' : 'vertices'} (at least 3 needed)`);
-  if (s.nf + 2 > s.off.length) s.off = grow(s.off, s.nf + 1, p, n);
-  s.off[++s.nf] = ni;
-  s.ni = ni;
+  s.ni = ni; s.idx = idx; s.nf = nf; s.off = off; s.maxIdx = maxIdx; s.maxAt = maxAt;
   return p;
 }
 
