@@ -91,8 +91,15 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     for (let side = 0; side < 2; side++) {
       const e = side === 0 ? h : g;
       if (e < 0) continue;
-      for (let o = W.heHead[e]!; o >= 0; o = W.nextOnHe[o]!) {
-        if (W.state[o] === 2 || W.flat[o]) continue;
+      for (let o = W.heHead[e]!, before = -1; o >= 0; o = W.nextOnHe[o]!) {
+        if (W.state[o] === 2) {
+          // unlink dead windows as they are met (lists stay short; nothing else refers to them)
+          if (before < 0) W.heHead[e] = W.nextOnHe[o]!;
+          else W.nextOnHe[before] = W.nextOnHe[o]!;
+          continue;
+        }
+        before = o;
+        if (W.flat[o]) continue;
         const oLo = side === 0 ? W.b0[o]! : L - W.b1[o]!, oHi = side === 0 ? W.b1[o]! : L - W.b0[o]!;
         if (!(oHi > b0 && oLo < b1)) continue;
         const oc = side === 0 ? W.sx[o]! : L - W.sx[o]!;
