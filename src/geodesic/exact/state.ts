@@ -37,7 +37,9 @@ export interface PointRoot {
 
 /** Everything a run reads and writes. */
 export interface ExactState {
+  /** The mesh being solved. */
   readonly mesh: IntrinsicMesh;
+  /** Its topology. */
   readonly t: Topology;
   /** Length of each half-edge. */
   readonly hl: Float64Array;
@@ -45,21 +47,29 @@ export interface ExactState {
   readonly hc: Float64Array;
   /** Upper bound on the distance of each vertex; exact once settled. */
   readonly dist: Float64Array;
+  /** How each bound was reached (VIA_* constants). */
   readonly viaType: Uint8Array;
+  /** Window, root or vertex id for `viaType`. */
   readonly viaId: Int32Array;
+  /** 1 once a vertex's event was processed (its bound is final). */
   readonly settled: Uint8Array;
   /** 1 for vertices that emit windows when settled (sources, saddles, boundary vertices). */
   readonly pseudo: Uint8Array;
+  /** All windows. */
   readonly win: WindowStore;
+  /** Windows (id ≥ 0) and vertex events (−1 − v) by key. */
   readonly queue: EventQueue;
-  /** Root r: vertex (−1 for a point source) and its distance σ. */
+  /** Vertex of root r (−1 for a point source or curve segment). */
   rootVertex: Int32Array;
+  /** Distance σ of root r. */
   rootSigma: Float64Array;
+  /** Number of roots. */
   nRoots: number;
   /** Point sources off the vertices. */
   pointRoots: PointRoot[];
   /** Windows beyond this key are not stored. */
   readonly maxDistance: number;
+  /** Window cap. */
   readonly maxWindows: number;
   /** Set when the window cap tripped. */
   overflow: boolean;

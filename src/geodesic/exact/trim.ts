@@ -21,7 +21,6 @@
 const SLACK = 1e-10;
 
 const bp = new Float64Array(4);
-const worse = new Uint8Array(3);
 
 /**
  * Shrinks N's interval [lo, hi] to exclude a prefix/suffix where it is worse
@@ -33,70 +32,12 @@ export function trimInterval(
   oLo: number, oHi: number, c: number, d: number, sO: number,
   out: Float64Array,
 ): boolean {
-  out[0] = lo; out[1] = hi;
-  const p = lo > oLo ? lo : oLo, q = hi < oHi ? hi : oHi;
-  if (!(q > p)) return true;
-  // only a prefix (overlap starting at lo) or a suffix (ending at hi) can be cut, and only where
-  // N is not clearly better at that end: test the ends before solving anything
-  const fp = sN + Math.hypot(p - a, b), fq = sN + Math.hypot(q - a, b);
-  const dp = fp - sO - Math.hypot(p - c, d), dq = fq - sO - Math.hypot(q - c, d);
-  if (!(p <= lo && dp > -SLACK * fp) && !(q >= hi && dq > -SLACK * fq)) return true;
-  // zeros of D in coordinates relative to p (keeps large map coordinates accurate)
-  const A = a - p, C = c - p;
-  const dl = sO - sN;
-  const al = 2 * (C - A);
-  const be = A * A - C * C + b * b - d * d - dl * dl;
-  const q2 = al * al - 4 * dl * dl, q1 = 2 * al * be + 8 * dl * dl * C, q0 = be * be - 4 * dl * dl * (C * C + d * d);
-  let n = 0;
-  bp[n++] = p;
-  const span = q - p;
-  let r1 = NaN, r2 = NaN;
-  if (Math.abs(dl) <= 1e-15 * (sN + sO + span)) {
-    // equal σ: the zero set is the perpendicular bisector of the images, αx + β = 0
-    if (al !== 0) r1 = -be / al;
-  } else if (Math.abs(q2) * span * span <= 1e-14 * (Math.abs(q1) * span + Math.abs(q0))) {
-    if (q1 !== 0) r1 = -q0 / q1;
-  } else {
-    let disc = q1 * q1 - 4 * q2 * q0;
-    if (disc < 0 && disc > -1e-12 * q1 * q1) disc = 0; // a double root lost to rounding
-    if (disc >= 0) {
-      const qq = -0.5 * (q1 + (q1 >= 0 ? 1 : -1) * Math.sqrt(disc));
-      if (qq !== 0) {
-        r1 = qq / q2; r2 = q0 / qq;
-        if (r2 < r1) { const x = r1; r1 = r2; r2 = x; }
-      } else r1 = 0;
-    }
-  }
-  // zeros strictly inside (p, q), in increasing order (NaN fails both tests)
-  if (r1 > 0 && r1 < span) bp[n++] = r1 + p;
-  if (r2 > 0 && r2 < span && r2 > r1) bp[n++] = r2 + p;
-  bp[n++] = q;
-  // worse[i]: N loses to O on the whole piece [bp[i], bp[i+1]] (D keeps its sign between zeros)
-  const pieces = n - 1;
-  for (let i = 0; i < pieces; i++) {
-    const m = 0.5 * (bp[i]! + bp[i + 1]!);
-    const fN = sN + Math.hypot(m - a, b), fO = sO + Math.hypot(m - c, d);
-    // also not clearly better at either end: a zero missed to rounding cannot hide a better stretch
-    const x0 = bp[i]!, x1 = bp[i + 1]!;
-    const e0 = sN + Math.hypot(x0 - a, b) - sO - Math.hypot(x0 - c, d);
-    const e1 = sN + Math.hypot(x1 - a, b) - sO - Math.hypot(x1 - c, d);
-    worse[i] = fN - fO > SLACK * fN && e0 > -SLACK * fN && e1 > -SLACK * fN ? 1 : 0;
-  }
-  let k = 0;
-  while (k < pieces && worse[k]) k++;
-  if (k === pieces) {
-    if (p <= lo && q >= hi) return false;
-    if (p <= lo) out[0] = q;
-    else if (q >= hi) out[1] = p;
-  } else {
-    let j = pieces - 1;
-    while (j >= 0 && worse[j]) j--;
-    if (p <= lo && k > 0) out[0] = bp[k]!;
-    if (q >= hi && j < pieces - 1) out[1] = bp[j + 1]!;
-  }
-  if (!(out[1] > out[0])) return false;
-  return true;
+  const r = trimBoth(lo, hi, a, b, sN, oLo, oHi, c, d, sO, false, PAIR);
+  out[0] = PAIR[0]!; out[1] = PAIR[1]!;
+  return (r & 1) === 0;
 }
+
+const PAIR = new Float64Array(4);
 
 /**
  * Trims N and O against each other in one pass over their overlap (one

@@ -29,13 +29,21 @@
 export class WindowStore {
   /** Number of windows stored. */
   count = 0;
+  /** Half-edge each window lies on. */
   he: Int32Array;
+  /** Interval start along the half-edge, from its tail. */
   b0: Float64Array;
+  /** Interval end along the half-edge, from its tail. */
   b1: Float64Array;
+  /** Image x (or direction x for planar windows) in the half-edge frame. */
   sx: Float64Array;
+  /** Image y ≤ 0 (or direction y > 0 for planar windows). */
   sy: Float64Array;
+  /** Distance σ at the image (or offset c for planar windows). */
   sigma: Float64Array;
+  /** Window propagated from (≥ 0) or −1 − root; for diagnostics (back-tracing walks the geometry). */
   parent: Int32Array;
+  /** Next window on the same half-edge, −1 at the end. */
   nextOnHe: Int32Array;
   /** 0 queued, 1 propagated, 2 dead (trimmed away before propagation). */
   state: Uint8Array;
