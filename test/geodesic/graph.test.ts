@@ -2,7 +2,7 @@ import { describe, it, expect } from 'vitest';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import { graphDistance, IndexedMinHeap } from '../../src/geodesic/graph.js';
-import { pointSources } from '../../src/geodesic/sources.js';
+import { pointSources, boundaryCurves } from '../../src/geodesic/sources.js';
 import { flatGrid, icosphere, rng } from '../fixtures/shapes.js';
 
 function meshOf(s: { positions: Float64Array; triangles: Uint32Array }) {
@@ -75,5 +75,23 @@ describe('graphDistance', () => {
     const out: number[] = [];
     while (h.size) out.push(key[h.pop()]!);
     expect(out).toEqual([...key].sort((a, b) => a - b));
+  });
+});
+
+describe('graphDistance: curve sources', () => {
+  it('a segment inside a face seeds its corners with the point-to-segment distance; the boundary loop seeds 0 (elementary)', () => {
+    const m = meshOf(flatGrid(4, 4, 1, 1));
+    // face 0 = (0,0),(0.25,0),(0.25,0.25): a segment from its centroid to the midpoint of edge (0,0)-(0.25,0.25)
+    const seg = [
+      { kind: 'face' as const, face: 0, bary: [1 / 3, 1 / 3, 1 / 3] as [number, number, number] },
+      { kind: 'face' as const, face: 0, bary: [0.5, 0, 0.5] as [number, number, number] },
+    ];
+    const d = graphDistance(m, { points: [], curves: [seg] }).distance;
+    // segment from (1/6, 1/12) to (1/8, 1/8); distance from (0.25, 0): nearest point is the first end
+    expect(d[1]).toBeCloseTo(Math.hypot(0.25 - 1 / 6, 1 / 12), 12);
+    const loop = graphDistance(m, { points: [], curves: boundaryCurves(m.topology) }).distance;
+    expect(loop[0]).toBe(0);
+    expect(loop[6]).toBeCloseTo(0.25, 12); // vertex 6 = (0.25, 0.25) is one cell from the boundary
+    expect(loop[12]).toBeCloseTo(0.5, 12); // the centre (0.5, 0.5)
   });
 });
