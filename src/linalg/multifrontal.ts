@@ -71,7 +71,12 @@ export function multifrontalFactor(
     const nc = l - f;
     const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
     for (let r = 0; r < nr; r++) pos[rows[r0 + r]!] = r;
-    for (let r = 0; r < nr; r++) F.fill(0, r * nr, r * nr + r + 1); // lower triangle only
+    // zero the lower triangle (short rows by hand: fill() costs a call per row)
+    if (nr <= 32) {
+      for (let r = 0, q = 0; r < nr; r++, q += nr) for (let c = 0; c <= r; c++) F[q + c] = 0;
+    } else {
+      for (let r = 0; r < nr; r++) F.fill(0, r * nr, r * nr + r + 1);
+    }
     // assemble the columns of C owned by s: F(pos i, j − f) = C(i, j)
     for (let j = f; j < l; j++) {
       const jc = j - f;
@@ -86,9 +91,18 @@ export function multifrontalFactor(
       for (let a = 0; a < m; a++) rel[a] = pos[rows[cr0 + a]!]!;
       // packed row a of U_c starts at a(a+1)/2; its columns map through rel
       let u = stackTop;
-      for (let a = 0; a < m; a++) {
-        const ra = rel[a]! * nr;
-        for (let b = 0; b <= a; b++) F[ra + rel[b]!]! += stack[u++]!;
+      if (rel[m - 1]! - rel[0]! === m - 1) {
+        // the child's rows are consecutive in the parent: plain row additions
+        const c0 = rel[0]!;
+        for (let a = 0; a < m; a++) {
+          const ra = (c0 + a) * nr + c0;
+          for (let b = 0; b <= a; b++) F[ra + b]! += stack[u++]!;
+        }
+      } else {
+        for (let a = 0; a < m; a++) {
+          const ra = rel[a]! * nr;
+          for (let b = 0; b <= a; b++) F[ra + rel[b]!]! += stack[u++]!;
+        }
       }
     }
     const bad = factorFront(F, nr, nc, simd);
