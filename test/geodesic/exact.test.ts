@@ -10,7 +10,7 @@
 import { describe, it, expect } from 'vitest';
 import { test, fc } from '@fast-check/vitest';
 import { buildTopology } from '../../src/mesh/build.js';
-import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
+import { intrinsicFromPositions, intrinsicFromLengths } from '../../src/metric/intrinsic.js';
 import type { IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { exactDistance } from '../../src/geodesic/exact/index.js';
 import { graphDistance } from '../../src/geodesic/graph.js';
@@ -260,5 +260,24 @@ describe('exact distance: numerical robustness', () => {
     expect(p.points.some((q) => q.kind === 'vertex' && q.vertex === 0)).toBe(true);
     expect(p.length).toBeCloseTo(r.field.distance[id(2, k / 2)]!, 10);
     expect(r.field.distance[id(2, k / 2)]).toBeCloseTo(2 * Math.hypot(2, 1.6), 10); // straight in and out: 2·|(2, 0, ±1.6)|
+  });
+
+  it('degenerate faces (collinear corners, lengths breaking the triangle inequality): finite, non-negative, never NaN', () => {
+    const g = flatGrid(6, 6, 1, 1);
+    // move vertex 24 = (0.5, 0.5) onto its neighbour 17 = (0.5, 1/3): a zero-length edge, zero-area faces
+    g.positions[3 * 24 + 1] = 1 / 3;
+    const m = meshOf(g);
+    const bad = intrinsicFromLengths(m.topology, m.edgeLength.map((l, e) => (e === 40 ? 3 * l : l)));
+    for (const mesh of [m, bad]) {
+      const r = exactDistance(mesh, pointSources([V(0)]));
+      for (const d of r.field.distance) {
+        expect(Number.isNaN(d)).toBe(false);
+        expect(d).toBeGreaterThanOrEqual(0);
+        expect(d).toBeLessThan(Infinity);
+      }
+      const p = r.pathTo(V(48));
+      expect(Number.isFinite(p.length)).toBe(true);
+      expect(isSurfacePath(mesh.topology, p.points)).toBe(true);
+    }
   });
 });
