@@ -310,26 +310,27 @@ function faceRun(s: ObjScan, p: number): number {
   for (;;) {
     let k = 0;
     for (;;) {
-      if (b[p] === 32) p++;
-      if (b[p]! < 33 || b[p] === 92) p = skipBlank(b, p);
-      if (p >= n || b[p] === 10 || b[p] === 35 || b[p] === 13) break;
+      // c is always b[p]: one load per byte.
+      let c = b[p]!;
+      if (c === 32) c = b[++p]!;
+      if (c < 33 || c === 92) { p = skipBlank(b, p); c = b[p]!; }
+      if (p >= n || c === 10 || c === 35 || c === 13) break;
       const t0 = p;
-      let neg = false;
-      if (b[p] === 45) { neg = true; p++; }
+      const neg = c === 45;
+      if (neg) c = b[++p]!;
       // Digits as an integer; past 2^53 it is inexact but far out of range anyway.
       let v = 0;
       const d0 = p;
-      for (let ch = b[p]!; ch >= 48 && ch <= 57; ch = b[++p]!) v = v * 10 + (ch - 48);
+      while (c >= 48 && c <= 57) { v = v * 10 + (c - 48); c = b[++p]!; }
       if (p === d0) fail(b, t0, s.name, `malformed vertex index ${tokenAt(b, t0)}`);
       if (v > 4294967295) fail(b, t0, s.name, `vertex index ${tokenAt(b, t0)} out of range`);
       // Texture and normal references: `/t`, `//n`, `/t/n`; checked for form only.
-      for (let part = 0; part < 2 && b[p] === 47; part++) {
-        p++;
-        if (b[p] === 45) p++;
-        while (p < n && b[p]! >= 48 && b[p]! <= 57) p++;
+      for (let part = 0; part < 2 && c === 47; part++) {
+        c = b[++p]!;
+        if (c === 45) c = b[++p]!;
+        while (c >= 48 && c <= 57) c = b[++p]!;
       }
-      const e = b[p];
-      if (p < n && !(e === 32 || e === 9 || e === 13 || e === 10 || e === 35 || e === 92 || e === 11 || e === 12)) {
+      if (p < n && !(c === 32 || c === 9 || c === 13 || c === 10 || c === 35 || c === 92 || c === 11 || c === 12)) {
         fail(b, t0, s.name, `malformed face corner ${tokenAt(b, t0)}`);
       }
       let i: number;
