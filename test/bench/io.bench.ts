@@ -99,7 +99,7 @@ async function main(): Promise<void> {
     writeFileSync(join(dir, 'terrain-shortest.obj'), writeObj(mesh));
     writeFileSync(join(dir, 'terrain.ply'), writePly(mesh, { format: 'binary' }));
     const size = `${faces} faces`;
-    const runs = quick() ? 7 : 3;
+    const runs = quick() ? 7 : 5;
 
     const objBytes = new Uint8Array(readFileSync(join(dir, 'terrain.obj')));
     const objMB = objBytes.length / 1e6;
