@@ -163,6 +163,9 @@ export function findSupernodes(
     maxRows = Math.max(maxRows, top - rowPtr[s]!);
   }
   rows = rows.slice(0, top);
+  if (maxRows * maxRows > MAX_VALUES) {
+    throw limitError(`supernodal Cholesky would need a ${maxRows}×${maxRows} dense frontal matrix (too large; the ordering leaves a separator of that size)`);
+  }
   // value offsets and the peak of the update-matrix stack (postorder: children on top)
   const valPtr = new Int32Array(nsuper + 1);
   let v = 0, stack = 0, peak = 0;

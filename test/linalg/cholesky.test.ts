@@ -56,6 +56,22 @@ describe('sparse Cholesky residuals', () => {
     });
   }
 
+  it('sizes 0 and 1 (4·x = 2 gives x = 0.5)', () => {
+    for (const method of METHODS) {
+      const E = new TripletMatrix(0).toCsc();
+      const fe = CholeskyFactor.factor(E, analyzeCholesky(E, { method }));
+      fe.solve(new Float64Array(0), new Float64Array(0));
+      expect(fe.nnzL).toBe(0);
+      const T = new TripletMatrix(1);
+      T.add(0, 0, 4);
+      const A = T.toCsc();
+      const f = CholeskyFactor.factor(A, analyzeCholesky(A, { method }));
+      const x = new Float64Array(1);
+      f.solve(Float64Array.of(2), x);
+      expect(x[0]).toBe(0.5);
+    }
+  });
+
   it('solve allows out to alias b', () => {
     const A = gridLaplacianLower(20, 20, 0.1);
     const f = CholeskyFactor.factor(A, analyzeCholesky(A));
