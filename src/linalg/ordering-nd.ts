@@ -127,8 +127,7 @@ export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOption
 
     let root = verts[lo]!;
     let nlev = bfs(root, lab);
-    let reached = levelPtr[nlev]!;
-    if (reached < m) {
+    if (levelPtr[nlev]! < m) {
       // disconnected: reached component first, the rest after, no separator
       let a = lo, b = 0;
       for (let k = lo; k < hi; k++) {
@@ -141,7 +140,10 @@ export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOption
       ranges.push(lo, a, a, hi);
       continue;
     }
-    // pseudo-peripheral root: restart from a minimum-degree vertex of the last level
+    // pseudo-peripheral pair: restart from a minimum-degree vertex of the
+    // last level while that deepens the structure; keyB keeps d(u, ·) of the
+    // previous root u, `level` ends as d(v, ·) of the final root v
+    let nlevU = 0;
     for (let it = 0; it < PERIPHERAL_ROUNDS; it++) {
       let best = -1, bestDeg = Infinity;
       for (let k = levelPtr[nlev - 1]!; k < levelPtr[nlev]!; k++) {
@@ -152,28 +154,21 @@ export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOption
           best = v;
         }
       }
+      for (let k = 0; k < m; k++) keyB[queue[k]!] = level[queue[k]!]!;
+      nlevU = nlev;
       const nl = bfs(best, lab);
-      root = best; // an equally deep structure from the far end serves as well
       const deeper = nl > nlev;
       nlev = nl;
       if (!deeper) break;
     }
-    reached = levelPtr[nlev]!;
-
     if (nlev < 3) continue; // too shallow to split (nearly complete graph): keep as a leaf
-    // key 1: distance from the root; key 2: d(root, x) − d(far, x) shifted ≥ 0
-    for (let k = 0; k < m; k++) keyA[queue[k]!] = level[queue[k]!]!;
-    let far = queue[levelPtr[nlev - 1]!]!;
-    for (let k = levelPtr[nlev - 1]!; k < levelPtr[nlev]!; k++) {
-      const v = queue[k]!;
-      if (xadj[v + 1]! - xadj[v]! < xadj[far + 1]! - xadj[far]!) far = v;
-    }
-    const nlevA = nlev;
-    const nlevB = bfs(far, lab);
+    // key A: d(v, x); key B: d(u, x) − d(v, x) shifted to ≥ 0
     for (let k = 0; k < m; k++) {
-      const v = queue[k]!;
-      keyB[v] = keyA[v]! - level[v]! + nlevB;
+      const x = queue[k]!;
+      keyA[x] = level[x]!;
+      keyB[x] = keyB[x]! - level[x]! + nlev;
     }
+    const nlevA = nlev, nlevB = nlevU;
     const cutA = bestCut(queue, m, keyA, nlevA, xadj, adj, label, lab, BALANCE, workA, cutBufA);
     const cutB = bestCut(queue, m, keyB, nlevA + nlevB + 1, xadj, adj, label, lab, BALANCE, workB, cutBufB);
     let key = keyB, cut = cutB, work = workB;
