@@ -1,6 +1,19 @@
 /**
  * Sparse direct solver: CSC storage, triplet assembly, fill-reducing
- * orderings, symbolic analysis and numeric Cholesky with triangular solves.
+ * orderings (nested dissection by default, approximate minimum degree,
+ * natural), symbolic analysis kept apart from the numeric factorization
+ * (supernodal multifrontal by default, simplicial up-looking on request),
+ * and allocation-free triangular solves.
+ *
+ * ```ts
+ * const T = new TripletMatrix(n);            // lower triangle only: i >= j
+ * T.add(i, j, v);                            // repeats are summed
+ * const A = T.toCsc();
+ * const sym = analyzeCholesky(A);            // once per pattern
+ * const f = CholeskyFactor.factor(A, sym);   // throws NUMERIC if not SPD
+ * f.solve(b, x);                             // x = A⁻¹ b, no allocation
+ * f.refactor(A2);                            // same pattern, new values
+ * ```
  */
 export type { CscMatrix } from './csc.js';
 export { spmv, symmetricSpmvLower, lowerTriangle, transpose, symmetricFromLower, checkCsc, nnz } from './csc.js';
