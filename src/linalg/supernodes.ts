@@ -13,9 +13,9 @@
  *      [ x  x  x   ]  r₂
  * ```
  *
- * Fundamental supernodes (Liu, Ng, Peyton 1993): j joins j−1 when j is the
- * only child of … of j−1's parent, i.e. parent[j−1] = j, j has one child and
- * colCount[j−1] = colCount[j] + 1. Relaxed amalgamation then merges a block
+ * Fundamental supernodes (Liu, Ng, Peyton 1993): column j joins column j−1
+ * when parent[j−1] = j, j has no other child, and colCount[j−1] =
+ * colCount[j] + 1 (column j−1's pattern is column j's plus the diagonal). Relaxed amalgamation then merges a block
  * into its parent when they are adjacent and the explicit zeros this adds
  * stay small (thresholds of common practice: any merge up to 4 columns,
  * < 80% zeros up to 16, < 10% up to 48, < 5% beyond). The row pattern of a
@@ -119,7 +119,7 @@ export function findSupernodes(
     childNext[s] = childHead[p]!;
     childHead[p] = s;
   }
-  // row counts: nr(s) = nc(s) + |rows of L below l| = (l − f) + colCount[l]... computed exactly below
+  // capacity for the row patterns (exact counts come out of the union below)
   const rowPtr = new Int32Array(nsuper + 1);
   let rowsCap = 0;
   for (let s = 0; s < nsuper; s++) {
