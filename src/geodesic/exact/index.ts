@@ -52,7 +52,7 @@ export interface ExactOptions {
   maxDistance?: number;
   /** Stop as soon as every target's distance is final (a two-point query). */
   targets?: SurfacePoint[];
-  /** Guard on the number of windows (default 64 per face, at least 200 000, at most 16 million: about 1.2 GB). */
+  /** Guard on the number of windows (default 64 per face, at least 200 000, at most 24 million: about 1.9 GB peak). */
   maxWindows?: number;
 }
 
@@ -74,7 +74,7 @@ export interface ExactResult {
 
 /** Default window cap for a mesh of nf faces. */
 export function defaultMaxWindows(nf: number): number {
-  return Math.min(Math.max(200_000, 64 * nf), 16_000_000);
+  return Math.min(Math.max(200_000, 64 * nf), 24_000_000);
 }
 
 /**
