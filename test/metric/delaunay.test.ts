@@ -1,5 +1,7 @@
 import { describe, it, expect } from 'vitest';
+import fc from 'fast-check';
 import { buildTopology } from '../../src/mesh/build.js';
+import { intrinsicFromLengths } from '../../src/metric/intrinsic.js';
 import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { intrinsicDelaunay, edgeCotanSum } from '../../src/metric/delaunay.js';
 import { mollify } from '../../src/metric/mollify.js';
@@ -168,5 +170,48 @@ describe('intrinsic Delaunay flips', () => {
     checkTopology(r.mesh.topology);
     for (const l of r.mesh.edgeLength) expect(Number.isFinite(l) && l > 0).toBe(true);
     expectDelaunay(r.mesh, 1e-6);
+  });
+});
+
+describe('intrinsic mollification (Sharp & Crane 2020)', () => {
+  it('adds exactly the closed-form ε = max(0, δ − (l_j + l_k − l_i)) and leaves valid meshes alone', () => {
+    // one face with lengths 1, 1, 2.5 breaks the triangle inequality by 0.5
+    const { topology } = buildTopology([0, 1, 2], 3);
+    const m = intrinsicFromLengths(topology, Float64Array.from([1, 1, 2.5]));
+    const r = mollify(m, 1e-3);
+    const h = 4.5 / 3;
+    expect(r.delta).toBeCloseTo(1e-3 * h, 15);
+    expect(r.epsilon).toBeCloseTo(0.5 + 1e-3 * h, 14);
+    const L = r.mesh.edgeLength;
+    expect(L[0]! + L[1]! - L[2]!).toBeCloseTo(r.delta, 12);
+    expect(m.edgeLength[2]).toBe(2.5); // input untouched
+    const ok = meshOf(flatGrid(4, 4, 1, 1, 0.2, 3));
+    const r2 = mollify(ok);
+    expect(r2.epsilon).toBe(0);
+    expect(r2.mesh).toBe(ok);
+  });
+
+  it('property: after mollification and flips every face has margin ≥ δ, the topology is valid and Delaunay', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 1 << 30 }), fc.double({ min: 0, max: 0.49, noNaN: true }), (seed, jitter) => {
+        const s = flatGrid(6, 5, 1.5, 1, jitter, seed);
+        const r0 = rng(seed);
+        // random heights and a few collapsed vertices make needles and caps
+        for (let i = 0; i < s.positions.length; i += 3) s.positions[i + 2] = 0.3 * r0();
+        for (const v of [8, 15, 22]) if (r0() < 0.5) for (let d = 0; d < 3; d++) s.positions[3 * v + d] = s.positions[3 * (v + 1) + d]!;
+        const mo = mollify(meshOf(s));
+        const t = mo.mesh.topology, L = mo.mesh.edgeLength;
+        for (let f = 0; f < t.nf; f++) {
+          const a = L[t.edgeOf[3 * f]!]!, b = L[t.edgeOf[3 * f + 1]!]!, c = L[t.edgeOf[3 * f + 2]!]!;
+          expect(Math.min(b + c - a, a + c - b, a + b - c)).toBeGreaterThanOrEqual(mo.delta * (1 - 1e-6));
+        }
+        const r = intrinsicDelaunay(mo.mesh);
+        checkTopology(r.mesh.topology);
+        expectDelaunay(r.mesh, 1e-6);
+        const a0 = faceAreas(mo.mesh).reduce((x, y) => x + y, 0), a1 = faceAreas(r.mesh).reduce((x, y) => x + y, 0);
+        expect(Math.abs(a1 - a0)).toBeLessThan(1e-9 * a0);
+      }),
+      { numRuns: 40 },
+    );
   });
 });
