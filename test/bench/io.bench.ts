@@ -8,6 +8,8 @@
  * Records: parse time (median) and throughput (MB/s) per reader and file,
  * and our throughput over three's (goals: OBJ ≥ 20×, binary PLY ≥ 5×). Our
  * reader and three's are timed alternately so machine load hits both alike.
+ * Case `ply-binary` is our writer's layout (double x, y, z); `ply-binary-float`
+ * is a scanner-style layout (float x, y, z, a quality and colours).
  * Cases `triangulate-*` time the all-triangle fast path and ear clipping of
  * the same grid as quads. Case `obj-shortest` is the same mesh written by our OBJ writer (shortest
  * round-trip decimals, up to 17 digits, which take the slow exact path).
@@ -64,12 +66,10 @@ function fixedObj(positions: Float64Array, triangles: Uint32Array): string {
 /**
  * Medians of `a` and `b` timed alternately (a, b, a, b, ...) after `warmup`
  * untimed runs each, so load from other processes on the machine hits both
- * alike. A full collection (the runner passes --expose-gc) after each pair,
- * off the clock, keeps three's garbage (JS arrays and strings; ours is a few
- * typed arrays) from being collected on our reader's clock.
+ * alike. (Forcing a full collection between runs was tried: it slowed the
+ * next run of either reader several-fold, so the heap is left to V8.)
  */
 function interleaved<A, B>(a: () => A, b: () => B, runs: number, warmup = 3): { msA: number; msB: number; resultA: A } {
-  const gc = (globalThis as { gc?: () => void }).gc ?? (() => undefined);
   let resultA = a();
   for (let w = 0; w < warmup; w++) {
     resultA = a();
@@ -83,9 +83,36 @@ function interleaved<A, B>(a: () => A, b: () => B, runs: number, warmup = 3): { 
     t0 = performance.now();
     b();
     tb.push(performance.now() - t0);
-    gc();
   }
   return { msA: median(ta), msB: median(tb), resultA };
+}
+
+/**
+ * The same mesh as a scanner would write it: `float x y z`, a `float quality`
+ * and `uchar red green blue` per vertex, `list uchar int vertex_indices`.
+ * Assembled here with a DataView (our writer always stores double x, y, z).
+ */
+function scannerPly(positions: Float64Array, triangles: Uint32Array): Uint8Array {
+  const nv = positions.length / 3, nf = triangles.length / 3;
+  const header = new TextEncoder().encode(
+    ['ply', 'format binary_little_endian 1.0', `element vertex ${nv}`, 'property float x', 'property float y', 'property float z',
+      'property float quality', 'property uchar red', 'property uchar green', 'property uchar blue',
+      `element face ${nf}`, 'property list uchar int vertex_indices', 'end_header', ''].join('\n'),
+  );
+  const out = new Uint8Array(header.length + 19 * nv + 13 * nf);
+  out.set(header);
+  const dv = new DataView(out.buffer);
+  let o = header.length;
+  for (let v = 0; v < nv; v++, o += 19) {
+    for (let c = 0; c < 3; c++) dv.setFloat32(o + 4 * c, positions[3 * v + c]!, true);
+    dv.setFloat32(o + 12, (v % 97) / 97, true);
+    out[o + 16] = v & 255; out[o + 17] = (v >> 8) & 255; out[o + 18] = 128;
+  }
+  for (let f = 0; f < nf; f++, o += 13) {
+    out[o] = 3;
+    for (let c = 0; c < 3; c++) dv.setInt32(o + 1 + 4 * c, triangles[3 * f + c]!, true);
+  }
+  return out;
 }
 
 async function main(): Promise<void> {
@@ -98,6 +125,7 @@ async function main(): Promise<void> {
     writeFileSync(join(dir, 'terrain.obj'), fixedObj(g.positions, g.triangles));
     writeFileSync(join(dir, 'terrain-shortest.obj'), writeObj(mesh));
     writeFileSync(join(dir, 'terrain.ply'), writePly(mesh, { format: 'binary' }));
+    writeFileSync(join(dir, 'terrain-scanner.ply'), scannerPly(g.positions, g.triangles));
     const size = `${faces} faces`;
     const runs = quick() ? 7 : 5;
 
@@ -118,17 +146,18 @@ async function main(): Promise<void> {
     emit({ bench: BENCH, case: 'obj-shortest', metric: 'parse', value: short.ms, unit: 'ms', reader: 'parseObj', size, mb: shortMB });
     emit({ bench: BENCH, case: 'obj-shortest', metric: 'throughput', value: shortMB / (short.ms / 1000), unit: 'MB/s', reader: 'parseObj', size });
 
-    const plyBytes = new Uint8Array(readFileSync(join(dir, 'terrain.ply')));
-    const mb = plyBytes.length / 1e6;
-    const ab = plyBytes.buffer.slice(plyBytes.byteOffset, plyBytes.byteOffset + plyBytes.byteLength) as ArrayBuffer;
-    const q = interleaved(() => parsePly(plyBytes, 'terrain.ply'), () => new PLYLoader().parse(ab), runs);
-    if (q.resultA.faceOffsets.length - 1 !== faces) throw new Error('face count mismatch');
-    for (const [reader, ms] of [['parsePly', q.msA], ['three PLYLoader', q.msB]] as const) {
-      emit({ bench: BENCH, case: 'ply-binary', metric: 'parse', value: ms, unit: 'ms', reader, size, mb });
-      emit({ bench: BENCH, case: 'ply-binary', metric: 'throughput', value: mb / (ms / 1000), unit: 'MB/s', reader, size });
+    for (const [file, caseName] of [['terrain.ply', 'ply-binary'], ['terrain-scanner.ply', 'ply-binary-float']] as const) {
+      const plyBytes = new Uint8Array(readFileSync(join(dir, file)));
+      const mb = plyBytes.length / 1e6;
+      const ab = plyBytes.buffer.slice(plyBytes.byteOffset, plyBytes.byteOffset + plyBytes.byteLength) as ArrayBuffer;
+      const q = interleaved(() => parsePly(plyBytes, file), () => new PLYLoader().parse(ab), runs);
+      if (q.resultA.faceOffsets.length - 1 !== faces) throw new Error('face count mismatch');
+      for (const [reader, ms] of [['parsePly', q.msA], ['three PLYLoader', q.msB]] as const) {
+        emit({ bench: BENCH, case: caseName, metric: 'parse', value: ms, unit: 'ms', reader, size, mb });
+        emit({ bench: BENCH, case: caseName, metric: 'throughput', value: mb / (ms / 1000), unit: 'MB/s', reader, size });
+      }
+      emit({ bench: BENCH, case: caseName, metric: 'speedup', value: q.msB / q.msA, unit: 'x', baseline: 'three PLYLoader', goal: 5 });
     }
-    emit({ bench: BENCH, case: 'ply-binary', metric: 'speedup', value: q.msB / q.msA, unit: 'x', baseline: 'three PLYLoader', goal: 5 });
-
     // Triangulation: the all-triangle fast path, and ear clipping of the same grid as quads.
     const tri = await timeMedian(() => triangulate(mesh), 5, 1);
     emit({ bench: BENCH, case: 'triangulate-triangles', metric: 'time', value: tri.ms, unit: 'ms', size });
