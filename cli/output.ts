@@ -48,10 +48,16 @@ export function checkFieldOutput(path: string): void {
 }
 
 /**
- * Writes per-vertex columns to `path` (.ply binary with the mesh and colours
- * from the first column, .csv with vertex,x,y,z,columns…, or .json).
+ * Writes per-vertex columns to `path` (.ply with the mesh and colours from the
+ * first column, binary unless `plyAscii`; .csv with vertex,x,y,z,columns…; or
+ * .json).
  */
-export async function writeVertexColumns(path: string, s: Surface, columns: VertexColumn[]): Promise<void> {
+export async function writeVertexColumns(
+  path: string,
+  s: Surface,
+  columns: VertexColumn[],
+  opts: { plyAscii?: boolean; comment?: string; colorBy?: string } = {},
+): Promise<void> {
   checkFieldOutput(path);
   const ext = extname(path).toLowerCase();
   const cols = columns.map((c) => ({ ...c, values: toInputVertices(s, c.values) }));
@@ -63,10 +69,18 @@ export async function writeVertexColumns(path: string, s: Surface, columns: Vert
       type: c.flag ? ('uint8' as const) : ('float64' as const),
       values: c.values.map((x) => (Number.isFinite(x) ? x : (c.plyFill ?? 0))),
     }));
-    const colors = cols.length ? colorize(cols[0]!.values) : undefined;
+    // the file's own vertex properties (e.g. a scanner's quality) are kept, unless a new column has the name
+    const names = new Set(cols.map((c) => c.name));
+    const kept = s.data.vertexProps.filter((c) => !names.has(c.name) && !['red', 'green', 'blue', 'alpha'].includes(c.name));
+    const colorCol = cols.find((c) => c.name === opts.colorBy) ?? cols[0];
+    const colors = colorCol ? colorize(colorCol.values) : undefined;
     const bytes = writePly(
-      { positions: P, faceOffsets: s.data.faceOffsets, faceIndices: s.data.faceIndices, vertexProps, faceProps: [] },
-      colors ? { format: 'binary', colors } : { format: 'binary' },
+      { positions: P, faceOffsets: s.data.faceOffsets, faceIndices: s.data.faceIndices, vertexProps: [...kept, ...vertexProps], faceProps: s.data.faceProps },
+      {
+        format: opts.plyAscii ? 'ascii' : 'binary',
+        ...(colors ? { colors } : {}),
+        comment: opts.comment ?? `orthodrome: ${cols.map((c) => `${c.name} [${c.unit}]`).join(', ')}; colours from ${colorCol?.name ?? 'none'}`,
+      },
     );
     await writeFileAtomic(path, bytes);
   } else if (ext === '.csv') {

@@ -12,10 +12,11 @@ export function registerCurvature(program: Command): void {
     .description('angle defect, Gaussian curvature (defect / mixed-Voronoi area) and mean curvature (cotangent Laplacian) per vertex')
     .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
     .option('-o, --output <file>', 'write per-vertex values: .ply (binary, with colours), .csv or .json')
+    .option('--ascii', 'write PLY output as ascii instead of binary')
     .option('--json', 'print the summary as JSON')
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
     .action(
-      action(async (mesh: string, opts: { output?: string; json?: boolean; splitNonmanifold?: boolean }) => {
+      action(async (mesh: string, opts: { output?: string; json?: boolean; ascii?: boolean; splitNonmanifold?: boolean }) => {
         if (opts.output) checkFieldOutput(opts.output);
         const { surface } = await loadSurface(mesh, { requireManifold: true, allowSplit: opts.splitNonmanifold });
         const c = curvatureSummary(surface);
@@ -25,7 +26,7 @@ export function registerCurvature(program: Command): void {
             { name: 'gaussianCurvature', unit: '1/units²', values: c.gaussianCurvature },
             { name: 'meanCurvature', unit: '1/units', values: c.meanCurvature },
             { name: 'boundary', unit: 'flag', values: Float64Array.from(c.boundary), flag: true },
-          ]);
+          ], { plyAscii: opts.ascii, colorBy: 'meanCurvature' });
         }
         const s = c.summary;
         if (opts.json) {

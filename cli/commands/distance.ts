@@ -23,6 +23,7 @@ interface DistanceCliOptions {
   method: DistanceMethod;
   output?: string;
   json?: boolean;
+  ascii?: boolean;
   maxDistance?: string;
   timeScale?: string;
   heatBoundary?: 'average' | 'neumann' | 'dirichlet';
@@ -51,6 +52,7 @@ export function registerDistance(program: Command): void {
     .option('--each', 'treat each --from as its own source set (one field per source, one prepared solver)')
     .addOption(new Option('--method <method>', 'exact (window propagation), heat (heat method, approximate) or graph (along edges)').choices(['exact', 'heat', 'graph']).default('exact'))
     .option('-o, --output <file>', 'write the per-vertex distances: .ply (binary, coloured), .csv or .json')
+    .option('--ascii', 'write PLY output as ascii instead of binary')
     .option('--json', 'print the result as JSON')
     .option('--max-distance <d>', 'exact and graph: stop at this distance (mesh units); farther vertices get no distance')
     .option('--time-scale <m>', 'heat: time step t = m·h², h the mean edge length (default 1)')
@@ -121,6 +123,7 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
         values: r.result.field.distance,
         plyFill: -1,
       })),
+      { plyAscii: o.ascii },
     );
   }
 
