@@ -6,20 +6,24 @@
  * SIAM J. Comput. 16(4), 1987) in the practical form of Surazhsky,
  * Surazhsky, Kirsanov, Gortler & Hoppe, "Fast exact and approximate
  * geodesics on meshes", ACM TOG 24(3), 2005: windows on edges, one priority
- * queue ordered by each window's smallest distance, saddle and boundary
- * vertices as pseudo-sources. Where that paper intersects and trims
- * overlapping windows on an edge, this solver keeps windows immutable and
- * prunes them with the vertex-distance test of Xin & Wang, ACM TOG 28(4),
- * 2009 (see propagate.ts for the two-line proof). Why this choice over the
- * triangle-oriented scheme of Qin et al. (ACM TOG 35(4), 2016):
- * - the queue order by distance is what makes early stopping exact: a
- *   two-point query or a distance cap only touches faces up to that distance;
- * - immutable windows keep every parent link valid, so back-tracing an exact
- *   path is a walk up the parent chain, and evaluating any surface point is a
- *   scan of its face's windows;
- * - no window-intersection quadratic (the fragile part of MMP under
- *   rounding): every test is a comparison of two real path lengths, so
- *   every reported value is the length of a real path, never NaN.
+ * queue ordered by each window's smallest distance, saddle and reflex
+ * boundary vertices as pseudo-sources, and windows on one edge trimmed
+ * against each other (trim.ts). Added to that: the vertex-distance filter
+ * of Xin & Wang, ACM TOG 28(4), 2009 (proof in propagate.ts), and merging of
+ * touching windows with the same image (flat regions stay one window).
+ *
+ * Why this over the triangle-oriented scheme of Qin et al. (ACM TOG 35(4),
+ * 2016), which is faster on whole-mesh runs:
+ * - ordering by distance is what makes early stopping exact: a two-point
+ *   query or a distance cap only touches faces up to that distance
+ *   (measured: 0.06% of the faces of a 1M-face terrain);
+ * - a window is only ever changed while it is still queued; once propagated
+ *   it is final, so any surface point is evaluated by scanning the windows
+ *   of its face, and a shortest path is traced back through them;
+ * - every bound a vertex or point receives is the length of a real path
+ *   (clamped into a window when rounding puts it a hair outside), so
+ *   rounding can only cost accuracy locally, never produce NaN, a negative
+ *   value or a value below the true distance by more than rounding.
  *
  * The solver reads edge lengths only (faces laid out in the plane from
  * their three lengths), so any intrinsic metric works.
