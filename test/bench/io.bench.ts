@@ -6,8 +6,8 @@
  * OBJLoader (from the decoded text) and PLYLoader (from the ArrayBuffer).
  *
  * Records: parse time (median) and throughput (MB/s) per reader and file,
- * and our throughput over three's (goals: OBJ ≥ 20×, binary PLY ≥ 5×). Our
- * reader and three's are timed alternately so machine load hits both alike.
+ * and our throughput over three's (goals: OBJ ≥ 20×, binary PLY ≥ 5×), timed
+ * as a sandwich (ours, three's, ours; see {@link sandwich}).
  * Case `ply-binary` is our writer's layout (double x, y, z); `ply-binary-float`
  * is a scanner-style layout (float x, y, z, a quality and colours).
  * Cases `triangulate-*` time the all-triangle fast path and ear clipping of
@@ -64,26 +64,29 @@ function fixedObj(positions: Float64Array, triangles: Uint32Array): string {
 }
 
 /**
- * Medians of `a` and `b` timed alternately (a, b, a, b, ...) after `warmup`
- * untimed runs each, so load from other processes on the machine hits both
- * alike. (Forcing a full collection between runs was tried: it slowed the
- * next run of either reader several-fold, so the heap is left to V8.)
+ * Medians of `a` (ours) and `b` (the baseline) timed in a sandwich: `runs`
+ * of a, `runs` of b, `runs` of a again, after `warmup` untimed runs of each.
+ * Blocks keep one reader's garbage from being collected on the other's
+ * clock (three's readers leave many JS arrays and strings; ours a few typed
+ * arrays); timing a before and after b evens out drifting machine load.
  */
-function interleaved<A, B>(a: () => A, b: () => B, runs: number, warmup = 3): { msA: number; msB: number; resultA: A } {
+function sandwich<A, B>(a: () => A, b: () => B, runs: number, warmup = 3): { msA: number; msB: number; resultA: A } {
   let resultA = a();
   for (let w = 0; w < warmup; w++) {
     resultA = a();
     b();
   }
   const ta: number[] = [], tb: number[] = [];
-  for (let r = 0; r < runs; r++) {
-    let t0 = performance.now();
-    resultA = a();
-    ta.push(performance.now() - t0);
-    t0 = performance.now();
-    b();
-    tb.push(performance.now() - t0);
-  }
+  const block = (f: () => unknown, into: number[]) => {
+    for (let r = 0; r < runs; r++) {
+      const t0 = performance.now();
+      f();
+      into.push(performance.now() - t0);
+    }
+  };
+  block(() => (resultA = a()), ta);
+  block(b, tb);
+  block(() => (resultA = a()), ta);
   return { msA: median(ta), msB: median(tb), resultA };
 }
 
@@ -132,7 +135,7 @@ async function main(): Promise<void> {
     const objBytes = new Uint8Array(readFileSync(join(dir, 'terrain.obj')));
     const objMB = objBytes.length / 1e6;
     const text = new TextDecoder().decode(objBytes);
-    const o = interleaved(() => parseObj(objBytes, 'terrain.obj'), () => new OBJLoader().parse(text), runs);
+    const o = sandwich(() => parseObj(objBytes, 'terrain.obj'), () => new OBJLoader().parse(text), runs);
     if (o.resultA.faceOffsets.length - 1 !== faces) throw new Error('face count mismatch');
     for (const [reader, ms] of [['parseObj', o.msA], ['three OBJLoader', o.msB]] as const) {
       emit({ bench: BENCH, case: 'obj', metric: 'parse', value: ms, unit: 'ms', reader, size, mb: objMB });
@@ -150,7 +153,7 @@ async function main(): Promise<void> {
       const plyBytes = new Uint8Array(readFileSync(join(dir, file)));
       const mb = plyBytes.length / 1e6;
       const ab = plyBytes.buffer.slice(plyBytes.byteOffset, plyBytes.byteOffset + plyBytes.byteLength) as ArrayBuffer;
-      const q = interleaved(() => parsePly(plyBytes, file), () => new PLYLoader().parse(ab), runs);
+      const q = sandwich(() => parsePly(plyBytes, file), () => new PLYLoader().parse(ab), runs);
       if (q.resultA.faceOffsets.length - 1 !== faces) throw new Error('face count mismatch');
       for (const [reader, ms] of [['parsePly', q.msA], ['three PLYLoader', q.msB]] as const) {
         emit({ bench: BENCH, case: caseName, metric: 'parse', value: ms, unit: 'ms', reader, size, mb });
