@@ -1,7 +1,7 @@
 /**
  * OBJ reader checks. The statement forms follow the published Wavefront OBJ
  * description (Wavefront Technologies, "Appendix B1. Object Files (.obj)",
- * Advanced Visualizer manual): `v x y z [w]`, `f v`, `f v/vt`, `f v//vn`,
+ * Advanced Visualizer manual; title and chapter from memory): `v x y z [w]`, `f v`, `f v/vt`, `f v//vn`,
  * `f v/vt/vn`, negative indices count back from the latest vertex (-1 is the
  * last one), `#` starts a comment, `\` at the end of a line continues it.
  */

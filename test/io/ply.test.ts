@@ -1,7 +1,7 @@
 /**
  * PLY reader checks against files assembled here byte by byte, following the
  * published PLY polygon file format description (Greg Turk, "The PLY Polygon
- * File Format", 1994): header lines `ply`, `format <ascii|binary_little_endian|
+ * File Format", 1994; author and year from memory): header lines `ply`, `format <ascii|binary_little_endian|
  * binary_big_endian> 1.0`, `element <name> <count>`, `property <type> <name>`,
  * `property list <count type> <item type> <name>`, `end_header`; the body holds
  * the elements in header order; types char uchar short ushort int uint float

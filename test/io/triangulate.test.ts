@@ -3,7 +3,8 @@
  * triangles with no flipped triangle has total area equal to the polygon's,
  * given by the shoelace formula A = ½ Σ (x_i·y_{i+1} − x_{i+1}·y_i) (Gauss's
  * area formula; any computational geometry text, e.g. O'Rourke,
- * "Computational Geometry in C", 2nd ed. 1998, ch. 1). Overlapping or flipped
+ * "Computational Geometry in C", 2nd ed. 1998, ch. 1; edition and chapter from
+ * memory). Overlapping or flipped
  * triangles would make the sum differ or an area negative.
  */
 import { describe, expect, it } from 'vitest';
