@@ -211,6 +211,94 @@ function readFaceLists(dv: DataView, b: Uint8Array, st: FaceLists, count: number
 /** Where each scalar value of an element goes: `dst[i * stride + base]`, or nowhere. */
 interface Sink { dst: Float64Array | null; stride: number; base: number }
 
+/**
+ * Reads one value at a time from the body: an ascii token or a binary scalar.
+ * `elName` and `item` name the place for messages.
+ */
+class ItemReader {
+  readonly dv: DataView;
+  elName = '';
+  item = 0;
+  constructor(
+    readonly b: Uint8Array,
+    public p: number,
+    readonly le: boolean,
+    readonly ascii: boolean,
+    readonly name: string,
+  ) {
+    this.dv = new DataView(b.buffer, b.byteOffset, b.byteLength);
+  }
+
+  fail(msg: string): never {
+    throw inputError(msg, `${this.name}: ${this.elName} ${this.item}`);
+  }
+
+  /** The next value of type code `t`; integer types must hold an integer in range. */
+  value(t: number): number {
+    const b = this.b, n = b.length;
+    let p = this.p;
+    if (this.ascii) {
+      while (p < n && (b[p] === 32 || b[p] === 9 || b[p] === 13 || b[p] === 10)) p++;
+      if (p >= n) this.fail('file ends early');
+      const v = scanReal(b, p);
+      if (scanCursor.bad) this.fail(`malformed number ${excerpt(b, p)}`);
+      this.p = scanCursor.pos;
+      if (t < 6 && !(Number.isInteger(v) && v >= LO[t]! && v <= HI[t]!)) this.fail(`value ${v} does not fit its type ${SCALAR_TYPES[t]}`);
+      return v;
+    }
+    const sz = TYPE_SIZES[t]!;
+    if (p + sz > n) this.fail('file ends inside this item');
+    this.p = p + sz;
+    return rd(this.dv, p, t, this.le);
+  }
+}
+
+/**
+ * Reads every item of `el` value by value (ascii, or binary with lists):
+ * scalars into their sinks, the face index list (property `fi`, -1 if none)
+ * into `st`, other lists skipped.
+ */
+function readItems(r: ItemReader, el: PlyElement, sinks: Sink[], fi: number, nv: number, offsets: Uint32Array, st: FaceLists): void {
+  const np = el.props.length, n = r.b.length;
+  let ni = st.ni, idx = st.idx;
+  for (let item = 0; item < el.count; item++) {
+    r.item = item;
+    for (let j = 0; j < np; j++) {
+      const q = el.props[j]!, s = sinks[j]!;
+      if (q.countType < 0) {
+        const v = r.value(q.type);
+        if (s.dst !== null) s.dst[item * s.stride + s.base] = v;
+        continue;
+      }
+      const k = r.value(q.countType);
+      if (k < 0) r.fail(`negative list length ${k}`);
+      const size = TYPE_SIZES[q.type]!;
+      if (j === fi) {
+        if (k < 3) r.fail(`face has ${k} ${k === 1 ? 'vertex' : 'vertices'} (at least 3 needed)`);
+        if (!r.ascii && r.p + k * size > n) r.fail('file ends inside this item');
+        if (ni + k > idx.length) {
+          const g = new Uint32Array(Math.max(2 * idx.length, ni + k));
+          g.set(idx.subarray(0, ni));
+          idx = g;
+        }
+        for (let c = 0; c < k; c++) {
+          const v = r.value(q.type);
+          if (!(v >= 0 && v < nv && Number.isInteger(v))) r.fail(`vertex index ${v} out of range (the file has ${nv} vertices)`);
+          idx[ni++] = v;
+        }
+        offsets[item + 1] = ni;
+      } else if (r.ascii) {
+        for (let c = 0; c < k; c++) r.value(q.type);
+      } else {
+        if (r.p + k * size > n) r.fail('file ends inside this item');
+        r.p += k * size;
+      }
+    }
+  }
+  st.ni = ni;
+  st.idx = idx;
+}
+
 /** Parses a PLY file (any of the three encodings) into {@link MeshData}. */
 export function parsePly(bytes: Uint8Array, name: string): MeshData {
   const b = bytes;
@@ -255,32 +343,11 @@ export function parsePly(bytes: Uint8Array, name: string): MeshData {
   let faceIndices: Uint32Array = new Uint32Array(3 * fEl.count);
   let ni = 0;
   const dv = new DataView(b.buffer, b.byteOffset, b.byteLength);
-  const n = b.length;
-  let p = h.bodyStart;
-  let item = 0, elName = '';
-  const fail = (msg: string): never => {
-    throw inputError(msg, `${name}: ${elName} ${item}`);
-  };
-  // Next value: an ascii token or a binary scalar of type t.
-  const next = (t: number): number => {
-    if (ascii) {
-      while (p < n && (b[p] === 32 || b[p] === 9 || b[p] === 13 || b[p] === 10)) p++;
-      if (p >= n) fail('file ends early');
-      const v = scanReal(b, p);
-      if (scanCursor.bad) fail(`malformed number ${excerpt(b, p)}`);
-      p = scanCursor.pos;
-      if (t < 6 && !(Number.isInteger(v) && v >= LO[t]! && v <= HI[t]!)) fail(`value ${v} does not fit its type ${SCALAR_TYPES[t]}`);
-      return v;
-    }
-    const s = TYPE_SIZES[t]!;
-    if (p + s > n) fail('file ends inside this item');
-    const v = rd(dv, p, t, le);
-    p += s;
-    return v;
-  };
+  const r = new ItemReader(b, h.bodyStart, le, ascii, name);
 
   for (const el of h.elements) {
-    elName = el.name;
+    r.elName = el.name;
+    let p = r.p;
     const sinks: Sink[] = el.props.map((q) => {
       if (q.countType >= 0) return { dst: null, stride: 0, base: 0 };
       if (el === vEl && (q.name === 'x' || q.name === 'y' || q.name === 'z')) {
@@ -292,21 +359,19 @@ export function parsePly(bytes: Uint8Array, name: string): MeshData {
       return { dst: col.values, stride: 1, base: 0 };
     });
     const np = el.props.length;
-    if (np === 0) continue; // items without properties occupy no bytes
-    if (!ascii && el !== fEl && el.props.every((q) => q.countType < 0)) {
-      // Fixed-size items: bounds were checked above, read without per-value checks.
-      let stride = 0;
-      for (const q of el.props) stride += TYPE_SIZES[q.type]!;
-      if (el !== vEl && sinks.every((s) => s.dst === null)) {
-        p += stride * el.count;
-        continue;
-      }
-      if (el === vEl && le === HOST_LE && stride === 24 && el.props.every((q, j) => q.type === 7 && q.name === 'xyz'[j])) {
-        // Exactly `double x, y, z` in host byte order: the block is the array.
-        positions = new Float64Array(b.slice(p, p + 24 * el.count).buffer);
-        p += 24 * el.count;
-        continue;
-      }
+    let stride = 0;
+    for (const q of el.props) stride += q.countType < 0 ? TYPE_SIZES[q.type]! : 0;
+    const fixed = !ascii && el !== fEl && el.props.every((q) => q.countType < 0);
+    if (np === 0) {
+      // items without properties occupy no bytes
+    } else if (fixed && el !== vEl && sinks.every((s) => s.dst === null)) {
+      p += stride * el.count;
+    } else if (fixed && el === vEl && le === HOST_LE && stride === 24 && el.props.every((q, j) => q.type === 7 && q.name === 'xyz'[j])) {
+      // Exactly `double x, y, z` in host byte order: the block is the array.
+      positions = new Float64Array(b.slice(p, p + 24 * el.count).buffer);
+      p += 24 * el.count;
+    } else if (fixed) {
+      // Fixed-size items: bounds were checked above, read column by column.
       let o = p;
       for (let j = 0; j < np; j++) {
         const q = el.props[j]!, s = sinks[j]!;
@@ -322,46 +387,16 @@ export function parsePly(bytes: Uint8Array, name: string): MeshData {
       ni = st.ni;
       faceIndices = st.idx;
     } else {
-      for (item = 0; item < el.count; item++) {
-        for (let j = 0; j < np; j++) {
-          const q = el.props[j]!, s = sinks[j]!;
-          if (q.countType < 0) {
-            const v = next(q.type);
-            if (s.dst !== null) s.dst[item * s.stride + s.base] = v;
-            continue;
-          }
-          const k = next(q.countType);
-          if (k < 0) fail(`negative list length ${k}`);
-          if (el === fEl && j === fi) {
-            if (k < 3) fail(`face has ${k} ${k === 1 ? 'vertex' : 'vertices'} (at least 3 needed)`);
-            if (!ascii && p + k * TYPE_SIZES[q.type]! > n) fail('file ends inside this item');
-            if (ni + k > faceIndices.length) {
-              const g = new Uint32Array(Math.max(2 * faceIndices.length, ni + k));
-              g.set(faceIndices.subarray(0, ni));
-              faceIndices = g;
-            }
-            for (let c = 0; c < k; c++) {
-              const v = next(q.type);
-              if (!(v >= 0 && v < nv && Number.isInteger(v))) fail(`vertex index ${v} out of range (the file has ${nv} vertices)`);
-              faceIndices[ni++] = v;
-            }
-            faceOffsets[item + 1] = ni;
-          } else if (ascii) {
-            for (let c = 0; c < k; c++) next(q.type);
-          } else {
-            if (p + k * TYPE_SIZES[q.type]! > n) fail('file ends inside this item');
-            p += k * TYPE_SIZES[q.type]!;
-          }
-        }
-      }
+      const st: FaceLists = { p, ni, idx: faceIndices };
+      readItems(r, el, sinks, el === fEl ? fi : -1, nv, faceOffsets, st);
+      p = r.p;
+      ni = st.ni;
+      faceIndices = st.idx;
     }
+    r.p = p;
   }
-  elName = 'vertex';
   for (let k = 0; k < 3 * nv; k++) {
-    if (!Number.isFinite(positions[k]!)) {
-      item = Math.floor(k / 3);
-      fail('non-finite coordinate');
-    }
+    if (!Number.isFinite(positions[k]!)) throw inputError('non-finite coordinate', `${name}: vertex ${Math.floor(k / 3)}`);
   }
   return {
     positions,

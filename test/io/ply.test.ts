@@ -127,6 +127,27 @@ describe('list properties other than the face index list are skipped (PLY descri
   });
 });
 
+describe('fixed-size elements other than vertex and face are skipped in place (PLY description: body in header order)', () => {
+  const header = (fmt: string) => ['ply', `format ${fmt} 1.0`, 'element vertex 3', 'property double x', 'property double y', 'property double z',
+    'element material 2', 'property float shine', 'property uchar alpha', 'element face 1', 'property list uchar int vertex_indices', 'end_header', ''].join('\n');
+  const values: [string, number][] = [
+    ['double', 0], ['double', 0], ['double', 0], ['double', 1], ['double', 0], ['double', 0], ['double', 0], ['double', 1], ['double', 0],
+    ['float', 0.5], ['uchar', 9], ['float', 2], ['uchar', 3],
+    ['uchar', 3], ['int', 0], ['int', 1], ['int', 2],
+  ];
+  for (const [fmt, le] of [['binary_little_endian', true], ['binary_big_endian', false]] as const) {
+    it(fmt, () => {
+      const m = parsePly(binary(header(fmt), values, le), 'm.ply');
+      expect(Array.from(m.positions)).toEqual([0, 0, 0, 1, 0, 0, 0, 1, 0]);
+      expect(Array.from(m.faceIndices)).toEqual([0, 1, 2]);
+    });
+  }
+  it('ascii', () => {
+    const m = parsePly(enc.encode(header('ascii') + '0 0 0\n1 0 0\n0 1 0\n0.5 9\n2 3\n3 0 1 2\n'), 'm.ply');
+    expect(Array.from(m.faceIndices)).toEqual([0, 1, 2]);
+  });
+});
+
 describe('our PLY output read by three PLYLoader (general-purpose reference library)', () => {
   it('gives the same indices and float32-rounded positions, in both byte orders and ascii', () => {
     const positions = Float64Array.from([512000.25, 4200000.5, 301.125, 512001.75, 4200000.5, 302, 512000.25, 4200002, 299.5, 512002, 4200003, 300]);
