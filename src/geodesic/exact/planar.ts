@@ -37,8 +37,8 @@ export function propagatePlanar(s: ExactState, w: number): void {
   const L = s.hl[h]!;
   if (!(uy > REL)) return; // a front gliding along the edge lights nothing inside
   const A = t.tri[h]!, B = t.tri[next(h)]!;
-  if (c + ux * b1 > (s.dist[A]! + b1) * (1 + REL)) return;
-  if (c + ux * b0 > (s.dist[B]! + (L - b0)) * (1 + REL)) return;
+  if (s.prune && c + ux * b1 > (s.dist[A]! + b1) * (1 + REL)) return;
+  if (s.prune && c + ux * b0 > (s.dist[B]! + (L - b0)) * (1 + REL)) return;
   const cx = s.hc[2 * h]!, cy = s.hc[2 * h + 1]!;
   const xC = cx - (ux * cy) / uy;
   const hp = prev(h), hn = next(h);

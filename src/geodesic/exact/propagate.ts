@@ -68,7 +68,8 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
   const A = t.tri[h]!, B = t.tri[next(h)]!;
   const v1 = axisValue(flat, sx, sy, sigma, b1);
   const v0 = axisValue(flat, sx, sy, sigma, b0);
-  const dA = s.dist[A]!, dB = s.dist[B]!;
+  const prune = s.prune;
+  const dA = prune ? s.dist[A]! : Infinity, dB = prune ? s.dist[B]! : Infinity;
   if (v1 > (dA + b1) * (1 + REL) || v0 > (dB + (L - b0)) * (1 + REL)) return -1;
   // partial cut: g_A(y) = σ + |I − y| − d(A) − y is non-increasing, so where it is > 0 is a prefix;
   // its zero solves √((y−sx)² + sy²) = y + k, k = d(A) − σ: y* = (sx² + sy² − k²) / (2(k + sx))
@@ -86,7 +87,7 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
   // trim N against the windows already on this edge (either side) and, in the first pass, queued
   // ones against N; passes repeat while N shrinks (a cut can expose an overlap with another window)
   const W = s.win, g = t.twin[h]!;
-  for (let pass = 0, changed = !flat; changed && pass < 8; pass++) {
+  for (let pass = 0, changed = !flat && prune; changed && pass < 8; pass++) {
     changed = false;
     for (let side = 0; side < 2; side++) {
       const e = side === 0 ? h : g;
@@ -127,7 +128,7 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
   }
   // a queued window on this half-edge with the same image and σ that touches N: grow it instead
   const tolI = MERGE * (L + Math.abs(sx) + Math.abs(sy) + Math.abs(sigma));
-  for (let o = W.heHead[h]!; o >= 0; o = W.nextOnHe[o]!) {
+  for (let o = prune ? W.heHead[h]! : -1; o >= 0; o = W.nextOnHe[o]!) {
     if (W.state[o] !== 0 || W.flat[o] !== flat) continue;
     if (Math.abs(W.sx[o]! - sx) > tolI || Math.abs(W.sy[o]! - sy) > tolI || Math.abs(W.sigma[o]! - sigma) > tolI) continue;
     const o0 = W.b0[o]!, o1 = W.b1[o]!;
@@ -165,8 +166,8 @@ export function propagateWindow(s: ExactState, w: number): void {
   const L = s.hl[h]!;
   // re-test against bounds that may have dropped since the window was queued
   const A = t.tri[h]!, B = t.tri[next(h)]!;
-  if (sigma + Math.hypot(b1 - sx, sy) > (s.dist[A]! + b1) * (1 + REL)) return;
-  if (sigma + Math.hypot(b0 - sx, sy) > (s.dist[B]! + (L - b0)) * (1 + REL)) return;
+  if (s.prune && sigma + Math.hypot(b1 - sx, sy) > (s.dist[A]! + b1) * (1 + REL)) return;
+  if (s.prune && sigma + Math.hypot(b0 - sx, sy) > (s.dist[B]! + (L - b0)) * (1 + REL)) return;
   const cx = s.hc[2 * h]!, cy = s.hc[2 * h + 1]!;
   const den = cy - sy;
   // ray I→C meets the axis at xC = sx + (cx − sx)·(−sy)/(cy − sy)

@@ -75,6 +75,12 @@ export interface ExactState {
   overflow: boolean;
   /** Set when something was left out for lying beyond maxDistance. */
   capped: boolean;
+  /**
+   * Pruning on (default): vertex filter, trimming and merging. Off, every
+   * window propagates unpruned (plain window propagation, for reference
+   * checks on small meshes only: the window count grows very fast).
+   */
+  prune: boolean;
 }
 
 /** Allocates the state for a mesh; `capacity` is the initial window capacity. */
@@ -100,6 +106,7 @@ export function createState(mesh: IntrinsicMesh, maxDistance: number, maxWindows
     maxWindows,
     overflow: false,
     capped: false,
+    prune: true,
   };
 }
 
