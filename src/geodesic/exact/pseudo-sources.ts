@@ -4,7 +4,7 @@
  * A shortest path can pass through a vertex only when the total angle on
  * one side is ≥ π: that is an interior vertex of angle sum > 2π (a saddle)
  * or a boundary vertex of angle sum > π (a reflex boundary corner)
- * (Mitchell, Mount, Papadimitriou 1987, Lemma 3.2; common practice in
+ * (Mitchell, Mount, Papadimitriou 1987; common practice in
  * window-propagation solvers). Behind such a vertex the windows leave a
  * shadow that only the vertex itself can light, so it emits new windows with
  * σ = its distance. Flat vertices (angle sum exactly 2π, or π on the

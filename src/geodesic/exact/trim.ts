@@ -1,5 +1,5 @@
 /**
- * Trimming overlapping windows on one edge (Surazhsky et al. 2005, §3.3).
+ * Trimming overlapping windows on one edge (as in Surazhsky et al. 2005).
  *
  * On the common line of an edge, window N gives f_N(x) = σ_N + √((x−a)² + b²)
  * and window O gives f_O(x) = σ_O + √((x−c)² + d²). Where f_N > f_O, every
