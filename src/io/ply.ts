@@ -22,7 +22,7 @@
  */
 import { inputError } from '../errors.js';
 import type { MeshData, PropertyColumn, ScalarType } from './mesh-data.js';
-import { latin1, scanCursor, scanReal } from './obj.js';
+import { latin1, scanCursor, scanReal } from './decimal.js';
 
 /** Type codes 0..7 in {@link SCALAR_TYPES} order; both PLY spellings accepted. */
 const TYPE_CODES: Record<string, number> = {

@@ -7,7 +7,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { fc, test as fcTest } from '@fast-check/vitest';
-import { parseObj, scanCursor, scanReal } from '../../src/io/obj.js';
+import { parseObj } from '../../src/io/obj.js';
+import { scanCursor, scanReal } from '../../src/io/decimal.js';
 import { OrthodromeError } from '../../src/errors.js';
 
 const enc = new TextEncoder();
