@@ -12,6 +12,7 @@
  */
 import type { SupernodalStructure } from './supernodes.js';
 
+
 /**
  * Forward solve L y = x in place with the supernodal factor:
  * per supernode, y_s = L₁₁⁻¹ x_s, then x(R₂) −= L₂₁ y_s.
@@ -56,31 +57,34 @@ export function supernodalLowerSolve(sn: SupernodalStructure, Lx: Float64Array, 
  */
 export function supernodalLowerTransposeSolve(sn: SupernodalStructure, Lx: Float64Array, x: Float64Array): void {
   const { nsuper, superStart, rowPtr, rows, valPtr } = sn;
+  // Every loop below runs downwards, so the whole pass reads Lx as one
+  // descending stream (hardware prefetchers lose an ascending stream that
+  // restarts at every block of a descending sweep).
   for (let s = nsuper - 1; s >= 0; s--) {
     const f = superStart[s]!, nc = superStart[s + 1]! - f;
     const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
     const v0 = valPtr[s]!;
-    // y_s −= L₂₁ᵀ x(R₂): four rows of L₂₁ per pass over y_s (5 loads, 1 store per 4 multiply-adds)
-    let r = nc;
-    for (; r + 3 < nr; r += 4) {
-      const x0 = x[rows[r0 + r]!]!, x1 = x[rows[r0 + r + 1]!]!, x2 = x[rows[r0 + r + 2]!]!, x3 = x[rows[r0 + r + 3]!]!;
-      const q0 = v0 + r * nc, q1 = q0 + nc, q2 = q1 + nc, q3 = q2 + nc;
-      for (let k = 0; k < nc; k++) {
+    // y_s −= L₂₁ᵀ x(R₂): four rows of L₂₁ per pass over y_s
+    let r = nr - 1;
+    for (; r - 3 >= nc; r -= 4) {
+      const x0 = x[rows[r0 + r]!]!, x1 = x[rows[r0 + r - 1]!]!, x2 = x[rows[r0 + r - 2]!]!, x3 = x[rows[r0 + r - 3]!]!;
+      const q0 = v0 + r * nc, q1 = q0 - nc, q2 = q1 - nc, q3 = q2 - nc;
+      for (let k = nc - 1; k >= 0; k--) {
         x[f + k]! -= Lx[q0 + k]! * x0 + Lx[q1 + k]! * x1 + Lx[q2 + k]! * x2 + Lx[q3 + k]! * x3;
       }
     }
-    for (; r < nr; r++) {
+    for (; r >= nc; r--) {
       const xr = x[rows[r0 + r]!]!;
       const q0 = v0 + r * nc;
-      for (let k = 0; k < nc; k++) x[f + k]! -= Lx[q0 + k]! * xr;
+      for (let k = nc - 1; k >= 0; k--) x[f + k]! -= Lx[q0 + k]! * xr;
     }
-    // L₁₁ᵀ x_s = y_s by rows of L₁₁ (contiguous): x_j = y_j / L(j,j), then y_k −= L(j,k) x_j for k < j
+    // L₁₁ᵀ x_s = y_s by rows of L₁₁: x_j = y_j / L(j,j), then y_k −= L(j,k) x_j for k < j
     for (let j = nc - 1; j >= 0; j--) {
       const rj = v0 + j * nc;
       const xj = x[f + j]! / Lx[rj + j]!;
       x[f + j] = xj;
       if (xj === 0) continue;
-      for (let k = 0; k < j; k++) x[f + k]! -= Lx[rj + k]! * xj;
+      for (let k = j - 1; k >= 0; k--) x[f + k]! -= Lx[rj + k]! * xj;
     }
   }
 }
