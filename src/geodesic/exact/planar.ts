@@ -23,6 +23,12 @@ import type { ExactState } from './state.js';
 import { relaxVertex, VIA_WINDOW } from './state.js';
 import { addWindow } from './propagate.js';
 
+/** √(x² + y²) without Math.hypot's overflow guard, which costs several times more in V8 (lengths here are far from 1e±154). Local to each hot module so it inlines. */
+function len2(x: number, y: number): number {
+  return Math.sqrt(x * x + y * y);
+}
+
+
 const REL = 1e-12;
 
 function unit(num: number, den: number): number {
@@ -43,12 +49,12 @@ export function propagatePlanar(s: ExactState, w: number): void {
   const xC = cx - (ux * cy) / uy;
   const hp = prev(h), hn = next(h);
   const xc = xC < b0 ? b0 : xC > b1 ? b1 : xC; // as for point windows: exact when lit, a bound otherwise
-  relaxVertex(s, t.tri[hp]!, c + ux * xc + Math.hypot(cx - xc, cy), VIA_WINDOW, w);
+  relaxVertex(s, t.tri[hp]!, c + ux * xc + len2(cx - xc, cy), VIA_WINDOW, w);
   const gp = t.twin[hp]!;
   if (gp >= 0 && b0 < xC) {
     // A→C hit at s(x) = x·uy / (cx·uy − cy·ux)
     const den = cx * uy - cy * ux, x1 = b1 < xC ? b1 : xC;
-    const lca = Math.hypot(cx, cy), Lc = s.hl[gp]!;
+    const lca = len2(cx, cy), Lc = s.hl[gp]!;
     if (lca > 0) {
       const ex = cx / lca, ey = cy / lca;
       addWindow(s, gp, unit(b0 * uy, den) * Lc, unit(x1 * uy, den) * Lc, ux * ex + uy * ey, -ux * ey + uy * ex, c, w, 1);
@@ -58,7 +64,7 @@ export function propagatePlanar(s: ExactState, w: number): void {
   if (gn >= 0 && b1 > xC) {
     // B→C hit at s(x) = (x − L)·uy / ((cx − L)·uy − cy·ux); the twin runs C→B
     const den = (cx - L) * uy - cy * ux, x0 = b0 > xC ? b0 : xC;
-    const dx = L - cx, dy = -cy, lbc = Math.hypot(dx, dy), Lc = s.hl[gn]!;
+    const dx = L - cx, dy = -cy, lbc = len2(dx, dy), Lc = s.hl[gn]!;
     if (lbc > 0) {
       const ex = dx / lbc, ey = dy / lbc;
       const s0 = unit((x0 - L) * uy, den), s1 = unit((b1 - L) * uy, den);
@@ -84,7 +90,7 @@ export function emitFromSegment(s: ExactState, f: number, bp: ArrayLike<number>,
     const k1 = (k + 1) % 3, k2 = (k + 2) % 3;
     const px = bp[k1]! * L + bp[k2]! * cx, py = bp[k2]! * cy;
     const qx = bq[k1]! * L + bq[k2]! * cx, qy = bq[k2]! * cy;
-    const dx = qx - px, dy = qy - py, len = Math.hypot(dx, dy);
+    const dx = qx - px, dy = qy - py, len = len2(dx, dy);
     if (!(len > REL * L)) continue;
     for (const sign of [1, -1]) {
       const ux = (-sign * dy) / len, uy = (sign * dx) / len;

@@ -41,7 +41,20 @@ import { addRoot, relaxVertex, VIA_WINDOW, VIA_VERTEX } from './state.js';
 import { trimBoth } from './trim.js';
 import { propagatePlanar } from './planar.js';
 
+/** √(x² + y²) without Math.hypot's overflow guard, which costs several times more in V8 (lengths here are far from 1e±154). Local to each hot module so it inlines. */
+function len2(x: number, y: number): number {
+  return Math.sqrt(x * x + y * y);
+}
+
+
 const TMP = new Float64Array(4);
+
+// hot imports bound once: transpilers that emit CommonJS read every imported name through a
+// getter on each call (neither module imports this one, so the bindings exist at load time)
+const trimPair = trimBoth;
+const relax = relaxVertex;
+const next1 = next;
+const prev1 = prev;
 
 /** Relative slack of the filter and of degenerate-width tests. */
 const REL = 1e-12;
@@ -50,7 +63,7 @@ const MERGE = 1e-11;
 
 /** Distance of a window's light at x on its own edge (point image or planar front). */
 export function axisValue(flat: number, sx: number, sy: number, sigma: number, x: number): number {
-  return flat ? sigma + sx * x : sigma + Math.hypot(x - sx, sy);
+  return flat ? sigma + sx * x : sigma + len2(x - sx, sy);
 }
 
 /**
@@ -65,7 +78,7 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
   if (!(b1 - b0 > REL * L)) return -1;
   if (!flat && !(sy <= 0)) sy = 0; // rounding (or NaN) guard: image never above the edge
   const t = s.t;
-  const A = t.tri[h]!, B = t.tri[next(h)]!;
+  const A = t.tri[h]!, B = t.tri[next1(h)]!;
   const v1 = axisValue(flat, sx, sy, sigma, b1);
   const v0 = axisValue(flat, sx, sy, sigma, b0);
   const prune = s.prune;
@@ -104,7 +117,7 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
         const oLo = side === 0 ? W.b0[o]! : L - W.b1[o]!, oHi = side === 0 ? W.b1[o]! : L - W.b0[o]!;
         if (!(oHi > b0 && oLo < b1)) continue;
         const oc = side === 0 ? W.sx[o]! : L - W.sx[o]!;
-        const r = trimBoth(b0, b1, sx, sy, sigma, oLo, oHi, oc, W.sy[o]!, W.sigma[o]!, pass === 0 && W.state[o] === 0, TMP);
+        const r = trimPair(b0, b1, sx, sy, sigma, oLo, oHi, oc, W.sy[o]!, W.sigma[o]!, pass === 0 && W.state[o] === 0, TMP);
         if (r & 2 || (TMP[2] !== oLo || TMP[3] !== oHi)) {
           if (r & 2 || !(TMP[3]! - TMP[2]! > REL * L)) W.state[o] = 2;
           else if (side === 0) { W.b0[o] = TMP[2]!; W.b1[o] = TMP[3]!; }
@@ -117,7 +130,7 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     }
   }
   if (!(b1 - b0 > REL * L)) return -1;
-  const key = flat ? sigma + sx * (sx > 0 ? b0 : b1) : sigma + Math.hypot((sx < b0 ? b0 : sx > b1 ? b1 : sx) - sx, sy);
+  const key = flat ? sigma + sx * (sx > 0 ? b0 : b1) : sigma + len2((sx < b0 ? b0 : sx > b1 ? b1 : sx) - sx, sy);
   if (key > s.maxDistance) {
     s.capped = true;
     return -1;
@@ -147,7 +160,7 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
 function windowKey(W: ExactState['win'], o: number, b0: number, b1: number): number {
   const sx = W.sx[o]!, sy = W.sy[o]!, sg = W.sigma[o]!;
   if (W.flat[o]) return sg + sx * (sx > 0 ? b0 : b1);
-  return sg + Math.hypot((sx < b0 ? b0 : sx > b1 ? b1 : sx) - sx, sy);
+  return sg + len2((sx < b0 ? b0 : sx > b1 ? b1 : sx) - sx, sy);
 }
 
 /** u ∈ [0, 1] from a ratio, NaN and ±Infinity mapped into range. */
@@ -165,25 +178,25 @@ export function propagateWindow(s: ExactState, w: number): void {
   const h = W.he[w]!, b0 = W.b0[w]!, b1 = W.b1[w]!, sx = W.sx[w]!, sy = W.sy[w]!, sigma = W.sigma[w]!;
   const L = s.hl[h]!;
   // re-test against bounds that may have dropped since the window was queued
-  const A = t.tri[h]!, B = t.tri[next(h)]!;
-  if (s.prune && sigma + Math.hypot(b1 - sx, sy) > (s.dist[A]! + b1) * (1 + REL)) return;
-  if (s.prune && sigma + Math.hypot(b0 - sx, sy) > (s.dist[B]! + (L - b0)) * (1 + REL)) return;
+  const A = t.tri[h]!, B = t.tri[next1(h)]!;
+  if (s.prune && sigma + len2(b1 - sx, sy) > (s.dist[A]! + b1) * (1 + REL)) return;
+  if (s.prune && sigma + len2(b0 - sx, sy) > (s.dist[B]! + (L - b0)) * (1 + REL)) return;
   const cx = s.hc[2 * h]!, cy = s.hc[2 * h + 1]!;
   const den = cy - sy;
   // ray I→C meets the axis at xC = sx + (cx − sx)·(−sy)/(cy − sy)
   const xC = den > 0 ? sx + ((cx - sx) * -sy) / den : cx;
-  const hp = prev(h), hn = next(h);
+  const hp = prev1(h), hn = next1(h);
   // C gets the real path through the window point nearest the ray I→C: exact when C is lit, and a
   // bound when a ray through a flat vertex grazes it from outside by a rounding error
   const xc = xC < b0 ? b0 : xC > b1 ? b1 : xC;
-  relaxVertex(s, t.tri[hp]!, sigma + Math.hypot(xc - sx, sy) + Math.hypot(cx - xc, cy), VIA_WINDOW, w);
+  relax(s, t.tri[hp]!, sigma + len2(xc - sx, sy) + len2(cx - xc, cy), VIA_WINDOW, w);
   const gp = t.twin[hp]!;
   if (gp >= 0 && b0 < xC) {
     // line A + u·(C − A): u(x) = x·sy / ((x − sx)·cy + sy·cx)
     const x1 = b1 < xC ? b1 : xC;
     const u0 = unit(b0 * sy, (b0 - sx) * cy + sy * cx);
     const u1 = unit(x1 * sy, (x1 - sx) * cy + sy * cx);
-    const lca = Math.hypot(cx, cy), Lc = s.hl[gp]!;
+    const lca = len2(cx, cy), Lc = s.hl[gp]!;
     if (lca > 0) {
       const ex = cx / lca, ey = cy / lca; // frame of twin(CA) = A→C
       addWindow(s, gp, u0 * Lc, u1 * Lc, sx * ex + sy * ey, -sx * ey + sy * ex, sigma, w);
@@ -195,7 +208,7 @@ export function propagateWindow(s: ExactState, w: number): void {
     const x0 = b0 > xC ? b0 : xC;
     const u0 = unit(sy * (x0 - L), (x0 - sx) * cy + sy * (cx - L));
     const u1 = unit(sy * (b1 - L), (b1 - sx) * cy + sy * (cx - L));
-    const dx = L - cx, dy = -cy, lbc = Math.hypot(dx, dy), Lc = s.hl[gn]!;
+    const dx = L - cx, dy = -cy, lbc = len2(dx, dy), Lc = s.hl[gn]!;
     if (lbc > 0) {
       const ex = dx / lbc, ey = dy / lbc; // frame of twin(BC) = C→B
       const px = sx - cx, py = sy - cy;
@@ -238,12 +251,12 @@ export function settleVertex(s: ExactState, v: number): void {
   const root = s.pseudo[v] ? addRoot(s, v, dv) : -1;
   let h = start, steps = 0;
   for (;;) {
-    relaxVertex(s, t.tri[next(h)]!, dv + s.hl[h]!, VIA_VERTEX, v);
+    relax(s, t.tri[next1(h)]!, dv + s.hl[h]!, VIA_VERTEX, v);
     if (root >= 0) emitFromPoint(s, faceOf(h), CORNER[h % 3]!, dv, root);
-    const hp = prev(h);
+    const hp = prev1(h);
     const o = t.twin[hp]!;
     if (o < 0) {
-      relaxVertex(s, t.tri[hp]!, dv + s.hl[hp]!, VIA_VERTEX, v);
+      relax(s, t.tri[hp]!, dv + s.hl[hp]!, VIA_VERTEX, v);
       break;
     }
     h = o;
