@@ -49,6 +49,9 @@ export interface SupernodalStructure {
 /** Largest typed-array length used for the value storage. */
 const MAX_VALUES = 2 ** 31 - 1;
 
+/** Largest dense frontal matrix, in doubles (2 GiB). */
+const MAX_FRONT = 2 ** 28;
+
 /**
  * Supernodes of the factor of the matrix C whose lower triangle pattern is
  * (lowColPtr, lowRowIdx), with elimination tree `parent` in postorder (every
@@ -163,7 +166,7 @@ export function findSupernodes(
     maxRows = Math.max(maxRows, top - rowPtr[s]!);
   }
   rows = rows.slice(0, top);
-  if (maxRows * maxRows > MAX_VALUES) {
+  if (maxRows * maxRows > MAX_FRONT) {
     throw limitError(`supernodal Cholesky would need a ${maxRows}×${maxRows} dense frontal matrix (too large; the ordering leaves a separator of that size)`);
   }
   // value offsets and the peak of the update-matrix stack (postorder: children on top)
