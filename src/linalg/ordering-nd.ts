@@ -22,7 +22,7 @@
  */
 import type { AdjacencyGraph } from './graph.js';
 import { approximateMinimumDegree } from './ordering-amd.js';
-import { bestCut, cutWork, splitByCut } from './separator.js';
+import { bestCuts, cutWork, splitByCut } from './separator.js';
 import type { Cut } from './separator.js';
 
 /** Each part keeps at least this share of the vertices outside the separator. */
@@ -169,8 +169,8 @@ export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOption
       keyB[x] = keyB[x]! - level[x]! + nlev;
     }
     const nlevA = nlev, nlevB = nlevU;
-    const cutA = bestCut(queue, m, keyA, nlevA, xadj, adj, label, lab, BALANCE, workA, cutBufA);
-    const cutB = bestCut(queue, m, keyB, nlevA + nlevB + 1, xadj, adj, label, lab, BALANCE, workB, cutBufB);
+    bestCuts(queue, m, keyA, nlevA, keyB, nlevA + nlevB + 1, xadj, adj, label, lab, BALANCE, workA, workB, cutBufA, cutBufB);
+    const cutA = cutBufA, cutB = cutBufB;
     let key = keyB, cut = cutB, work = workB;
     if (cutA.size <= cutB.size) {
       key = keyA;

@@ -17,7 +17,7 @@
  * "middle" between u and v, which are straighter on grid-like meshes.
  */
 
-/** Scratch arrays for {@link bestCut}; n = graph size, R = key range bound. */
+/** Scratch arrays for {@link bestCuts}; n = graph size, R = key range bound. */
 export interface CutWork {
   /** Largest neighbour key per vertex. */
   readonly maxKey: Int32Array;
@@ -45,50 +45,75 @@ export interface Cut {
 }
 
 /**
- * Finds the smallest one-sided separator among cuts that leave both parts
- * non-empty and at least `balance` × (m − |S|) vertices each. Vertices are
- * verts[0..m), all labelled `lab`, with keys in [0, R). Fills w.maxKey and
- * w.minKey for those vertices (used by {@link splitByCut}).
+ * For two keys at once (one pass over the edges), finds the smallest
+ * one-sided separator among the cuts that leave both parts non-empty and at
+ * least `balance` × (m − |S|) vertices each. Vertices are verts[0..m), all
+ * labelled `lab`; keyA < RA, keyB < RB. Fills the min/max neighbour keys of
+ * wA and wB (used by {@link splitByCut}); a result has size Infinity when no
+ * cut is balanced.
  */
-export function bestCut(
+export function bestCuts(
   verts: Int32Array,
   m: number,
-  key: Int32Array,
-  R: number,
+  keyA: Int32Array,
+  RA: number,
+  keyB: Int32Array,
+  RB: number,
   xadj: Int32Array,
   adj: Int32Array,
   label: Int32Array,
   lab: number,
   balance: number,
-  w: CutWork,
-  out: Cut,
-): Cut {
-  const { maxKey, minKey, up, down, count } = w;
-  up.fill(0, 0, R + 1);
-  down.fill(0, 0, R + 1);
-  count.fill(0, 0, R + 1);
+  wA: CutWork,
+  wB: CutWork,
+  outA: Cut,
+  outB: Cut,
+): void {
+  clear(wA, RA);
+  clear(wB, RB);
   for (let q = 0; q < m; q++) {
-    const x = verts[q]!, kx = key[x]!;
-    let mx = kx, mn = kx;
+    const x = verts[q]!, ka = keyA[x]!, kb = keyB[x]!;
+    let mxa = ka, mna = ka, mxb = kb, mnb = kb;
     for (let p = xadj[x]!; p < xadj[x + 1]!; p++) {
       const y = adj[p]!;
       if (label[y] !== lab) continue;
-      const ky = key[y]!;
-      if (ky > mx) mx = ky;
-      if (ky < mn) mn = ky;
+      const ya = keyA[y]!, yb = keyB[y]!;
+      if (ya > mxa) mxa = ya;
+      if (ya < mna) mna = ya;
+      if (yb > mxb) mxb = yb;
+      if (yb < mnb) mnb = yb;
     }
-    maxKey[x] = mx;
-    minKey[x] = mn;
-    count[kx]!++;
-    if (mx > kx) {
-      up[kx]!++;
-      up[mx]!--;
-    }
-    if (mn < kx) {
-      down[mn]!++;
-      down[kx]!--;
-    }
+    record(wA, x, ka, mxa, mna);
+    record(wB, x, kb, mxb, mnb);
   }
+  scan(wA, RA, m, balance, outA);
+  scan(wB, RB, m, balance, outB);
+}
+
+function clear(w: CutWork, R: number): void {
+  w.up.fill(0, 0, R + 1);
+  w.down.fill(0, 0, R + 1);
+  w.count.fill(0, 0, R + 1);
+}
+
+/** x (key k, neighbour keys in [mn, mx]) is on the up separators of t ∈ [k, mx), down ones of t ∈ [mn, k). */
+function record(w: CutWork, x: number, k: number, mx: number, mn: number): void {
+  w.maxKey[x] = mx;
+  w.minKey[x] = mn;
+  w.count[k]!++;
+  if (mx > k) {
+    w.up[k]!++;
+    w.up[mx]!--;
+  }
+  if (mn < k) {
+    w.down[mn]!++;
+    w.down[k]!--;
+  }
+}
+
+/** Prefix sums of the difference arrays give every cut's separator sizes; keeps the best balanced one. */
+function scan(w: CutWork, R: number, m: number, balance: number, out: Cut): void {
+  const { up, down, count } = w;
   out.size = Infinity;
   let su = 0, sd = 0, below = 0;
   for (let t = 0; t + 1 < R; t++) {
@@ -108,11 +133,10 @@ export function bestCut(
       out.down = true;
     }
   }
-  return out;
 }
 
 /**
- * Writes A, then B, then S of the cut (as found by the last {@link bestCut}
+ * Writes A, then B, then S of the cut (as found by the last {@link bestCuts}
  * call with the same key) into out[0..m); returns [|A|, |B|].
  */
 export function splitByCut(verts: Int32Array, m: number, key: Int32Array, cut: Cut, w: CutWork, out: Int32Array): [number, number] {
