@@ -29,8 +29,23 @@ export function supernodalLowerSolve(sn: SupernodalStructure, Lx: Float64Array, 
       for (let k = 0; k < j; k++) t -= Lx[rj + k]! * x[f + k]!;
       x[f + j] = t / Lx[rj + j]!;
     }
-    // x(R₂) −= L₂₁ y_s: two rows per pass over y_s
+    // x(R₂) −= L₂₁ y_s: four (then two) rows per pass over y_s
     let r = nc;
+    for (; r + 3 < nr; r += 4) {
+      const q0 = v0 + r * nc, q1 = q0 + nc, q2 = q1 + nc, q3 = q2 + nc;
+      let t0 = 0, t1 = 0, t2 = 0, t3 = 0;
+      for (let k = 0; k < nc; k++) {
+        const y = x[f + k]!;
+        t0 += Lx[q0 + k]! * y;
+        t1 += Lx[q1 + k]! * y;
+        t2 += Lx[q2 + k]! * y;
+        t3 += Lx[q3 + k]! * y;
+      }
+      x[rows[r0 + r]!]! -= t0;
+      x[rows[r0 + r + 1]!]! -= t1;
+      x[rows[r0 + r + 2]!]! -= t2;
+      x[rows[r0 + r + 3]!]! -= t3;
+    }
     for (; r + 1 < nr; r += 2) {
       const q0 = v0 + r * nc, q1 = q0 + nc;
       let t0 = 0, t1 = 0;
