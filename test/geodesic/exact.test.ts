@@ -295,3 +295,14 @@ describe('exact distance: numerical robustness', () => {
     }
   });
 });
+
+describe('regression: path to an unreachable point', () => {
+  it('has no points and infinite length (it used to return the point itself with length 0)', () => {
+    const pos = Float64Array.from([0, 0, 0, 1, 0, 0, 0, 1, 0, 5, 0, 0, 6, 0, 0, 5, 1, 0]);
+    const { topology: t } = buildTopology([0, 1, 2, 3, 4, 5], 6);
+    const r = exactDistance(intrinsicFromPositions(t, pos), { points: [{ kind: 'vertex', vertex: 0 }], curves: [] });
+    const p = r.pathTo({ kind: 'vertex', vertex: 4 });
+    expect(p.points).toEqual([]);
+    expect(p.length).toBe(Infinity);
+  });
+});

@@ -151,7 +151,7 @@ export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: Exa
     pathTo(p) {
       checkSurfacePoint(p, t, 'point');
       const b = best(p);
-      if (!(b.value <= reach)) return { points: [], length: Infinity };
+      if (!(b.value <= reach) || !Number.isFinite(b.value)) return { points: [], length: Infinity };
       const points = tracePath(s, p, b, sourcePoint);
       return { points, length: pathLength(mesh, points) };
     },
