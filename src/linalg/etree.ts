@@ -41,16 +41,30 @@ export function eliminationTree(
 
 /**
  * Postorder of a forest given by parent[]: children before parents, each
- * subtree contiguous; children are visited in increasing index. Returns
- * post[k] = the k-th node. Iterative (no recursion depth limit).
+ * subtree contiguous; children are visited in increasing index, or by
+ * increasing `weight` when given (ties by index), so the heaviest child ends
+ * next to its parent. Returns post[k] = the k-th node. Iterative.
  */
-export function postorder(parent: Int32Array, n: number): Int32Array {
+export function postorder(parent: Int32Array, n: number, weight?: Int32Array): Int32Array {
   const head = new Int32Array(n).fill(-1);
   const next = new Int32Array(n);
   const stack = new Int32Array(n);
   const post = new Int32Array(n);
-  // child lists, built in reverse so that each list is in increasing order
-  for (let j = n - 1; j >= 0; j--) {
+  // child lists, built by pushing at the head: nodes are pushed in decreasing
+  // index (or decreasing weight) so each list runs in increasing order
+  const order = new Int32Array(n);
+  for (let j = 0; j < n; j++) order[j] = n - 1 - j;
+  if (weight) {
+    // stable counting sort by decreasing weight
+    let maxW = 0;
+    for (let j = 0; j < n; j++) maxW = Math.max(maxW, weight[j]!);
+    const cnt = new Int32Array(maxW + 2);
+    for (let j = 0; j < n; j++) cnt[maxW - weight[j]! + 1]!++;
+    for (let w = 0; w <= maxW; w++) cnt[w + 1]! += cnt[w]!;
+    for (let j = n - 1; j >= 0; j--) order[cnt[maxW - weight[j]!]!++] = j;
+  }
+  for (let q = 0; q < n; q++) {
+    const j = order[q]!;
     const p = parent[j]!;
     if (p === -1) continue;
     next[j] = head[p]!;

@@ -125,7 +125,12 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
   // but subtrees become contiguous column ranges (supernodes, frontal stack).
   const pinv0 = inversePermutation(perm0);
   const first = permutedPattern(Alower, pinv0);
-  const post0 = postorder(eliminationTree(n, first.upPtr, first.upIdx), n);
+  // Children are visited by increasing column count, so the child whose
+  // pattern is closest to its parent's is numbered just before it, where
+  // relaxed supernode amalgamation can merge them.
+  const parent0 = eliminationTree(n, first.upPtr, first.upIdx);
+  const count0 = columnCounts(n, first.lowPtr, first.lowIdx, parent0, postorder(parent0, n));
+  const post0 = postorder(parent0, n, count0);
   const perm = new Int32Array(n);
   for (let k = 0; k < n; k++) perm[k] = perm0[post0[k]!]!;
   const pinv = inversePermutation(perm);
