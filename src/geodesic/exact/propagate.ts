@@ -35,11 +35,12 @@
  * shortest path uses the window. Bounds d(·) are lengths of real paths, so
  * the test only ever removes non-shortest paths.
  */
-import { next, prev, faceOf } from '../../mesh/topology.js';
+import { next, prev } from '../../mesh/topology.js';
 import type { ExactState } from './state.js';
 import { addRoot, relaxVertex, VIA_WINDOW, VIA_VERTEX } from './state.js';
 import { trimBoth } from './trim.js';
 import { propagatePlanar } from './planar.js';
+import { emitPseudoSource } from './pseudo-wedge.js';
 
 /** √(x² + y²) without Math.hypot's overflow guard, which costs several times more in V8 (lengths here are far from 1e±154). Local to each hot module so it inlines. */
 function len2(x: number, y: number): number {
@@ -237,22 +238,16 @@ export function emitFromPoint(s: ExactState, f: number, b: ArrayLike<number>, si
   }
 }
 
-const CORNER: [number, number, number][] = [[1, 0, 0], [0, 1, 0], [0, 0, 1]];
-
-/** Settles vertex v: relaxes its edge neighbours and, for a pseudo-source, emits windows over its fan. */
+/** Settles vertex v: relaxes its edge neighbours and, for a pseudo-source, emits windows into its shadow wedge. */
 export function settleVertex(s: ExactState, v: number): void {
   const t = s.t;
   s.settled[v] = 1;
   const dv = s.dist[v]!;
   const start = t.vertexHalfedge[v]!;
   if (start < 0) return;
-  // a pseudo-source lights its whole fan; windows outside the shadow behind v lose every
-  // comparison at once and are trimmed on their first edges
-  const root = s.pseudo[v] ? addRoot(s, v, dv) : -1;
   let h = start, steps = 0;
   for (;;) {
     relax(s, t.tri[next1(h)]!, dv + s.hl[h]!, VIA_VERTEX, v);
-    if (root >= 0) emitFromPoint(s, faceOf(h), CORNER[h % 3]!, dv, root);
     const hp = prev1(h);
     const o = t.twin[hp]!;
     if (o < 0) {
@@ -262,6 +257,8 @@ export function settleVertex(s: ExactState, v: number): void {
     h = o;
     if (h === start || ++steps > t.tri.length) break;
   }
+  // neighbours first: their lowered bounds make the vertex filter sharper for v's windows
+  if (s.pseudo[v]) emitPseudoSource(s, v, addRoot(s, v, dv));
 }
 
 /**

@@ -22,6 +22,7 @@ const SLACK = 1e-9;
 export function markPseudoSources(s: ExactState): number {
   const t = s.t;
   const ang = cornerAngles(s.mesh);
+  s.angle = ang;
   const sum = new Float64Array(t.nv);
   const boundary = new Uint8Array(t.nv);
   for (let h = 0; h < ang.length; h++) {

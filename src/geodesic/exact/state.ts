@@ -55,6 +55,8 @@ export interface ExactState {
   readonly settled: Uint8Array;
   /** 1 for vertices that emit windows when settled (sources, saddles, boundary vertices). */
   readonly pseudo: Uint8Array;
+  /** Corner angle at the tail of each half-edge (set by markPseudoSources; empty until then). */
+  angle: Float64Array;
   /** All windows. */
   readonly win: WindowStore;
   /** Windows (id ≥ 0) and vertex events (−1 − v) by key. */
@@ -96,6 +98,7 @@ export function createState(mesh: IntrinsicMesh, maxDistance: number, maxWindows
     viaId: new Int32Array(t.nv).fill(-1),
     settled: new Uint8Array(t.nv),
     pseudo: new Uint8Array(t.nv),
+    angle: new Float64Array(0),
     win: new WindowStore(t.nf, capacity, maxWindows),
     queue: new EventQueue(capacity),
     rootVertex: new Int32Array(64),
