@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { test as fcTest, fc } from '@fast-check/vitest';
-import { adjacencyFromLower, analyzeCholesky, approximateMinimumDegree, nestedDissection } from '../../src/linalg/index.js';
+import { adjacencyFromLower, analyzeCholesky, approximateMinimumDegree, nestedDissection, postorder } from '../../src/linalg/index.js';
 import type { CscMatrix, Ordering } from '../../src/linalg/index.js';
 import { gridLaplacianLower, randomSpdLower } from './helpers.js';
 
@@ -81,6 +81,45 @@ describe('symbolic analysis against explicit elimination', () => {
         stored += rows.length * (l - f) - ((l - f) * (l - f - 1)) / 2;
       }
       expect(stored).toBeGreaterThanOrEqual(sym.nnzL);
+    },
+  );
+});
+
+describe('postorder', () => {
+  // Definition of a postorder (common practice): every node after all nodes
+  // of its subtree, each subtree a contiguous range ending at its root.
+  fcTest.prop([fc.array(fc.integer({ min: 0, max: 1_000_000 }), { minLength: 1, maxLength: 80 }), fc.boolean()], { numRuns: 60 })(
+    'children before parents, contiguous subtrees, siblings by weight',
+    (raw, weighted) => {
+      const n = raw.length;
+      // random forest: parent of j is a larger index or −1
+      const parent = Int32Array.from(raw, (r, j) => (j === n - 1 || r % 5 === 0 ? -1 : j + 1 + (r % (n - 1 - j))));
+      const weight = Int32Array.from(raw, (r) => r % 7);
+      const post = postorder(parent, n, weighted ? weight : undefined);
+      expect(isPermutation(post, n)).toBe(true);
+      const at = new Int32Array(n);
+      for (let k = 0; k < n; k++) at[post[k]!] = k;
+      const size = new Int32Array(n).fill(1);
+      for (let j = 0; j < n; j++) if (parent[j] !== -1) expect(at[j]!).toBeLessThan(at[parent[j]!]!);
+      for (let k = 0; k < n; k++) {
+        const j = post[k]!;
+        if (parent[j] !== -1) size[parent[j]!]! += size[j]!;
+      }
+      // the subtree of j occupies post[at[j] − size[j] + 1 .. at[j]]
+      for (let j = 0; j < n; j++) {
+        for (let k = at[j]! - size[j]! + 1; k <= at[j]!; k++) {
+          let a = post[k]!;
+          while (a !== j && a !== -1) a = parent[a]!;
+          expect(a).toBe(j);
+        }
+      }
+      if (weighted) {
+        for (let a = 0; a < n; a++) {
+          for (let b = 0; b < n; b++) {
+            if (a !== b && parent[a] !== -1 && parent[a] === parent[b] && weight[a]! < weight[b]!) expect(at[a]!).toBeLessThan(at[b]!);
+          }
+        }
+      }
     },
   );
 });
