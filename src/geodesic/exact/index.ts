@@ -95,7 +95,9 @@ export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: Exa
   sources.curves.forEach((c, i) => c.forEach((p) => checkSurfacePoint(p, t, `curve ${i}`)));
   const targets = (opts.targets ?? []).map((p) => checkSurfacePoint(p, t, 'target'));
 
-  const s = createState(mesh, maxD, maxW, Math.min(maxW, 8 * t.nf + 1024));
+  // reserve the cap at once: large typed arrays are zero pages mapped lazily, so only the windows
+  // actually made cost memory, and doubling (copying, and touching every copied page) is avoided
+  const s = createState(mesh, maxD, maxW, maxW);
   markPseudoSources(s);
   const all = seedSources(s, sources);
   const bary = [0, 0, 0];
