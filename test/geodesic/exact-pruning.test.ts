@@ -1,6 +1,6 @@
 /**
  * Pruning never changes the answer: the default solver (vertex filter,
- * trimming, merging) against plain window propagation with all pruning off
+ * trimming, merging, saddle shadow wedges) against plain window propagation with all pruning off
  * on small curved meshes (common practice: an unoptimised run of the same
  * method as the oracle), at every vertex and at random face points.
  */
@@ -14,6 +14,7 @@ import { createState } from '../../src/geodesic/exact/state.js';
 import { markPseudoSources } from '../../src/geodesic/exact/pseudo-sources.js';
 import { seedSources } from '../../src/geodesic/exact/seed.js';
 import { runEvents } from '../../src/geodesic/exact/propagate.js';
+import type { ExactState } from '../../src/geodesic/exact/state.js';
 import { evaluateInFace } from '../../src/geodesic/exact/evaluate.js';
 import type { SourceSet } from '../../src/geodesic/sources.js';
 import { icosphere, terrain, rng } from '../fixtures/shapes.js';
@@ -73,6 +74,60 @@ describe('exact distance: pruning keeps the answer of unpruned window propagatio
       for (let i = 0; i < s.positions.length; i++) s.positions[i]! *= 1 + amp * (r() - 0.5);
       const sm = meshOf(s);
       compare(sm, { points: [{ kind: 'face', face: Math.floor(r() * sm.topology.nf), bary: [0.2, 0.3, 0.5] }], curves: [] }, seed + 1);
+    },
+  );
+});
+
+/** A pruned run from a vertex source with the saddle wedges on or off. */
+function runPruned(m: IntrinsicMesh, src: number, wedge: boolean): ExactState {
+  const s = createState(m, Infinity, 5_000_000, 1024);
+  s.wedge = wedge;
+  markPseudoSources(s);
+  seedSources(s, { points: [{ kind: 'vertex', vertex: src }], curves: [] });
+  runEvents(s);
+  return s;
+}
+
+/** Windows emitted straight from roots (sources and pseudo-sources). */
+const rootWindows = (s: ExactState): number => {
+  let n = 0;
+  for (let w = 0; w < s.win.count; w++) if (s.win.parent[w]! < 0) n++;
+  return n;
+};
+
+describe('exact distance: saddles emit only into their shadow wedge', () => {
+  // A geodesic bends at a vertex only with an angle >= pi on both sides (Mitchell, Mount,
+  // Papadimitriou, SIAM J. Comput. 16(4), 1987), so a saddle's windows outside the wedge
+  // [arrival + pi, arrival + total angle - pi] are never needed: with the wedge the root windows
+  // drop and every distance stays that of the full-fan run and of the unpruned run.
+  const check = (m: IntrinsicMesh, src: number, seed: number) => {
+    const on = runPruned(m, src, true), off = runPruned(m, src, false);
+    const scale = Math.max(...off.dist.filter(Number.isFinite));
+    for (let v = 0; v < m.topology.nv; v++) expect(Math.abs(on.dist[v]! - off.dist[v]!)).toBeLessThanOrEqual(1e-12 * scale);
+    const rand = rng(seed), a = { value: 0, kind: 0, id: 0, x: 0 }, b = { value: 0, kind: 0, id: 0, x: 0 };
+    for (let i = 0; i < 30; i++) {
+      const f = Math.floor(rand() * m.topology.nf);
+      const b0 = rand(), b1 = rand() * (1 - b0);
+      const bary: [number, number, number] = [b0, b1, 1 - b0 - b1];
+      expect(Math.abs(evaluateInFace(on, f, bary, a).value - evaluateInFace(off, f, bary, b).value)).toBeLessThanOrEqual(1e-12 * scale);
+    }
+    compare(m, { points: [{ kind: 'vertex', vertex: src }], curves: [] }, seed);
+    return { on: rootWindows(on), off: rootWindows(off) };
+  };
+
+  it('egg-crate terrain (many saddles): fewer root windows, same distances', () => {
+    const m = meshOf(terrain(8, 8, 1, 1, (x, y) => 0.15 * Math.sin(9 * x) * Math.sin(8 * y)));
+    const n = check(m, 40, 7);
+    expect(n.on).toBeLessThan(n.off);
+  });
+
+  test.prop([fc.integer({ min: 4, max: 7 }), fc.double({ min: 0.02, max: 0.3, noNaN: true }), fc.integer({ min: 1, max: 1e6 })], { numRuns: 10 })(
+    'random bumpy terrains, including sources on the boundary (fast-check)',
+    (n, amp, seed) => {
+      const r = rng(seed);
+      const ph = [r() * 6, r() * 6, 4 + r() * 6, 4 + r() * 6];
+      const m = meshOf(terrain(n, n, 1, 1, (x, y) => amp * Math.sin(ph[2]! * x + ph[0]!) * Math.cos(ph[3]! * y + ph[1]!)));
+      check(m, Math.floor(r() * m.topology.nv), seed);
     },
   );
 });

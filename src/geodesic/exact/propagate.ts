@@ -101,6 +101,10 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
   // trim N against the windows already on this edge (either side) and, in the first pass, queued
   // ones against N; passes repeat while N shrinks (a cut can expose an overlap with another window)
   const W = s.win, g = t.twin[h]!;
+  const tolI = MERGE * (L + Math.abs(sx) + Math.abs(sy) + Math.abs(sigma));
+  // merging needs a queued window on h with N's image and σ; the first pass notes whether one
+  // exists (trimming only ever removes windows), so the merge scan below runs only then
+  let mergeable = flat || !prune;
   for (let pass = 0, changed = !flat && prune; changed && pass < 8; pass++) {
     changed = false;
     for (let side = 0; side < 2; side++) {
@@ -116,6 +120,8 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
         before = o;
         if (W.flat[o]) continue;
         const oLo = side === 0 ? W.b0[o]! : L - W.b1[o]!, oHi = side === 0 ? W.b1[o]! : L - W.b0[o]!;
+        if (side === 0 && !mergeable && oHi >= b0 - tolI && oLo <= b1 + tolI && W.state[o] === 0 &&
+          Math.abs(W.sigma[o]! - sigma) <= tolI && Math.abs(W.sx[o]! - sx) <= tolI && Math.abs(W.sy[o]! - sy) <= tolI) mergeable = true;
         if (!(oHi > b0 && oLo < b1)) continue;
         const oc = side === 0 ? W.sx[o]! : L - W.sx[o]!;
         const r = trimPair(b0, b1, sx, sy, sigma, oLo, oHi, oc, W.sy[o]!, W.sigma[o]!, pass === 0 && W.state[o] === 0, TMP);
@@ -141,8 +147,7 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     return -1;
   }
   // a queued window on this half-edge with the same image and σ that touches N: grow it instead
-  const tolI = MERGE * (L + Math.abs(sx) + Math.abs(sy) + Math.abs(sigma));
-  for (let o = prune ? W.heHead[h]! : -1; o >= 0; o = W.nextOnHe[o]!) {
+  for (let o = prune && mergeable ? W.heHead[h]! : -1; o >= 0; o = W.nextOnHe[o]!) {
     if (W.state[o] !== 0 || W.flat[o] !== flat) continue;
     if (Math.abs(W.sx[o]! - sx) > tolI || Math.abs(W.sy[o]! - sy) > tolI || Math.abs(W.sigma[o]! - sigma) > tolI) continue;
     const o0 = W.b0[o]!, o1 = W.b1[o]!;

@@ -30,7 +30,13 @@
  * θ0 is known when v's bound came straight from a window or along an edge;
  * otherwise (a source vertex, a point root in a neighbouring face) the whole
  * fan is lit, as without the restriction. The wedge is widened by a slack
- * so rounding in θ0 can only add windows, never remove a needed one.
+ * so rounding in θ0 can only add windows, never remove a needed one. Where
+ * rounding could exceed that slack the whole fan is lit too, as before:
+ * around needles and slivers (a corner angle below MIN_ANGLE, where angles
+ * from lengths lose digits), and at vertices whose excess Θ − 2π (Θ − π on
+ * the boundary) is so small that they may be flat vertices marked by
+ * rounding; there the extra windows make up for rays lost to rounding in
+ * the thin faces (measured: columns of 1e-9-wide slivers in a flat grid).
  */
 import { next, prev } from '../../mesh/topology.js';
 import type { ExactState } from './state.js';
@@ -39,6 +45,10 @@ import { addWindow } from './propagate.js';
 
 /** Angular slack (radians) added on both sides of the wedge. */
 const SLACK = 1e-7;
+/** Below this angle excess (radians) the vertex may be flat up to rounding: it lights its whole fan. */
+const MIN_EXCESS = 1e-6;
+/** A fan with a corner angle below this (radians) lights whole: its layouts' directions may be off by more than SLACK. */
+const MIN_ANGLE = 1e-3;
 
 let fanH = new Int32Array(64);
 let fanT = new Float64Array(64);
@@ -98,13 +108,18 @@ function arrival(s: ExactState, v: number, n: number, boundary: boolean): number
  */
 export function emitPseudoSource(s: ExactState, v: number, root: number): void {
   if (s.t.vertexHalfedge[v]! < 0) return;
-  const full = !s.prune || s.angle.length === 0;
+  const full = !s.prune || !s.wedge || s.angle.length === 0;
   let n = walkFan(s, v);
   const boundary = n < 0;
   if (boundary) n = -n;
   const last = fanH[n - 1]!;
   const total = fanT[n - 1]! + s.angle[last]!;
-  const th0 = full ? NaN : arrival(s, v, n, boundary);
+  let wedge = !full && total - (boundary ? Math.PI : 2 * Math.PI) > MIN_EXCESS;
+  for (let i = 0; wedge && i < n; i++) {
+    const f3 = fanH[i]! - (fanH[i]! % 3), A = s.angle;
+    if (A[f3]! < MIN_ANGLE || A[f3 + 1]! < MIN_ANGLE || A[f3 + 2]! < MIN_ANGLE) wedge = false;
+  }
+  const th0 = wedge ? arrival(s, v, n, boundary) : NaN;
   // allowed set as up to two absolute intervals [l0, h0] ∪ [l1, h1]
   let l0 = -Infinity, h0 = Infinity, l1 = 1, h1 = 0;
   if (th0 === th0) {

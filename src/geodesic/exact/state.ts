@@ -83,6 +83,8 @@ export interface ExactState {
    * checks on small meshes only: the window count grows very fast).
    */
   prune: boolean;
+  /** Saddles emit windows only into their shadow wedge (pseudo-wedge.ts; default on, needs `prune`). */
+  wedge: boolean;
 }
 
 /** Allocates the state for a mesh; `capacity` is the initial window capacity. */
@@ -110,6 +112,7 @@ export function createState(mesh: IntrinsicMesh, maxDistance: number, maxWindows
     overflow: false,
     capped: false,
     prune: true,
+    wedge: true,
   };
 }
 
