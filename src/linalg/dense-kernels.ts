@@ -29,13 +29,20 @@ const NB = 64;
 /**
  * Factors the first nc columns of the nr × nr row-major F (lower triangle)
  * and leaves the Schur complement in the trailing block. Returns −1, or the
- * local column whose pivot is not a positive finite number (then F(j,j)
- * holds that value).
+ * local column whose pivot is not a finite number above its floor (0, or
+ * minPivot[col0 + j] when given; then F(j,j) holds that value).
  */
-export function factorFront(F: Float64Array, nr: number, nc: number, simd: SimdFront | null = null): number {
+export function factorFront(
+  F: Float64Array,
+  nr: number,
+  nc: number,
+  simd: SimdFront | null = null,
+  minPivot: Float64Array | null = null,
+  col0 = 0,
+): number {
   for (let jb = 0; jb < nc; jb += NB) {
     const je = Math.min(jb + NB, nc);
-    const bad = factorBlock(F, nr, jb, je);
+    const bad = factorBlock(F, nr, jb, je, minPivot, col0);
     if (bad >= 0) return bad;
     if (je < nr) trailingUpdate(F, nr, je, jb, je, simd);
   }
@@ -47,7 +54,7 @@ export function factorFront(F: Float64Array, nr: number, nc: number, simd: SimdF
  * k ∈ [jb, j) only:
  *   L(j,j) = sqrt(F(j,j) − Σ L(j,k)²),  L(i,j) = (F(i,j) − Σ L(i,k) L(j,k)) / L(j,j).
  */
-function factorBlock(F: Float64Array, nr: number, jb: number, je: number): number {
+function factorBlock(F: Float64Array, nr: number, jb: number, je: number, minPivot: Float64Array | null, col0: number): number {
   for (let j = jb; j < je; j++) {
     const rj = j * nr;
     let d = F[rj + j]!;
@@ -55,7 +62,8 @@ function factorBlock(F: Float64Array, nr: number, jb: number, je: number): numbe
       const v = F[rj + k]!;
       d -= v * v;
     }
-    if (!(d > 0 && d < Infinity)) {
+    const floor = minPivot === null ? 0 : minPivot[col0 + j]!;
+    if (!(d > floor && d < Infinity)) {
       F[rj + j] = d;
       return j;
     }

@@ -50,8 +50,8 @@ export function multifrontalWork(n: number, sn: SupernodalStructure, useSimd = t
 /**
  * Factors C (lower triangle in CSC: cp, ci, cx; rows ≥ column) into the
  * row-major supernode blocks Lx. Returns −1 on success or the (permuted)
- * column with a non-positive or non-finite pivot; `pivotOut[0]` receives
- * that pivot value. Never throws, never allocates.
+ * column whose pivot is not finite and above its floor (0, or minPivot[k]);
+ * `pivotOut[0]` receives that pivot value. Never throws, never allocates.
  */
 export function multifrontalFactor(
   sn: SupernodalStructure,
@@ -61,6 +61,7 @@ export function multifrontalFactor(
   Lx: Float64Array,
   work: MultifrontalWork,
   pivotOut: Float64Array,
+  minPivot: Float64Array | null = null,
 ): number {
   const { nsuper, superStart, childCount, rowPtr, rows, valPtr } = sn;
   const { front: F, stack, pos, stackIds, rel, simd } = work;
@@ -105,7 +106,7 @@ export function multifrontalFactor(
         }
       }
     }
-    const bad = factorFront(F, nr, nc, simd);
+    const bad = factorFront(F, nr, nc, simd, minPivot, f);
     if (bad >= 0) {
       pivotOut[0] = F[bad * nr + bad]!;
       return f + bad;

@@ -20,6 +20,15 @@ export interface FactorOptions {
    * platform has it (default true); false forces the plain kernels.
    */
   simd?: boolean;
+  /**
+   * Relative pivot floor τ ≥ 0 (default 0): a pivot d_k ≤ τ·|A_kk| is
+   * rejected like a non-positive one. With τ = 0 only d_k ≤ 0 is caught, and a
+   * singular positive semidefinite matrix (a pure cotangent Laplacian, say)
+   * can pass with a tiny positive rounding pivot and give huge solutions;
+   * τ ≈ 1e-10 catches that case but also rejects SPD matrices that are that
+   * close to singular.
+   */
+  pivotTolerance?: number;
 }
 
 /** A numeric Cholesky factor P·A·Pᵀ = L·Lᵀ of a symmetric positive definite matrix. */
@@ -43,9 +52,15 @@ export class CholeskyFactor {
   private readonly intWork: Int32Array;
   private readonly mf: MultifrontalWork | null;
   private readonly pivot = new Float64Array(1);
+  private readonly pivotTolerance: number;
+  private readonly minPivot: Float64Array | null;
 
   private constructor(sym: CholeskySymbolic, opts: FactorOptions) {
     const n = sym.n;
+    const tol = opts.pivotTolerance ?? 0;
+    if (!(tol >= 0 && tol < Infinity)) throw usageError(`pivotTolerance must be a finite number ≥ 0, got ${tol}`);
+    this.pivotTolerance = tol;
+    this.minPivot = tol > 0 ? new Float64Array(n) : null;
     this.n = n;
     this.nnzL = sym.nnzL;
     this.symbolic = sym;
@@ -96,14 +111,25 @@ export class CholeskyFactor {
     }
     const Cx = this.Cx, Ax = Alower.values;
     for (let p = 0; p < nz; p++) Cx[valueMap[p]!] = Ax[p]!;
+    const minPivot = this.minPivot;
+    if (minPivot !== null) {
+      // floor_k = τ·|A_kk| in the permuted numbering (missing diagonal: 0)
+      minPivot.fill(0);
+      const { pinv } = sym;
+      for (let j = 0; j < n; j++) {
+        for (let p = Alower.colPtr[j]!; p < Alower.colPtr[j + 1]!; p++) {
+          if (Alower.rowIdx[p] === j) minPivot[pinv[j]!] = this.pivotTolerance * Math.abs(Ax[p]!);
+        }
+      }
+    }
     let bad: number;
     if (sym.supernodal) {
-      bad = multifrontalFactor(sym.supernodal, sym.cColPtr, sym.cRowIdx, Cx, this.Lx, this.mf!, this.pivot);
+      bad = multifrontalFactor(sym.supernodal, sym.cColPtr, sym.cRowIdx, Cx, this.Lx, this.mf!, this.pivot, minPivot);
     } else {
       const w = this.intWork;
       const next = w.subarray(0, n);
       next.set(sym.lColPtr.subarray(0, n));
-      bad = upLookingFactor(sym, Cx, this.Li, this.Lx, this.x, next, w.subarray(n, 2 * n), w.subarray(2 * n, 3 * n));
+      bad = upLookingFactor(sym, Cx, this.Li, this.Lx, this.x, next, w.subarray(n, 2 * n), w.subarray(2 * n, 3 * n), minPivot);
       if (bad >= 0) this.pivot[0] = this.Lx[sym.lColPtr[bad]!]!;
     }
     if (bad >= 0) {

@@ -17,7 +17,7 @@ import type { CholeskySymbolic } from './symbolic.js';
 
 /**
  * Up-looking factorization kernel. Returns −1 on success, or the pivot column
- * k where γ − l₁₂ᵀl₁₂ was not a positive finite number (then `Lx[Lp[k]]` holds
+ * k where γ − l₁₂ᵀl₁₂ was not a finite number above its floor (0, or minPivot[k]) (then `Lx[Lp[k]]` holds
  * that value and the factor is incomplete). Never throws.
  */
 export function upLookingFactor(
@@ -29,6 +29,7 @@ export function upLookingFactor(
   next: Int32Array,
   stack: Int32Array,
   mark: Int32Array,
+  minPivot: Float64Array | null = null,
 ): number {
   const { n, parent, cColPtr: Cp, cRowIdx: Ci, lColPtr: Lp } = sym;
   mark.fill(-1);
@@ -66,7 +67,7 @@ export function upLookingFactor(
     }
     const pk = Lp[k]!;
     Li[pk] = k;
-    if (!(d > 0 && d < Infinity)) {
+    if (!(d > (minPivot === null ? 0 : minPivot[k]!) && d < Infinity)) {
       Lx[pk] = d;
       return k;
     }

@@ -327,6 +327,25 @@ describe('non-SPD input is rejected with NUMERIC, never NaN', () => {
       'matrix is not positive definite (pivot -3 at column 1)',
     );
   });
+  it('a singular PSD matrix (pure Laplacian of a 120×120 grid) is caught with a relative pivot floor', () => {
+    // The graph Laplacian has the constant vector in its kernel (common
+    // practice), so its last pivot is zero up to rounding and may come out
+    // tiny and positive; pivotTolerance turns that into the NUMERIC error.
+    const A = gridLaplacianLower(120, 120, 0, true, 3);
+    const Ashift = gridLaplacianLower(120, 120, 1e-3, true, 3);
+    for (const method of METHODS) {
+      const sym = analyzeCholesky(A, { method });
+      expect(() => CholeskyFactor.factor(A, sym, { pivotTolerance: 1e-10 })).toThrow(
+        expect.objectContaining({ code: 'NUMERIC', message: expect.stringMatching(/^matrix is not positive definite \(pivot \S+ at column \d+\)$/) }),
+      );
+      const f = CholeskyFactor.factor(Ashift, sym, { pivotTolerance: 1e-10 });
+      const b = randomVector(A.n, 2);
+      const x = new Float64Array(A.n);
+      f.solve(b, x);
+      expect(scaledResidual(Ashift, x, b)).toBeLessThan(1e-14);
+    }
+    expect(() => CholeskyFactor.factor(A, analyzeCholesky(A), { pivotTolerance: -1 })).toThrow(expect.objectContaining({ code: 'USAGE' }));
+  });
   it('an upper-triangle input is a USAGE error', () => {
     const T = new TripletMatrix(2);
     T.add(0, 0, 1);
