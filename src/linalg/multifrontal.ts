@@ -113,14 +113,10 @@ export function multifrontalFactor(
     }
     // copy L's block (first nc entries of every row)
     const v0 = valPtr[s]!;
-    if (nc >= 16) {
-      for (let r = 0; r < nr; r++) Lx.set(F.subarray(r * nr, r * nr + nc), v0 + r * nc);
-    } else {
-      for (let r = 0; r < nr; r++) {
-        const src = r * nr;
-        const dst = v0 + r * nc;
-        for (let k = 0; k < nc; k++) Lx[dst + k] = F[src + k]!;
-      }
+    for (let r = 0; r < nr; r++) {
+      const src = r * nr;
+      const dst = v0 + r * nc;
+      for (let k = 0; k < nc; k++) Lx[dst + k] = F[src + k]!;
     }
     const m = nr - nc;
     if (m > 0) {
@@ -128,12 +124,7 @@ export function multifrontalFactor(
       let u = stackTop;
       for (let a = 0; a < m; a++) {
         const src = (nc + a) * nr + nc;
-        if (a >= 16) {
-          stack.set(F.subarray(src, src + a + 1), u);
-          u += a + 1;
-        } else {
-          for (let b = 0; b <= a; b++) stack[u++] = F[src + b]!;
-        }
+        for (let b = 0; b <= a; b++) stack[u++] = F[src + b]!;
       }
       stackTop = u;
       stackIds[nStack++] = s;

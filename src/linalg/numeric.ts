@@ -49,7 +49,7 @@ export class CholeskyFactor {
   private readonly Li: Int32Array;
   private readonly Cx: Float64Array;
   private readonly x: Float64Array;
-  private readonly intWork: Int32Array;
+  private readonly intWork: [Int32Array, Int32Array, Int32Array];
   private readonly mf: MultifrontalWork | null;
   private readonly pivot = new Float64Array(1);
   private readonly pivotTolerance: number;
@@ -69,12 +69,12 @@ export class CholeskyFactor {
     if (sym.supernodal) {
       this.Lx = new Float64Array(sym.supernodal.valPtr[sym.supernodal.nsuper]!);
       this.Li = new Int32Array(0);
-      this.intWork = new Int32Array(0);
+      this.intWork = [new Int32Array(0), new Int32Array(0), new Int32Array(0)];
       this.mf = multifrontalWork(n, sym.supernodal, opts.simd ?? true);
     } else {
       this.Lx = new Float64Array(sym.nnzL);
       this.Li = new Int32Array(sym.nnzL);
-      this.intWork = new Int32Array(3 * n);
+      this.intWork = [new Int32Array(n), new Int32Array(n), new Int32Array(n)];
       this.mf = null;
     }
   }
@@ -126,10 +126,9 @@ export class CholeskyFactor {
     if (sym.supernodal) {
       bad = multifrontalFactor(sym.supernodal, sym.cColPtr, sym.cRowIdx, Cx, this.Lx, this.mf!, this.pivot, minPivot);
     } else {
-      const w = this.intWork;
-      const next = w.subarray(0, n);
-      next.set(sym.lColPtr.subarray(0, n));
-      bad = upLookingFactor(sym, Cx, this.Li, this.Lx, this.x, next, w.subarray(n, 2 * n), w.subarray(2 * n, 3 * n), minPivot);
+      const [next, stack, mark] = this.intWork;
+      for (let k = 0; k < n; k++) next[k] = sym.lColPtr[k]!;
+      bad = upLookingFactor(sym, Cx, this.Li, this.Lx, this.x, next, stack, mark, minPivot);
       if (bad >= 0) this.pivot[0] = this.Lx[sym.lColPtr[bad]!]!;
     }
     if (bad >= 0) {
