@@ -99,12 +99,16 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     if (y > b0 && y < b1) b1 = y;
   }
   // trim N against the windows already on this edge (either side) and, in the first pass, queued
-  // ones against N; passes repeat while N shrinks (a cut can expose an overlap with another window)
+  // ones against N; passes repeat while N shrinks (a cut can expose an overlap with another window).
+  // Lists are sorted by b0 (each in its own frame), so a scan stops at the first window starting
+  // past N; a trim or merge can leave a window slightly out of order, which only costs pruning.
   const W = s.win, g = t.twin[h]!;
   const tolI = MERGE * (L + Math.abs(sx) + Math.abs(sy) + Math.abs(sigma));
   // merging needs a queued window on h with N's image and σ; the first pass notes whether one
   // exists (trimming only ever removes windows), so the merge scan below runs only then
   let mergeable = flat || !prune;
+  // last live window on h with b0 ≤ N's b0, found in the first pass (N's b0 only grows after it)
+  let pred = -1;
   for (let pass = 0, changed = !flat && prune; changed && pass < 8; pass++) {
     changed = false;
     for (let side = 0; side < 2; side++) {
@@ -112,27 +116,43 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
       if (e < 0) continue;
       for (let o = W.heHead[e]!, before = -1; o >= 0; o = W.nextOnHe[o]!) {
         if (W.state[o] === 2) {
-          // unlink dead windows as they are met (lists stay short; nothing else refers to them)
           if (before < 0) W.heHead[e] = W.nextOnHe[o]!;
           else W.nextOnHe[before] = W.nextOnHe[o]!;
           continue;
         }
-        before = o;
-        if (W.flat[o]) continue;
-        const oLo = side === 0 ? W.b0[o]! : L - W.b1[o]!, oHi = side === 0 ? W.b1[o]! : L - W.b0[o]!;
-        if (side === 0 && !mergeable && oHi >= b0 - tolI && oLo <= b1 + tolI && W.state[o] === 0 &&
-          Math.abs(W.sigma[o]! - sigma) <= tolI && Math.abs(W.sx[o]! - sx) <= tolI && Math.abs(W.sy[o]! - sy) <= tolI) mergeable = true;
-        if (!(oHi > b0 && oLo < b1)) continue;
-        const oc = side === 0 ? W.sx[o]! : L - W.sx[o]!;
-        const r = trimPair(b0, b1, sx, sy, sigma, oLo, oHi, oc, W.sy[o]!, W.sigma[o]!, pass === 0 && W.state[o] === 0, TMP);
-        if (r & 2 || (TMP[2] !== oLo || TMP[3] !== oHi)) {
-          if (r & 2 || !(TMP[3]! - TMP[2]! > REL * L)) W.state[o] = 2;
-          else if (side === 0) { W.b0[o] = TMP[2]!; W.b1[o] = TMP[3]!; }
-          else { W.b0[o] = L - TMP[3]!; W.b1[o] = L - TMP[2]!; }
+        const ob0 = W.b0[o]!;
+        if (side === 0 ? ob0 > b1 + tolI : L - ob0 <= b0) break;
+        if (W.flat[o]) {
+          before = o;
+          if (side === 0 && pass === 0 && ob0 <= b0) pred = o;
+          continue;
         }
-        if (r & 1) return -1;
-        if (TMP[0] !== b0 || TMP[1] !== b1) changed = true;
-        b0 = TMP[0]!; b1 = TMP[1]!;
+        const oLo = side === 0 ? ob0 : L - W.b1[o]!, oHi = side === 0 ? W.b1[o]! : L - ob0;
+        if (side === 0 && !mergeable && oHi >= b0 - tolI && W.state[o] === 0 &&
+          Math.abs(W.sigma[o]! - sigma) <= tolI && Math.abs(W.sx[o]! - sx) <= tolI && Math.abs(W.sy[o]! - sy) <= tolI) mergeable = true;
+        if (oHi > b0 && oLo < b1) {
+          const oc = side === 0 ? W.sx[o]! : L - W.sx[o]!;
+          const r = trimPair(b0, b1, sx, sy, sigma, oLo, oHi, oc, W.sy[o]!, W.sigma[o]!, pass === 0 && W.state[o] === 0, TMP);
+          if (r & 2 || (TMP[2] !== oLo || TMP[3] !== oHi)) {
+            if (r & 2 || !(TMP[3]! - TMP[2]! > REL * L)) {
+              // O dies (only a queued window is ever trimmed): unlink it, nothing else refers to it
+              W.state[o] = 2;
+              if (before < 0) W.heHead[e] = W.nextOnHe[o]!;
+              else W.nextOnHe[before] = W.nextOnHe[o]!;
+              if (r & 1) return -1;
+              if (TMP[0] !== b0 || TMP[1] !== b1) changed = true;
+              b0 = TMP[0]!; b1 = TMP[1]!;
+              continue;
+            }
+            if (side === 0) { W.b0[o] = TMP[2]!; W.b1[o] = TMP[3]!; }
+            else { W.b0[o] = L - TMP[3]!; W.b1[o] = L - TMP[2]!; }
+          }
+          if (r & 1) return -1;
+          if (TMP[0] !== b0 || TMP[1] !== b1) changed = true;
+          b0 = TMP[0]!; b1 = TMP[1]!;
+        }
+        before = o;
+        if (side === 0 && pass === 0 && W.b0[o]! <= b0) pred = o;
       }
     }
   }
@@ -148,6 +168,7 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
   }
   // a queued window on this half-edge with the same image and σ that touches N: grow it instead
   for (let o = prune && mergeable ? W.heHead[h]! : -1; o >= 0; o = W.nextOnHe[o]!) {
+    if (W.b0[o]! > b1 + tolI) break;
     if (W.state[o] !== 0 || W.flat[o] !== flat) continue;
     if (Math.abs(W.sx[o]! - sx) > tolI || Math.abs(W.sy[o]! - sy) > tolI || Math.abs(W.sigma[o]! - sigma) > tolI) continue;
     const o0 = W.b0[o]!, o1 = W.b1[o]!;
@@ -157,7 +178,13 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     if (key < windowKey(W, o, o0, o1)) s.queue.push(windowKey(W, o, n0, n1), o); // the old entry pops later and is skipped
     return o;
   }
-  const w = W.add(h, b0, b1, sx, sy, sigma, parent, flat);
+  // keep h's list sorted: insert after the last window starting at or before b0
+  let at = -1;
+  if (prune) {
+    at = pred;
+    for (let o = at < 0 ? W.heHead[h]! : W.nextOnHe[at]!; o >= 0 && W.b0[o]! <= b0; o = W.nextOnHe[o]!) at = o;
+  }
+  const w = W.add(h, b0, b1, sx, sy, sigma, parent, flat, at);
   s.queue.push(key, w);
   return w;
 }

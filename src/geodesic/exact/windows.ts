@@ -24,7 +24,8 @@
  * is still queued (`state` 0); once propagated (`state` 1) it never
  * changes, so parent links and intervals stay valid for back-tracing. Each
  * half-edge keeps a singly linked list (`heHead`, `nextOnHe`) of the
- * windows lying on it.
+ * windows lying on it, in increasing b0 when the run prunes (the order
+ * lets a scan stop early; see addWindow).
  */
 export class WindowStore {
   /** Number of windows stored. */
@@ -75,16 +76,21 @@ export class WindowStore {
     this.heHead = new Int32Array(3 * nf).fill(-1);
   }
 
-  /** Stores a window and returns its id. */
-  add(he: number, b0: number, b1: number, sx: number, sy: number, sigma: number, parent: number, flat = 0): number {
+  /** Stores a window and returns its id; it is linked after window `after` on its half-edge (−1: at the head). */
+  add(he: number, b0: number, b1: number, sx: number, sy: number, sigma: number, parent: number, flat = 0, after = -1): number {
     if (this.count === this.he.length) this.grow();
     const w = this.count++;
     this.he[w] = he; this.b0[w] = b0; this.b1[w] = b1;
     this.sx[w] = sx; this.sy[w] = sy; this.sigma[w] = sigma; this.parent[w] = parent;
     this.state[w] = 0;
     this.flat[w] = flat;
-    this.nextOnHe[w] = this.heHead[he]!;
-    this.heHead[he] = w;
+    if (after < 0) {
+      this.nextOnHe[w] = this.heHead[he]!;
+      this.heHead[he] = w;
+    } else {
+      this.nextOnHe[w] = this.nextOnHe[after]!;
+      this.nextOnHe[after] = w;
+    }
     return w;
   }
 
