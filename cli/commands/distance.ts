@@ -15,9 +15,11 @@ import { boundaryCurves, type SourceSet } from '../../src/geodesic/sources.js';
 import { prepareDistance, type DistanceOptions } from '../../src/geodesic/solver.js';
 import { fieldStats, type DistanceMethod } from '../../src/geodesic/field.js';
 import { usageError } from '../../src/errors.js';
+import { commonFaces } from '../../src/geodesic/exact/layout.js';
 
 interface DistanceCliOptions {
-  from: string[];
+  from?: string[];
+  fromCurve?: string[];
   to?: string[];
   each?: boolean;
   method: DistanceMethod;
@@ -33,6 +35,7 @@ interface DistanceCliOptions {
 }
 
 const collect = (v: string, prev: string[] = []) => [...prev, v];
+const withCurves = (set: SourceSet, curves: SurfacePoint[][]): SourceSet => ({ points: set.points, curves: [...set.curves, ...curves] });
 
 function positiveNumber(text: string | undefined, name: string): number | undefined {
   if (text === undefined) return undefined;
@@ -47,7 +50,8 @@ export function registerDistance(program: Command): void {
     .command('distance')
     .description('geodesic distance on the surface from sources to every vertex and to target points')
     .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
-    .requiredOption('--from <point>', "source: v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2, p:X,Y,Z (nearest surface point) or 'boundary' (all boundary loops); repeat for several", collect)
+    .option('--from <point>', "source: v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2, p:X,Y,Z (nearest surface point) or 'boundary' (all boundary loops); repeat for several", collect)
+    .option('--from-curve <points>', "a curve source: point specs separated by ';', each consecutive pair on a common face (e.g. 'v:3;e:17:0.5;v:9'); repeat for several", collect)
     .option('--to <point>', 'target point whose distance is printed; repeat for several', collect)
     .option('--each', 'treat each --from as its own source set (one field per source, one prepared solver)')
     .addOption(new Option('--method <method>', 'exact (window propagation), heat (heat method, approximate) or graph (along edges)').choices(['exact', 'heat', 'graph']).default('exact'))
@@ -73,7 +77,20 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
   const resolver = new PointResolver(t, surface.positions);
 
   // source sets
-  const specs: string[] = o.from;
+  const specs: string[] = o.from ?? [];
+  const curveSpecs: string[] = o.fromCurve ?? [];
+  if (specs.length === 0 && curveSpecs.length === 0) throw usageError('give at least one --from or --from-curve');
+  if (o.each && curveSpecs.length) throw usageError('--each works with --from only');
+  const curves = curveSpecs.map((c) => {
+    const pts = c.split(';').map((x) => x.trim()).filter(Boolean).map((x) => resolver.resolve(x, '--from-curve'));
+    if (pts.length < 2) throw usageError(`a curve needs at least two points in '${c}'`, '--from-curve');
+    for (let i = 1; i < pts.length; i++) {
+      if (commonFaces(t, pts[i - 1]!, pts[i]!).length === 0) {
+        throw usageError(`points ${i} and ${i + 1} of '${c}' share no face (insert the points where the curve crosses edges)`, '--from-curve');
+      }
+    }
+    return pts;
+  });
   const toSet = (list: string[]): SourceSet => {
     const set: SourceSet = { points: [], curves: [] };
     for (const s of list) {
@@ -85,7 +102,9 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
     }
     return set;
   };
-  const sets = o.each ? specs.map((s) => ({ specs: [s], set: toSet([s]) })) : [{ specs, set: toSet(specs) }];
+  const sets = o.each
+    ? specs.map((s) => ({ specs: [s], set: toSet([s]) }))
+    : [{ specs: [...specs, ...curveSpecs.map((c) => `curve(${c})`)], set: withCurves(toSet(specs), curves) }];
   const targets: SurfacePoint[] = (o.to ?? []).map((s) => resolver.resolve(s, '--to'));
 
   const opts: DistanceOptions = {};

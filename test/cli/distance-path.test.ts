@@ -80,6 +80,14 @@ describe('distance', () => {
     const j = JSON.parse(runCli(['distance', join(dir, 'square.obj'), '--from', 'boundary', '--to', 'p:5,5,0', '--json']).stdout);
     expect(Math.abs(j.targets[0].distance - 5)).toBeLessThan(1e-9);
   });
+  it('--from-curve: distance from a polyline along the bottom edge is the height above it', () => {
+    // v:0, v:1, v:2 lie on y = 0 (boundary vertices are not jittered)
+    const j = JSON.parse(runCli(['distance', join(dir, 'square.obj'), '--from-curve', 'v:0;v:1;v:2', '--to', 'p:1,5,0', '--json']).stdout);
+    expect(Math.abs(j.targets[0].distance - 5)).toBeLessThan(1e-9);
+    const bad = runCli(['distance', join(dir, 'square.obj'), '--from-curve', 'v:0;v:5']);
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toMatch(/share no face/);
+  });
   it('bad point specs and out-of-range indices: exit 2 with one line naming the option', () => {
     for (const args of [['--from', 'q:1'], ['--from', 'v:99999'], ['--from', 'v:0', '--to', 'f:1:1,1']]) {
       const r = runCli(['distance', join(dir, 'square.obj'), ...args]);
