@@ -96,8 +96,15 @@ export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: Exa
   const targets = (opts.targets ?? []).map((p) => checkSurfacePoint(p, t, 'target'));
 
   // reserve the cap at once: large typed arrays are zero pages mapped lazily, so only the windows
-  // actually made cost memory, and doubling (copying, and touching every copied page) is avoided
-  const s = createState(mesh, maxD, maxW, maxW);
+  // actually made cost memory, and doubling (copying, and touching every copied page) is avoided;
+  // where the reservation itself is refused (a browser tab's limit), start small and double
+  let s: ExactState;
+  try {
+    s = createState(mesh, maxD, maxW, maxW);
+  } catch (e) {
+    if (!(e instanceof RangeError)) throw e;
+    s = createState(mesh, maxD, maxW, Math.min(maxW, 8 * t.nf + 1024));
+  }
   markPseudoSources(s);
   const all = seedSources(s, sources);
   const bary = [0, 0, 0];
