@@ -114,12 +114,8 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     for (let side = 0; side < 2; side++) {
       const e = side === 0 ? h : g;
       if (e < 0) continue;
+      // lists hold live windows only: a window is unlinked where it dies, below
       for (let o = W.heHead[e]!, before = -1; o >= 0; o = W.nextOnHe[o]!) {
-        if (W.state[o] === 2) {
-          if (before < 0) W.heHead[e] = W.nextOnHe[o]!;
-          else W.nextOnHe[before] = W.nextOnHe[o]!;
-          continue;
-        }
         const ob0 = W.b0[o]!;
         if (side === 0 ? ob0 > b1 + tolI : L - ob0 <= b0) break;
         if (W.flat[o]) {

@@ -23,9 +23,9 @@
  * r (a source or pseudo-source). A window may shrink or die only while it
  * is still queued (`state` 0); once propagated (`state` 1) it never
  * changes, so parent links and intervals stay valid for back-tracing. Each
- * half-edge keeps a singly linked list (`heHead`, `nextOnHe`) of the
- * windows lying on it, in increasing b0 when the run prunes (the order
- * lets a scan stop early; see addWindow).
+ * half-edge keeps a singly linked list (`heHead`, `nextOnHe`) of the live
+ * windows lying on it (a window is unlinked when it dies), in increasing b0
+ * when the run prunes (the order lets a scan stop early; see addWindow).
  */
 export class WindowStore {
   /** Number of windows stored. */
