@@ -171,7 +171,7 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     if (o1 < b0 - tolI || o0 > b1 + tolI) continue;
     const n0 = o0 < b0 ? o0 : b0, n1 = o1 > b1 ? o1 : b1;
     W.b0[o] = n0; W.b1[o] = n1;
-    if (key < windowKey(W, o, o0, o1)) s.queue.push(windowKey(W, o, n0, n1), o); // the old entry pops later and is skipped
+    if (key < windowKey(W, o, o0, o1)) s.wq.push(windowKey(W, o, n0, n1), o); // the old entry pops later and is skipped
     return o;
   }
   // keep h's list sorted: insert after the last window starting at or before b0
@@ -181,7 +181,7 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     for (let o = at < 0 ? W.heHead[h]! : W.nextOnHe[at]!; o >= 0 && W.b0[o]! <= b0; o = W.nextOnHe[o]!) at = o;
   }
   const w = W.add(h, b0, b1, sx, sy, sigma, parent, flat, at);
-  s.queue.push(key, w);
+  s.wq.push(key, w);
   return w;
 }
 
@@ -290,22 +290,29 @@ export function settleVertex(s: ExactState, v: number): void {
 }
 
 /**
- * Runs the event loop until the queue is empty, the next key passes
+ * Runs the event loop until both queues are empty, the next key passes
  * `maxDistance`, `stop(key)` returns true (checked every 32 events) or the
  * window cap trips. Returns the key at which it stopped (Infinity when the
- * queue ran dry): every vertex bound ≤ that key is exact.
+ * queues ran dry): every vertex bound ≤ that key is exact.
+ *
+ * A vertex is settled only when its key is at most the window queue's
+ * lower bound, so no queued window can still lower it; windows go in
+ * bucket order (see bucket-queue.ts).
  */
 export function runEvents(s: ExactState, stop?: (key: number) => boolean): number {
-  const q = s.queue;
+  const vq = s.queue, wq = s.wq;
   let n = 0;
-  while (q.size > 0) {
-    const key = q.peekKey();
+  for (;;) {
+    const vk = vq.size > 0 ? vq.peekKey() : Infinity;
+    const wk = wq.lowerBound();
+    const key = vk < wk ? vk : wk;
+    if (key === Infinity) return Infinity;
     if (key > s.maxDistance) return key;
     if (stop && (n++ & 31) === 0 && stop(key)) return key;
-    const id = q.pop();
-    if (id >= 0) propagateWindow(s, id);
-    else if (!s.settled[-1 - id]) settleVertex(s, -1 - id);
+    if (vk <= wk) {
+      const v = -1 - vq.pop();
+      if (!s.settled[v]) settleVertex(s, v);
+    } else propagateWindow(s, wq.pop());
     if (s.overflow) return key;
   }
-  return Infinity;
 }

@@ -7,6 +7,7 @@ import type { Topology } from '../../mesh/topology.js';
 import { layoutAlong } from './layout.js';
 import { WindowStore } from './windows.js';
 import { EventQueue } from './queue.js';
+import { BucketQueue } from './bucket-queue.js';
 
 /** How a vertex's distance bound was reached (`viaType`); see each constant. */
 export type Via = 0 | 1 | 2 | 3 | 4;
@@ -59,8 +60,10 @@ export interface ExactState {
   angle: Float64Array;
   /** All windows. */
   readonly win: WindowStore;
-  /** Windows (id ≥ 0) and vertex events (−1 − v) by key. */
+  /** Vertex events (−1 − v) by key, in exact order. */
   readonly queue: EventQueue;
+  /** Windows by key, in buckets (bucket-queue.ts). */
+  readonly wq: BucketQueue;
   /** Vertex of root r (−1 for a point source or curve segment). */
   rootVertex: Int32Array;
   /** Distance σ of root r. */
@@ -87,12 +90,16 @@ export interface ExactState {
   wedge: boolean;
 }
 
+/** Window-queue bucket width as a fraction of the mean edge length (narrower: closer to key order, more empty buckets to skip). */
+const BUCKET = 0.25;
+
 /** Allocates the state for a mesh; `capacity` is the initial window capacity. */
 export function createState(mesh: IntrinsicMesh, maxDistance: number, maxWindows: number, capacity: number): ExactState {
   const t = mesh.topology;
   const nh = 3 * t.nf;
   const hl = new Float64Array(nh), hc = new Float64Array(2 * nh);
-  for (let h = 0; h < nh; h++) hl[h] = layoutAlong(mesh, h, hc, 2 * h);
+  let sum = 0;
+  for (let h = 0; h < nh; h++) sum += hl[h] = layoutAlong(mesh, h, hc, 2 * h);
   return {
     mesh, t, hl, hc,
     dist: new Float64Array(t.nv).fill(Infinity),
@@ -102,7 +109,8 @@ export function createState(mesh: IntrinsicMesh, maxDistance: number, maxWindows
     pseudo: new Uint8Array(t.nv),
     angle: new Float64Array(0),
     win: new WindowStore(t.nf, capacity, maxWindows),
-    queue: new EventQueue(capacity),
+    queue: new EventQueue(Math.min(capacity, t.nv + 1024)),
+    wq: new BucketQueue(nh ? (BUCKET * sum) / nh : 1, capacity),
     rootVertex: new Int32Array(64),
     rootSigma: new Float64Array(64),
     nRoots: 0,
