@@ -8,6 +8,7 @@
  *   │  ∅   │ w7 w2│ w9   │  ∅   │ w4 …        push O(1), pop O(1) amortised
  *   └──────┴──────┴──────┴──────┴─────
  *            ↑ cur          lowerBound() = cur·Δ ≤ every queued key
+ *                           (a push below cur moves cur back)
  * ```
  *
  * Exactness does not need windows in strict key order: a window changes
@@ -51,11 +52,17 @@ export class BucketQueue {
     this.ids = new Int32Array(c);
   }
 
-  /** Queues window `id` with key `key` (a key below the current bucket joins the current bucket). */
+  /**
+   * Queues window `id` with key `key`. A key below the lowest non-empty
+   * bucket moves the front back to its bucket (all buckets below the front
+   * are empty), so lowerBound() stays a lower bound: a pseudo-source settled
+   * just below the front emits windows there.
+   */
   push(key: number, id: number): void {
     let b = Math.floor(key / this.width);
-    if (!(b >= this.cur)) b = this.cur;
+    if (!(b >= 0)) b = b < 0 ? 0 : this.cur; // NaN: anywhere is safe for windows; keep it at the front
     if (b >= MAX_BUCKETS) b = MAX_BUCKETS - 1;
+    if (b < this.cur) this.cur = b;
     if (b >= this.head.length) this.growBuckets(b + 1);
     if (b >= this.nb) this.nb = b + 1;
     let e = this.free;
