@@ -160,3 +160,43 @@ export function splitByCut(verts: Int32Array, m: number, key: Int32Array, cut: C
   }
   return [na, nb];
 }
+
+/**
+ * Thins the separator written by {@link splitByCut}: out[0..na) = A,
+ * out[na..na+nb) = B, out[na+nb..m) = S. A separator vertex with no
+ * neighbour in B moves to A, one with no neighbour in A moves to B (to the
+ * smaller part when it has neither), one at a time, so A and B never become
+ * adjacent. Level-set separators on irregular meshes are jagged, and such
+ * vertices are common there. `side` is an n-length scratch array (0 = A,
+ * 1 = B, 2 = S on exit for the listed vertices). Writes the new A, B, S
+ * into dest[0..m) and returns [|A|, |B|].
+ */
+export function thinSeparator(
+  out: Int32Array, m: number, na: number, nb: number, xadj: Int32Array, adj: Int32Array,
+  label: Int32Array, lab: number, side: Uint8Array, dest: Int32Array,
+): [number, number] {
+  for (let q = 0; q < m; q++) side[out[q]!] = q < na ? 0 : q < na + nb ? 1 : 2;
+  let a = na, b = nb;
+  for (let q = na + nb; q < m; q++) {
+    const x = out[q]!;
+    let hasA = false, hasB = false;
+    for (let p = xadj[x]!; p < xadj[x + 1]!; p++) {
+      const y = adj[p]!;
+      if (label[y] !== lab) continue;
+      const sy = side[y]!;
+      if (sy === 0) hasA = true;
+      else if (sy === 1) hasB = true;
+    }
+    if (hasA && hasB) continue;
+    const toA = !hasB && (hasA || a <= b);
+    side[x] = toA ? 0 : 1;
+    if (toA) a++;
+    else b++;
+  }
+  let ia = 0, ib = a, is = a + b;
+  for (let q = 0; q < m; q++) {
+    const x = out[q]!, sx = side[x]!;
+    dest[sx === 0 ? ia++ : sx === 1 ? ib++ : is++] = x;
+  }
+  return [a, b];
+}
