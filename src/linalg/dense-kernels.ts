@@ -27,6 +27,13 @@ import type { SimdFront } from './wasm-update.js';
 const NB = 64;
 
 /**
+ * Columns per sub-block inside a block: Crout runs over NS columns at a
+ * time, and the rest of the block's columns (all rows below) take the
+ * sub-block's update in tiles, so scalar inner products stay ≤ NS long.
+ */
+const NS = 8;
+
+/**
  * Factors the first nc columns of the nr × nr row-major F (lower triangle)
  * and leaves the Schur complement in the trailing block. Returns −1, or the
  * local column whose pivot is not a finite number above its floor (0, or
@@ -42,8 +49,14 @@ export function factorFront(
 ): number {
   for (let jb = 0; jb < nc; jb += NB) {
     const je = Math.min(jb + NB, nc);
-    const bad = factorBlock(F, nr, jb, je, minPivot, col0);
-    if (bad >= 0) return bad;
+    // block jb..je−1 as sub-blocks: Crout on sb..se−1, then the panel
+    // columns se..je−1 (rows ≥ se) take the update from sb..se−1
+    for (let sb = jb; sb < je; sb += NS) {
+      const se = Math.min(sb + NS, je);
+      const bad = factorBlock(F, nr, sb, se, minPivot, col0);
+      if (bad >= 0) return bad;
+      if (se < je) trailingUpdate(F, nr, se, sb, se, simd, je);
+    }
     if (je < nr) trailingUpdate(F, nr, je, jb, je, simd);
   }
   return -1;
@@ -93,39 +106,47 @@ function factorBlock(F: Float64Array, nr: number, jb: number, je: number, minPiv
 }
 
 /**
- * F(i, j) −= Σ_{k0 ≤ k < k1} F(i, k) F(j, k) for c0 ≤ j ≤ i < nr (lower
- * triangle of the trailing block). Rows go four at a time against pairs of
- * columns (4×2 tiles: 6 loads feed 8 multiply-adds), in WebAssembly SIMD when
- * `simd` is given (F must then be `simd.front`); the 4×4 triangles on the
- * diagonal and the last (nr − c0) mod 4 rows use single inner products.
+ * F(i, j) −= Σ_{k0 ≤ k < k1} F(i, k) F(j, k) for c0 ≤ j ≤ i < nr, j < cEnd
+ * (lower triangle of the trailing block, or of its first cEnd − c0 columns
+ * for a panel). Rows go four at a time against pairs of columns (4×2 tiles:
+ * 6 loads feed 8 multiply-adds), in WebAssembly SIMD when `simd` is given
+ * (F must then be `simd.front`); the 4×4 triangles on the diagonal, the last
+ * (nr − c0) mod 4 rows and an odd last column use single inner products.
  */
-export function trailingUpdate(F: Float64Array, nr: number, c0: number, k0: number, k1: number, simd: SimdFront | null = null): void {
+export function trailingUpdate(
+  F: Float64Array, nr: number, c0: number, k0: number, k1: number, simd: SimdFront | null = null, cEnd = nr,
+): void {
   const groupsEnd = c0 + 4 * Math.floor((nr - c0) / 4);
+  // tiles cover j < min(start of the row's group, cEven)
+  const cEven = c0 + ((cEnd - c0) & ~1);
   if (simd !== null && k1 - k0 >= 2) {
-    simd.tiles(nr, c0, k0, (k1 - k0) >> 1);
+    simd.tiles(nr, c0, k0, (k1 - k0) >> 1, cEven);
     if ((k1 - k0) & 1) {
       // the odd last k as a rank-1 update of the same tiles
       const k = k1 - 1;
       for (let i = c0; i < groupsEnd; i += 4) {
+        const jl = i < cEven ? i : cEven;
         for (let a = i; a < i + 4; a++) {
           const ra = a * nr, la = F[ra + k]!;
-          for (let j = c0; j < i; j++) F[ra + j]! -= la * F[j * nr + k]!;
+          for (let j = c0; j < jl; j++) F[ra + j]! -= la * F[j * nr + k]!;
         }
       }
     }
   } else {
-    for (let i = c0; i < groupsEnd; i += 4) tiles4x2(F, nr, c0, i, k0, k1);
+    for (let i = c0; i < groupsEnd; i += 4) tiles4x2(F, nr, c0, i, i < cEven ? i : cEven, k0, k1);
   }
-  for (let i = c0; i < groupsEnd; i += 4) {
-    for (let a = i; a < i + 4; a++) for (let b = i; b <= a; b++) dotUpdate(F, nr, a, b, k0, k1);
+  for (let a = c0; a < nr; a++) {
+    const g = c0 + ((a - c0) & ~3);
+    const b0 = a < groupsEnd ? (g < cEven ? g : cEven) : c0;
+    const b1 = a < cEnd - 1 ? a : cEnd - 1;
+    for (let b = b0; b <= b1; b++) dotUpdate(F, nr, a, b, k0, k1);
   }
-  for (let i = groupsEnd; i < nr; i++) for (let j = c0; j <= i; j++) dotUpdate(F, nr, i, j, k0, k1);
 }
 
-/** Rows i..i+3 against columns c0..i−1 in 4×2 tiles (i − c0 is a multiple of 4). */
-function tiles4x2(F: Float64Array, nr: number, c0: number, i: number, k0: number, k1: number): void {
+/** Rows i..i+3 against columns c0..jl−1 in 4×2 tiles (jl − c0 even). */
+function tiles4x2(F: Float64Array, nr: number, c0: number, i: number, jl: number, k0: number, k1: number): void {
   const r0 = i * nr, r1 = r0 + nr, r2 = r1 + nr, r3 = r2 + nr;
-  for (let j = c0; j < i; j += 2) {
+  for (let j = c0; j < jl; j += 2) {
     const q0 = j * nr, q1 = q0 + nr;
     let s00 = 0, s01 = 0, s10 = 0, s11 = 0, s20 = 0, s21 = 0, s30 = 0, s31 = 0;
     for (let k = k0; k < k1; k++) {

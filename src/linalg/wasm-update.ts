@@ -3,7 +3,8 @@
  * (see `trailingUpdate` in dense-kernels.ts), assembled from bytes here so no
  * build step or file is needed. It runs on a frontal matrix that lives in a
  * WebAssembly.Memory, handles rows c0 .. c0+4q−1 against columns c0 .. i−1
- * and an even number of k, using f64x2 lanes: two k at a time,
+ * (or up to a column limit jEnd, for the panel updates) and an even number
+ * of k, using f64x2 lanes: two k at a time,
  *
  *   acc(a,b) += F[i+a][k:k+2] ⊙ F[j+b][k:k+2],   F[i+a][j+b] −= lane0 + lane1.
  *
@@ -17,9 +18,10 @@ export interface SimdFront {
   readonly front: Float64Array;
   /**
    * F(i, j) −= Σ_{k0 ≤ k < k0+2·pairs} F(i, k) F(j, k) for the 4×2 tiles:
-   * i in [c0, c0 + 4⌊(nr−c0)/4⌋), c0 ≤ j < (start of i's group of four).
+   * i in [c0, c0 + 4⌊(nr−c0)/4⌋), c0 ≤ j < min(start of i's group of four,
+   * jEnd); jEnd − c0 must be even.
    */
-  tiles(nr: number, c0: number, k0: number, pairs: number): void;
+  tiles(nr: number, c0: number, k0: number, pairs: number, jEnd: number): void;
 }
 
 // --- a minimal assembler -----------------------------------------------------
@@ -49,15 +51,15 @@ function section(id: number, body: number[], out: number[]): void {
   out.push(...body);
 }
 
-// locals: params first (i32): base nr c0 k0 pairs; then i32 scratch, then v128 accumulators
-const P_BASE = 0, P_NR = 1, P_C0 = 2, P_K0 = 3, P_PAIRS = 4;
-const I = 5, J = 6, OFF = 7, KEND = 8, RB = 9, K0B = 10, ADDR = 11;
-const R0 = 12; // R0..R3 row starts (+k0) of rows i..i+3
-const S0 = 16; // S0..S3 row starts of rows i..i+3 (for stores)
-const Q0 = 20, Q1 = 21, J8 = 22;
-const NI32 = 23 - 5;
-const ACC = 23; // 8 accumulators
-const VA = 31; // a0..a3, b0, b1
+// locals: params first (i32): base nr c0 k0 pairs jend; then i32 scratch, then v128 accumulators
+const P_BASE = 0, P_NR = 1, P_C0 = 2, P_K0 = 3, P_PAIRS = 4, P_JEND = 5;
+const I = 6, J = 7, OFF = 8, KEND = 9, RB = 10, K0B = 11, ADDR = 12;
+const R0 = 13; // R0..R3 row starts (+k0) of rows i..i+3
+const S0 = 17; // S0..S3 row starts of rows i..i+3 (for stores)
+const Q0 = 21, Q1 = 22, J8 = 23, JL = 24;
+const NI32 = 25 - 6;
+const ACC = 25; // 8 accumulators
+const VA = 33; // a0..a3, b0, b1
 const NV128 = 8 + 6;
 
 function body(): number[] {
@@ -85,11 +87,13 @@ function body(): number[] {
   get(P_BASE), get(I), get(RB), mul(), add(), set(S0);
   for (let a = 1; a < 4; a++) get(S0 + a - 1), get(RB), add(), set(S0 + a);
   for (let a = 0; a < 4; a++) get(S0 + a), get(K0B), add(), set(R0 + a);
+  //   JL = min(i, jend)
+  get(I), get(P_JEND), get(I), get(P_JEND), op(0x48), op(0x1b), set(JL);
   get(P_C0), set(J);
   op(0x02, 0x40); // block (exit j)
   op(0x03, 0x40); // loop j
-  //     if (j >= i) break
-  get(J), get(I), op(0x4e), op(0x0d, 1);
+  //     if (j >= JL) break
+  get(J), get(JL), op(0x4e), op(0x0d, 1);
   //     J8 = j*8 ; Q0 = base + j*RB + K0B ; Q1 = Q0 + RB
   get(J), i32(8), mul(), set(J8);
   get(P_BASE), get(J), get(RB), mul(), add(), get(K0B), add(), set(Q0);
@@ -135,7 +139,7 @@ function body(): number[] {
 
 function moduleBytes(): Uint8Array<ArrayBuffer> {
   const out: number[] = [0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00];
-  section(1, [1, 0x60, 5, 0x7f, 0x7f, 0x7f, 0x7f, 0x7f, 0], out); // (i32 ×5) → ()
+  section(1, [1, 0x60, 6, 0x7f, 0x7f, 0x7f, 0x7f, 0x7f, 0x7f, 0], out); // (i32 ×6) → ()
   const imp: number[] = [1];
   for (const s of ['env', 'mem']) {
     uleb(s.length, imp);
@@ -187,9 +191,9 @@ export function createSimdFront(doubles: number): SimdFront | null {
   const pages = Math.max(1, Math.ceil((doubles * 8) / 65536));
   const mem = new WebAssembly.Memory({ initial: pages });
   const inst = new WebAssembly.Instance(mod, { env: { mem } });
-  const fn = inst.exports.tiles as (base: number, nr: number, c0: number, k0: number, pairs: number) => void;
+  const fn = inst.exports.tiles as (base: number, nr: number, c0: number, k0: number, pairs: number, jEnd: number) => void;
   return {
     front: new Float64Array(mem.buffer, 0, Math.max(1, doubles)),
-    tiles: (nr, c0, k0, pairs) => fn(0, nr, c0, k0, pairs),
+    tiles: (nr, c0, k0, pairs, jEnd) => fn(0, nr, c0, k0, pairs, jEnd),
   };
 }
