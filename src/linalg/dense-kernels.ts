@@ -110,14 +110,17 @@ function factorBlock(F: Float64Array, nr: number, jb: number, je: number, minPiv
  * (lower triangle of the trailing block, or of its first cEnd − c0 columns
  * for a panel). Rows go four at a time against pairs of columns (4×2 tiles:
  * 6 loads feed 8 multiply-adds), in WebAssembly SIMD when `simd` is given
- * (F must then be `simd.front`); the 4×4 triangles on the diagonal, the last
- * (nr − c0) mod 4 rows and an odd last column use single inner products.
+ * (F must then be `simd.front`). The tiles of a group of four rows include
+ * its whole 4×4 diagonal block, so they also write F's upper triangle there:
+ * no kernel reads above the diagonal (the caller copies L's diagonal block
+ * as a lower triangle). The last (nr − c0) mod 4 rows and an odd last column
+ * use single inner products.
  */
 export function trailingUpdate(
   F: Float64Array, nr: number, c0: number, k0: number, k1: number, simd: SimdFront | null = null, cEnd = nr,
 ): void {
   const groupsEnd = c0 + 4 * Math.floor((nr - c0) / 4);
-  // tiles cover j < min(start of the row's group, cEven)
+  // tiles cover j < min(start of the row's group + 4, cEven)
   const cEven = c0 + ((cEnd - c0) & ~1);
   if (simd !== null && k1 - k0 >= 2) {
     simd.tiles(nr, c0, k0, (k1 - k0) >> 1, cEven);
@@ -125,7 +128,7 @@ export function trailingUpdate(
       // the odd last k as a rank-1 update of the same tiles
       const k = k1 - 1;
       for (let i = c0; i < groupsEnd; i += 4) {
-        const jl = i < cEven ? i : cEven;
+        const jl = i + 4 < cEven ? i + 4 : cEven;
         for (let a = i; a < i + 4; a++) {
           const ra = a * nr, la = F[ra + k]!;
           for (let j = c0; j < jl; j++) F[ra + j]! -= la * F[j * nr + k]!;
@@ -133,17 +136,17 @@ export function trailingUpdate(
       }
     }
   } else {
-    for (let i = c0; i < groupsEnd; i += 4) tiles4x2(F, nr, c0, i, i < cEven ? i : cEven, k0, k1);
+    for (let i = c0; i < groupsEnd; i += 4) tiles4x2(F, nr, c0, i, i + 4 < cEven ? i + 4 : cEven, k0, k1);
   }
   for (let a = c0; a < nr; a++) {
-    const g = c0 + ((a - c0) & ~3);
-    const b0 = a < groupsEnd ? (g < cEven ? g : cEven) : c0;
+    const g4 = c0 + ((a - c0) & ~3) + 4;
+    const b0 = a < groupsEnd ? (g4 < cEven ? g4 : cEven) : c0;
     const b1 = a < cEnd - 1 ? a : cEnd - 1;
     for (let b = b0; b <= b1; b++) dotUpdate(F, nr, a, b, k0, k1);
   }
 }
 
-/** Rows i..i+3 against columns c0..jl−1 in 4×2 tiles (jl − c0 even). */
+/** Rows i..i+3 against columns c0..jl−1 in 4×2 tiles (jl − c0 even; jl ≤ i + 4). */
 function tiles4x2(F: Float64Array, nr: number, c0: number, i: number, jl: number, k0: number, k1: number): void {
   const r0 = i * nr, r1 = r0 + nr, r2 = r1 + nr, r3 = r2 + nr;
   for (let j = c0; j < jl; j += 2) {

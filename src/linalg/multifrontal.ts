@@ -111,9 +111,16 @@ export function multifrontalFactor(
       pivotOut[0] = F[bad * nr + bad]!;
       return f + bad;
     }
-    // copy L's block (first nc entries of every row)
+    // copy L's block (first nc entries of every row; the diagonal block as
+    // a lower triangle, zeros above: F's upper triangle holds scratch values)
     const v0 = valPtr[s]!;
-    for (let r = 0; r < nr; r++) {
+    for (let r = 0; r < nc; r++) {
+      const src = r * nr;
+      const dst = v0 + r * nc;
+      for (let k = 0; k <= r; k++) Lx[dst + k] = F[src + k]!;
+      for (let k = r + 1; k < nc; k++) Lx[dst + k] = 0;
+    }
+    for (let r = nc; r < nr; r++) {
       const src = r * nr;
       const dst = v0 + r * nc;
       for (let k = 0; k < nc; k++) Lx[dst + k] = F[src + k]!;

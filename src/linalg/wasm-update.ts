@@ -2,9 +2,11 @@
  * A WebAssembly SIMD version of the 4×2-tile part of the trailing update
  * (see `trailingUpdate` in dense-kernels.ts), assembled from bytes here so no
  * build step or file is needed. It runs on a frontal matrix that lives in a
- * WebAssembly.Memory, handles rows c0 .. c0+4q−1 against columns c0 .. i−1
- * (or up to a column limit jEnd, for the panel updates) and an even number
- * of k, using f64x2 lanes: two k at a time,
+ * WebAssembly.Memory, handles rows i .. i+3 (i = c0, c0+4, …, below
+ * c0+4q) against columns c0 .. i+3 (so the 4×4 diagonal block is computed
+ * whole; its upper half lies in F's unused upper triangle), or up to a
+ * column limit jEnd for the panel updates, and an even number of k, using
+ * f64x2 lanes: two k at a time,
  *
  *   acc(a,b) += F[i+a][k:k+2] ⊙ F[j+b][k:k+2],   F[i+a][j+b] −= lane0 + lane1.
  *
@@ -18,8 +20,9 @@ export interface SimdFront {
   readonly front: Float64Array;
   /**
    * F(i, j) −= Σ_{k0 ≤ k < k0+2·pairs} F(i, k) F(j, k) for the 4×2 tiles:
-   * i in [c0, c0 + 4⌊(nr−c0)/4⌋), c0 ≤ j < min(start of i's group of four,
-   * jEnd); jEnd − c0 must be even.
+   * i in [c0, c0 + 4⌊(nr−c0)/4⌋), c0 ≤ j < min(start of i's group of four
+   * + 4, jEnd); jEnd − c0 must be even. Entries above the diagonal of the
+   * groups' 4×4 blocks are overwritten with meaningless values.
    */
   tiles(nr: number, c0: number, k0: number, pairs: number, jEnd: number): void;
 }
@@ -87,8 +90,9 @@ function body(): number[] {
   get(P_BASE), get(I), get(RB), mul(), add(), set(S0);
   for (let a = 1; a < 4; a++) get(S0 + a - 1), get(RB), add(), set(S0 + a);
   for (let a = 0; a < 4; a++) get(S0 + a), get(K0B), add(), set(R0 + a);
-  //   JL = min(i, jend)
-  get(I), get(P_JEND), get(I), get(P_JEND), op(0x48), op(0x1b), set(JL);
+  //   JL = min(i + 4, jend): the group's own 4×4 diagonal block is two full tiles
+  get(I), i32(4), add(), set(JL);
+  get(JL), get(P_JEND), get(JL), get(P_JEND), op(0x48), op(0x1b), set(JL);
   get(P_C0), set(J);
   op(0x02, 0x40); // block (exit j)
   op(0x03, 0x40); // loop j
