@@ -200,3 +200,92 @@ export function thinSeparator(
   }
   return [a, b];
 }
+
+/**
+ * Greedy refinement of a vertex separator in the manner of Fiduccia–
+ * Mattheyses (node version, as in multilevel partitioners): a separator
+ * vertex x moved into part P pulls its neighbours in the other part Q into
+ * S, so |S| changes by |N(x) ∩ Q| − 1. Moves that shrink S are made, and
+ * moves that keep its size when P is the smaller part (such moves let a
+ * jagged separator slide into a position where later moves shrink it, and
+ * only improve the balance); each vertex moves at most once per pass and a
+ * move never pulls a vertex that already moved in that pass, so a pass
+ * ends. Parts keep at least `minShare` of the vertices outside S. Input: dest[0..m) as
+ * A, B, S with sizes na, nb (e.g. from {@link thinSeparator}); `side` as left
+ * by it. Rewrites dest and returns [|A|, |B|]. `list` and `moved` are
+ * n-length scratch arrays (`moved` all ≤ `stamp0` on entry). Writes |A|,
+ * |B| and the next free stamp to out[0..2].
+ */
+export function refineSeparator(
+  dest: Int32Array, m: number, na: number, nb: number, xadj: Int32Array, adj: Int32Array,
+  label: Int32Array, lab: number, side: Uint8Array, list: Int32Array, moved: Int32Array, stamp0: number,
+  passes: number, minShare: number, out: Int32Array,
+): void {
+  const size = [na, nb];
+  let stamp = stamp0;
+  for (let pass = 0; pass < passes; pass++) {
+    const st = ++stamp;
+    let top = 0;
+    for (let q = 0; q < m; q++) if (side[dest[q]!] === 2) list[top++] = dest[q]!;
+    let changed = false;
+    for (let h = 0; h < top; h++) {
+      const x = list[h]!;
+      if (side[x] !== 2 || moved[x] === st) continue;
+      let cA = 0, cB = 0, lockA = false, lockB = false;
+      for (let p = xadj[x]!; p < xadj[x + 1]!; p++) {
+        const y = adj[p]!;
+        if (label[y] !== lab) continue;
+        const sy = side[y]!;
+        if (sy === 0) {
+          cA++;
+          if (moved[y] === st) lockA = true;
+        } else if (sy === 1) {
+          cB++;
+          if (moved[y] === st) lockB = true;
+        }
+      }
+      const sCount = m - size[0]! - size[1]!;
+      // candidate target part P (0 = A, 1 = B); Q = 1 − P loses cQ vertices to S
+      let best = -1, bestGain = -1;
+      for (let P = 0; P < 2; P++) {
+        const cQ = P === 0 ? cB : cA;
+        if ((P === 0 ? lockB : lockA) || cQ > 1) continue;
+        const gain = 1 - cQ;
+        const newS = sCount - 1 + cQ;
+        const qSize = size[1 - P]! - cQ;
+        if (qSize < minShare * (m - newS)) continue;
+        if (gain === 0 && size[P]! >= size[1 - P]!) continue;
+        // ties go to the smaller part (the separator moves towards the larger)
+        if (gain > bestGain || (gain === bestGain && size[P]! < size[best]!)) {
+          best = P;
+          bestGain = gain;
+        }
+      }
+      if (best < 0) continue;
+      const Q = 1 - best;
+      side[x] = best;
+      moved[x] = st;
+      size[best]!++;
+      for (let p = xadj[x]!; p < xadj[x + 1]!; p++) {
+        const y = adj[p]!;
+        if (label[y] === lab && side[y] === Q) {
+          side[y] = 2;
+          size[Q]!--;
+          list[top++] = y;
+        }
+      }
+      changed = true;
+    }
+    if (!changed) break;
+  }
+  // dest ← A, B, S (list as scratch for the copy)
+  let ia = 0, ib = size[0]!, is = size[0]! + size[1]!;
+  for (let q = 0; q < m; q++) {
+    const x = dest[q]!, sx = side[x]!;
+    list[sx === 0 ? ia++ : sx === 1 ? ib++ : is++] = x;
+  }
+  dest.set(list.subarray(0, m));
+  out[0] = size[0]!;
+  out[1] = size[1]!;
+  out[2] = stamp + 1;
+}

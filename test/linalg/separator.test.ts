@@ -4,11 +4,12 @@
  * graphs and random cuts, the thinned split is a rearrangement of the input,
  * still separates, never grows S, and leaves only vertices with neighbours on
  * both sides in S (any other could move, so the result is minimal for moves
- * of single vertices).
+ * of single vertices); the greedy refinement after it keeps a valid
+ * separator that is never larger.
  */
 import { describe, expect } from 'vitest';
 import { test as fcTest, fc } from '@fast-check/vitest';
-import { thinSeparator } from '../../src/linalg/separator.js';
+import { refineSeparator, thinSeparator } from '../../src/linalg/separator.js';
 
 function graphFrom(n: number, edges: [number, number][]): { xadj: Int32Array; adj: Int32Array } {
   const deg = new Int32Array(n + 1);
@@ -54,6 +55,40 @@ describe('thinSeparator', () => {
       }
       if (side[v] === 0) expect(hasB).toBe(false);
       if (side[v] === 2) expect(hasA && hasB).toBe(true);
+    }
+  });
+
+  fcTest.prop([
+    fc.integer({ min: 4, max: 40 }).chain((n) => fc.tuple(
+      fc.constant(n),
+      fc.array(fc.tuple(fc.integer({ min: 0, max: n - 1 }), fc.integer({ min: 0, max: n - 1 })), { maxLength: 4 * n }),
+      fc.array(fc.boolean(), { minLength: n, maxLength: n }),
+    )),
+  ], { numRuns: 200 })('refinement keeps a valid separator and never grows it', ([n, edges, inA]) => {
+    const { xadj, adj } = graphFrom(n, edges);
+    const side0 = new Uint8Array(n);
+    for (let v = 0; v < n; v++) {
+      let cross = false;
+      for (let p = xadj[v]!; p < xadj[v + 1]!; p++) if (inA[v] && !inA[adj[p]!]) cross = true;
+      side0[v] = cross ? 2 : inA[v] ? 0 : 1;
+    }
+    const order = [0, 1, 2].flatMap((s) => [...Array(n).keys()].filter((v) => side0[v] === s));
+    const na0 = order.filter((v) => side0[v] === 0).length, nb0 = order.filter((v) => side0[v] === 1).length;
+    const label = new Int32Array(n).fill(3);
+    const side = new Uint8Array(n);
+    const dest = new Int32Array(n);
+    const [na1, nb1] = thinSeparator(Int32Array.from(order), n, na0, nb0, xadj, adj, label, 3, side, dest);
+    const out = new Int32Array(3);
+    refineSeparator(dest, n, na1, nb1, xadj, adj, label, 3, side, new Int32Array(n), new Int32Array(n), 0, 4, 0.2, out);
+    const [na, nb] = [out[0]!, out[1]!];
+    expect([...dest].sort((a, b) => a - b)).toEqual([...Array(n).keys()]);
+    expect(n - na - nb).toBeLessThanOrEqual(n - na1 - nb1);
+    const part = new Uint8Array(n);
+    for (let q = 0; q < n; q++) part[dest[q]!] = q < na ? 0 : q < na + nb ? 1 : 2;
+    for (let v = 0; v < n; v++) {
+      for (let p = xadj[v]!; p < xadj[v + 1]!; p++) {
+        if (part[v] === 0) expect(part[adj[p]!]).not.toBe(1);
+      }
     }
   });
 });
