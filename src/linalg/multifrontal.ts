@@ -111,18 +111,18 @@ export function multifrontalFactor(
       pivotOut[0] = F[bad * nr + bad]!;
       return f + bad;
     }
-    // copy L's block (first nc entries of every row; the diagonal block as
-    // a lower triangle, zeros above: F's upper triangle holds scratch values)
+    // copy L's block: the diagonal block's lower triangle packed by rows,
+    // then the first nc entries of every row below (F's upper triangle
+    // holds scratch values)
     const v0 = valPtr[s]!;
-    for (let r = 0; r < nc; r++) {
+    for (let r = 0, dst = v0; r < nc; r++) {
       const src = r * nr;
-      const dst = v0 + r * nc;
-      for (let k = 0; k <= r; k++) Lx[dst + k] = F[src + k]!;
-      for (let k = r + 1; k < nc; k++) Lx[dst + k] = 0;
+      for (let k = 0; k <= r; k++) Lx[dst++] = F[src + k]!;
     }
+    const w0 = v0 + ((nc * (nc + 1)) >> 1) - nc * nc;
     for (let r = nc; r < nr; r++) {
       const src = r * nr;
-      const dst = v0 + r * nc;
+      const dst = w0 + r * nc;
       for (let k = 0; k < nc; k++) Lx[dst + k] = F[src + k]!;
     }
     const m = nr - nc;

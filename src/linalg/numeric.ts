@@ -43,7 +43,7 @@ export class CholeskyFactor {
   get usesSimd(): boolean {
     return this.mf?.simd != null;
   }
-  /** Values of L: CSC columns (simplicial) or row-major supernode blocks (supernodal). */
+  /** Values of L: CSC columns (simplicial) or packed row-major supernode blocks (supernodal; see SupernodalStructure.valPtr). */
   private readonly Lx: Float64Array;
   /** Row indices of L (simplicial only). */
   private readonly Li: Int32Array;
@@ -177,7 +177,7 @@ export class CholeskyFactor {
       const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
       for (let k = 0; k < nc; k++) {
         for (let r = k; r < nr; r++) {
-          const v = this.Lx[valPtr[s]! + r * nc + k]!;
+          const v = this.Lx[r < nc ? valPtr[s]! + ((r * (r + 1)) >> 1) + k : valPtr[s]! + ((nc * (nc + 1)) >> 1) + (r - nc) * nc + k]!;
           if (v === 0 && r !== k) continue;
           ri.push(rows[r0 + r]!);
           vx.push(v);

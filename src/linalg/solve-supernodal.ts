@@ -1,9 +1,9 @@
 /**
  * Triangular solves with the supernodal factor: supernode s stores its nr × nc
- * block of L row-major (rows R_s: own columns first, then the rows below),
+ * block of L by rows (rows R_s: own columns first, then the rows below),
  *
  * ```
- *   [ L₁₁ ]  nc × nc lower triangle (upper part unused)
+ *   [ L₁₁ ]  nc × nc lower triangle, packed: row j holds j + 1 values
  *   [ L₂₁ ]  (nr − nc) × nc, row r belongs to global row R_s[r]
  * ```
  *
@@ -23,8 +23,10 @@ export function supernodalLowerSolve(sn: SupernodalStructure, Lx: Float64Array, 
     const f = superStart[s]!, nc = superStart[s + 1]! - f;
     const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
     const v0 = valPtr[s]!;
+    // packed: diagonal row j at v0 + j(j+1)/2, row r ≥ nc at w0 + r·nc
+    const w0 = v0 + ((nc * (nc + 1)) >> 1) - nc * nc;
     for (let j = 0; j < nc; j++) {
-      const rj = v0 + j * nc;
+      const rj = v0 + ((j * (j + 1)) >> 1);
       let t = x[f + j]!;
       for (let k = 0; k < j; k++) t -= Lx[rj + k]! * x[f + k]!;
       x[f + j] = t / Lx[rj + j]!;
@@ -32,7 +34,7 @@ export function supernodalLowerSolve(sn: SupernodalStructure, Lx: Float64Array, 
     // x(R₂) −= L₂₁ y_s: four (then two) rows per pass over y_s
     let r = nc;
     for (; r + 3 < nr; r += 4) {
-      const q0 = v0 + r * nc, q1 = q0 + nc, q2 = q1 + nc, q3 = q2 + nc;
+      const q0 = w0 + r * nc, q1 = q0 + nc, q2 = q1 + nc, q3 = q2 + nc;
       let t0 = 0, t1 = 0, t2 = 0, t3 = 0;
       for (let k = 0; k < nc; k++) {
         const y = x[f + k]!;
@@ -47,7 +49,7 @@ export function supernodalLowerSolve(sn: SupernodalStructure, Lx: Float64Array, 
       x[rows[r0 + r + 3]!]! -= t3;
     }
     for (; r + 1 < nr; r += 2) {
-      const q0 = v0 + r * nc, q1 = q0 + nc;
+      const q0 = w0 + r * nc, q1 = q0 + nc;
       let t0 = 0, t1 = 0;
       for (let k = 0; k < nc; k++) {
         const y = x[f + k]!;
@@ -58,7 +60,7 @@ export function supernodalLowerSolve(sn: SupernodalStructure, Lx: Float64Array, 
       x[rows[r0 + r + 1]!]! -= t1;
     }
     if (r < nr) {
-      const q0 = v0 + r * nc;
+      const q0 = w0 + r * nc;
       let t0 = 0;
       for (let k = 0; k < nc; k++) t0 += Lx[q0 + k]! * x[f + k]!;
       x[rows[r0 + r]!]! -= t0;
@@ -79,23 +81,25 @@ export function supernodalLowerTransposeSolve(sn: SupernodalStructure, Lx: Float
     const f = superStart[s]!, nc = superStart[s + 1]! - f;
     const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
     const v0 = valPtr[s]!;
+    // packed: diagonal row j at v0 + j(j+1)/2, row r ≥ nc at w0 + r·nc
+    const w0 = v0 + ((nc * (nc + 1)) >> 1) - nc * nc;
     // y_s −= L₂₁ᵀ x(R₂): four rows of L₂₁ per pass over y_s
     let r = nr - 1;
     for (; r - 3 >= nc; r -= 4) {
       const x0 = x[rows[r0 + r]!]!, x1 = x[rows[r0 + r - 1]!]!, x2 = x[rows[r0 + r - 2]!]!, x3 = x[rows[r0 + r - 3]!]!;
-      const q0 = v0 + r * nc, q1 = q0 - nc, q2 = q1 - nc, q3 = q2 - nc;
+      const q0 = w0 + r * nc, q1 = q0 - nc, q2 = q1 - nc, q3 = q2 - nc;
       for (let k = nc - 1; k >= 0; k--) {
         x[f + k]! -= Lx[q0 + k]! * x0 + Lx[q1 + k]! * x1 + Lx[q2 + k]! * x2 + Lx[q3 + k]! * x3;
       }
     }
     for (; r >= nc; r--) {
       const xr = x[rows[r0 + r]!]!;
-      const q0 = v0 + r * nc;
+      const q0 = w0 + r * nc;
       for (let k = nc - 1; k >= 0; k--) x[f + k]! -= Lx[q0 + k]! * xr;
     }
     // L₁₁ᵀ x_s = y_s by rows of L₁₁: x_j = y_j / L(j,j), then y_k −= L(j,k) x_j for k < j
     for (let j = nc - 1; j >= 0; j--) {
-      const rj = v0 + j * nc;
+      const rj = v0 + ((j * (j + 1)) >> 1);
       const xj = x[f + j]! / Lx[rj + j]!;
       x[f + j] = xj;
       if (xj === 0) continue;

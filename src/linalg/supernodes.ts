@@ -7,11 +7,14 @@
  * ```
  *        f     l
  *      [ x         ]  f    rows R_s = f..l, then the rows below
- *      [ x  x      ]       (sorted); stored row-major, nr × nc
+ *      [ x  x      ]       (sorted); stored by rows (packed, below)
  *      [ x  x  x   ]  l
  *      [ x  x  x   ]  r₁
  *      [ x  x  x   ]  r₂
  * ```
+ *
+ * Values are stored by rows, the diagonal block as a packed lower triangle
+ * (see `valPtr`).
  *
  * Fundamental supernodes (Liu, Ng, Peyton 1993): column j joins column j−1
  * when parent[j−1] = j, j has no other child, and colCount[j−1] =
@@ -38,7 +41,11 @@ export interface SupernodalStructure {
   readonly rowPtr: Int32Array;
   /** Row patterns: own columns first, then the rows below, increasing. */
   readonly rows: Int32Array;
-  /** Offsets of each supernode's nr × nc row-major block of values, length nsuper + 1. */
+  /**
+   * Offsets of each supernode's block of values, length nsuper + 1: the
+   * nc × nc diagonal block's lower triangle by rows (row j holds j + 1
+   * values), then the nr − nc rows below, nc values each.
+   */
   readonly valPtr: Int32Array;
   /** Largest row count of a supernode (frontal matrix order). */
   readonly maxRows: number;
@@ -176,7 +183,7 @@ export function findSupernodes(
     const nc = superStart[s + 1]! - superStart[s]!;
     const nr = rowPtr[s + 1]! - rowPtr[s]!;
     valPtr[s] = v;
-    v += nr * nc;
+    v += ((nc * (nc + 1)) >> 1) + (nr - nc) * nc;
     if (v > MAX_VALUES) throw limitError(`supernodal Cholesky factor would need more than ${MAX_VALUES} values`);
     for (let ch = childHead[s]!; ch !== -1; ch = childNext[ch]!) {
       const m = rowPtr[ch + 1]! - rowPtr[ch]! - (superStart[ch + 1]! - superStart[ch]!);
