@@ -18,7 +18,7 @@ import { factorFront } from './dense-kernels.js';
 import { createSimdFront } from './wasm-update.js';
 import type { SimdFront } from './wasm-update.js';
 
-/** Workspaces of {@link multifrontalFactor}, allocated once per factor. */
+/** Workspaces of {@link multifrontalFactor}: scratch, so the factors of one analysis share them. */
 export interface MultifrontalWork {
   /** Frontal matrix, maxRows² doubles (in WebAssembly memory when `simd` is set). */
   readonly front: Float64Array;

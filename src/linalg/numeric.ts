@@ -31,6 +31,20 @@ export interface FactorOptions {
   pivotTolerance?: number;
 }
 
+/**
+ * Scratch shared by every factor of one analysis: C's values and the
+ * multifrontal workspaces are only used inside a (synchronous) factorization,
+ * so factors of the same pattern (the heat method keeps two or three) need
+ * one copy, and each later factor touches fresh memory only for its L.
+ */
+interface SharedScratch {
+  readonly Cx: Float64Array;
+  simd?: MultifrontalWork;
+  plain?: MultifrontalWork;
+}
+
+const scratchOf = new WeakMap<CholeskySymbolic, SharedScratch>();
+
 /** A numeric Cholesky factor P·A·Pᵀ = L·Lᵀ of a symmetric positive definite matrix. */
 export class CholeskyFactor {
   /** Matrix size. */
@@ -47,9 +61,11 @@ export class CholeskyFactor {
   private readonly Lx: Float64Array;
   /** Row indices of L (simplicial only). */
   private readonly Li: Int32Array;
+  /** C's values in the analysed order (scratch shared with the analysis' other factors). */
   private readonly Cx: Float64Array;
   private readonly x: Float64Array;
   private readonly intWork: [Int32Array, Int32Array, Int32Array];
+  /** Multifrontal workspaces (shared with the analysis' other factors). */
   private readonly mf: MultifrontalWork | null;
   private readonly pivot = new Float64Array(1);
   private readonly pivotTolerance: number;
@@ -64,13 +80,19 @@ export class CholeskyFactor {
     this.n = n;
     this.nnzL = sym.nnzL;
     this.symbolic = sym;
-    this.Cx = new Float64Array(sym.cRowIdx.length);
+    let scratch = scratchOf.get(sym);
+    if (!scratch) {
+      scratch = { Cx: new Float64Array(sym.cRowIdx.length) };
+      scratchOf.set(sym, scratch);
+    }
+    this.Cx = scratch.Cx;
     this.x = new Float64Array(n);
     if (sym.supernodal) {
       this.Lx = new Float64Array(sym.supernodal.valPtr[sym.supernodal.nsuper]!);
       this.Li = new Int32Array(0);
       this.intWork = [new Int32Array(0), new Int32Array(0), new Int32Array(0)];
-      this.mf = multifrontalWork(n, sym.supernodal, opts.simd ?? true);
+      if (opts.simd ?? true) this.mf = scratch.simd ??= multifrontalWork(n, sym.supernodal, true);
+      else this.mf = scratch.plain ??= multifrontalWork(n, sym.supernodal, false);
     } else {
       this.Lx = new Float64Array(sym.nnzL);
       this.Li = new Int32Array(sym.nnzL);

@@ -255,6 +255,23 @@ describe('refactorization', () => {
     expect(scaledResidual(A2, x, b)).toBeLessThan(1e-14);
   });
 
+  it('factors of one analysis share scratch but not results: each still solves its own matrix', () => {
+    // scaled residual ≤ 1e-14 for a backward-stable Cholesky solve (common practice, as above)
+    const A1 = gridLaplacianLower(40, 40, 1e-3, true, 5);
+    const A2 = gridLaplacianLower(40, 40, 3, true, 6);
+    const sym = analyzeCholesky(A1);
+    const f1 = CholeskyFactor.factor(A1, sym);
+    const f2 = CholeskyFactor.factor(A2, sym);
+    const f3 = CholeskyFactor.factor(A1, sym, { simd: false });
+    f2.refactor(A2);
+    const b = randomVector(A1.n, 7);
+    const x = new Float64Array(A1.n);
+    for (const [f, A] of [[f1, A1], [f2, A2], [f3, A1]] as const) {
+      f.solve(b, x);
+      expect(scaledResidual(A, x, b)).toBeLessThan(1e-14);
+    }
+  });
+
   it('a different pattern is rejected with USAGE', () => {
     const A1 = gridLaplacianLower(10, 10, 1, true);
     const A2 = gridLaplacianLower(10, 10, 1, false);
