@@ -48,7 +48,7 @@ export function registerDemo(program: Command): void {
         say(`outputs go to ${rel(out) || '.'}\n`);
 
         // 1. hillside: health and curvature
-        const knoll = await loadSurface(join(dir, 'ostrel-knoll.obj'), { requireManifold: true });
+        const knoll = await loadSurface(rel(join(dir, 'ostrel-knoll.obj')), { requireManifold: true });
         say('== Ostrel Knoll hillside: mesh health');
         say(formatInspect(inspectSurface(knoll.surface)));
         const kc = curvatureSummary(knoll.surface);
@@ -87,7 +87,7 @@ export function registerDemo(program: Command): void {
         say('  (planning aid only: see the terrain caution below)\n');
 
         // 3. part: health and curvature
-        const cup = await loadSurface(join(dir, 'px7-cup.ply'), { requireManifold: true });
+        const cup = await loadSurface(rel(join(dir, 'px7-cup.ply')), { requireManifold: true });
         say('== PX-7 drawn cup: mesh health');
         say(formatInspect(inspectSurface(cup.surface)));
         const cc = curvatureSummary(cup.surface);

@@ -1,0 +1,26 @@
+/**
+ * `orthodrome demo` (what `npm start` runs) ends with exit 0, writes every
+ * output it announces, and its heat-method figure stays within the method's
+ * usual error against the exact one (about 1%, Crane et al. 2013, from memory).
+ */
+import { describe, expect, it } from 'vitest';
+import { mkdtempSync, readdirSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { runCli } from './run-cli.js';
+
+describe('demo', () => {
+  it('runs the main job on the bundled meshes and writes its outputs', () => {
+    const out = mkdtempSync(join(tmpdir(), 'orthodrome-demo-'));
+    const r = runCli(['demo', '--out', out]);
+    expect(r.code).toBe(0);
+    expect(readdirSync(out).sort()).toEqual(['cup-curvature.csv', 'cup-cut-path.obj', 'cup-edge-distance.csv', 'knoll-curvature.ply', 'knoll-distance.ply']);
+    expect(r.stdout).toMatch(/Gauss–Bonnet residual -?\d(\.\d+)?e-1\d rad/);
+    // heat vs exact on the hillside: the printed mean difference stays within the heat method's usual ~1–2 %
+    const m = /mean difference from exact ([\d.]+)%/.exec(r.stdout);
+    expect(m).not.toBeNull();
+    expect(Number(m![1])).toBeLessThan(2);
+    expect(readFileSync(join(out, 'cup-cut-path.obj'), 'utf8')).toMatch(/^l /m);
+    expect(r.stdout).toMatch(/not safety\s+assessments/);
+  });
+});
