@@ -14,32 +14,10 @@ import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { HeatSolver, type HeatOptions } from '../../src/geodesic/heat.js';
 import { graphDistance } from '../../src/geodesic/graph.js';
-import { icosphere, terrain, rng, type Shape } from '../fixtures/shapes.js';
+import type { Shape } from '../fixtures/shapes.js';
+import { jitteredTerrain, bumpySphere } from './meshes.js';
 
 const BENCH = 'heat';
-
-function jitteredTerrain(n: number, seed: number): Shape {
-  const s = terrain(n, n, 1000, 1000, (x, y) => 40 * Math.sin(x / 90) * Math.cos(y / 130) + 15 * Math.sin((x + y) / 37));
-  const r = rng(seed), cell = 1000 / n;
-  for (let i = 0; i < s.positions.length; i += 3) {
-    const x = s.positions[i]!, y = s.positions[i + 1]!;
-    if (x > 0 && x < 1000 && y > 0 && y < 1000) {
-      s.positions[i] = x + 0.6 * cell * (r() - 0.5);
-      s.positions[i + 1] = y + 0.6 * cell * (r() - 0.5);
-    }
-  }
-  return s;
-}
-
-function bumpySphere(level: number, seed: number): Shape {
-  const s = icosphere(level, 100);
-  const r = rng(seed);
-  for (let i = 0; i < s.positions.length; i += 3) {
-    const k = 1 + 0.002 * (r() - 0.5) + 0.05 * Math.sin(3 * s.positions[i]! / 100) * Math.cos(2 * s.positions[i + 2]! / 100);
-    for (let d = 0; d < 3; d++) s.positions[i + d]! *= k;
-  }
-  return s;
-}
 
 function meshOf(s: Shape): IntrinsicMesh {
   const { topology } = buildTopology(s.triangles, s.positions.length / 3);
