@@ -16,6 +16,8 @@
  */
 import type { Topology } from './topology.js';
 import { next, prev } from './topology.js';
+import { groupHalfedges } from './edge-groups.js';
+import { orientFaces } from './orient.js';
 
 /** A non-manifold edge: two input vertices and the input triangles that share them. */
 export interface NonManifoldEdge {
@@ -242,117 +244,4 @@ export function buildTopology(
     splitVertices: extraOrigin.length,
   };
   return { topology, report };
-}
-
-interface Groups {
-  /** group g holds order[start[g] .. start[g+1]) */
-  start: Int32Array;
-  /** half-edges sorted by undirected edge */
-  order: Int32Array;
-}
-
-/** Groups half-edges by their undirected edge, in O(n): bucket by min endpoint, then match max endpoints. */
-function groupHalfedges(tri: Uint32Array, nv: number): Groups {
-  const nh = tri.length;
-  const count = new Int32Array(nv + 1);
-  for (let h = 0; h < nh; h++) {
-    const a = tri[h]!, b = tri[next(h)]!;
-    count[(a < b ? a : b) + 1]!++;
-  }
-  for (let v = 0; v < nv; v++) count[v + 1]! += count[v]!;
-  const bucket = new Int32Array(nh);
-  const fill = count.slice(0, nv);
-  for (let h = 0; h < nh; h++) {
-    const a = tri[h]!, b = tri[next(h)]!;
-    bucket[fill[a < b ? a : b]!++] = h;
-  }
-  // within each bucket, sort by max endpoint (buckets are small: insertion sort)
-  const maxOf = (h: number) => {
-    const a = tri[h]!, b = tri[next(h)]!;
-    return a > b ? a : b;
-  };
-  const starts: number[] = [];
-  for (let v = 0; v < nv; v++) {
-    const s = count[v]!, e = count[v + 1]!;
-    for (let i = s + 1; i < e; i++) {
-      const h = bucket[i]!;
-      const key = maxOf(h);
-      let j = i - 1;
-      while (j >= s && maxOf(bucket[j]!) > key) {
-        bucket[j + 1] = bucket[j]!;
-        j--;
-      }
-      bucket[j + 1] = h;
-    }
-    for (let i = s; i < e; i++) if (i === s || maxOf(bucket[i]!) !== maxOf(bucket[i - 1]!)) starts.push(i);
-  }
-  starts.push(nh);
-  return { start: Int32Array.from(starts), order: bucket };
-}
-
-/**
- * Flips faces so that every manifold edge is traversed in opposite directions
- * by its two faces. Works per connected piece; keeps the orientation held by
- * the majority of its faces. Returns the number of flipped faces and of pieces
- * that cannot be oriented.
- */
-function orientFaces(tri: Uint32Array, nf: number, groups: Groups): { flipped: number; nonOrientable: number } {
-  const nh = 3 * nf;
-  // neighbour across each half-edge, for manifold edges only
-  const across = new Int32Array(nh).fill(-1);
-  const { start, order } = groups;
-  for (let g = 0; g + 1 < start.length; g++) {
-    if (start[g + 1]! - start[g]! !== 2) continue;
-    const h0 = order[start[g]!]!, h1 = order[start[g]! + 1]!;
-    across[h0] = h1;
-    across[h1] = h0;
-  }
-  const flip = new Int8Array(nf).fill(-1); // -1 unvisited, 0 keep, 1 flip
-  const queue = new Int32Array(nf);
-  let flipped = 0;
-  let nonOrientable = 0;
-  const members: number[] = [];
-  for (let seed = 0; seed < nf; seed++) {
-    if (flip[seed] >= 0) continue;
-    flip[seed] = 0;
-    let qh = 0, qt = 0;
-    queue[qt++] = seed;
-    members.length = 0;
-    let ok = true;
-    while (qh < qt) {
-      const f = queue[qh++]!;
-      members.push(f);
-      for (let k = 0; k < 3; k++) {
-        const h = 3 * f + k;
-        const o = across[h]!;
-        if (o < 0) continue;
-        const g = (o / 3) | 0;
-        // same direction along the shared edge means the faces disagree
-        const same = tri[h] === tri[o];
-        const want = (flip[f]! ^ (same ? 1 : 0)) as 0 | 1;
-        if (flip[g]! < 0) {
-          flip[g] = want;
-          queue[qt++] = g;
-        } else if (flip[g] !== want) ok = false;
-      }
-    }
-    if (!ok) {
-      nonOrientable++;
-      for (const f of members) flip[f] = 0;
-      continue;
-    }
-    let nflip = 0;
-    for (const f of members) nflip += flip[f]!;
-    const invert = 2 * nflip > members.length; // keep the majority orientation
-    for (const f of members) {
-      const doFlip = invert ? flip[f] === 0 : flip[f] === 1;
-      if (doFlip) {
-        const t = tri[3 * f + 1]!;
-        tri[3 * f + 1] = tri[3 * f + 2]!;
-        tri[3 * f + 2] = t;
-        flipped++;
-      }
-    }
-  }
-  return { flipped, nonOrientable };
 }
