@@ -31,6 +31,14 @@ function meshDir(): string {
   return here.includes(`${'/'}dist${'/'}`) ? fromDist : resolve(here, '../../meshes');
 }
 
+/** Loads a demo mesh (refusing non-manifold input), prints its health and returns it with its curvature. */
+async function healthAndCurvature(file: string, title: string, say: (s: string) => void) {
+  const { surface } = await loadSurface(file, { requireManifold: true });
+  say(`== ${title}: mesh health`);
+  say(formatInspect(inspectSurface(surface)));
+  return { surface, curvature: curvatureSummary(surface) };
+}
+
 /** Registers the command. */
 export function registerDemo(program: Command): void {
   program
@@ -48,10 +56,8 @@ export function registerDemo(program: Command): void {
         say(`outputs go to ${rel(out) || '.'}\n`);
 
         // 1. hillside: health and curvature
-        const knoll = await loadSurface(rel(join(dir, 'ostrel-knoll.obj')), { requireManifold: true });
-        say('== Ostrel Knoll hillside: mesh health');
-        say(formatInspect(inspectSurface(knoll.surface)));
-        const kc = curvatureSummary(knoll.surface);
+        const knoll = await healthAndCurvature(rel(join(dir, 'ostrel-knoll.obj')), 'Ostrel Knoll hillside', say);
+        const kc = knoll.curvature;
         const kFile = join(out, 'knoll-curvature.ply');
         await writeVertexColumns(kFile, knoll.surface, [
           { name: 'gaussianCurvature', unit: '1/m²', values: kc.gaussianCurvature },
@@ -87,10 +93,8 @@ export function registerDemo(program: Command): void {
         say('  (planning aid only: see the terrain caution below)\n');
 
         // 3. part: health and curvature
-        const cup = await loadSurface(rel(join(dir, 'px7-cup.ply')), { requireManifold: true });
-        say('== PX-7 drawn cup: mesh health');
-        say(formatInspect(inspectSurface(cup.surface)));
-        const cc = curvatureSummary(cup.surface);
+        const cup = await healthAndCurvature(rel(join(dir, 'px7-cup.ply')), 'PX-7 drawn cup', say);
+        const cc = cup.curvature;
         const cFile = join(out, 'cup-curvature.csv');
         await writeVertexColumns(cFile, cup.surface, [
           { name: 'angleDefect', unit: 'rad', values: cc.angleDefect },

@@ -20,6 +20,22 @@ function graphFrom(n: number, edges: [number, number][]): { xadj: Int32Array; ad
   return { xadj: deg, adj };
 }
 
+/**
+ * The "up" separator of the cut inA | not inA (A-side vertices with a B-side
+ * neighbour), as the vertex order A, B, S that the separator routines take.
+ */
+function upSeparator(n: number, xadj: Int32Array, adj: Int32Array, inA: boolean[]) {
+  const side0 = new Uint8Array(n);
+  for (let v = 0; v < n; v++) {
+    let cross = false;
+    for (let p = xadj[v]!; p < xadj[v + 1]!; p++) if (inA[v] && !inA[adj[p]!]) cross = true;
+    side0[v] = cross ? 2 : inA[v] ? 0 : 1;
+  }
+  const order = [0, 1, 2].flatMap((s) => [...Array(n).keys()].filter((v) => side0[v] === s));
+  const na0 = order.filter((v) => side0[v] === 0).length, nb0 = order.filter((v) => side0[v] === 1).length;
+  return { order, na0, nb0 };
+}
+
 describe('thinSeparator', () => {
   fcTest.prop([
     fc.integer({ min: 3, max: 40 }).chain((n) => fc.tuple(
@@ -29,15 +45,7 @@ describe('thinSeparator', () => {
     )),
   ], { numRuns: 200 })('keeps a valid separator, never larger, with both sides adjacent to every S vertex', ([n, edges, inA]) => {
     const { xadj, adj } = graphFrom(n, edges);
-    // the "up" separator of the cut inA | not inA: A-side vertices with a B-side neighbour
-    const side0 = new Uint8Array(n);
-    for (let v = 0; v < n; v++) {
-      let cross = false;
-      for (let p = xadj[v]!; p < xadj[v + 1]!; p++) if (inA[v] && !inA[adj[p]!]) cross = true;
-      side0[v] = cross ? 2 : inA[v] ? 0 : 1;
-    }
-    const order = [0, 1, 2].flatMap((s) => [...Array(n).keys()].filter((v) => side0[v] === s));
-    const na0 = order.filter((v) => side0[v] === 0).length, nb0 = order.filter((v) => side0[v] === 1).length;
+    const { order, na0, nb0 } = upSeparator(n, xadj, adj, inA);
     const label = new Int32Array(n).fill(7);
     const dest = new Int32Array(n);
     const [na, nb] = thinSeparator(Int32Array.from(order), n, na0, nb0, xadj, adj, label, 7, new Uint8Array(n), dest);
@@ -66,14 +74,7 @@ describe('thinSeparator', () => {
     )),
   ], { numRuns: 200 })('refinement keeps a valid separator and never grows it', ([n, edges, inA]) => {
     const { xadj, adj } = graphFrom(n, edges);
-    const side0 = new Uint8Array(n);
-    for (let v = 0; v < n; v++) {
-      let cross = false;
-      for (let p = xadj[v]!; p < xadj[v + 1]!; p++) if (inA[v] && !inA[adj[p]!]) cross = true;
-      side0[v] = cross ? 2 : inA[v] ? 0 : 1;
-    }
-    const order = [0, 1, 2].flatMap((s) => [...Array(n).keys()].filter((v) => side0[v] === s));
-    const na0 = order.filter((v) => side0[v] === 0).length, nb0 = order.filter((v) => side0[v] === 1).length;
+    const { order, na0, nb0 } = upSeparator(n, xadj, adj, inA);
     const label = new Int32Array(n).fill(3);
     const side = new Uint8Array(n);
     const dest = new Int32Array(n);
