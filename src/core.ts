@@ -51,6 +51,7 @@ export { HeatSolver, type HeatOptions, type HeatStats } from './geodesic/heat.js
 export { graphDistance, type GraphOptions } from './geodesic/graph.js';
 export { exactDistance, type ExactOptions, type ExactResult } from './geodesic/exact/index.js';
 export type { WindowUsage } from './geodesic/exact/usage.js';
+export { prepareExactGeometry, type ExactGeometry } from './geodesic/exact/geometry.js';
 export { pathPolyline, pathLength } from './geodesic/path.js';
 export {
   prepareDistance, type DistanceSolver, type DistanceResult, type DistanceOptions, type SolveOptions,

@@ -16,6 +16,7 @@ import { HeatSolver, type HeatOptions } from './heat.js';
 import { graphDistance } from './graph.js';
 import { valueAtPoint } from './heat-sources.js';
 import { exactDistance } from './exact/index.js';
+import { prepareExactGeometry } from './exact/geometry.js';
 
 /** Options for {@link prepareDistance}. */
 export interface DistanceOptions {
@@ -106,14 +107,17 @@ export function prepareDistance(mesh: IntrinsicMesh, method: DistanceMethod, opt
       },
     };
   }
+  const p0 = performance.now();
+  const geometry = prepareExactGeometry(mesh);
   return {
     method,
-    prepareMs: 0,
-    prepareDetails: {},
+    prepareMs: performance.now() - p0,
+    prepareDetails: { saddles: geometry.saddles },
     solve(sources, so = {}) {
       const t0 = performance.now();
       const early = so.fieldNeeded === false && so.targets && so.targets.length > 0;
       const r = exactDistance(mesh, sources, {
+        geometry,
         ...(opts.maxDistance !== undefined ? { maxDistance: opts.maxDistance } : {}),
         ...(early ? { targets: so.targets } : {}),
       });

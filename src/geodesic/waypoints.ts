@@ -7,6 +7,7 @@ import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { SurfacePoint } from '../query/surface-point.js';
 import type { SurfacePath } from './field.js';
 import { exactDistance } from './exact/index.js';
+import { prepareExactGeometry } from './exact/geometry.js';
 import { commonFaces, layoutFace, pointInLayout } from './exact/layout.js';
 
 /** A path through waypoints with per-point bookkeeping. */
@@ -28,9 +29,10 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops: SurfacePoint[]):
   const legs: { path: SurfacePath; length: number }[] = [];
   const points: SurfacePoint[] = [];
   let length = 0;
+  const geometry = stops.length > 1 ? prepareExactGeometry(mesh) : undefined;
   for (let i = 0; i + 1 < stops.length; i++) {
     const a = stops[i]!, b = stops[i + 1]!;
-    const r = exactDistance(mesh, { points: [a], curves: [] }, { targets: [b] });
+    const r = exactDistance(mesh, { points: [a], curves: [] }, { targets: [b], geometry });
     const reached = Number.isFinite(r.distanceAt(b));
     const p: SurfacePath = reached ? r.pathTo(b) : { points: [], length: Infinity };
     legs.push({ path: p, length: p.length });

@@ -54,6 +54,8 @@ import type { SourceSet } from '../sources.js';
 import { limitError, usageError } from '../../errors.js';
 import { facesOfPoint } from './layout.js';
 import { createState } from './state.js';
+import { prepareExactGeometry } from './geometry.js';
+import type { ExactGeometry } from './geometry.js';
 import type { ExactState } from './state.js';
 import { runEvents } from './propagate.js';
 import { seedSources, rootPoint } from './seed.js';
@@ -73,6 +75,11 @@ export interface ExactOptions {
   targets?: SurfacePoint[];
   /** Guard on the number of windows (default 64 per face, at least 200 000, at most 24 million: about 1.9 GB peak). */
   maxWindows?: number;
+  /**
+   * The mesh's source-independent data from {@link prepareExactGeometry}, reused across runs on
+   * the same mesh (it is most of a two-point query's cost); made afresh when absent.
+   */
+  geometry?: ExactGeometry;
 }
 
 /** Result of {@link exactDistance}. */
@@ -111,6 +118,8 @@ export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: Exa
   sources.points.forEach((p) => checkSurfacePoint(p, t, 'source'));
   sources.curves.forEach((c, i) => c.forEach((p) => checkSurfacePoint(p, t, `curve ${i}`)));
   const targets = (opts.targets ?? []).map((p) => checkSurfacePoint(p, t, 'target'));
+  if (opts.geometry && opts.geometry.mesh !== mesh) throw usageError('geometry was prepared for another mesh');
+  const geometry = opts.geometry ?? prepareExactGeometry(mesh);
 
   // a whole-mesh run reserves the cap at once: large typed arrays are zero pages mapped lazily, so
   // only the windows made cost memory, and doubling (copying, touching every copied page) is
@@ -118,13 +127,13 @@ export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: Exa
   // windows, and a huge reservation per query costs more than it saves (measured: a two-point
   // query on 20k faces took 3x longer). Where the reservation is refused (a browser tab's
   // limit), start small too.
-  const small = Math.min(maxW, 8 * t.nf + 1024);
+  const small = Math.min(maxW, 65536);
   let s: ExactState;
   try {
-    s = createState(mesh, maxD, maxW, targets.length || maxD < Infinity ? small : maxW);
+    s = createState(mesh, maxD, maxW, targets.length || maxD < Infinity ? small : maxW, geometry);
   } catch (e) {
     if (!(e instanceof RangeError)) throw e;
-    s = createState(mesh, maxD, maxW, small);
+    s = createState(mesh, maxD, maxW, small, geometry);
   }
   markPseudoSources(s);
   const all = seedSources(s, sources);

@@ -12,17 +12,14 @@
  * both sides and meet without a gap, and emitting there would only duplicate
  * windows.
  */
-import { cornerAngles } from '../../metric/triangle.js';
+import type { Topology } from '../../mesh/topology.js';
 import type { ExactState } from './state.js';
 
 /** Relative slack on the angle-sum tests. */
 const SLACK = 1e-9;
 
-/** Sets `pseudo[v] = 1` for saddle and reflex boundary vertices; returns how many. */
-export function markPseudoSources(s: ExactState): number {
-  const t = s.t;
-  const ang = cornerAngles(s.mesh);
-  s.angle = ang;
+/** Writes out[v] = 1 for saddle and reflex boundary vertices, from the corner angles; returns how many. */
+export function saddleFlags(t: Topology, ang: Float64Array, out: Uint8Array): number {
   const sum = new Float64Array(t.nv);
   const boundary = new Uint8Array(t.nv);
   for (let h = 0; h < ang.length; h++) {
@@ -32,7 +29,14 @@ export function markPseudoSources(s: ExactState): number {
   let n = 0;
   for (let v = 0; v < t.nv; v++) {
     const full = boundary[v] ? Math.PI : 2 * Math.PI;
-    if (sum[v]! > full * (1 + SLACK)) { s.pseudo[v] = 1; n++; }
+    if (sum[v]! > full * (1 + SLACK)) { out[v] = 1; n++; }
   }
   return n;
+}
+
+/** Marks the run's pseudo-sources (from its geometry) and makes the corner angles available to it; returns how many. */
+export function markPseudoSources(s: ExactState): number {
+  s.angle = s.geometry.angle;
+  s.pseudo.set(s.geometry.saddle);
+  return s.geometry.saddles;
 }

@@ -4,7 +4,8 @@
  */
 import type { IntrinsicMesh } from '../../metric/intrinsic.js';
 import type { Topology } from '../../mesh/topology.js';
-import { layoutAlong } from './layout.js';
+import type { ExactGeometry } from './geometry.js';
+import { prepareExactGeometry } from './geometry.js';
 import { WindowStore } from './windows.js';
 import { EventQueue } from './queue.js';
 import { BucketQueue } from './bucket-queue.js';
@@ -42,6 +43,8 @@ export interface ExactState {
   readonly mesh: IntrinsicMesh;
   /** Its topology. */
   readonly t: Topology;
+  /** The mesh's source-independent data (geometry.ts), shared with other runs: read only. */
+  readonly geometry: ExactGeometry;
   /** Length of each half-edge. */
   readonly hl: Float64Array;
   /** Third corner (cx, cy) of the face of each half-edge laid out along it (see layout.ts). */
@@ -90,18 +93,15 @@ export interface ExactState {
   wedge: boolean;
 }
 
-/** Window-queue bucket width as a fraction of the mean edge length (narrower: closer to key order, more empty buckets to skip). */
-const BUCKET = 0.25;
-
-/** Allocates the state for a mesh; `capacity` is the initial window capacity. */
-export function createState(mesh: IntrinsicMesh, maxDistance: number, maxWindows: number, capacity: number): ExactState {
+/**
+ * Allocates the state of one run; `capacity` is the initial window
+ * capacity. `geometry` must have been made for `mesh` (made here when absent).
+ */
+export function createState(mesh: IntrinsicMesh, maxDistance: number, maxWindows: number, capacity: number, geometry = prepareExactGeometry(mesh)): ExactState {
   const t = mesh.topology;
-  const nh = 3 * t.nf;
-  const hl = new Float64Array(nh), hc = new Float64Array(2 * nh);
-  let sum = 0;
-  for (let h = 0; h < nh; h++) sum += hl[h] = layoutAlong(mesh, h, hc, 2 * h);
+  const { hl, hc } = geometry;
   return {
-    mesh, t, hl, hc,
+    mesh, t, geometry, hl, hc,
     dist: new Float64Array(t.nv).fill(Infinity),
     viaType: new Uint8Array(t.nv),
     viaId: new Int32Array(t.nv).fill(-1),
@@ -110,7 +110,7 @@ export function createState(mesh: IntrinsicMesh, maxDistance: number, maxWindows
     angle: new Float64Array(0),
     win: new WindowStore(t.nf, capacity, maxWindows),
     queue: new EventQueue(Math.min(capacity, t.nv + 1024)),
-    wq: new BucketQueue(nh ? (BUCKET * sum) / nh : 1, capacity),
+    wq: new BucketQueue(geometry.bucketWidth, capacity),
     rootVertex: new Int32Array(64),
     rootSigma: new Float64Array(64),
     nRoots: 0,
