@@ -3,7 +3,8 @@
  * ~1M faces (jittered terrain grid; perturbed icosphere), with time, windows
  * created, peak RSS and the ratio to edge-graph Dijkstra measured in the
  * same run on the same mesh; a two-point query between nearby points
- * (targets option): time and fraction of faces touched; and the event queue
+ * (targets option): time and fraction of faces touched, also on a mesh
+ * whose solver geometry was prepared once (geometry.ts); and the event queue
  * (typed-array heap) against heap-js on the same push/pop sequence.
  *
  * `--quick` runs the ~10k and ~100k sizes only. Goals at 1M faces: ≤ 8×
@@ -19,6 +20,7 @@ import { emit, timeMedian, peakRssMB, quick } from './harness.js';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, meanEdgeLength, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { exactDistance, type ExactResult } from '../../src/geodesic/exact/index.js';
+import { prepareExactGeometry } from '../../src/geodesic/exact/geometry.js';
 import { EventQueue } from '../../src/geodesic/exact/queue.js';
 import { graphDistance } from '../../src/geodesic/graph.js';
 import { pointSources } from '../../src/geodesic/sources.js';
@@ -78,6 +80,13 @@ async function runCase(name: string, s: Shape, big: boolean): Promise<void> {
   emit({ bench: BENCH, case: name, metric: 'two_point_ms', value: q.ms, unit: 'ms', distance: q.result.distanceAt({ kind: 'vertex', vertex: b }), ...extra });
   emit({ bench: BENCH, case: name, metric: 'two_point_faces_touched', value: q.result.facesTouched / nf, unit: 'fraction', ...extra });
   emit({ bench: BENCH, case: name, metric: 'two_point_over_graph', value: q.ms / g.ms, unit: 'ratio', ...extra });
+  // the same query on a prepared mesh (geometry.ts made once: what `path --via` legs and a prepared solver reuse)
+  const p0 = performance.now();
+  const geometry = prepareExactGeometry(m);
+  emit({ bench: BENCH, case: name, metric: 'prepare_geometry_ms', value: performance.now() - p0, unit: 'ms', ...extra });
+  const qp = await timeMedian(() => exactDistance(m, src, { targets: [{ kind: 'vertex', vertex: b }], geometry }), big ? 5 : 9, 1);
+  emit({ bench: BENCH, case: name, metric: 'two_point_prepared_ms', value: qp.ms, unit: 'ms', ...extra });
+  emit({ bench: BENCH, case: name, metric: 'two_point_prepared_over_graph', value: qp.ms / g.ms, unit: 'ratio', ...extra });
 }
 
 /** The event queue: the typed heap against heap-js on the same 2M pushes and pops (distance-like keys). */
