@@ -1,7 +1,9 @@
 /**
  * The core runs in a browser: src/core.ts is bundled for the browser with
  * esbuild (which fails on any `node:` import), served from 127.0.0.1, and run
- * in headless Chromium (Debian's package, driven by playwright-core). The
+ * in headless Chromium driven by playwright-core (CHROMIUM_PATH, a system
+ * chromium, or the one shipped by the dev dependency @sparticuz/chromium: see
+ * launch.ts; no browser at all fails the test). The
  * page computes heat and exact distances on a sphere; they must equal the
  * values computed in Node by the same code, and the exact ones must be close to
  * the great-circle distance R·acos(n1·n2) (do Carmo 1976).
@@ -9,10 +11,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { build } from 'esbuild';
 import { createServer, type Server } from 'node:http';
-import { existsSync } from 'node:fs';
 import { join, resolve, dirname } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { chromium, type Browser } from 'playwright-core';
+import type { Browser } from 'playwright-core';
+import { launchChromium } from './launch.js';
 import { icosphere } from '../fixtures/shapes.js';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
@@ -20,13 +22,11 @@ import { HeatSolver } from '../../src/geodesic/heat.js';
 import { exactDistance } from '../../src/geodesic/exact/index.js';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '../..');
-const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
 let server: Server;
 let browser: Browser;
 let url = '';
 
 beforeAll(async () => {
-  if (!existsSync(CHROMIUM)) throw new Error(`Chromium not found at ${CHROMIUM}: install it (apt-get install chromium) or set CHROMIUM_PATH`);
   const bundle = await build({
     entryPoints: [join(root, 'src/core.ts')],
     bundle: true,
@@ -50,10 +50,6 @@ beforeAll(async () => {
   await new Promise<void>((ok) => server.listen(0, '127.0.0.1', ok));
   const addr = server.address();
   url = `http://127.0.0.1:${typeof addr === 'object' && addr ? addr.port : 0}/`;
-  browser = await chromium.launch({
-    executablePath: CHROMIUM,
-    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic'],
-  });
 }, 60_000);
 
 afterAll(async () => {
@@ -63,6 +59,8 @@ afterAll(async () => {
 
 describe('core in the browser', () => {
   it('bundles without Node modules and gives the same distances as Node', async () => {
+    // launched here, not in beforeAll, so that a missing browser is a failed test rather than a skipped one
+    browser = (await launchChromium()).browser;
     const s = icosphere(3, 2);
     const page = await browser.newPage();
     await page.goto(url);
