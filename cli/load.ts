@@ -3,9 +3,10 @@
  * topology, and refuse non-manifold input for solvers unless splitting is
  * allowed.
  */
-import { readMeshFile } from '../src/io/read-mesh.js';
+import { Option } from 'commander';
+import { readMeshFile, DEFAULT_MAX_INPUT_BYTES, formatBytes } from '../src/io/read-mesh.js';
 import { surfaceFromMeshData, isManifold, type Surface } from '../src/mesh/surface.js';
-import { inputError } from '../src/errors.js';
+import { inputError, usageError } from '../src/errors.js';
 import { since } from './run.js';
 
 /** A loaded surface and how long it took. */
@@ -15,13 +16,35 @@ export interface Loaded {
 }
 
 /**
+ * A byte size as typed on the command line: a whole number of bytes with an
+ * optional binary unit K, M, G or T (also KB/KiB, …, any case): `1500000`,
+ * `512M`, `2G`. Throws `USAGE` naming `option` otherwise.
+ */
+export function parseByteSize(text: string, option: string): number {
+  const m = /^\s*(\d+(?:\.\d+)?)\s*(?:([kmgt])(?:i?b)?|b)?\s*$/i.exec(text);
+  const n = m ? Number(m[1]) * 1024 ** (m[2] ? 'kmgt'.indexOf(m[2].toLowerCase()) + 1 : 0) : NaN;
+  if (!(n >= 1) || !Number.isFinite(n)) throw usageError(`${option} must be a size such as 800M or 2G, got '${text}'`);
+  return Math.floor(n);
+}
+
+/** The `--max-input-size` option, for every command that reads a mesh. */
+export function maxInputSizeOption(): Option {
+  return new Option(
+    '--max-input-size <size>',
+    `largest mesh input accepted, on disk and after gzip unpacking (bytes, or with K/M/G; default ${formatBytes(DEFAULT_MAX_INPUT_BYTES)})`,
+  );
+}
+
+/**
  * Loads `path`. With `requireManifold`, a mesh that needed cutting or
  * splitting is refused (exit 2) with the first location, unless
- * `allowSplit` is set.
+ * `allowSplit` is set. `maxInputSize` is the `--max-input-size` text, if
+ * given (input over it is a `LIMIT` error).
  */
-export async function loadSurface(path: string, opts: { requireManifold?: boolean; allowSplit?: boolean } = {}): Promise<Loaded> {
+export async function loadSurface(path: string, opts: { requireManifold?: boolean; allowSplit?: boolean; maxInputSize?: string } = {}): Promise<Loaded> {
   const t0 = performance.now();
-  const data = await readMeshFile(path);
+  const maxInputBytes = opts.maxInputSize === undefined ? DEFAULT_MAX_INPUT_BYTES : parseByteSize(opts.maxInputSize, '--max-input-size');
+  const data = await readMeshFile(path, { maxInputBytes });
   const surface = surfaceFromMeshData(data);
   if (opts.requireManifold && !opts.allowSplit && !isManifold(surface)) {
     const r = surface.report;

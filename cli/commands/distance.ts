@@ -4,7 +4,7 @@
  * target points.
  */
 import { Command, Option } from 'commander';
-import { loadSurface } from '../load.js';
+import { loadSurface, maxInputSizeOption } from '../load.js';
 import { checkFieldOutput, writeVertexColumns } from '../output.js';
 import { action, fmt, since, toJson } from '../run.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
@@ -32,6 +32,7 @@ interface DistanceCliOptions {
   intrinsicDelaunay: boolean;
   mollify: boolean;
   splitNonmanifold?: boolean;
+  maxInputSize?: string;
 }
 
 const collect = (v: string, prev: string[] = []) => [...prev, v];
@@ -55,7 +56,7 @@ export function registerDistance(program: Command): void {
     .option('--to <point>', 'target point whose distance is printed; repeat for several', collect)
     .option('--each', 'treat each --from as its own source set (one field per source, one prepared solver)')
     .addOption(new Option('--method <method>', 'exact (window propagation), heat (heat method, approximate) or graph (along edges)').choices(['exact', 'heat', 'graph']).default('exact'))
-    .option('-o, --output <file>', 'write the per-vertex distances: .ply (binary, coloured), .csv or .json')
+    .option('-o, --output <file>', 'write the per-vertex distances: .ply (binary, coloured), .csv or .json; add .gz to compress')
     .option('--ascii', 'write PLY output as ascii instead of binary')
     .option('--json', 'print the result as JSON')
     .option('--max-distance <d>', 'exact and graph: stop at this distance (mesh units); farther vertices get no distance')
@@ -64,15 +65,16 @@ export function registerDistance(program: Command): void {
     .option('--no-intrinsic-delaunay', 'heat: build the Laplacian on the input triangles instead of the intrinsic Delaunay triangulation')
     .option('--no-mollify', 'heat: do not mollify near-degenerate triangles')
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
+    .addOption(maxInputSizeOption())
     .addHelpText('after', `\nDistances are in the mesh's own units; unreachable points get null (JSON) or an empty field (CSV).\n${TERRAIN_CAUTION}\n${MACHINING_CAUTION}`)
     .action(action(async (mesh: string, o: DistanceCliOptions) => runDistance(mesh, o)));
 }
 
 async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number> {
-  if (o.output) checkFieldOutput(o.output);
+  if (o.output) checkFieldOutput(o.output, [mesh]);
   const maxDistance = positiveNumber(o.maxDistance, '--max-distance');
   const timeScale = positiveNumber(o.timeScale, '--time-scale');
-  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold });
+  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
   const t = surface.topology;
   const resolver = new PointResolver(t, surface.positions);
 

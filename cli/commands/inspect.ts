@@ -1,6 +1,6 @@
 /** `orthodrome inspect MESH [--json]`: mesh health summary. */
 import type { Command } from 'commander';
-import { loadSurface } from '../load.js';
+import { loadSurface, maxInputSizeOption } from '../load.js';
 import { inspectSurface, type InspectReport } from '../../src/report/inspect.js';
 import { action, fmt, toJson } from '../run.js';
 
@@ -40,9 +40,10 @@ export function registerInspect(program: Command): void {
     .description('mesh health: counts, components, boundary, Euler characteristic and genus, manifold and orientation problems, angles, Gauss–Bonnet check')
     .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
     .option('--json', 'print the report as JSON (keys documented in the README)')
+    .addOption(maxInputSizeOption())
     .action(
-      action(async (mesh: string, opts: { json?: boolean }) => {
-        const { surface } = await loadSurface(mesh);
+      action(async (mesh: string, opts: { json?: boolean; maxInputSize?: string }) => {
+        const { surface } = await loadSurface(mesh, { maxInputSize: opts.maxInputSize });
         const r = inspectSurface(surface);
         process.stdout.write((opts.json ? toJson(r) : formatInspect(r)) + '\n');
       }),

@@ -3,8 +3,8 @@
  * the exact shortest path on the surface through waypoints.
  */
 import type { Command } from 'commander';
-import { extname } from 'node:path';
-import { loadSurface } from '../load.js';
+import { loadSurface, maxInputSizeOption } from '../load.js';
+import { checkOutput, outputFormat } from '../output.js';
 import { action, fmt, since, toJson } from '../run.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
@@ -28,6 +28,7 @@ interface PathCliOptions {
   output?: string;
   json?: boolean;
   splitNonmanifold?: boolean;
+  maxInputSize?: string;
 }
 
 /** Registers the command. */
@@ -40,9 +41,10 @@ export function registerPath(program: Command): void {
     .option('--to <point>', 'end point (required unless --closed)')
     .option('--via <point>', 'waypoint visited in order between --from and --to; repeat for several', collect)
     .option('--closed', 'return to the start after the last point (a closed loop)')
-    .option('-o, --output <file>', 'write the path: .obj (polyline), .csv (x,y,z,length,face), .geojson (LineString with z, mesh coordinates) or .json')
+    .option('-o, --output <file>', 'write the path: .obj (polyline), .csv (x,y,z,length,face), .geojson (LineString with z, mesh coordinates) or .json; add .gz to compress')
     .option('--json', 'print the result as JSON')
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
+    .addOption(maxInputSizeOption())
     .addHelpText(
       'after',
       `\nLengths are in the mesh's own units. GeoJSON coordinates are the mesh's own coordinates (RFC 7946 expects\nWGS 84 longitude/latitude; use the file only where another system is agreed).\n${TERRAIN_CAUTION}\n${MACHINING_CAUTION}`,
@@ -51,12 +53,9 @@ export function registerPath(program: Command): void {
 }
 
 async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
-  if (o.output) {
-    const ext = extname(o.output).toLowerCase();
-    if (!PATH_FORMATS.includes(ext)) throw usageError(`unsupported output format '${ext || o.output}' (use ${PATH_FORMATS.join(', ')})`, o.output);
-  }
+  if (o.output) checkOutput(o.output, PATH_FORMATS, [mesh]);
   if (!o.to && !o.closed) throw usageError('give --to, or --closed to return to the start');
-  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold });
+  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
   const t = surface.topology;
   const resolver = new PointResolver(t, surface.positions);
   const specs = [o.from, ...(o.via ?? []), ...(o.to ? [o.to] : [])];
@@ -79,7 +78,7 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
   for (let i = 0; i < n; i++) points.push([xyz[3 * i]!, xyz[3 * i + 1]!, xyz[3 * i + 2]!]);
 
   if (o.output) {
-    const ext = extname(o.output).toLowerCase();
+    const ext = outputFormat(o.output);
     if (ext === '.obj') {
       await writeFileAtomic(o.output, writeObjPolyline(xyz, 'shortest_path'));
     } else if (ext === '.csv') {

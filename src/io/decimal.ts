@@ -110,3 +110,17 @@ export function latin1(b: Uint8Array, s: number, e: number): string {
   for (let i = s; i < e; i++) out += String.fromCharCode(b[i]!);
   return out;
 }
+
+/**
+ * `b` without a leading UTF-8 byte-order mark (EF BB BF), which some editors
+ * write at the start of text files (Unicode Standard, section 23.8). A view,
+ * not a copy; line numbers are unchanged since the mark holds no newline.
+ */
+export function stripBom(b: Uint8Array): Uint8Array {
+  return b.length >= 3 && b[0] === 0xef && b[1] === 0xbb && b[2] === 0xbf ? b.subarray(3) : b;
+}
+
+/** True when `b` starts with a UTF-16 byte-order mark (FF FE or FE FF). */
+export function hasUtf16Bom(b: Uint8Array): boolean {
+  return b.length >= 2 && ((b[0] === 0xff && b[1] === 0xfe) || (b[0] === 0xfe && b[1] === 0xff));
+}

@@ -8,11 +8,12 @@
  *
  * The scan works on the bytes directly: no string per line, numbers are
  * assembled digit by digit (see {@link scanReal}), growable typed buffers.
- * Vertex indices are those of the file (1-based there, 0-based here).
+ * Vertex indices are those of the file (1-based there, 0-based here). A
+ * leading UTF-8 byte-order mark is ignored.
  */
 import { inputError } from '../errors.js';
 import type { MeshData, PropertyColumn } from './mesh-data.js';
-import { scanCursor, scanReal, latin1, POW10 } from './decimal.js';
+import { scanCursor, scanReal, latin1, POW10, stripBom } from './decimal.js';
 
 /**
  * A larger copy of a typed buffer keeping its first `used` entries. The new
@@ -84,6 +85,7 @@ class ObjScan {
  * vertex) are kept; the topology builder drops and counts them.
  */
 export function parseObj(bytes: Uint8Array, name: string): MeshData {
+  bytes = stripBom(bytes);
   const s = new ObjScan(bytes, name);
   scanStatements(s);
   const { nv, nf, ni, rgb } = s;

@@ -23,7 +23,7 @@
  */
 import { inputError } from '../errors.js';
 import type { MeshData, PropertyColumn } from './mesh-data.js';
-import { latin1, scanCursor, scanReal } from './decimal.js';
+import { latin1, scanCursor, scanReal, stripBom } from './decimal.js';
 import { parsePlyHeader, SCALAR_TYPES, TYPE_SIZES } from './ply-header.js';
 import type { PlyProperty, PlyElement } from './ply-header.js';
 
@@ -182,6 +182,9 @@ function readItems(r: ItemReader, el: PlyElement, sinks: Sink[], fi: number, nv:
       const k = r.value(q.countType);
       if (k < 0) r.fail(`negative list length ${k}`);
       const size = TYPE_SIZES[q.type]!;
+      // Checked before anything is sized by k: an ascii item takes at least a
+      // digit and a separator (binary lists are checked against their size below).
+      if (r.ascii && 2 * k > n - r.p + 1) r.fail(`list of ${k} items is longer than the rest of the file can hold`);
       if (j === fi) {
         if (k < 3) r.fail(`face has ${k} ${k === 1 ? 'vertex' : 'vertices'} (at least 3 needed)`);
         if (!r.ascii && r.p + k * size > n) r.fail('file ends inside this item');
@@ -208,9 +211,9 @@ function readItems(r: ItemReader, el: PlyElement, sinks: Sink[], fi: number, nv:
   st.idx = idx;
 }
 
-/** Parses a PLY file (any of the three encodings) into {@link MeshData}. */
+/** Parses a PLY file (any of the three encodings; a UTF-8 byte-order mark before `ply` is ignored) into {@link MeshData}. */
 export function parsePly(bytes: Uint8Array, name: string): MeshData {
-  const b = bytes;
+  const b = stripBom(bytes);
   const h = parsePlyHeader(b, name);
   const ascii = h.format === 'ascii';
   const le = h.format === 'binary_little_endian';
@@ -277,7 +280,10 @@ export function parsePly(bytes: Uint8Array, name: string): MeshData {
       p += stride * el.count;
     } else if (fixed && el === vEl && le === HOST_LE && stride === 24 && el.props.every((q, j) => q.type === 7 && q.name === 'xyz'[j])) {
       // Exactly `double x, y, z` in host byte order: the block is the array.
-      positions = new Float64Array(b.slice(p, p + 24 * el.count).buffer);
+      // Copied into an array of its own: `b` may be a view into a larger
+      // (pooled) buffer at any byte offset, so its `.buffer` is not the file.
+      positions = new Float64Array(3 * el.count);
+      new Uint8Array(positions.buffer).set(b.subarray(p, p + 24 * el.count));
       p += 24 * el.count;
     } else if (fixed) {
       // Fixed-size items: bounds were checked above, read column by column.

@@ -7,6 +7,7 @@ import { inputError } from '../errors.js';
 import type { MeshData } from './mesh-data.js';
 import { parseObj } from './obj.js';
 import { parsePly } from './ply.js';
+import { hasUtf16Bom, stripBom } from './decimal.js';
 
 /** What {@link sniffMesh} found. */
 export interface Sniffed {
@@ -27,11 +28,12 @@ function baseName(name: string): string {
 }
 
 /**
- * Guesses the format: PLY files start with `ply` and a newline; text whose
+ * Guesses the format (after a UTF-8 byte-order mark, if any): PLY files start with `ply` and a newline; text whose
  * first statement is an OBJ keyword (or any text named `.obj`) is OBJ.
  */
 export function sniffMesh(b: Uint8Array, name = ''): Sniffed {
   const gzip = isGzip(b);
+  b = stripBom(b);
   const base = baseName(name);
   if (gzip) return { format: base.endsWith('.obj') ? 'obj' : base.endsWith('.ply') ? 'ply' : 'unknown', gzip };
   if (b.length >= 4 && b[0] === 0x70 && b[1] === 0x6c && b[2] === 0x79 && (b[3] === 10 || b[3] === 13)) {
@@ -57,6 +59,7 @@ export function sniffMesh(b: Uint8Array, name = ''): Sniffed {
 export function parseMesh(bytes: Uint8Array, name: string): MeshData {
   const s = sniffMesh(bytes, name);
   if (s.gzip) throw inputError('gzip-compressed data: decompress before parsing', name);
+  if (hasUtf16Bom(bytes)) throw inputError('UTF-16 text is not supported (save the file as UTF-8 or ASCII)', name);
   if (s.format === 'ply') return parsePly(bytes, name);
   if (s.format === 'obj') return parseObj(bytes, name);
   throw inputError('unrecognised mesh format (expected OBJ or PLY)', name);
