@@ -2,7 +2,9 @@
  * Exit codes and error reporting shared by every command.
  *
  * 0 success · 1 a check or gate failed · 2 bad input or usage (one line on
- * stderr naming the file and location) · 70 internal error.
+ * stderr naming the file and location) · 3 a resource limit was reached (a
+ * LIMIT error naming the limit and the option that raises it, or the runtime
+ * refusing memory) · 70 internal error.
  * No stack trace is printed unless ORTHODROME_DEBUG=1.
  */
 import { isOrthodromeError } from '../src/errors.js';
@@ -13,6 +15,8 @@ export const EXIT_OK = 0;
 export const EXIT_GATE = 1;
 /** Exit status for bad input or usage. */
 export const EXIT_INPUT = 2;
+/** Exit status when a resource limit was reached (memory budget, input size, allocation refused). */
+export const EXIT_LIMIT = 3;
 /** Exit status for an internal error (a bug). */
 export const EXIT_INTERNAL = 70;
 
@@ -22,6 +26,34 @@ export class GateFailure extends Error {
     super(message);
     this.name = 'GateFailure';
   }
+}
+
+/**
+ * Runtime errors that mean "not enough memory" or "too large for the
+ * runtime", not a bug: V8's RangeErrors for a refused or over-long
+ * ArrayBuffer, typed array, array or string, and Node's size errors for
+ * files, buffers and strings. Returns a one-line description, or undefined.
+ */
+export function resourceFailure(e: unknown): string | undefined {
+  if (!(e instanceof Error)) return undefined;
+  const code = (e as { code?: unknown }).code;
+  if (code === 'ERR_FS_FILE_TOO_LARGE' || code === 'ERR_BUFFER_TOO_LARGE' || code === 'ERR_STRING_TOO_LONG') {
+    return `a size limit of the runtime was reached: ${firstLine(e.message)}`;
+  }
+  if (!(e instanceof RangeError)) return undefined;
+  const m = e.message;
+  if (/allocation failed|out of memory/i.test(m)) {
+    return `out of memory: the system refused an allocation (${firstLine(m)}); free memory or use a smaller mesh (distance: --max-distance, or --method heat for whole fields)`;
+  }
+  // a negative length is a bug, not a limit
+  if (/^Invalid (typed array|array buffer|array|string) length(?!: -)|^Cannot create a string longer/i.test(m)) {
+    return `a size limit of the runtime was reached (${firstLine(m)}): the mesh or its output is too large for one array or string`;
+  }
+  return undefined;
+}
+
+function firstLine(s: string): string {
+  return s.split('\n')[0]!.trim();
 }
 
 /** Maps any thrown value to an exit code and prints one line about it. */
@@ -34,7 +66,13 @@ export function reportError(e: unknown): number {
   if (isOrthodromeError(e)) {
     process.stderr.write(`orthodrome: ${e.message.replace(/\s*\n\s*/g, ' ')}\n`);
     if (debug && e.stack) process.stderr.write(e.stack + '\n');
-    return EXIT_INPUT;
+    return e.code === 'LIMIT' ? EXIT_LIMIT : EXIT_INPUT;
+  }
+  const resource = resourceFailure(e);
+  if (resource) {
+    process.stderr.write(`orthodrome: ${resource}\n`);
+    if (debug && e instanceof Error && e.stack) process.stderr.write(e.stack + '\n');
+    return EXIT_LIMIT;
   }
   const msg = e instanceof Error ? e.message : String(e);
   process.stderr.write(`orthodrome: internal error: ${msg.split('\n')[0]} (set ORTHODROME_DEBUG=1 for details)\n`);

@@ -10,7 +10,14 @@
  * | `INPUT`   | a file or value the user gave is invalid  | 2        |
  * | `USAGE`   | options or arguments do not fit           | 2        |
  * | `NUMERIC` | a numerical method met a case it rejects  | 2        |
- * | `LIMIT`   | a guard (memory, windows, size) tripped   | 2        |
+ * | `LIMIT`   | a resource limit (memory budget, input    | 3        |
+ * |           | size) was reached; the message names the  |          |
+ * |           | limit and the option that raises it       |          |
+ *
+ * A resource limit is not bad input: the same file may succeed with a larger
+ * budget, so `LIMIT` has its own exit code. The CLI maps allocation failures
+ * of the runtime (a refused `ArrayBuffer`, an over-long array or string) to
+ * exit 3 as well (cli/run.ts).
  */
 
 /** Machine-readable class of an {@link OrthodromeError}. */
@@ -58,7 +65,11 @@ export function numericError(detail: string, location?: string): OrthodromeError
   return new OrthodromeError('NUMERIC', detail, location);
 }
 
-/** Shorthand for a `LIMIT` error. */
+/**
+ * Shorthand for a `LIMIT` error. The detail should name the limit, its value
+ * and the option that raises it (for example "the memory budget of 512 MiB
+ * … raise memoryBudget (--memory-budget)").
+ */
 export function limitError(detail: string, location?: string): OrthodromeError {
   return new OrthodromeError('LIMIT', detail, location);
 }
