@@ -11,6 +11,12 @@
  * face its three corners, and a curve segment the corners of its face(s)
  * with the point-to-segment distance.
  *
+ * At a point off the vertices ({@link graphValueAt}) the value is the best
+ * corner plus the straight segment inside a face holding the point (or the
+ * straight segment from a source on that face), again the length of a real
+ * path. Blending the corner values linearly would not be: where two routes
+ * tie it undershoots the true distance.
+ *
  * The queue is a binary min-heap over vertex ids in typed arrays with a
  * position index, so decrease-key is a sift-up and nothing is allocated per
  * push (measured in test/bench: lazy deletion with a generic heap is slower).
@@ -143,6 +149,43 @@ export function seedSourceDistances(m: IntrinsicMesh, sources: SourceSet, dist: 
       }
     }
   });
+}
+
+/**
+ * Graph distance at a surface point: the minimum over the faces whose
+ * closure holds p of (corner value + straight in-face distance from that
+ * corner to p), and of the straight in-face distance from any point source
+ * or curve segment lying on such a face. Each candidate is the length of a
+ * path on the surface, so the value stays an upper bound on the geodesic
+ * distance. `dist` is the field from {@link graphDistance} for `sources`.
+ */
+export function graphValueAt(m: IntrinsicMesh, sources: SourceSet, dist: Float64Array, p0: SurfacePoint): number {
+  const t = m.topology;
+  const p = checkSurfacePoint(p0, t, 'point');
+  if (p.kind === 'vertex') return dist[p.vertex]!;
+  const lay = new Float64Array(6), q = new Float64Array(2), a = new Float64Array(2), b = new Float64Array(2);
+  let best = Infinity;
+  const faces = facesOfPoint(t, p);
+  for (const f of faces) {
+    layoutFace(m, f, lay);
+    pointInLayout(t, f, p, lay, q);
+    for (let k = 0; k < 3; k++) {
+      const d = dist[t.tri[3 * f + k]!]! + Math.hypot(lay[2 * k]! - q[0]!, lay[2 * k + 1]! - q[1]!);
+      if (d < best) best = d;
+    }
+    for (const s of sources.points) {
+      if (pointInLayout(t, f, checkSurfacePoint(s, t, 'source'), lay, a)) best = Math.min(best, Math.hypot(a[0]! - q[0]!, a[1]! - q[1]!));
+    }
+    for (const c of sources.curves) {
+      for (let i = 1; i < c.length; i++) {
+        const ca = checkSurfacePoint(c[i - 1]!, t, 'curve'), cb = checkSurfacePoint(c[i]!, t, 'curve');
+        if (pointInLayout(t, f, ca, lay, a) && pointInLayout(t, f, cb, lay, b)) {
+          best = Math.min(best, pointSegmentDistance(q[0]!, q[1]!, a[0]!, a[1]!, b[0]!, b[1]!));
+        }
+      }
+    }
+  }
+  return best;
 }
 
 /**

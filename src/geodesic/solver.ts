@@ -6,14 +6,22 @@
  * |---------|------------------------------------------------------------|-------------------------------|
  * | `exact` | exact polyhedral distance (window propagation)             | exact, from the face's windows|
  * | `heat`  | heat-method approximation (prefactored; fast per source)   | linear in the face            |
- * | `graph` | shortest path along mesh edges (an upper bound)            | linear in the face            |
+ * | `graph` | shortest path along mesh edges (an upper bound)            | best corner + straight segment|
+ *
+ * Every source and target is validated and put in its canonical spelling
+ * here (`checkSurfacePoint`: a face point on a corner is that vertex, on an
+ * edge that edge point), so every spelling of one point gives one answer
+ * with every method. A NaN in a result is a `NUMERIC` error naming the
+ * method and the step, never a distance or "unreachable".
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { SurfacePoint } from '../query/surface-point.js';
+import { checkSurfacePoint } from '../query/surface-point.js';
+import { numericError } from '../errors.js';
 import type { DistanceField, DistanceMethod } from './field.js';
 import type { SourceSet } from './sources.js';
 import { HeatSolver, type HeatOptions } from './heat.js';
-import { graphDistance } from './graph.js';
+import { graphDistance, graphValueAt } from './graph.js';
 import { valueAtPoint } from './heat-sources.js';
 import { exactDistance } from './exact/index.js';
 import { prepareExactGeometry } from './exact/geometry.js';
@@ -63,8 +71,42 @@ export interface DistanceSolver {
   solve(sources: SourceSet, opts?: SolveOptions): DistanceResult;
 }
 
-/** Prepares a solver of the given method for `mesh`. */
+/**
+ * Prepares a solver of the given method for `mesh`. Its `solve` validates
+ * every source and target (`USAGE` error naming the bad point, see
+ * `checkSurfacePoint`), and throws `NUMERIC` if the method produced a NaN.
+ */
 export function prepareDistance(mesh: IntrinsicMesh, method: DistanceMethod, opts: DistanceOptions = {}): DistanceSolver {
+  const inner = prepareMethod(mesh, method, opts);
+  const t = mesh.topology;
+  const clean = (sources: SourceSet): SourceSet => ({
+    points: sources.points.map((p) => checkSurfacePoint(p, t, 'source')),
+    curves: sources.curves.map((c, i) => c.map((p) => checkSurfacePoint(p, t, `curve ${i}`))),
+  });
+  return {
+    method,
+    prepareMs: inner.prepareMs,
+    prepareDetails: inner.prepareDetails,
+    solve(sources, so = {}) {
+      const targets = so.targets?.map((p) => checkSurfacePoint(p, t, 'target'));
+      const r = inner.solve(clean(sources), { ...so, ...(targets ? { targets } : {}) });
+      const d = r.field.distance;
+      for (let v = 0; v < d.length; v++) {
+        if (Number.isNaN(d[v])) throw numericError(`the ${method} solve produced NaN at vertex ${v}`, `${method} distance`);
+      }
+      return {
+        ...r,
+        at(p) {
+          const x = r.at(checkSurfacePoint(p, t, 'point'));
+          if (Number.isNaN(x)) throw numericError('evaluating the distance at a point produced NaN', `${method} distance`);
+          return x;
+        },
+      };
+    },
+  };
+}
+
+function prepareMethod(mesh: IntrinsicMesh, method: DistanceMethod, opts: DistanceOptions): DistanceSolver {
   const t = mesh.topology;
   if (method === 'heat') {
     const heat = HeatSolver.prepare(mesh, opts.heat ?? {});
@@ -103,7 +145,7 @@ export function prepareDistance(mesh: IntrinsicMesh, method: DistanceMethod, opt
         const t0 = performance.now();
         const field = graphDistance(mesh, sources, opts.maxDistance !== undefined ? { maxDistance: opts.maxDistance } : {});
         const d = field.distance;
-        return { field, at: (p) => valueAtPoint(t, p, d), solveMs: performance.now() - t0, complete: true, details: {} };
+        return { field, at: (p) => { const x = graphValueAt(mesh, sources, d, p); return x <= (opts.maxDistance ?? Infinity) ? x : Infinity; }, solveMs: performance.now() - t0, complete: true, details: {} };
       },
     };
   }

@@ -60,17 +60,87 @@ export function parsePointSpec(text: string, label = 'point'): PointSpec {
   throw usageError(`cannot read point '${text}' (expected v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2 or p:X,Y,Z)`, label);
 }
 
-/** Checks a surface point's indices against a topology; throws `USAGE` when out of range. */
+/**
+ * Relative tolerance of {@link canonicalSurfacePoint}: a barycentric
+ * coordinate or edge parameter below it (or within it of 1) counts as zero
+ * (one). The point then moves by at most about 2·10⁻⁹ × the longest edge of
+ * its face, far below any measurable distance, while the solvers see one
+ * spelling for every point that lies on a vertex or an edge.
+ */
+export const SNAP_TOLERANCE = 1e-9;
+
+/** How far barycentric coordinates given to the library may sum away from one (they are then rescaled). */
+export const BARY_SUM_TOLERANCE = 1e-6;
+
+const isIndex = (i: number, n: number) => Number.isInteger(i) && i >= 0 && i < n;
+const show = (p: SurfacePoint) =>
+  p.kind === 'vertex' ? `v:${p.vertex}` : p.kind === 'edge' ? `e:${p.edge}:${p.t}` : `f:${p.face}:${p.bary?.join(',')}`;
+
+/**
+ * Validates a surface point against a topology and returns its canonical
+ * form ({@link canonicalSurfacePoint}). Every solver entry calls it on every
+ * source and target.
+ *
+ * Refused with a `USAGE` error naming the point (and `label`, e.g. the
+ * option): an index that is not an integer in range, a vertex on no face,
+ * an edge parameter outside [0, 1] or not finite, barycentric coordinates
+ * that are negative, not finite, or do not sum to one within
+ * {@link BARY_SUM_TOLERANCE} (`[2, 2, 2]` is refused, not normalised; the
+ * text form `f:F:B0,B1,B2` is normalised by {@link parsePointSpec}).
+ */
 export function checkSurfacePoint(p: SurfacePoint, t: Topology, label = 'point'): SurfacePoint {
+  const bad = (why: string) => usageError(`${why} in point ${show(p)}`, label);
+  if (p === null || typeof p !== 'object') throw usageError(`not a surface point: ${String(p)}`, label);
   if (p.kind === 'vertex') {
-    if (!(p.vertex < t.nv)) throw usageError(`vertex ${p.vertex} does not exist (mesh has ${t.nv})`, label);
-    if (t.vertexHalfedge[p.vertex]! < 0) throw usageError(`vertex ${p.vertex} belongs to no face`, label);
+    if (!isIndex(p.vertex, t.nv)) throw bad(`vertex ${p.vertex} does not exist (mesh has ${t.nv}, indices 0 to ${t.nv - 1})`);
+    if (t.vertexHalfedge[p.vertex]! < 0) throw bad(`vertex ${p.vertex} belongs to no face`);
   } else if (p.kind === 'edge') {
-    if (!(p.edge < t.ne)) throw usageError(`edge ${p.edge} does not exist (mesh has ${t.ne})`, label);
-  } else if (!(p.face < t.nf)) {
-    throw usageError(`face ${p.face} does not exist (mesh has ${t.nf})`, label);
+    if (!isIndex(p.edge, t.ne)) throw bad(`edge ${p.edge} does not exist (mesh has ${t.ne}, indices 0 to ${t.ne - 1})`);
+    if (!(p.t >= 0 && p.t <= 1)) throw bad(`edge parameter ${p.t} must be a number in [0, 1]`);
+  } else if (p.kind === 'face') {
+    if (!isIndex(p.face, t.nf)) throw bad(`face ${p.face} does not exist (mesh has ${t.nf}, indices 0 to ${t.nf - 1})`);
+    const b = p.bary;
+    if (!b || (b as ArrayLike<number>).length !== 3) throw bad('a face point needs three barycentric coordinates');
+    if (!(b[0]! >= 0 && b[1]! >= 0 && b[2]! >= 0 && Number.isFinite(b[0]! + b[1]! + b[2]!))) {
+      throw bad('barycentric coordinates must be finite and non-negative');
+    }
+    const sum = b[0]! + b[1]! + b[2]!;
+    if (!(Math.abs(sum - 1) <= BARY_SUM_TOLERANCE)) throw bad(`barycentric coordinates must sum to 1 (they sum to ${sum})`);
+  } else {
+    throw usageError(`unknown surface point kind '${(p as { kind: unknown }).kind}'`, label);
   }
-  return p;
+  return canonicalSurfacePoint(p, t);
+}
+
+/**
+ * The one spelling the solvers use for a (valid) surface point: a face
+ * point whose barycentric coordinates put it on a corner becomes that
+ * vertex, on an edge that edge point; an edge point at an end becomes the
+ * vertex; "on" means within {@link SNAP_TOLERANCE} (relative to the face's
+ * size). Other face points get coordinates rescaled to sum exactly to one.
+ */
+export function canonicalSurfacePoint(p: SurfacePoint, t: Topology): SurfacePoint {
+  if (p.kind === 'vertex') return p;
+  if (p.kind === 'edge') {
+    const h = t.edgeHalfedge[p.edge]!;
+    if (p.t <= SNAP_TOLERANCE) return { kind: 'vertex', vertex: t.tri[h]! };
+    if (p.t >= 1 - SNAP_TOLERANCE) return { kind: 'vertex', vertex: t.tri[next(h)]! };
+    return p;
+  }
+  const sum = p.bary[0] + p.bary[1] + p.bary[2];
+  const b = p.bary.map((x) => (x / sum <= SNAP_TOLERANCE ? 0 : x)) as [number, number, number];
+  const s2 = b[0] + b[1] + b[2];
+  const zeros = b.filter((x) => x === 0).length;
+  if (zeros === 2) return { kind: 'vertex', vertex: t.tri[3 * p.face + b.findIndex((x) => x > 0)]! };
+  if (zeros === 1) {
+    // on the edge of half-edge 3f+k, from corner k to corner k+1 (the zero is corner k+2)
+    const k = (b.indexOf(0) + 1) % 3, h = 3 * p.face + k;
+    const e = t.edgeOf[h]!;
+    const u = b[(k + 1) % 3]! / s2; // weight of corner k+1 = parameter from corner k
+    const tt = t.edgeHalfedge[e] === h ? u : 1 - u;
+    return canonicalSurfacePoint({ kind: 'edge', edge: e, t: tt }, t);
+  }
+  return { kind: 'face', face: p.face, bary: [b[0] / s2, b[1] / s2, b[2] / s2] };
 }
 
 /** Formats a surface point in its text form (round-trips through {@link parsePointSpec}). */

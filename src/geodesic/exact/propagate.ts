@@ -224,7 +224,8 @@ export function propagateWindow(s: ExactState, w: number): void {
     // line A + u·(C − A): u(x) = x·sy / ((x − sx)·cy + sy·cx)
     const x1 = b1 < xC ? b1 : xC;
     const u0 = unit(b0 * sy, (b0 - sx) * cy + sy * cx);
-    const u1 = unit(x1 * sy, (x1 - sx) * cy + sy * cx);
+    // at x = xC the ray meets C itself (u = 1); recomputing u there cancels badly when I nears the axis
+    const u1 = x1 === xC ? 1 : unit(x1 * sy, (x1 - sx) * cy + sy * cx);
     const lca = len2(cx, cy), Lc = s.hl[gp]!;
     if (lca > 0) {
       const ex = cx / lca, ey = cy / lca; // frame of twin(CA) = A→C
@@ -235,7 +236,7 @@ export function propagateWindow(s: ExactState, w: number): void {
   if (gn >= 0 && b1 > xC) {
     // line B + u·(C − B): u(x) = sy·(x − L) / ((x − sx)·cy + sy·(cx − L))
     const x0 = b0 > xC ? b0 : xC;
-    const u0 = unit(sy * (x0 - L), (x0 - sx) * cy + sy * (cx - L));
+    const u0 = x0 === xC ? 1 : unit(sy * (x0 - L), (x0 - sx) * cy + sy * (cx - L));
     const u1 = unit(sy * (b1 - L), (b1 - sx) * cy + sy * (cx - L));
     const dx = L - cx, dy = -cy, lbc = len2(dx, dy), Lc = s.hl[gn]!;
     if (lbc > 0) {

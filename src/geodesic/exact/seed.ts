@@ -5,8 +5,14 @@
  * becomes a segment root whose planar fronts light the edges of its face(s)
  * (planar.ts). Corners of the faces holding a source get the straight
  * in-face distance as their first bound.
+ *
+ * Every point is first put in its canonical spelling (surface-point.ts): a
+ * face point seeded as-is on a corner would light only the edge opposite
+ * that corner (the adjacent edges hold it), and on an edge only its own
+ * face, leaving the rest of the fan to edge-graph relaxation.
  */
 import type { SurfacePoint } from '../../query/surface-point.js';
+import { canonicalSurfacePoint } from '../../query/surface-point.js';
 import { usageError } from '../../errors.js';
 import type { SourceSet } from '../sources.js';
 import { commonFaces, facesOfPoint, pointSegmentDistance } from './layout.js';
@@ -32,7 +38,10 @@ function barys(s: ExactState, faces: number[], p: SurfacePoint): number[] {
 export function seedSources(s: ExactState, sources: SourceSet): SurfacePoint[] {
   const t = s.t;
   const all: SurfacePoint[] = [];
-  const seedPoint = (p: SurfacePoint) => {
+  // one spelling per point (a face point on a corner is that vertex, on an edge that edge point):
+  // a vertex source must be a pseudo-source lighting its whole fan, an edge point both its faces
+  const seedPoint = (p0: SurfacePoint) => {
+    const p = canonicalSurfacePoint(p0, t);
     all.push(p);
     if (p.kind === 'vertex') {
       s.pseudo[p.vertex] = 1;
@@ -55,8 +64,9 @@ export function seedSources(s: ExactState, sources: SourceSet): SurfacePoint[] {
   sources.points.forEach(seedPoint);
   sources.curves.forEach((curve, ci) => {
     curve.forEach(seedPoint);
-    for (let i = 1; i < curve.length; i++) {
-      const a = curve[i - 1]!, b = curve[i]!;
+    const cs = curve.map((p) => canonicalSurfacePoint(p, t));
+    for (let i = 1; i < cs.length; i++) {
+      const a = cs[i - 1]!, b = cs[i]!;
       const faces = commonFaces(t, a, b);
       if (faces.length === 0) throw usageError(`points ${i - 1} and ${i} share no face`, `curve ${ci}`);
       const ba = barys(s, faces, a), bb = barys(s, faces, b);
