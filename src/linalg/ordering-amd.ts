@@ -1,327 +1,276 @@
 /**
- * Approximate minimum degree ordering (Amestoy, Davis, Duff, SIAM J. Matrix
- * Anal. Appl. 17, 1996; structure as in Davis 2006, §7.1).
+ * Approximate minimum degree ordering, written from the paper:
+ * P. R. Amestoy, T. A. Davis, I. S. Duff, "An approximate minimum degree
+ * ordering algorithm", SIAM J. Matrix Anal. Appl. 17(4):886–905, 1996.
  *
- * Elimination is simulated on a quotient graph: eliminating pivot k turns it
- * into an *element* whose variable list Lk is the union of k's variables and
- * the lists of the elements adjacent to k (those elements are absorbed). Each
- * variable i keeps, in one slice of the shared array Ci,
+ * Elimination is simulated on the quotient graph (§2 of the paper). Every node
+ * is a *variable* (not yet eliminated) or an *element* (an eliminated pivot,
+ * standing for the clique its elimination created). A variable v keeps a list
+ * of its adjacent elements E_v followed by its adjacent variables A_v; an
+ * element e keeps its variables L_e. Eliminating pivot p:
  *
- * ```
- *   Ci[Cp[i] .. Cp[i]+elen[i]-1]     elements adjacent to i   (Ei)
- *   Ci[Cp[i]+elen[i] .. Cp[i]+len[i]-1]  variables adjacent to i (Ai)
- * ```
+ * 1. L_p = (A_p ∪ ⋃_{e ∈ E_p} L_e) \ {p}; the elements of E_p are absorbed into p.
+ * 2. For every element e touching L_p, |L_e \ L_p| is found in one pass over
+ *    the variables of L_p (§4, "approximate external degrees").
+ * 3. Each v ∈ L_p drops absorbed elements and the variables of L_p from its
+ *    lists and gains p. Elements with L_e ⊆ L_p are absorbed too (aggressive
+ *    absorption, §5). A variable left adjacent to p only is eliminated with p
+ *    (mass elimination). Its new degree is the paper's bound (eq. 4.1)
+ *       d̄_v = min( n_left − |v|,  d̄_v_old + |L_p \ v|,
+ *                  |A_v \ v| + |L_p \ v| + Σ_{e ∈ E_v \ p} |L_e \ L_p| ),
+ *    where |·| counts variables with their supervariable weights.
+ * 4. Variables of L_p with identical lists are merged into one supervariable
+ *    (§3): candidates are grouped by a hash of their lists, then compared.
  *
- * The exact degree |∪ Le ∪ Ai| is replaced by the bound
- *   d(i) ≈ |Ai \ i| + |Lk \ i| + Σ_{e ∈ Ei, e ≠ k} |Le \ Lk|,
- * with |Le \ Lk| for every element found in one scan (`w[e] − mark`).
- * Elements with Le ⊆ Lk are absorbed (aggressive absorption); variables with
- * identical adjacency are merged into supervariables (found by hashing);
- * variables of degree above max(16, 10·√n) are treated as dense and ordered
- * last. The ordering is the postorder of the resulting assembly tree.
- * Sign-flipped indices (−2 − j) mark absorbed objects and their parents.
+ * The pivot is always a variable of least d̄. Here the lists live in one
+ * growable Int32Array (`pool`); a new element is appended at its end, and the
+ * pool is copied compactly into a fresh array when it runs out of room.
+ * Variables adjacent to more than max(64, 8·√n) others are set aside and
+ * ordered last (dense rows; common practice, not part of the 1996 paper).
+ * The returned order lists each pivot followed by the variables merged into
+ * it and those mass-eliminated with it; analyzeCholesky postorders the
+ * elimination tree afterwards, so no assembly-tree postorder is done here.
  */
 import type { AdjacencyGraph } from './graph.js';
+import { usageError } from '../errors.js';
 
-const flip = (i: number): number => -i - 2;
+/** Node states. */
+const VARIABLE = 0;
+const ELEMENT = 1;
+/** Absorbed element, merged or eliminated variable: ignored wherever it is still listed. */
+const GONE = 2;
+const DENSE = 3;
 
-/** Returns perm with perm[k] = the vertex eliminated k-th. */
+/**
+ * Returns perm with perm[k] = the vertex eliminated k-th. The graph must list
+ * every edge in both directions, without self-loops or repeats (as
+ * `adjacencyFromLower` builds it); a one-sided edge that breaks the
+ * elimination is reported as a USAGE error.
+ */
 export function approximateMinimumDegree(g: AdjacencyGraph): Int32Array {
-  const n = g.n;
-  if (n === 0) return new Int32Array(0);
-  let dense = Math.max(16, Math.floor(10 * Math.sqrt(n)));
-  dense = Math.min(n - 2, dense);
-  let cnz = g.xadj[n]!;
-  const nzmax = cnz + Math.floor(cnz / 5) + 2 * n;
-  const Ci = new Int32Array(nzmax);
-  Ci.set(g.adj.subarray(0, cnz));
-  const Cp = new Int32Array(n + 1);
-  Cp.set(g.xadj);
-  const len = new Int32Array(n + 1);
-  const nv = new Int32Array(n + 1);
-  const next = new Int32Array(n + 1);
-  const head = new Int32Array(n + 1);
-  const elen = new Int32Array(n + 1);
-  const degree = new Int32Array(n + 1);
-  const w = new Int32Array(n + 1);
-  const hhead = new Int32Array(n + 1);
-  const last = new Int32Array(n + 1);
-  for (let k = 0; k < n; k++) len[k] = Cp[k + 1]! - Cp[k]!;
-  len[n] = 0;
-  for (let i = 0; i <= n; i++) {
-    head[i] = -1;
-    last[i] = -1;
-    next[i] = -1;
-    hhead[i] = -1;
-    nv[i] = 1;
-    w[i] = 1;
-    elen[i] = 0;
-    degree[i] = len[i]!;
-  }
-  // invariant after wclear: w[e] < mark for every e; w[e] = 0 marks a dead element
-  const wclear = (mark: number, lemax: number): number => {
-    if (mark < 2 || mark + lemax >= 0x3fffffff) {
-      for (let k = 0; k < n; k++) if (w[k] !== 0) w[k] = 1;
-      mark = 2;
+  const { n, xadj, adj } = g;
+  const order = new Int32Array(n);
+  if (n === 0) return order;
+  const state = new Uint8Array(n);
+  const weight = new Int32Array(n).fill(1); // supervariable size; element: unused
+  const degree = new Int32Array(n); // variable: d̄; element: |L_e| (weighted)
+  const begin = new Int32Array(n); // a node's list is pool[begin .. begin + size)
+  const size = new Int32Array(n);
+  const nElems = new Int32Array(n); // variable: the first nElems entries are elements
+  // degree buckets: doubly linked lists of variables
+  const bucket = new Int32Array(n).fill(-1);
+  const after = new Int32Array(n).fill(-1);
+  const before = new Int32Array(n).fill(-1);
+  // members of a supervariable: a singly linked chain from its principal variable
+  const chainNext = new Int32Array(n).fill(-1);
+  const chainLast = new Int32Array(n);
+  for (let v = 0; v < n; v++) chainLast[v] = v;
+  // scratch: per-element |L_e \ L_p| with the step that set it; membership stamps
+  const outside = new Int32Array(n);
+  const outsideStep = new Int32Array(n).fill(-1);
+  const stamp = new Int32Array(n).fill(-1);
+  let stampNow = 0;
+  const keys = new Float64Array(n); // hash · n + variable, sorted to group equal hashes
+
+  let pool = new Int32Array(Math.max(16, xadj[n]! + (xadj[n]! >> 2) + 2 * n));
+  let top = 0;
+  let sp = 0; // stamp of the current pivot step
+  let lpWeight = 0; // |L_p|, weighted
+  const denseAbove = Math.max(64, Math.floor(8 * Math.sqrt(n)));
+  let emitted = 0;
+  let denseCount = 0;
+  for (let v = 0; v < n; v++) {
+    const d = xadj[v + 1]! - xadj[v]!;
+    if (d > denseAbove) {
+      state[v] = DENSE;
+      denseCount++;
     }
-    return mark;
+  }
+  let nLeft = n - denseCount; // weighted count of variables not yet ordered (dense ones excluded)
+  for (let v = 0; v < n; v++) {
+    if (state[v] === DENSE) continue;
+    begin[v] = top;
+    for (let q = xadj[v]!; q < xadj[v + 1]!; q++) {
+      const u = adj[q]!;
+      if (u !== v && state[u] !== DENSE) pool[top++] = u;
+    }
+    size[v] = top - begin[v]!;
+    degree[v] = size[v]!;
+  }
+
+  const unlink = (v: number): void => {
+    const a = after[v]!, b = before[v]!;
+    if (b === -1) bucket[degree[v]!] = a;
+    else after[b] = a;
+    if (a !== -1) before[a] = b;
   };
-  let mark = wclear(0, 0);
-  let nel = 0, mindeg = 0, lemax = 0;
-  elen[n] = -2; // n is the dead element collecting dense rows
-  Cp[n] = -1;
-  w[n] = 0;
-  for (let i = 0; i < n; i++) {
-    const d = degree[i]!;
-    if (d === 0) {
-      elen[i] = -2;
-      nel++;
-      Cp[i] = -1;
-      w[i] = 0;
-    } else if (d > dense) {
-      nv[i] = 0; // absorbed into element n, ordered last
-      elen[i] = -1;
-      nel++;
-      Cp[i] = flip(n);
-      nv[n]!++;
-    } else {
-      if (head[d] !== -1) last[head[d]!] = i;
-      next[i] = head[d]!;
-      head[d] = i;
+  const link = (v: number): void => {
+    const d = degree[v]!;
+    const h = bucket[d]!;
+    after[v] = h;
+    before[v] = -1;
+    if (h !== -1) before[h] = v;
+    bucket[d] = v;
+  };
+  /** Adds variable u to L_p (at the pool's end) unless it is not a live variable or already there. */
+  const take = (u: number): void => {
+    if (state[u] !== VARIABLE || stamp[u] === sp) return;
+    stamp[u] = sp;
+    pool[top++] = u;
+    lpWeight += weight[u]!;
+    unlink(u);
+  };
+  const emitChain = (v: number): void => {
+    for (let u = v; u !== -1; u = chainNext[u]!) order[emitted++] = u;
+  };
+  /** Copies every live list into a fresh pool with at least `need` free entries at the end. */
+  const compact = (need: number): void => {
+    let live = 0;
+    for (let v = 0; v < n; v++) if (state[v] === VARIABLE || state[v] === ELEMENT) live += size[v]!;
+    const fresh = new Int32Array(Math.max(pool.length, live + (live >> 1) + need + 1024));
+    let t = 0;
+    for (let v = 0; v < n; v++) {
+      if (state[v] !== VARIABLE && state[v] !== ELEMENT) continue;
+      fresh.set(pool.subarray(begin[v]!, begin[v]! + size[v]!), t);
+      begin[v] = t;
+      t += size[v]!;
     }
-  }
+    pool = fresh;
+    top = t;
+  };
 
-  while (nel < n) {
-    // --- select a variable of minimum approximate degree
-    let k = -1;
-    for (; mindeg < n && (k = head[mindeg]!) === -1; mindeg++);
-    if (next[k] !== -1) last[next[k]!] = -1;
-    head[mindeg] = next[k]!;
-    const elenk = elen[k]!;
-    let nvk = nv[k]!;
-    nel += nvk;
+  for (let v = 0; v < n; v++) if (state[v] === VARIABLE) link(v);
+  let least = 0;
 
-    // --- garbage collection when Lk may not fit in the free tail of Ci
-    if (elenk > 0 && cnz + mindeg >= nzmax) {
-      for (let j = 0; j < n; j++) {
-        const p = Cp[j]!;
-        if (p >= 0) {
-          Cp[j] = Ci[p]!; // save first entry, mark object start with flip(j)
-          Ci[p] = flip(j);
-        }
-      }
-      let q = 0;
-      for (let p = 0; p < cnz; ) {
-        const j = flip(Ci[p++]!);
-        if (j >= 0) {
-          Ci[q] = Cp[j]!;
-          Cp[j] = q++;
-          for (let k3 = 0; k3 < len[j]! - 1; k3++) Ci[q++] = Ci[p++]!;
-        }
-      }
-      cnz = q;
-    }
+  while (nLeft > 0) {
+    while (bucket[least] === -1) least++;
+    const p = bucket[least]!;
+    unlink(p);
+    const pw = weight[p]!;
+    nLeft -= pw;
+    emitChain(p);
 
-    // --- construct the new element Lk = (Ak ∪ ⋃_{e∈Ek} Le) \ k
-    let dk = 0;
-    nv[k] = -nvk; // negative nv: "in Lk"
-    let p = Cp[k]!;
-    const pk1 = elenk === 0 ? p : cnz; // in place when k has no elements
-    let pk2 = pk1;
-    for (let k1 = 1; k1 <= elenk + 1; k1++) {
-      let e: number, pj: number, ln: number;
-      if (k1 > elenk) {
-        e = k;
-        pj = p;
-        ln = len[k]! - elenk;
+    // 1. build L_p at the end of the pool; its variables are stamped and taken out of the buckets
+    let need = size[p]! - nElems[p]!;
+    for (let q = begin[p]!; q < begin[p]! + nElems[p]!; q++) if (state[pool[q]!] === ELEMENT) need += size[pool[q]!]!;
+    if (top + need > pool.length) compact(need);
+    sp = stampNow++;
+    stamp[p] = sp; // keeps p out of L_p
+    const lpStart = top;
+    lpWeight = 0;
+    for (let q = begin[p]!; q < begin[p]! + size[p]!; q++) {
+      const x = pool[q]!;
+      if (q < begin[p]! + nElems[p]!) {
+        if (state[x] !== ELEMENT) continue;
+        for (let r = begin[x]!; r < begin[x]! + size[x]!; r++) take(pool[r]!);
+        state[x] = GONE; // absorbed into p
       } else {
-        e = Ci[p++]!;
-        pj = Cp[e]!;
-        ln = len[e]!;
-      }
-      for (let k2 = 1; k2 <= ln; k2++) {
-        const i = Ci[pj++]!;
-        const nvi = nv[i]!;
-        if (nvi <= 0) continue;
-        dk += nvi;
-        nv[i] = -nvi;
-        Ci[pk2++] = i;
-        if (next[i] !== -1) last[next[i]!] = last[i]!;
-        if (last[i] !== -1) next[last[i]!] = next[i]!;
-        else head[degree[i]!] = next[i]!;
-      }
-      if (e !== k) {
-        Cp[e] = flip(k); // absorb e into k
-        w[e] = 0;
+        take(x);
       }
     }
-    if (elenk !== 0) cnz = pk2;
-    degree[k] = dk;
-    Cp[k] = pk1;
-    len[k] = pk2 - pk1;
-    elen[k] = -2;
+    const lpEnd = top;
+    state[p] = ELEMENT;
+    begin[p] = lpStart;
+    nElems[p] = 0;
 
-    // --- scan 1: w[e] − mark = |Le \ Lk| for every element e adjacent to Lk
-    mark = wclear(mark, lemax);
-    for (let pk = pk1; pk < pk2; pk++) {
-      const i = Ci[pk]!;
-      const eln = elen[i]!;
-      if (eln <= 0) continue;
-      const nvi = -nv[i]!;
-      const wnvi = mark - nvi;
-      for (let q = Cp[i]!; q <= Cp[i]! + eln - 1; q++) {
-        const e = Ci[q]!;
-        if (w[e]! >= mark) w[e]! -= nvi;
-        else if (w[e] !== 0) w[e] = degree[e]! + wnvi;
-      }
-    }
-
-    // --- scan 2: approximate degree update, pruning, absorption, hashing
-    for (let pk = pk1; pk < pk2; pk++) {
-      const i = Ci[pk]!;
-      const p1 = Cp[i]!;
-      const p2 = p1 + elen[i]! - 1;
-      let pn = p1;
-      let h = 0, d = 0;
-      for (let q = p1; q <= p2; q++) {
-        const e = Ci[q]!;
-        if (w[e] === 0) continue;
-        const dext = w[e]! - mark;
-        if (dext > 0) {
-          d += dext;
-          Ci[pn++] = e;
-          h += e;
-        } else {
-          Cp[e] = flip(k); // aggressive absorption: Le ⊆ Lk
-          w[e] = 0;
+    // 2. |L_e \ L_p| for every other element e adjacent to a variable of L_p
+    for (let k = lpStart; k < lpEnd; k++) {
+      const v = pool[k]!;
+      for (let q = begin[v]!; q < begin[v]! + nElems[v]!; q++) {
+        const e = pool[q]!;
+        if (state[e] !== ELEMENT) continue;
+        if (outsideStep[e] !== sp) {
+          outsideStep[e] = sp;
+          outside[e] = degree[e]!;
         }
-      }
-      elen[i] = pn - p1 + 1;
-      const p3 = pn;
-      const p4 = p1 + len[i]!;
-      for (let q = p2 + 1; q < p4; q++) {
-        const j = Ci[q]!;
-        const nvj = nv[j]!;
-        if (nvj <= 0) continue;
-        d += nvj;
-        Ci[pn++] = j;
-        h += j;
-      }
-      if (d === 0) {
-        // mass elimination: i is adjacent to k only
-        Cp[i] = flip(k);
-        const nvi = -nv[i]!;
-        dk -= nvi;
-        nvk += nvi;
-        nel += nvi;
-        nv[i] = 0;
-        elen[i] = -1;
-      } else {
-        degree[i] = Math.min(degree[i]!, d);
-        Ci[pn] = Ci[p3]!;
-        Ci[p3] = Ci[p1]!;
-        Ci[p1] = k; // k becomes the first element of Ei
-        len[i] = pn - p1 + 1;
-        h %= n;
-        next[i] = hhead[h]!;
-        hhead[h] = i;
-        last[i] = h;
+        outside[e] -= weight[v]!;
       }
     }
-    degree[k] = dk;
-    lemax = Math.max(lemax, dk);
-    mark = wclear(mark + lemax, lemax);
 
-    // --- supervariable detection: compare variables sharing a hash bucket
-    for (let pk = pk1; pk < pk2; pk++) {
-      let i = Ci[pk]!;
-      if (nv[i]! >= 0) continue;
-      const h = last[i]!;
-      i = hhead[h]!;
-      hhead[h] = -1;
-      for (; i !== -1 && next[i] !== -1; i = next[i]!, mark++) {
-        const ln = len[i]!;
-        const eln = elen[i]!;
-        for (let q = Cp[i]! + 1; q <= Cp[i]! + ln - 1; q++) w[Ci[q]!] = mark;
-        let jlast = i;
-        for (let j = next[i]!; j !== -1; ) {
-          let ok = len[j] === ln && elen[j] === eln;
-          for (let q = Cp[j]! + 1; ok && q <= Cp[j]! + ln - 1; q++) if (w[Ci[q]!] !== mark) ok = false;
-          if (ok) {
-            Cp[j] = flip(i); // absorb j into i
-            nv[i]! += nv[j]!;
-            nv[j] = 0;
-            elen[j] = -1;
-            j = next[j]!;
-            next[jlast] = j;
-          } else {
-            jlast = j;
-            j = next[j]!;
-          }
+    // 3. prune each variable's lists, absorb covered elements, bound its degree
+    let candidates = 0;
+    for (let k = lpStart; k < lpEnd; k++) {
+      const v = pool[k]!;
+      const b = begin[v]!, ne = nElems[v]!, end = b + size[v]!;
+      let partial = 0, hash = p;
+      let we = b; // elements are kept in pool[b .. we)
+      for (let q = b; q < b + ne; q++) {
+        const e = pool[q]!;
+        if (state[e] !== ELEMENT) continue;
+        if (outside[e] === 0) {
+          state[e] = GONE; // aggressive absorption: L_e ⊆ L_p
+          continue;
         }
+        partial += outside[e]!;
+        hash += e;
+        pool[we++] = e;
+      }
+      let wv = we; // then variables in pool[we .. wv)
+      for (let q = b + ne; q < end; q++) {
+        const u = pool[q]!;
+        if (state[u] !== VARIABLE || stamp[u] === sp) continue; // gone, or now reached through p
+        partial += weight[u]!;
+        hash += u;
+        pool[wv++] = u;
+      }
+      // v lost p from A_v or an element absorbed into p, so one slot is free for p
+      if (wv === end) throw usageError(`approximateMinimumDegree: the adjacency graph lists edge ${p}–${v} in one direction only`);
+      pool[wv] = pool[we]!;
+      pool[we] = p;
+      nElems[v] = we - b + 1;
+      size[v] = wv + 1 - b;
+      if (partial === 0) {
+        // mass elimination: every neighbour of v is in L_p
+        state[v] = GONE;
+        lpWeight -= weight[v]!;
+        nLeft -= weight[v]!;
+        emitChain(v);
+        continue;
+      }
+      outside[v] = partial; // v is a variable: this slot is free for it this step
+      keys[candidates++] = (hash % n) * n + v;
+    }
+
+    // 4. supervariables: variables with equal hashes and equal lists are merged
+    const group = keys.subarray(0, candidates).sort();
+    for (let a = 0; a < candidates; a++) {
+      const va = group[a]! % n;
+      if (state[va] !== VARIABLE) continue;
+      const ha = Math.floor(group[a]! / n);
+      let mark = -1;
+      for (let c = a + 1; c < candidates && Math.floor(group[c]! / n) === ha; c++) {
+        const vc = group[c]! % n;
+        if (state[vc] !== VARIABLE || size[vc] !== size[va] || nElems[vc] !== nElems[va]) continue;
+        if (mark === -1) {
+          mark = stampNow++;
+          for (let q = begin[va]!; q < begin[va]! + size[va]!; q++) stamp[pool[q]!] = mark;
+        }
+        let same = true;
+        for (let q = begin[vc]!; same && q < begin[vc]! + size[vc]!; q++) same = stamp[pool[q]!] === mark;
+        if (!same) continue;
+        weight[va]! += weight[vc]!;
+        state[vc] = GONE;
+        chainNext[chainLast[va]!] = vc;
+        chainLast[va] = chainLast[vc]!;
       }
     }
 
-    // --- finalize Lk: external degrees, back into the degree lists
-    p = pk1;
-    for (let pk = pk1; pk < pk2; pk++) {
-      const i = Ci[pk]!;
-      const nvi = -nv[i]!;
-      if (nvi <= 0) continue;
-      nv[i] = nvi;
-      let d = degree[i]! + dk - nvi;
-      d = Math.min(d, n - nel - nvi);
-      if (head[d] !== -1) last[head[d]!] = i;
-      next[i] = head[d]!;
-      last[i] = -1;
-      head[d] = i;
-      mindeg = Math.min(mindeg, d);
-      degree[i] = d;
-      Ci[p++] = i;
+    // 5. final degrees; L_p keeps its surviving principal variables
+    let w = lpStart;
+    for (let k = lpStart; k < lpEnd; k++) {
+      const v = pool[k]!;
+      if (state[v] !== VARIABLE) continue;
+      const rest = lpWeight - weight[v]!;
+      degree[v] = Math.min(nLeft - weight[v]!, degree[v]! + rest, outside[v]! + rest);
+      link(v);
+      if (degree[v]! < least) least = degree[v]!;
+      pool[w++] = v;
     }
-    nv[k] = nvk;
-    len[k] = p - pk1;
-    if (len[k] === 0) {
-      Cp[k] = -1; // k is a root of the assembly tree
-      w[k] = 0;
-    }
-    if (elenk !== 0) cnz = p;
+    size[p] = w - lpStart;
+    degree[p] = lpWeight;
+    top = w;
+    if (size[p] === 0) state[p] = GONE;
   }
-
-  // --- postorder the assembly tree (parents in flip(Cp[·]))
-  for (let i = 0; i < n; i++) Cp[i] = flip(Cp[i]!);
-  for (let j = 0; j <= n; j++) head[j] = -1;
-  for (let j = n; j >= 0; j--) {
-    if (nv[j]! > 0) continue; // variables absorbed into a parent
-    next[j] = head[Cp[j]!]!;
-    head[Cp[j]!] = j;
-  }
-  for (let e = n; e >= 0; e--) {
-    if (nv[e]! <= 0) continue; // elements
-    if (Cp[e] !== -1) {
-      next[e] = head[Cp[e]!]!;
-      head[Cp[e]!] = e;
-    }
-  }
-  const P = new Int32Array(n + 1);
-  const stack = w;
-  let k = 0;
-  for (let i = 0; i <= n; i++) {
-    if (Cp[i] !== -1) continue;
-    let top = 0;
-    stack[0] = i;
-    while (top >= 0) {
-      const q = stack[top]!;
-      const c = head[q]!;
-      if (c === -1) {
-        top--;
-        P[k++] = q;
-      } else {
-        head[q] = next[c]!;
-        stack[++top] = c;
-      }
-    }
-  }
-  // node n (the dense element) is the last root visited, so P[n] = n
-  return P.subarray(0, n);
+  for (let v = 0; v < n; v++) if (state[v] === DENSE) order[emitted++] = v;
+  return order;
 }
