@@ -5,6 +5,7 @@
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { SurfacePoint } from '../query/surface-point.js';
+import { checkSurfacePoint } from '../query/surface-point.js';
 import type { SurfacePath } from './field.js';
 import { exactDistance } from './exact/index.js';
 import { prepareExactGeometry } from './exact/geometry.js';
@@ -12,7 +13,7 @@ import { commonFaces, layoutFace, pointInLayout } from './exact/layout.js';
 
 /** A path through waypoints with per-point bookkeeping. */
 export interface WaypointPath {
-  /** The whole path (legs joined; the shared stop appears once). */
+  /** The whole path (legs joined; the shared stop appears once); empty when some leg is unreachable. */
   path: SurfacePath;
   /** Total length, mesh units (Infinity when some leg has no path). */
   length: number;
@@ -24,8 +25,15 @@ export interface WaypointPath {
   faces: Int32Array;
 }
 
-/** Exact shortest path visiting `stops` in order. */
-export function shortestPathThrough(mesh: IntrinsicMesh, stops: SurfacePoint[]): WaypointPath {
+/**
+ * Exact shortest path visiting `stops` in order. Every stop is validated
+ * (`USAGE` error naming it, see `checkSurfacePoint`). When some leg has no
+ * path (its stops lie on different components) the result is "unreachable":
+ * `length` is Infinity, `path` is empty (legs are never joined across a
+ * gap), and `legs` tells which leg failed (its length is Infinity).
+ */
+export function shortestPathThrough(mesh: IntrinsicMesh, stops0: SurfacePoint[]): WaypointPath {
+  const stops = stops0.map((p, i) => checkSurfacePoint(p, mesh.topology, `stop ${i}`));
   const legs: { path: SurfacePath; length: number }[] = [];
   const points: SurfacePoint[] = [];
   let length = 0;
@@ -39,6 +47,9 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops: SurfacePoint[]):
     length += p.length;
     if (!Number.isFinite(p.length)) continue;
     points.push(...(points.length ? p.points.slice(1) : p.points));
+  }
+  if (!Number.isFinite(length)) {
+    return { path: { points: [], length: Infinity }, length: Infinity, legs, cumulative: new Float64Array(0), faces: new Int32Array(0) };
   }
   const t = mesh.topology;
   const n = points.length;

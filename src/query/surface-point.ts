@@ -92,13 +92,13 @@ export function checkSurfacePoint(p: SurfacePoint, t: Topology, label = 'point')
   const bad = (why: string) => usageError(`${why} in point ${show(p)}`, label);
   if (p === null || typeof p !== 'object') throw usageError(`not a surface point: ${String(p)}`, label);
   if (p.kind === 'vertex') {
-    if (!isIndex(p.vertex, t.nv)) throw bad(`vertex ${p.vertex} does not exist (mesh has ${t.nv}, indices 0 to ${t.nv - 1})`);
+    if (!isIndex(p.vertex, t.nv)) throw bad(`vertex ${p.vertex} does not exist (mesh has ${t.nv})`);
     if (t.vertexHalfedge[p.vertex]! < 0) throw bad(`vertex ${p.vertex} belongs to no face`);
   } else if (p.kind === 'edge') {
-    if (!isIndex(p.edge, t.ne)) throw bad(`edge ${p.edge} does not exist (mesh has ${t.ne}, indices 0 to ${t.ne - 1})`);
+    if (!isIndex(p.edge, t.ne)) throw bad(`edge ${p.edge} does not exist (mesh has ${t.ne})`);
     if (!(p.t >= 0 && p.t <= 1)) throw bad(`edge parameter ${p.t} must be a number in [0, 1]`);
   } else if (p.kind === 'face') {
-    if (!isIndex(p.face, t.nf)) throw bad(`face ${p.face} does not exist (mesh has ${t.nf}, indices 0 to ${t.nf - 1})`);
+    if (!isIndex(p.face, t.nf)) throw bad(`face ${p.face} does not exist (mesh has ${t.nf})`);
     const b = p.bary;
     if (!b || (b as ArrayLike<number>).length !== 3) throw bad('a face point needs three barycentric coordinates');
     if (!(b[0]! >= 0 && b[1]! >= 0 && b[2]! >= 0 && Number.isFinite(b[0]! + b[1]! + b[2]!))) {
