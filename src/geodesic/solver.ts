@@ -17,7 +17,7 @@
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { SurfacePoint } from '../query/surface-point.js';
 import { checkSurfacePoint } from '../query/surface-point.js';
-import { numericError } from '../errors.js';
+import { inputError, numericError } from '../errors.js';
 import type { DistanceField, DistanceMethod } from './field.js';
 import type { SourceSet } from './sources.js';
 import { HeatSolver, type HeatOptions } from './heat.js';
@@ -72,13 +72,19 @@ export interface DistanceSolver {
 }
 
 /**
- * Prepares a solver of the given method for `mesh`. Its `solve` validates
+ * Prepares a solver of the given method for `mesh` (an edge length that is
+ * negative or not finite is an `INPUT` error). Its `solve` validates
  * every source and target (`USAGE` error naming the bad point, see
  * `checkSurfacePoint`), and throws `NUMERIC` if the method produced a NaN.
  */
 export function prepareDistance(mesh: IntrinsicMesh, method: DistanceMethod, opts: DistanceOptions = {}): DistanceSolver {
-  const inner = prepareMethod(mesh, method, opts);
   const t = mesh.topology;
+  // a NaN length would silently drop its edge from the exact and graph searches (every comparison false)
+  for (let e = 0; e < t.ne; e++) {
+    const l = mesh.edgeLength[e]!;
+    if (!(l >= 0 && l < Infinity)) throw inputError(`edge ${e} has invalid length ${l}`, method);
+  }
+  const inner = prepareMethod(mesh, method, opts);
   const clean = (sources: SourceSet): SourceSet => ({
     points: sources.points.map((p) => checkSurfacePoint(p, t, 'source')),
     curves: sources.curves.map((c, i) => c.map((p) => checkSurfacePoint(p, t, `curve ${i}`))),

@@ -95,6 +95,18 @@ describe('one validation at every solver entry', () => {
   });
 });
 
+describe('a corrupted metric is refused, never measured', () => {
+  it('a NaN edge length is an INPUT error for every method (a NaN would drop the edge from the search)', () => {
+    const m = intrinsicFromPositions(t, s.positions);
+    (m.edgeLength as Float64Array)[5] = NaN;
+    for (const method of ['exact', 'heat', 'graph'] as DistanceMethod[]) {
+      const e = thrown(() => prepareDistance(m, method).solve(pointSources([{ kind: 'vertex', vertex: 0 }])));
+      expect(isOrthodromeError(e) && e.code === 'INPUT', method).toBe(true);
+      expect((e as Error).message).toMatch(/edge 5 has invalid length NaN/);
+    }
+  });
+});
+
 describe('waypoints across an unreachable gap', () => {
   it('two separate squares: the result is unreachable, with no joined path', () => {
     const a = flatGrid(2, 2, 1, 1);
