@@ -1,8 +1,11 @@
 /**
- * Half-edges grouped by undirected edge, in O(n): bucket by the smaller
- * endpoint (counting sort), then sort each small bucket by the larger one.
+ * Half-edges grouped by undirected edge, in O(n + nv): a two-pass LSD radix
+ * sort (two stable counting sorts) on the key (smaller endpoint, larger
+ * endpoint): first by the larger endpoint, then by the smaller one. No pass
+ * depends on how many half-edges share a vertex, so high-valence vertices
+ * (cone tips, fan-triangulated caps) cost no more than any other.
  * A group of one is a boundary edge, two a manifold edge, more a
- * non-manifold edge.
+ * non-manifold edge. Within a group, half-edges keep increasing index order.
  */
 import { next } from './topology.js';
 
@@ -14,42 +17,42 @@ export interface Groups {
   order: Int32Array;
 }
 
-/** Groups half-edges by their undirected edge, in O(n): bucket by min endpoint, then match max endpoints. */
-export function groupHalfedges(tri: Uint32Array, nv: number): Groups {
-  const nh = tri.length;
+/** Stable counting sort of `src` by `key(h)` (values in [0, nv)) into `dst`. */
+function countingSort(src: Int32Array, dst: Int32Array, nv: number, key: Uint32Array): void {
   const count = new Int32Array(nv + 1);
-  for (let h = 0; h < nh; h++) {
-    const a = tri[h]!, b = tri[next(h)]!;
-    count[(a < b ? a : b) + 1]!++;
-  }
+  for (let i = 0; i < src.length; i++) count[key[src[i]!]! + 1]!++;
   for (let v = 0; v < nv; v++) count[v + 1]! += count[v]!;
-  const bucket = new Int32Array(nh);
-  const fill = count.slice(0, nv);
-  for (let h = 0; h < nh; h++) {
-    const a = tri[h]!, b = tri[next(h)]!;
-    bucket[fill[a < b ? a : b]!++] = h;
+  for (let i = 0; i < src.length; i++) {
+    const h = src[i]!;
+    dst[count[key[h]!]!++] = h;
   }
-  // within each bucket, sort by max endpoint (buckets are small: insertion sort)
-  const maxOf = (h: number) => {
-    const a = tri[h]!, b = tri[next(h)]!;
-    return a > b ? a : b;
-  };
-  const starts: number[] = [];
-  for (let v = 0; v < nv; v++) {
-    const s = count[v]!, e = count[v + 1]!;
-    for (let i = s + 1; i < e; i++) {
-      const h = bucket[i]!;
-      const key = maxOf(h);
-      let j = i - 1;
-      while (j >= s && maxOf(bucket[j]!) > key) {
-        bucket[j + 1] = bucket[j]!;
-        j--;
-      }
-      bucket[j + 1] = h;
-    }
-    for (let i = s; i < e; i++) if (i === s || maxOf(bucket[i]!) !== maxOf(bucket[i - 1]!)) starts.push(i);
-  }
-  starts.push(nh);
-  return { start: Int32Array.from(starts), order: bucket };
 }
 
+/** Groups half-edges by their undirected edge in linear time (see the module comment). */
+export function groupHalfedges(tri: Uint32Array, nv: number): Groups {
+  const nh = tri.length;
+  const lo = new Uint32Array(nh), hi = new Uint32Array(nh);
+  const ident = new Int32Array(nh);
+  for (let h = 0; h < nh; h++) {
+    const a = tri[h]!, b = tri[next(h)]!;
+    lo[h] = a < b ? a : b;
+    hi[h] = a < b ? b : a;
+    ident[h] = h;
+  }
+  const byHi = new Int32Array(nh);
+  countingSort(ident, byHi, nv, hi);
+  const order = ident; // reuse: sorted by (lo, hi), stable in h
+  countingSort(byHi, order, nv, lo);
+  const starts = new Int32Array(nh + 1);
+  let ng = 0;
+  for (let i = 0; i < nh; i++) {
+    const h = order[i]!;
+    if (i === 0) starts[ng++] = 0;
+    else {
+      const g = order[i - 1]!;
+      if (lo[h] !== lo[g] || hi[h] !== hi[g]) starts[ng++] = i;
+    }
+  }
+  starts[ng++] = nh;
+  return { start: starts.slice(0, ng), order };
+}

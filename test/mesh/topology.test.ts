@@ -10,7 +10,8 @@ import { buildTopology } from '../../src/mesh/build.js';
 import { components } from '../../src/mesh/components.js';
 import { boundaryLoops } from '../../src/mesh/boundary.js';
 import { forEachOutgoing, next, prev, type Topology } from '../../src/mesh/topology.js';
-import { icosphere, cylinder, torus, flatGrid, rng } from '../fixtures/shapes.js';
+import { icosphere, cylinder, torus, flatGrid, fanDisc, rng } from '../fixtures/shapes.js';
+import { groupHalfedges } from '../../src/mesh/edge-groups.js';
 import { voxelSurface, genusTwoSlab } from '../fixtures/voxels.js';
 
 function checkInvariants(t: Topology) {
@@ -131,5 +132,50 @@ describe('property: random triangle soups never break the invariants', () => {
     const { topology: t, report } = buildTopology(tri, 12);
     checkInvariants(t);
     expect(t.nf + report.degenerateFaces.length).toBe(faces.length);
+  });
+});
+
+describe('high-valence fan (a disc fanned from one centre vertex, as CAD exports fan caps)', () => {
+  it('40 000 triangles listed in random order: χ = 1, one boundary loop, centre valence 40 000', () => {
+    // a fan of n triangles about one vertex is a disc: V = n + 1, E = 2n, F = n, so
+    // χ = 1 (Euler's formula), one boundary loop through the n rim vertices (elementary)
+    const n = 40000;
+    const s = fanDisc(n);
+    const tri = s.triangles.slice();
+    const r = rng(11);
+    for (let f = n - 1; f > 0; f--) {
+      // Fisher–Yates shuffle of whole faces: no order for the grouping to exploit
+      const g = Math.floor(r() * (f + 1));
+      const a = tri.slice(3 * f, 3 * f + 3);
+      tri.copyWithin(3 * f, 3 * g, 3 * g + 3);
+      tri.set(a, 3 * g);
+    }
+    const { topology: t, report } = buildTopology(tri, n + 1);
+    expect(report.flippedFaces).toBe(0);
+    expect(report.splitVertices).toBe(0);
+    const c = components(t);
+    expect(c.count).toBe(1);
+    expect(c.info[0]!.eulerCharacteristic).toBe(1);
+    expect(t.ne).toBe(2 * n);
+    const loops = boundaryLoops(t);
+    expect(loops.length).toBe(1);
+    expect(loops[0]!.length).toBe(n);
+    expect(forEachOutgoing(t, 0, () => {})).toBe(n); // the centre sees every face
+    for (const v of [1, 2, n / 2, n]) expect(forEachOutgoing(t, v, () => {})).toBe(2); // a rim vertex sees two faces
+  });
+});
+
+describe('property: edge grouping matches a comparison sort of (min, max) keys (common practice)', () => {
+  test.prop([fc.array(fc.tuple(fc.nat(9), fc.nat(9), fc.nat(9)), { minLength: 1, maxLength: 40 })])('same groups, in order', (faces) => {
+    const tri = Uint32Array.from(faces.flat());
+    const key = (h: number) => {
+      const a = tri[h]!, b = tri[next(h)]!;
+      return Math.min(a, b) * 16 + Math.max(a, b);
+    };
+    const ref = Array.from(tri.keys()).sort((x, y) => key(x) - key(y) || x - y);
+    const g = groupHalfedges(tri, 10);
+    expect(Array.from(g.order)).toEqual(ref);
+    const starts = ref.flatMap((h, i) => (i === 0 || key(h) !== key(ref[i - 1]!) ? [i] : []));
+    expect(Array.from(g.start)).toEqual([...starts, tri.length]);
   });
 });
