@@ -1,16 +1,20 @@
 /**
- * Column counts of the Cholesky factor without forming it (Gilbert, Ng, Peyton,
- * SIAM J. Matrix Anal. Appl. 15, 1994; Davis 2006, §4.5).
+ * Column counts of the Cholesky factor without forming it (J. R. Gilbert,
+ * E. G. Ng, B. W. Peyton, "An efficient algorithm to compute row and column
+ * counts for sparse Cholesky factorization", SIAM J. Matrix Anal. Appl. 15,
+ * 1994).
  *
- * Row i of L is the "row subtree": the union of the etree paths from each j
- * with C(i, j) ≠ 0, j < i, up to i. So colcount[j] = number of row subtrees
- * containing j. Summing per-node differences `delta` up the tree gives it:
- * every leaf j of a row subtree of i adds +1 at j; where two consecutive
- * leaves' paths meet (their least common ancestor q) −1 removes the double
- * count; each node's own parent link contributes −1 for the child (the
- * column of j merges into parent[j]). Leaves are detected with `first[j]`
- * (first postorder index in the subtree of j) and `maxfirst[i]`; the LCA uses
- * a disjoint-set forest over the postorder (`ancestor`, with path compression).
+ * Row u of L is the row subtree T_u: the union of the elimination-tree paths
+ * from every p < u with C(u, p) ≠ 0 up to u, so colcount(p) = number of row
+ * subtrees that contain p. The paper assigns each node a weight such that
+ * colcount(p) = Σ of the weights in p's subtree: +1 for an etree leaf, −1
+ * for each child (the child's rows continue in p), +1 wherever p is a leaf of
+ * some T_u, and −1 at the least common ancestor of two consecutive leaves of
+ * one T_u (counted twice otherwise). Nodes are visited in postorder; p is a
+ * leaf of T_u exactly when its first descendant comes after the previous
+ * neighbour of u that was visited. The least common ancestors come from a
+ * disjoint-set forest that merges each visited node with its parent (union by
+ * size, path halving, each set remembering its topmost node).
  */
 
 /**
@@ -25,43 +29,63 @@ export function columnCounts(
   parent: Int32Array,
   post: Int32Array,
 ): Int32Array {
-  const delta = new Int32Array(n);
-  const ancestor = new Int32Array(n);
-  const maxfirst = new Int32Array(n).fill(-1);
-  const prevleaf = new Int32Array(n).fill(-1);
-  const first = new Int32Array(n).fill(-1);
+  const weight = new Int32Array(n);
+  // firstDesc[p] = smallest postorder number in p's subtree; a child sets its
+  // parent's before the parent is reached, and the first child's is smallest
+  const firstDesc = new Int32Array(n).fill(-1);
   for (let k = 0; k < n; k++) {
-    let j = post[k]!;
-    delta[j] = first[j] === -1 ? 1 : 0; // leaves of the etree start at 1
-    for (; j !== -1 && first[j] === -1; j = parent[j]!) first[j] = k;
+    const p = post[k]!;
+    const isLeaf = firstDesc[p] === -1;
+    if (isLeaf) firstDesc[p] = k;
+    weight[p] = isLeaf ? 1 : 0;
+    const q = parent[p]!;
+    if (q !== -1 && firstDesc[q] === -1) firstDesc[q] = firstDesc[p]!;
   }
-  for (let i = 0; i < n; i++) ancestor[i] = i;
-  for (let k = 0; k < n; k++) {
-    const j = post[k]!;
-    if (parent[j] !== -1) delta[parent[j]!]!--;
-    // entries C(i, j), i > j: is j a leaf of the row subtree of i?
-    for (let p = lowerColPtr[j]!; p < lowerColPtr[j + 1]!; p++) {
-      const i = lowerRowIdx[p]!;
-      if (i <= j || first[j]! <= maxfirst[i]!) continue; // not a leaf
-      maxfirst[i] = first[j]!;
-      const jprev = prevleaf[i]!;
-      prevleaf[i] = j;
-      delta[j]!++;
-      if (jprev === -1) continue; // first leaf of row i
-      // q = LCA(jprev, j) = root of jprev's set; compress the path
-      let q = jprev;
-      while (q !== ancestor[q]) q = ancestor[q]!;
-      let s = jprev;
-      while (s !== q) {
-        const sp = ancestor[s]!;
-        ancestor[s] = q;
-        s = sp;
-      }
-      delta[q]!--;
+  const prevNbr = new Int32Array(n).fill(-1); // postorder number of u's last visited neighbour
+  const prevLeaf = new Int32Array(n).fill(-1); // u's last leaf found
+  const link = new Int32Array(n);
+  const negSize = new Int32Array(n).fill(-1);
+  const topmost = new Int32Array(n);
+  for (let x = 0; x < n; x++) {
+    link[x] = x;
+    topmost[x] = x;
+  }
+  const find = (x: number): number => {
+    while (link[x] !== x) {
+      link[x] = link[link[x]!]!;
+      x = link[x]!;
     }
-    if (parent[j] !== -1) ancestor[j] = parent[j]!;
+    return x;
+  };
+  for (let k = 0; k < n; k++) {
+    const p = post[k]!;
+    const q = parent[p]!;
+    if (q !== -1) weight[q]!--;
+    for (let e = lowerColPtr[p]!; e < lowerColPtr[p + 1]!; e++) {
+      const u = lowerRowIdx[e]!;
+      if (u <= p) continue;
+      if (firstDesc[p]! > prevNbr[u]!) {
+        weight[p]!++; // p is a leaf of T_u
+        const last = prevLeaf[u]!;
+        if (last !== -1) weight[topmost[find(last)]!]!--; // their least common ancestor
+        prevLeaf[u] = p;
+      }
+      prevNbr[u] = k;
+    }
+    if (q !== -1) {
+      // merge p's set into its parent's; the merged set's topmost node is q
+      const a = find(p), b = find(q);
+      const big = negSize[a]! < negSize[b]! ? a : b;
+      const small = big === a ? b : a;
+      link[small] = big;
+      negSize[big]! += negSize[small]!;
+      topmost[big] = q;
+    }
   }
-  // sum deltas up the tree (children precede parents in index order: parent[j] > j)
-  for (let j = 0; j < n; j++) if (parent[j] !== -1) delta[parent[j]!]! += delta[j]!;
-  return delta;
+  // subtree sums, children before parents (postorder)
+  for (let k = 0; k < n; k++) {
+    const p = post[k]!;
+    if (parent[p] !== -1) weight[parent[p]!]! += weight[p]!;
+  }
+  return weight;
 }

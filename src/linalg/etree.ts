@@ -3,16 +3,19 @@
  *
  * For a symmetric matrix C with Cholesky factor L, parent[j] is the row of the
  * first off-diagonal nonzero in column j of L (−1 for a root). It is found
- * from the pattern of C alone (Liu 1986; Davis 2006, §4.1): for each k, each
- * entry C(i, k) with i < k starts at i and climbs the partial tree to its root
- * r, and k becomes parent of r. Path compression through `ancestor` keeps the
- * climb near-linear.
+ * from the pattern of C alone (J. W. H. Liu, "The role of elimination trees
+ * in sparse factorization", SIAM J. Matrix Anal. Appl. 11, 1990, §3): columns
+ * are added in increasing order and the trees built so far are kept as
+ * disjoint sets, each remembering its current root. Column k becomes the
+ * parent of the root of every set that holds a row i < k of column k, and
+ * those sets merge with k's. Union by size and path halving keep it
+ * near-linear (Tarjan, J. ACM 22, 1975).
  */
 
 /**
  * Elimination tree of a symmetric matrix given by its upper triangle in CSC
- * (column k lists rows i ≤ k). Writes parent[] (−1 = root); allocates one
- * n-length workspace unless `work` is passed.
+ * (column k lists rows i ≤ k). Writes parent[] (−1 = root). `work` (n
+ * entries) is used as workspace; two more n-length arrays are allocated.
  */
 export function eliminationTree(
   n: number,
@@ -21,19 +24,34 @@ export function eliminationTree(
   parent = new Int32Array(n),
   work = new Int32Array(n),
 ): Int32Array {
-  const ancestor = work;
+  const link = work; // disjoint-set forest: link[x] === x at a set's representative
+  const negSize = new Int32Array(n); // at a representative: −(set size)
+  const treeRoot = new Int32Array(n); // at a representative: the root of that set's tree
+  const find = (x: number): number => {
+    while (link[x] !== x) {
+      link[x] = link[link[x]!]!; // path halving
+      x = link[x]!;
+    }
+    return x;
+  };
   for (let k = 0; k < n; k++) {
     parent[k] = -1;
-    ancestor[k] = -1;
+    link[k] = k;
+    negSize[k] = -1;
+    treeRoot[k] = k;
+    let repK = k;
     for (let p = upperColPtr[k]!; p < upperColPtr[k + 1]!; p++) {
-      let i = upperRowIdx[p]!;
-      // climb from i towards the root, pointing every visited node at k
-      while (i !== -1 && i < k) {
-        const inext = ancestor[i]!;
-        ancestor[i] = k;
-        if (inext === -1) parent[i] = k;
-        i = inext;
-      }
+      const i = upperRowIdx[p]!;
+      if (i >= k) continue;
+      const r = find(i);
+      if (r === repK) continue; // i's tree already hangs under k
+      parent[treeRoot[r]!] = k;
+      const big = negSize[r]! < negSize[repK]! ? r : repK;
+      const small = big === r ? repK : r;
+      link[small] = big;
+      negSize[big]! += negSize[small]!;
+      treeRoot[big] = k;
+      repK = big;
     }
   }
   return parent;
@@ -46,44 +64,46 @@ export function eliminationTree(
  * next to its parent. Returns post[k] = the k-th node. Iterative.
  */
 export function postorder(parent: Int32Array, n: number, weight?: Int32Array): Int32Array {
-  const head = new Int32Array(n).fill(-1);
-  const next = new Int32Array(n);
-  const stack = new Int32Array(n);
-  const post = new Int32Array(n);
-  // child lists, built by pushing at the head: nodes are pushed in decreasing
-  // index (or decreasing weight) so each list runs in increasing order
-  const order = new Int32Array(n);
-  for (let j = 0; j < n; j++) order[j] = n - 1 - j;
+  // nodes in decreasing (weight, index) order: prepending each to its
+  // parent's child list in that order leaves every list increasing
+  const byKey = new Int32Array(n);
   if (weight) {
-    // stable counting sort by decreasing weight
     let maxW = 0;
-    for (let j = 0; j < n; j++) maxW = Math.max(maxW, weight[j]!);
-    const cnt = new Int32Array(maxW + 2);
-    for (let j = 0; j < n; j++) cnt[maxW - weight[j]! + 1]!++;
-    for (let w = 0; w <= maxW; w++) cnt[w + 1]! += cnt[w]!;
-    for (let j = n - 1; j >= 0; j--) order[cnt[maxW - weight[j]!]!++] = j;
+    for (let j = 0; j < n; j++) if (weight[j]! > maxW) maxW = weight[j]!;
+    const slot = new Int32Array(maxW + 2); // counting sort, heaviest first, stable by decreasing index
+    for (let j = 0; j < n; j++) slot[maxW - weight[j]! + 1]!++;
+    for (let w = 0; w <= maxW; w++) slot[w + 1]! += slot[w]!;
+    for (let j = n - 1; j >= 0; j--) byKey[slot[maxW - weight[j]!]!++] = j;
+  } else {
+    for (let q = 0; q < n; q++) byKey[q] = n - 1 - q;
   }
+  const firstChild = new Int32Array(n).fill(-1);
+  const sibling = new Int32Array(n).fill(-1);
   for (let q = 0; q < n; q++) {
-    const j = order[q]!;
-    const p = parent[j]!;
+    const c = byKey[q]!;
+    const p = parent[c]!;
     if (p === -1) continue;
-    next[j] = head[p]!;
-    head[p] = j;
+    sibling[c] = firstChild[p]!;
+    firstChild[p] = c;
   }
-  let k = 0;
-  for (let j = 0; j < n; j++) {
-    if (parent[j] !== -1) continue;
-    let top = 0;
-    stack[0] = j;
-    while (top >= 0) {
-      const p = stack[top]!;
-      const c = head[p]!;
+  // depth-first walk; cursor[v] = the next child of v to descend into
+  const cursor = firstChild;
+  const path = new Int32Array(n);
+  const post = new Int32Array(n);
+  let out = 0;
+  for (let r = 0; r < n; r++) {
+    if (parent[r] !== -1) continue;
+    let depth = 0;
+    path[0] = r;
+    while (depth >= 0) {
+      const v = path[depth]!;
+      const c = cursor[v]!;
       if (c === -1) {
-        top--;
-        post[k++] = p;
+        post[out++] = v;
+        depth--;
       } else {
-        head[p] = next[c]!; // unlink the child so it is pushed once
-        stack[++top] = c;
+        cursor[v] = sibling[c]!;
+        path[++depth] = c;
       }
     }
   }

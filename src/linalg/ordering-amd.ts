@@ -3,7 +3,7 @@
  * P. R. Amestoy, T. A. Davis, I. S. Duff, "An approximate minimum degree
  * ordering algorithm", SIAM J. Matrix Anal. Appl. 17(4):886–905, 1996.
  *
- * Elimination is simulated on the quotient graph (§2 of the paper). Every node
+ * Elimination is simulated on the quotient graph, as in the paper. Every node
  * is a *variable* (not yet eliminated) or an *element* (an eliminated pivot,
  * standing for the clique its elimination created). A variable v keeps a list
  * of its adjacent elements E_v followed by its adjacent variables A_v; an
@@ -11,16 +11,16 @@
  *
  * 1. L_p = (A_p ∪ ⋃_{e ∈ E_p} L_e) \ {p}; the elements of E_p are absorbed into p.
  * 2. For every element e touching L_p, |L_e \ L_p| is found in one pass over
- *    the variables of L_p (§4, "approximate external degrees").
+ *    the variables of L_p (the paper's approximate external degrees).
  * 3. Each v ∈ L_p drops absorbed elements and the variables of L_p from its
  *    lists and gains p. Elements with L_e ⊆ L_p are absorbed too (aggressive
- *    absorption, §5). A variable left adjacent to p only is eliminated with p
- *    (mass elimination). Its new degree is the paper's bound (eq. 4.1)
+ *    absorption). A variable left adjacent to p only is eliminated with p
+ *    (mass elimination). Its new degree is the paper's upper bound
  *       d̄_v = min( n_left − |v|,  d̄_v_old + |L_p \ v|,
  *                  |A_v \ v| + |L_p \ v| + Σ_{e ∈ E_v \ p} |L_e \ L_p| ),
  *    where |·| counts variables with their supervariable weights.
  * 4. Variables of L_p with identical lists are merged into one supervariable
- *    (§3): candidates are grouped by a hash of their lists, then compared.
+ *    (indistinguishable variables): candidates are grouped by a hash of their lists, then compared.
  *
  * The pivot is always a variable of least d̄. Here the lists live in one
  * growable Int32Array (`pool`); a new element is appended at its end, and the
