@@ -3,11 +3,16 @@
  * repaired and reporting every problem with its location.
  *
  * Steps, each linear in the mesh size:
- * 1. drop triangles with a repeated vertex (counted and listed);
- * 2. group the half-edges of each undirected edge (bucketed by smaller vertex);
+ * 1. drop triangles with a repeated vertex (counted and listed), then
+ *    duplicate triangles (same vertex set as an earlier one, in any order:
+ *    counted and listed, the first copy kept), so that what follows is about
+ *    the surface itself and not about its repeated faces;
+ * 2. group the half-edges of each undirected edge (radix sort on the vertex pair);
  * 3. orient: breadth-first over manifold edges, flip faces so neighbours agree,
  *    keeping the majority orientation of each component; a component that
- *    cannot be oriented is reported and its conflicting edges are cut;
+ *    cannot be oriented is reported and the edges where its breadth-first
+ *    orientation disagrees are cut (listed as seams, so reports can count the
+ *    surface as given: a seam is one edge, and its ends are not non-manifold);
  * 4. edges shared by more than two faces are reported and cut (each side
  *    becomes boundary);
  * 5. vertices whose faces form several fans (bow-ties, and the ends of cut
@@ -18,6 +23,9 @@ import type { Topology } from './topology.js';
 import { next, prev } from './topology.js';
 import { groupHalfedges } from './edge-groups.js';
 import { orientFaces } from './orient.js';
+import { distinctFaces, type DuplicateFace } from './duplicates.js';
+
+export type { DuplicateFace };
 
 /** A non-manifold edge: two input vertices and the input triangles that share them. */
 export interface NonManifoldEdge {
@@ -33,11 +41,19 @@ export interface NonManifoldEdge {
 export interface BuildReport {
   /** Input triangles dropped because a vertex repeats (indices into the input list). */
   degenerateFaces: number[];
+  /** Input triangles dropped because an earlier one has the same vertex set (listed up to `maxListed`). */
+  duplicateFaces: DuplicateFace[];
+  /** Exact number of duplicate triangles dropped. */
+  duplicateFaceCount: number;
   /** Edges with more than two incident faces. */
   nonManifoldEdges: NonManifoldEdge[];
   /** Exact number of non-manifold edges (the list above may be capped). */
   nonManifoldEdgeCount: number;
-  /** Input vertices whose incident faces form several fans, not counting ends of non-manifold edges. */
+  /**
+   * Input vertices whose incident faces form several fans, not counting ends
+   * of non-manifold edges. Fans are joined across every edge with two faces,
+   * whatever their orientation, so the ends of orientation seams are not listed.
+   */
   nonManifoldVertices: number[];
   /** Exact number of non-manifold vertices (the list above may be capped). */
   nonManifoldVertexCount: number;
@@ -47,6 +63,12 @@ export interface BuildReport {
   nonOrientableComponents: number;
   /** Edges cut because orientation could not be made consistent across them. */
   orientationCuts: number;
+  /**
+   * The cut edges as pairs of half-edges of the built topology, `[h0, h1, …]`:
+   * both sides of one edge of the input surface (each is a boundary half-edge
+   * of the topology, and both run the same way).
+   */
+  orientationSeams: Int32Array;
   /** Input vertices referenced by no face. */
   isolatedVertices: number;
   /** Number of vertices added by splitting. */
@@ -84,24 +106,10 @@ export function buildTopology(
 ): BuiltMesh {
   const orient = options.orient ?? true;
   const maxListed = options.maxListed ?? 1000;
-  const ntIn = Math.floor(triangles.length / 3);
 
-  // 1. drop degenerate triangles
-  const degenerateFaces: number[] = [];
-  let nf = 0;
-  for (let f = 0; f < ntIn; f++) {
-    const a = triangles[3 * f]!, b = triangles[3 * f + 1]!, c = triangles[3 * f + 2]!;
-    if (a === b || b === c || c === a) degenerateFaces.push(f);
-    else nf++;
-  }
-  const tri = new Uint32Array(3 * nf);
-  const faceOrigin = new Int32Array(nf);
-  for (let f = 0, g = 0; f < ntIn; f++) {
-    const a = triangles[3 * f]!, b = triangles[3 * f + 1]!, c = triangles[3 * f + 2]!;
-    if (a === b || b === c || c === a) continue;
-    tri[3 * g] = a; tri[3 * g + 1] = b; tri[3 * g + 2] = c;
-    faceOrigin[g++] = f;
-  }
+  // 1. drop degenerate triangles, then duplicates
+  const { tri, faceOrigin, degenerateFaces, duplicateFaces, duplicateFaceCount } = distinctFaces(triangles, nv, maxListed);
+  const nf = faceOrigin.length;
   const nh = 3 * nf;
 
   // 2. group half-edges by undirected edge: bucket by min vertex, then by max vertex.
@@ -114,7 +122,7 @@ export function buildTopology(
     const r = orientFaces(tri, nf, groups);
     flippedFaces = r.flipped;
     nonOrientableComponents = r.nonOrientable;
-    if (flippedFaces > 0) groups = groupHalfedges(tri, nv); // corners moved: regroup
+    if (r.changed) groups = groupHalfedges(tri, nv); // corners moved: regroup
   }
 
   // 4. twins from groups; cut non-manifold and mis-oriented edges
@@ -122,6 +130,7 @@ export function buildTopology(
   const nonManifoldEdges: NonManifoldEdge[] = [];
   let nonManifoldEdgeCount = 0;
   let orientationCuts = 0;
+  const seams: number[] = [];
   const cutVertex = new Uint8Array(nv); // ends of non-manifold edges
   const { start, order } = groups;
   for (let gi = 0; gi + 1 < start.length; gi++) {
@@ -134,6 +143,7 @@ export function buildTopology(
         twin[h1] = h0;
       } else {
         orientationCuts++;
+        seams.push(h0, h1); // same direction: tri[h0] === tri[h1]
       }
     } else if (size > 2) {
       nonManifoldEdgeCount++;
@@ -153,26 +163,38 @@ export function buildTopology(
   // corner twin[prev(h)] (same vertex, next face counter-clockwise).
   const parent = new Int32Array(nh);
   for (let h = 0; h < nh; h++) parent[h] = h;
-  const find = (x: number): number => {
-    while (parent[x] !== x) {
-      parent[x] = parent[parent[x]!]!;
-      x = parent[x]!;
-    }
-    return x;
-  };
+  const find = (x: number): number => findRoot(parent, x);
   for (let h = 0; h < nh; h++) {
     const o = twin[prev(h)]!;
-    if (o >= 0) {
-      const ra = find(h), rb = find(o);
-      if (ra !== rb) parent[ra] = rb;
+    if (o >= 0) union(parent, h, o);
+  }
+  // Non-manifold vertices are judged on the surface as given: corners are
+  // also joined across orientation seams (both sides run the same way, so
+  // h0 ~ h1 at the tail and next(h0) ~ next(h1) at the tip).
+  const given = parent.slice();
+  for (let i = 0; i < seams.length; i += 2) {
+    union(given, seams[i]!, seams[i + 1]!);
+    union(given, next(seams[i]!), next(seams[i + 1]!));
+  }
+  const nonManifoldVertices: number[] = [];
+  let nonManifoldVertexCount = 0;
+  {
+    const owner = new Int32Array(nv).fill(-1);
+    const flagged = new Uint8Array(nv);
+    for (let h = 0; h < nh; h++) {
+      const v = tri[h]!, r = findRoot(given, h);
+      if (owner[v]! < 0) owner[v] = r;
+      else if (owner[v] !== r && !cutVertex[v] && !flagged[v]) {
+        flagged[v] = 1;
+        nonManifoldVertexCount++;
+        if (nonManifoldVertices.length < maxListed) nonManifoldVertices.push(v);
+      }
     }
   }
   // the first fan seen at each vertex keeps the vertex; the others get new ids
   const fanOwner = new Int32Array(nv).fill(-1);
   const rootVertex = new Int32Array(nh).fill(-1);
   const extraOrigin: number[] = [];
-  const nonManifoldVertexSet = new Set<number>();
-  let nonManifoldVertexCount = 0;
   for (let h = 0; h < nh; h++) {
     const v = tri[h]!;
     const r = find(h);
@@ -188,10 +210,6 @@ export function buildTopology(
       extraOrigin.push(v);
       rootVertex[r] = nvNew;
       tri[h] = nvNew;
-      if (!cutVertex[v] && !nonManifoldVertexSet.has(v)) {
-        nonManifoldVertexCount++;
-        if (nonManifoldVertexSet.size < maxListed) nonManifoldVertexSet.add(v);
-      }
     }
   }
   const nvOut = nv + extraOrigin.length;
@@ -233,15 +251,33 @@ export function buildTopology(
   };
   const report: BuildReport = {
     degenerateFaces,
+    duplicateFaces,
+    duplicateFaceCount,
     nonManifoldEdges,
     nonManifoldEdgeCount,
-    nonManifoldVertices: [...nonManifoldVertexSet].sort((x, y) => x - y),
+    nonManifoldVertices: nonManifoldVertices.sort((x, y) => x - y),
     nonManifoldVertexCount,
     flippedFaces,
     nonOrientableComponents,
     orientationCuts,
+    orientationSeams: Int32Array.from(seams),
     isolatedVertices,
     splitVertices: extraOrigin.length,
   };
   return { topology, report };
+}
+
+/** Root of `x` in the union–find forest `parent` (path halving). */
+function findRoot(parent: Int32Array, x: number): number {
+  while (parent[x] !== x) {
+    parent[x] = parent[parent[x]!]!;
+    x = parent[x]!;
+  }
+  return x;
+}
+
+/** Joins the sets of `a` and `b` in the union–find forest `parent`. */
+function union(parent: Int32Array, a: number, b: number): void {
+  const ra = findRoot(parent, a), rb = findRoot(parent, b);
+  if (ra !== rb) parent[ra] = rb;
 }

@@ -4,8 +4,15 @@
  *
  * χ = V − E + F per component; for an orientable surface with b boundary
  * loops, χ = 2 − 2g − b, so g = (2 − χ − b) / 2.
+ *
+ * Given the orientation seams of the build (edges cut so that a
+ * non-orientable piece gets half-edges), the counts are those of the surface
+ * as given: a seam is one edge, the copies of a vertex made by the cut are one
+ * vertex, and boundary loops are the cycles of the remaining boundary edges.
+ * A Möbius strip then has χ = 0 and one boundary loop, as it should.
  */
 import type { Topology } from './topology.js';
+import { next } from './topology.js';
 import { boundaryLoops } from './boundary.js';
 
 /** Summary of one connected component. */
@@ -36,8 +43,13 @@ export interface Components {
   info: ComponentInfo[];
 }
 
-/** Labels the connected components of `t` and summarises each. */
-export function components(t: Topology): Components {
+/**
+ * Labels the connected components of `t` and summarises each.
+ *
+ * @param seams - pairs of half-edges that are the two sides of one input edge
+ *   (`BuildReport.orientationSeams`); omitted, the topology is counted as is
+ */
+export function components(t: Topology, seams?: Int32Array): Components {
   const { nf, nv } = t;
   const faceComponent = new Int32Array(nf).fill(-1);
   const stack = new Int32Array(nf);
@@ -71,12 +83,65 @@ export function components(t: Topology): Components {
     info.push({ faces: 0, vertices: 0, edges: 0, boundaryLoops: 0, eulerCharacteristic: 0, genus: 0 });
   }
   for (let f = 0; f < nf; f++) info[faceComponent[f]!]!.faces++;
-  for (let v = 0; v < nv; v++) if (vertexComponent[v]! >= 0) info[vertexComponent[v]!]!.vertices++;
   for (let e = 0; e < t.ne; e++) info[faceComponent[(t.edgeHalfedge[e]! / 3) | 0]!]!.edges++;
-  for (const loop of boundaryLoops(t)) info[faceComponent[(loop[0]! / 3) | 0]!]!.boundaryLoops++;
+  if (seams && seams.length > 0) {
+    countAsGiven(t, seams, faceComponent, vertexComponent, info);
+  } else {
+    for (let v = 0; v < nv; v++) if (vertexComponent[v]! >= 0) info[vertexComponent[v]!]!.vertices++;
+    for (const loop of boundaryLoops(t)) info[faceComponent[(loop[0]! / 3) | 0]!]!.boundaryLoops++;
+  }
   for (const c of info) {
     c.eulerCharacteristic = c.vertices - c.edges + c.faces;
     c.genus = (2 - c.eulerCharacteristic - c.boundaryLoops) / 2;
   }
   return { count, faceComponent, vertexComponent, info };
+}
+
+/**
+ * Vertices, edges and boundary loops of each component on the surface as
+ * given: seam copies of a vertex are merged (union–find), each seam pair is
+ * one edge, and loops are the connected pieces of the graph of the other
+ * boundary edges (on a manifold surface every boundary vertex has two
+ * boundary edges, so each piece is one cycle).
+ */
+function countAsGiven(t: Topology, seams: Int32Array, faceComponent: Int32Array, vertexComponent: Int32Array, info: ComponentInfo[]): void {
+  const { nv } = t;
+  const parent = new Int32Array(nv);
+  for (let v = 0; v < nv; v++) parent[v] = v;
+  const find = (x: number): number => {
+    while (parent[x] !== x) {
+      parent[x] = parent[parent[x]!]!;
+      x = parent[x]!;
+    }
+    return x;
+  };
+  const join = (a: number, b: number) => {
+    const ra = find(a), rb = find(b);
+    if (ra !== rb) parent[ra] = rb;
+  };
+  const isSeam = new Uint8Array(t.twin.length);
+  for (let i = 0; i < seams.length; i += 2) {
+    const h0 = seams[i]!, h1 = seams[i + 1]!;
+    isSeam[h0] = 1;
+    isSeam[h1] = 1;
+    join(t.tri[h0]!, t.tri[h1]!); // both sides run the same way
+    join(t.tri[next(h0)]!, t.tri[next(h1)]!);
+    info[faceComponent[(h0 / 3) | 0]!]!.edges--;
+  }
+  for (let v = 0; v < nv; v++) if (vertexComponent[v]! >= 0 && find(v) === v) info[vertexComponent[v]!]!.vertices++;
+  // boundary loops: components of the non-seam boundary edges over merged vertices
+  const onBoundary = new Uint8Array(nv);
+  for (let h = 0; h < t.twin.length; h++) {
+    if (t.twin[h] !== -1 || isSeam[h]) continue;
+    onBoundary[t.tri[h]!] = 1;
+    join(t.tri[h]!, t.tri[next(h)]!);
+  }
+  const counted = new Uint8Array(nv);
+  for (let v = 0; v < nv; v++) {
+    if (!onBoundary[v] || vertexComponent[v]! < 0) continue;
+    const r = find(v);
+    if (counted[r]) continue;
+    counted[r] = 1;
+    info[vertexComponent[v]!]!.boundaryLoops++;
+  }
 }

@@ -6,10 +6,21 @@ import type { Groups } from './edge-groups.js';
 /**
  * Flips faces so that every manifold edge is traversed in opposite directions
  * by its two faces. Works per connected piece; keeps the orientation held by
- * the majority of its faces. Returns the number of flipped faces and of pieces
- * that cannot be oriented.
+ * the majority of its faces. Returns the number of flipped faces (in pieces
+ * that can be oriented) and of pieces that cannot be oriented.
+ *
+ * A piece that cannot be oriented (a Möbius strip, say) still gets the
+ * orientation of its breadth-first spanning tree, so the faces disagree only
+ * across the edges where the search fronts met: one cut across the piece
+ * makes it orientable, instead of a cut at every edge where the input's
+ * listing happened to disagree. Flips there are not counted (no orientation
+ * of such a piece is the right one).
  */
-export function orientFaces(tri: Uint32Array, nf: number, groups: Groups): { flipped: number; nonOrientable: number } {
+export function orientFaces(
+  tri: Uint32Array,
+  nf: number,
+  groups: Groups,
+): { flipped: number; nonOrientable: number; changed: boolean } {
   const nh = 3 * nf;
   // neighbour across each half-edge, for manifold edges only
   const across = new Int32Array(nh).fill(-1);
@@ -23,6 +34,7 @@ export function orientFaces(tri: Uint32Array, nf: number, groups: Groups): { fli
   const flip = new Int8Array(nf).fill(-1); // -1 unvisited, 0 keep, 1 flip
   const queue = new Int32Array(nf);
   let flipped = 0;
+  let changed = false;
   let nonOrientable = 0;
   const members: number[] = [];
   for (let seed = 0; seed < nf; seed++) {
@@ -49,11 +61,7 @@ export function orientFaces(tri: Uint32Array, nf: number, groups: Groups): { fli
         } else if (flip[g] !== want) ok = false;
       }
     }
-    if (!ok) {
-      nonOrientable++;
-      for (const f of members) flip[f] = 0;
-      continue;
-    }
+    if (!ok) nonOrientable++;
     let nflip = 0;
     for (const f of members) nflip += flip[f]!;
     const invert = 2 * nflip > members.length; // keep the majority orientation
@@ -63,9 +71,10 @@ export function orientFaces(tri: Uint32Array, nf: number, groups: Groups): { fli
         const t = tri[3 * f + 1]!;
         tri[3 * f + 1] = tri[3 * f + 2]!;
         tri[3 * f + 2] = t;
-        flipped++;
+        changed = true;
+        if (ok) flipped++;
       }
     }
   }
-  return { flipped, nonOrientable };
+  return { flipped, nonOrientable, changed };
 }

@@ -131,7 +131,7 @@ describe('property: random triangle soups never break the invariants', () => {
     const tri = faces.flat();
     const { topology: t, report } = buildTopology(tri, 12);
     checkInvariants(t);
-    expect(t.nf + report.degenerateFaces.length).toBe(faces.length);
+    expect(t.nf + report.degenerateFaces.length + report.duplicateFaceCount).toBe(faces.length);
   });
 });
 
@@ -178,4 +178,115 @@ describe('property: edge grouping matches a comparison sort of (min, max) keys (
     const starts = ref.flatMap((h, i) => (i === 0 || key(h) !== key(ref[i - 1]!) ? [i] : []));
     expect(Array.from(g.start)).toEqual([...starts, tri.length]);
   });
+});
+
+/** Möbius strip: a band of n × w quads (two triangles each) whose ends are glued with a half twist. */
+function moebius(n: number, w = 1): number[] {
+  const tri: number[] = [];
+  const id = (i: number, j: number) => (i % n) * (w + 1) + j;
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < w; j++) {
+      // the last column of quads meets the first one upside down (j → w − j)
+      const a = id(i, j), b = id(i, j + 1);
+      const c = i < n - 1 ? id(i + 1, j) : id(0, w - j), d = i < n - 1 ? id(i + 1, j + 1) : id(0, w - j - 1);
+      tri.push(a, c, b, b, c, d);
+    }
+  }
+  return tri;
+}
+
+describe('non-orientable surfaces are counted as given (Euler characteristic of a Möbius strip 0, Klein bottle 0)', () => {
+  it('Möbius strip of 60 quads: not orientable, χ = 0 with V 120, E 240, F 120, one boundary loop, no non-manifold vertex', () => {
+    // χ(Möbius strip) = 0 and its boundary is one circle (standard topology, e.g. Massey,
+    // Algebraic Topology: An Introduction, ch. 1); E = V + F − χ = 240 for this band
+    const { topology: t, report } = buildTopology(moebius(60), 120);
+    expect(report.nonOrientableComponents).toBe(1);
+    expect(report.nonManifoldVertexCount).toBe(0);
+    expect(report.nonManifoldVertices).toEqual([]);
+    expect(report.flippedFaces).toBe(0);
+    expect(report.orientationSeams.length).toBe(2 * report.orientationCuts);
+    checkInvariants(t);
+    const c = components(t, report.orientationSeams);
+    expect(c.count).toBe(1);
+    expect(c.info[0]).toMatchObject({ vertices: 120, edges: 240, faces: 120, eulerCharacteristic: 0, boundaryLoops: 1 });
+  });
+  it('a wider Möbius band listed with random face orientations: same counts, one cut across the band', () => {
+    const tri = moebius(40, 4);
+    const r = rng(17);
+    for (let f = 0; f < tri.length / 3; f++) {
+      if (r() < 0.5) {
+        const x = tri[3 * f + 1]!;
+        tri[3 * f + 1] = tri[3 * f + 2]!;
+        tri[3 * f + 2] = x;
+      }
+    }
+    const { topology: t, report } = buildTopology(tri, 40 * 5);
+    expect(report.nonOrientableComponents).toBe(1);
+    expect(report.nonManifoldVertexCount).toBe(0);
+    // the breadth-first orientation disagrees only where its fronts meet: at most a few
+    // edges per row of the band (4 quads wide here), not at every randomly flipped face
+    expect(report.orientationCuts).toBeLessThanOrEqual(3 * 4 * 2);
+    checkInvariants(t);
+    const c = components(t, report.orientationSeams);
+    // V = 40·5 = 200, F = 2·40·4 = 320, E = V + F − χ = 520 (χ = 0: a Möbius strip)
+    expect(c.info[0]).toMatchObject({ vertices: 200, edges: 520, faces: 320, eulerCharacteristic: 0, boundaryLoops: 1 });
+  });
+  it('Klein bottle (closed, not orientable): χ = 0, no boundary loop', () => {
+    // χ(Klein bottle) = 0 (standard topology, e.g. Massey ch. 1)
+    const nu = 12, nv = 6, tri: number[] = [];
+    const id = (i: number, j: number) => i * nv + (((j % nv) + nv) % nv);
+    for (let i = 0; i < nu; i++) {
+      for (let j = 0; j < nv; j++) {
+        const a = id(i, j), b = id(i, j + 1);
+        const c = i < nu - 1 ? id(i + 1, j) : id(0, -j), d = i < nu - 1 ? id(i + 1, j + 1) : id(0, -j - 1);
+        tri.push(a, c, d, a, d, b);
+      }
+    }
+    const { topology: t, report } = buildTopology(tri, nu * nv);
+    expect(report.nonOrientableComponents).toBe(1);
+    expect(report.nonManifoldVertexCount).toBe(0);
+    checkInvariants(t);
+    const c = components(t, report.orientationSeams);
+    expect(c.info[0]).toMatchObject({ vertices: nu * nv, faces: 2 * nu * nv, edges: 3 * nu * nv, eulerCharacteristic: 0, boundaryLoops: 0 });
+  });
+});
+
+describe('duplicate faces are found first and dropped (common practice: a repeated vertex set is one face listed twice)', () => {
+  it('a grid with three faces repeated (one reversed, one rotated): duplicates listed, the rest reads as the clean grid', () => {
+    const s = flatGrid(4, 3);
+    const nv = s.positions.length / 3;
+    const base = Array.from(s.triangles);
+    const nf = base.length / 3;
+    const tri = [...base, base[3]!, base[4]!, base[5]!, base[8]!, base[7]!, base[6]!, base[13]!, base[14]!, base[12]!];
+    const { topology: t, report } = buildTopology(tri, nv);
+    expect(report.duplicateFaceCount).toBe(3);
+    expect(report.duplicateFaces).toEqual([
+      { face: nf, of: 1 },
+      { face: nf + 1, of: 2 },
+      { face: nf + 2, of: 4 },
+    ]);
+    expect(t.nf).toBe(nf);
+    expect(report.nonManifoldEdgeCount).toBe(0);
+    expect(report.nonManifoldVertexCount).toBe(0);
+    expect(report.flippedFaces).toBe(0);
+    expect(report.orientationCuts).toBe(0);
+    const c = components(t);
+    expect(c.count).toBe(1);
+    expect(c.info[0]!.eulerCharacteristic).toBe(1); // a disc
+  });
+  test.prop([fc.array(fc.tuple(fc.nat(7), fc.nat(7), fc.nat(7)), { minLength: 1, maxLength: 40 })])(
+    'property: every kept face has a vertex set of its own, and every dropped one repeats a kept one',
+    (faces) => {
+      const { topology: t, report } = buildTopology(faces.flat(), 8);
+      const key = (f: number[]) => [...f].sort((x, y) => x - y).join(',');
+      const keptKeys = new Set<string>();
+      for (let f = 0; f < t.nf; f++) keptKeys.add(key([t.vertexOrigin[t.tri[3 * f]!]!, t.vertexOrigin[t.tri[3 * f + 1]!]!, t.vertexOrigin[t.tri[3 * f + 2]!]!]));
+      expect(keptKeys.size).toBe(t.nf);
+      for (const d of report.duplicateFaces) {
+        expect(key(faces[d.face]!)).toBe(key(faces[d.of]!));
+        expect(d.of).toBeLessThan(d.face);
+      }
+      expect(t.nf + report.degenerateFaces.length + report.duplicateFaceCount).toBe(faces.length);
+    },
+  );
 });
