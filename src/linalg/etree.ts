@@ -4,7 +4,7 @@
  * For a symmetric matrix C with Cholesky factor L, parent[j] is the row of the
  * first off-diagonal nonzero in column j of L (−1 for a root). It is found
  * from the pattern of C alone (J. W. H. Liu, "The role of elimination trees
- * in sparse factorization", SIAM J. Matrix Anal. Appl. 11, 1990, §3): columns
+ * in sparse factorization", SIAM J. Matrix Anal. Appl. 11, 1990): columns
  * are added in increasing order and the trees built so far are kept as
  * disjoint sets, each remembering its current root. Column k becomes the
  * parent of the root of every set that holds a row i < k of column k, and
