@@ -1,25 +1,100 @@
 /**
- * Turning user point specs into surface points on a given surface.
+ * Turning user point specs into surface points on a given surface, and the
+ * bookkeeping for vertices that were split while building the topology.
+ *
+ * Split vertices (`--split-nonmanifold`: bow-ties, ends of cut edges) have
+ * several topology copies of one file vertex (`Topology.vertexOrigin` maps
+ * each copy back). A point at such a vertex lies on every copy: as a source
+ * it seeds all of them ({@link PointResolver.copies}), and a per-vertex
+ * value for the file vertex is the minimum over its copies
+ * ({@link PointResolver.foldCopies}).
  */
 import type { Topology } from '../mesh/topology.js';
 import { checkSurfacePoint, parsePointSpec, type SurfacePoint } from './surface-point.js';
-import { SurfaceLocator } from './snap.js';
+import { SurfaceLocator, type SnapResult } from './snap.js';
 
-/** Resolves point specs (text or parsed) on a surface; `p:` specs snap to the nearest surface point. */
+/** Where a `p:` spec landed: the surface point, its position and how far it moved. */
+export interface Landing extends SnapResult {
+  /** The spec as typed. */
+  spec: string;
+}
+
+/** Resolves point specs (text or parsed) on a surface; `p:` specs snap to the surface (see {@link SurfaceLocator}). */
 export class PointResolver {
   private locator: SurfaceLocator | null = null;
+  private copyList: Map<number, number[]> | null = null;
+  /** Every `p:` spec resolved so far, in order: where it landed and how far it moved. */
+  readonly landings: Landing[] = [];
+
+  /**
+   * @param topology - the mesh connectivity
+   * @param positions - x, y, z per topology vertex
+   */
   constructor(
     private readonly topology: Topology,
     private readonly positions: Float64Array,
   ) {}
 
-  /** Parses and checks `text`; `label` names the option in errors (e.g. `--from`). */
+  /**
+   * Parses and checks `text`; `label` names the option in errors (e.g.
+   * `--from`). `p:X,Y,Z` is the nearest surface point in 3D; `p:X,Y` is the
+   * surface point straight below or above (X, Y) along +z (the highest one
+   * when the vertical line meets the surface several times; a `USAGE` error
+   * naming the point when it meets none). The result is in canonical
+   * spelling (`checkSurfacePoint`).
+   */
   resolve(text: string, label = 'point'): SurfacePoint {
     const spec = parsePointSpec(text, label);
-    if (spec.kind === 'position') {
+    if (spec.kind === 'position' || spec.kind === 'column') {
       this.locator ??= new SurfaceLocator(this.topology, this.positions);
-      return this.locator.closest(spec.xyz).point;
+      const hit = spec.kind === 'position' ? this.locator.closest(spec.xyz) : this.locator.dropVertical(spec.xy, text, label);
+      const point = checkSurfacePoint(hit.point, this.topology, label);
+      this.landings.push({ ...hit, point, spec: text });
+      return point;
     }
     return checkSurfacePoint(spec, this.topology, label);
+  }
+
+  /** The topology copies of a point: every copy of a split vertex, else the point itself. */
+  copies(p: SurfacePoint): SurfacePoint[] {
+    if (p.kind !== 'vertex') return [p];
+    const list = this.copyMap().get(this.topology.vertexOrigin[p.vertex]!);
+    return list ? list.map((vertex) => ({ kind: 'vertex', vertex })) : [p];
+  }
+
+  /** {@link resolve}, then every copy of the point ({@link copies}): what a source spec seeds. */
+  resolveAll(text: string, label = 'point'): SurfacePoint[] {
+    return this.copies(this.resolve(text, label));
+  }
+
+  /**
+   * Per-topology-vertex values with every copy of a split vertex set to the
+   * minimum over its copies (the distance to the file vertex). Returns
+   * `values` itself when nothing was split.
+   */
+  foldCopies(values: Float64Array): Float64Array {
+    const map = this.copyMap();
+    if (map.size === 0) return values;
+    const out = values.slice();
+    for (const list of map.values()) {
+      let m = Infinity;
+      for (const v of list) if (out[v]! < m) m = out[v]!;
+      for (const v of list) out[v] = m;
+    }
+    return out;
+  }
+
+  /** File vertex → its topology copies, for split vertices only. */
+  private copyMap(): Map<number, number[]> {
+    if (this.copyList) return this.copyList;
+    const t = this.topology, o = t.vertexOrigin, map = new Map<number, number[]>();
+    for (let v = 0; v < t.nv; v++) {
+      if (o[v] === v) continue;
+      const list = map.get(o[v]!) ?? [o[v]!];
+      list.push(v);
+      map.set(o[v]!, list);
+    }
+    this.copyList = map;
+    return map;
   }
 }

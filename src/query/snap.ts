@@ -1,5 +1,7 @@
 /**
- * Nearest surface point to a position in space (`p:X,Y,Z` specs).
+ * Nearest surface point to a position in space (`p:X,Y,Z` specs), and the
+ * surface point on a vertical line (`p:X,Y` specs: a drop along z for map
+ * coordinates).
  *
  * three-mesh-bvh finds the candidate triangle quickly in float32 on
  * coordinates centred at the bounding-box centre (scanned terrain at map
@@ -7,14 +9,20 @@
  * refined in float64 over the candidate and every face around its corners,
  * with the closest-point-on-triangle test of Ericson, Real-Time Collision
  * Detection (2005), §5.1.5, which returns barycentric coordinates directly.
+ *
+ * The vertical drop casts a ray along −z from above the mesh with the BVH,
+ * then decides in float64 with planar barycentric coordinates (x, y only)
+ * over the faces hit and every face around their corners; of several
+ * crossings (overhangs, folds) the highest wins.
  */
-import { BufferAttribute, BufferGeometry, Vector3 } from 'three';
+import { BufferAttribute, BufferGeometry, DoubleSide, Ray, Vector3 } from 'three';
 import { MeshBVH } from 'three-mesh-bvh';
 import type { Topology } from '../mesh/topology.js';
 import { forEachOutgoing } from '../mesh/topology.js';
 import type { SurfacePoint } from './surface-point.js';
+import { usageError } from '../errors.js';
 
-/** A snapped point: the surface point, its position and its distance from the query. */
+/** A snapped point: the surface point, its position and its distance from the query (for a vertical drop: horizontal distance, 0 up to rounding). */
 export interface SnapResult {
   point: SurfacePoint;
   position: [number, number, number];
@@ -66,6 +74,7 @@ export class SurfaceLocator {
   private readonly bvh: MeshBVH;
   private readonly center: [number, number, number];
   private readonly index: Uint32Array;
+  private readonly zTop: number;
 
   /**
    * @param topology - the mesh connectivity
@@ -83,6 +92,7 @@ export class SurfaceLocator {
       if (positions[i]! > hi[d]!) hi[d] = positions[i]!;
     }
     this.center = [0, 1, 2].map((d) => (n ? 0.5 * (lo[d]! + hi[d]!) : 0)) as [number, number, number];
+    this.zTop = n ? hi[2]! - this.center[2] : 0;
     const p32 = new Float32Array(positions.length);
     for (let i = 0; i < positions.length; i++) p32[i] = positions[i]! - this.center[i % 3]!;
     const geom = new BufferGeometry();
@@ -118,5 +128,44 @@ export class SurfaceLocator {
       if (!best || dist < best.distance) best = { point: { kind: 'face', face: f, bary }, position: pos, distance: dist };
     }
     return best!;
+  }
+
+  /**
+   * The highest surface point on the vertical line through (x, y): what lies
+   * straight below (or above) a map position, with +z up. Throws a `USAGE`
+   * error naming `spec` (and `label`) when the line misses the surface.
+   */
+  dropVertical(xy: [number, number], spec = `p:${xy[0]},${xy[1]}`, label = 'point'): SnapResult {
+    const t = this.topology, P = this.positions;
+    const cx = xy[0] - this.center[0], cy = xy[1] - this.center[1];
+    const top = this.zTop + 1 + Math.abs(this.zTop);
+    const hits = this.bvh.raycast(new Ray(new Vector3(cx, cy, top), new Vector3(0, 0, -1)), DoubleSide);
+    const candidates = new Set<number>();
+    for (const hit of hits) {
+      for (let k = 0; k < 3; k++) forEachOutgoing(t, this.index[3 * hit.faceIndex! + k]!, (h) => candidates.add((h / 3) | 0));
+    }
+    let best: SnapResult | null = null;
+    for (const f of candidates) {
+      const a = 3 * t.tri[3 * f]!, b = 3 * t.tri[3 * f + 1]!, c = 3 * t.tri[3 * f + 2]!;
+      // planar barycentrics of (x, y) in the face's shadow on the xy plane
+      const x0 = P[a]!, y0 = P[a + 1]!, e1x = P[b]! - x0, e1y = P[b + 1]! - y0, e2x = P[c]! - x0, e2y = P[c + 1]! - y0;
+      const det = e1x * e2y - e1y * e2x;
+      const scale = Math.max(Math.abs(e1x), Math.abs(e1y), Math.abs(e2x), Math.abs(e2y));
+      if (!(Math.abs(det) > 1e-14 * scale * scale)) continue; // a vertical face: no single point under (x, y)
+      const px = xy[0] - x0, py = xy[1] - y0;
+      let u = (px * e2y - py * e2x) / det, v = (e1x * py - e1y * px) / det, w = 1 - u - v;
+      const tol = -1e-12;
+      if (!(u >= tol && v >= tol && w >= tol)) continue;
+      u = Math.max(u, 0); v = Math.max(v, 0); w = Math.max(w, 0);
+      const sum = u + v + w;
+      const bary: [number, number, number] = [w / sum, u / sum, v / sum];
+      const pos: [number, number, number] = [0, 0, 0];
+      for (let d = 0; d < 3; d++) pos[d] = bary[0] * P[a + d]! + bary[1] * P[b + d]! + bary[2] * P[c + d]!;
+      if (!best || pos[2] > best.position[2]) {
+        best = { point: { kind: 'face', face: f, bary }, position: pos, distance: Math.hypot(pos[0] - xy[0], pos[1] - xy[1]) };
+      }
+    }
+    if (!best) throw usageError(`the vertical line through x=${xy[0]}, y=${xy[1]} misses the surface in point '${spec}'`, label);
+    return best;
   }
 }

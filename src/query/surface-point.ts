@@ -7,6 +7,7 @@
  * | edge     | (1−t)·tail + t·tip of `edgeHalfedge[edge]`          | `e:INDEX:T`        |
  * | face     | b0·c0 + b1·c1 + b2·c2 of the face's corners         | `f:INDEX:B0,B1,B2` |
  * | (input)  | nearest surface point to x, y, z (resolved later)   | `p:X,Y,Z`          |
+ * | (input)  | surface point straight below/above x, y along +z    | `p:X,Y`            |
  *
  * Indices are those of the topology (equal to the file's for vertices that
  * were not split and for faces when no face was dropped or triangulated).
@@ -21,19 +22,29 @@ export type SurfacePoint =
   | { kind: 'edge'; edge: number; t: number }
   | { kind: 'face'; face: number; bary: [number, number, number] };
 
-/** A point spec as typed by a user, before `p:` specs are resolved to the surface. */
-export type PointSpec = SurfacePoint | { kind: 'position'; xyz: [number, number, number] };
+/**
+ * A point spec as typed by a user, before `p:` specs are resolved to the
+ * surface: `position` (p:X,Y,Z) is snapped to the nearest surface point in
+ * 3D, `column` (p:X,Y) to the highest surface point on the vertical line
+ * through (x, y) (a drop along the z axis, for map coordinates).
+ */
+export type PointSpec =
+  | SurfacePoint
+  | { kind: 'position'; xyz: [number, number, number] }
+  | { kind: 'column'; xy: [number, number] };
 
 const NUM = String.raw`[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?`;
 const RE_V = /^v:(\d+)$/;
 const RE_E = new RegExp(`^e:(\\d+):(${NUM})$`);
 const RE_F = new RegExp(`^f:(\\d+):(${NUM}),(${NUM}),(${NUM})$`);
 const RE_P = new RegExp(`^p:(${NUM}),(${NUM}),(${NUM})$`);
+const RE_P2 = new RegExp(`^p:(${NUM}),(${NUM})$`);
 
 /**
- * Parses `v:I`, `e:I:T`, `f:I:B0,B1,B2` or `p:X,Y,Z`. Barycentric coordinates
- * must be non-negative and are normalised to sum to one; `T` must lie in [0, 1].
- * Throws a `USAGE` error naming the bad spec.
+ * Parses `v:I`, `e:I:T`, `f:I:B0,B1,B2`, `p:X,Y,Z` or `p:X,Y`. Barycentric
+ * coordinates in text must be non-negative and are normalised to sum to one
+ * (`f:3:1,1,1` is the centroid); `T` must lie in [0, 1]. Throws a `USAGE`
+ * error naming the bad spec.
  */
 export function parsePointSpec(text: string, label = 'point'): PointSpec {
   const s = text.trim();
@@ -57,7 +68,12 @@ export function parsePointSpec(text: string, label = 'point'): PointSpec {
     if (!xyz.every(Number.isFinite)) throw usageError(`coordinates must be finite in '${text}'`, label);
     return { kind: 'position', xyz };
   }
-  throw usageError(`cannot read point '${text}' (expected v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2 or p:X,Y,Z)`, label);
+  if ((m = RE_P2.exec(s))) {
+    const xy: [number, number] = [Number(m[1]), Number(m[2])];
+    if (!xy.every(Number.isFinite)) throw usageError(`coordinates must be finite in '${text}'`, label);
+    return { kind: 'column', xy };
+  }
+  throw usageError(`cannot read point '${text}' (expected v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2, p:X,Y,Z or p:X,Y)`, label);
 }
 
 /**

@@ -83,6 +83,65 @@ describe('point specs', () => {
     const { topology: t } = buildTopology(s.triangles, 12);
     const r = new PointResolver(t, s.positions);
     expect(() => r.resolve('v:99', '--from')).toThrow(/--from: vertex 99 does not exist \(mesh has 12\)/);
-    expect(r.resolve('p:0,0,5').kind).toBe('face');
+    // (0,0,5) lies above the edge joining (0, ±1, φ)/|·| of the icosahedron: it lands on that edge's midpoint
+    // (elementary), spelt as an edge point (canonical spelling)
+    const q = r.resolve('p:0,0,5');
+    const phi = (1 + Math.sqrt(5)) / 2;
+    expect(q.kind).toBe('edge');
+    expect(surfacePointPosition(q, t, s.positions)[2]).toBeCloseTo(phi / Math.sqrt(1 + phi * phi), 12);
+  });
+});
+
+describe('vertical drop p:X,Y (map positions) and landing reports', () => {
+  it('on a tilted plane z = 0.3x − 0.2y + 7 at map coordinates, lands at the plane height (closed form)', () => {
+    const s = flatGrid(30, 30, 3000, 3000, 0.2, 4);
+    for (let i = 0; i < s.positions.length; i += 3) {
+      s.positions[i] += 500_000; s.positions[i + 1] += 6_000_000; // map-sized coordinates
+      s.positions[i + 2] = 0.3 * (s.positions[i]! - 500_000) - 0.2 * (s.positions[i + 1]! - 6_000_000) + 7;
+    }
+    const { topology: t } = buildTopology(s.triangles, s.positions.length / 3);
+    const r = new PointResolver(t, s.positions);
+    const g = rng(9);
+    for (let k = 0; k < 50; k++) {
+      const x = 500_000 + 3000 * g(), y = 6_000_000 + 3000 * g();
+      const p = r.resolve(`p:${x},${y}`, '--from');
+      const at = surfacePointPosition(p, t, s.positions);
+      expect(at[0]).toBeCloseTo(x, 6);
+      expect(at[1]).toBeCloseTo(y, 6);
+      expect(at[2]).toBeCloseTo(0.3 * (x - 500_000) - 0.2 * (y - 6_000_000) + 7, 6);
+    }
+    expect(r.landings).toHaveLength(50);
+    expect(r.landings[0]!.distance).toBeLessThan(1e-6); // straight below: no horizontal move
+    // a grid vertex spelt as p:X,Y is that vertex (canonical spelling)
+    const v = 31 * 5 + 5;
+    expect(r.resolve(`p:${s.positions[3 * v]},${s.positions[3 * v + 1]}`)).toEqual({ kind: 'vertex', vertex: v });
+  });
+
+  it('several crossings: the highest wins (documented rule); no crossing: a usage error naming the point', () => {
+    const a = flatGrid(2, 2, 1, 1), n = a.positions.length / 3;
+    const pos = new Float64Array(2 * a.positions.length);
+    pos.set(a.positions);
+    for (let i = 0; i < a.positions.length; i += 3) {
+      pos[a.positions.length + i] = a.positions[i]!; pos[a.positions.length + i + 1] = a.positions[i + 1]!; pos[a.positions.length + i + 2] = 2;
+    }
+    const tris = new Uint32Array(2 * a.triangles.length);
+    tris.set(a.triangles);
+    for (let i = 0; i < a.triangles.length; i++) tris[a.triangles.length + i] = a.triangles[i]! + n;
+    const { topology: t } = buildTopology(tris, 2 * n);
+    const r = new PointResolver(t, pos);
+    const p = r.resolve('p:0.3,0.6');
+    expect(surfacePointPosition(p, t, pos)[2]).toBe(2);
+    expect(() => r.resolve('p:1.5,0.5', '--to')).toThrow(/^--to: .*misses the surface in point 'p:1.5,0.5'/);
+  });
+
+  it('p:X,Y,Z reports where it landed and how far it moved (orthogonal projection: the height above the plane)', () => {
+    const s = flatGrid(4, 4, 4, 4);
+    const { topology: t } = buildTopology(s.triangles, s.positions.length / 3);
+    const r = new PointResolver(t, s.positions);
+    r.resolve('p:1.3,2.6,5', '--from');
+    expect(r.landings[0]!.spec).toBe('p:1.3,2.6,5');
+    expect(r.landings[0]!.distance).toBeCloseTo(5, 12);
+    expect(r.landings[0]!.position[0]).toBeCloseTo(1.3, 12);
+    expect(r.landings[0]!.position[2]).toBe(0);
   });
 });
