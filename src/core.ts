@@ -48,7 +48,8 @@ export type { DistanceField, DistanceMethod, SurfacePath } from './geodesic/fiel
 export { fieldStats } from './geodesic/field.js';
 export { pointSources, boundaryCurves, type SourceSet } from './geodesic/sources.js';
 export { HeatSolver, type HeatOptions, type HeatStats } from './geodesic/heat.js';
-export { graphDistance, type GraphOptions } from './geodesic/graph.js';
+export { graphDistance, graphValueAt, type GraphOptions } from './geodesic/graph.js';
+export { orientationCover, prepareCoverDistance, type OrientationCover } from './geodesic/cover.js';
 export { exactDistance, type ExactOptions, type ExactResult } from './geodesic/exact/index.js';
 export type { WindowUsage } from './geodesic/exact/usage.js';
 export { prepareExactGeometry, type ExactGeometry } from './geodesic/exact/geometry.js';
@@ -59,10 +60,11 @@ export {
 
 // points on the surface
 export {
-  parsePointSpec, formatSurfacePoint, checkSurfacePoint, surfacePointPosition, type SurfacePoint, type PointSpec,
+  parsePointSpec, formatSurfacePoint, checkSurfacePoint, canonicalSurfacePoint, surfacePointPosition, SNAP_TOLERANCE, BARY_SUM_TOLERANCE,
+  type SurfacePoint, type PointSpec,
 } from './query/surface-point.js';
 export { SurfaceLocator, closestOnTriangle, type SnapResult } from './query/snap.js';
-export { PointResolver } from './query/resolve.js';
+export { PointResolver, type Landing } from './query/resolve.js';
 
 // reports
 export { inspectSurface, type InspectReport } from './report/inspect.js';
