@@ -1,8 +1,9 @@
 /** `orthodrome inspect MESH [--json]`: mesh health summary. */
 import type { Command } from 'commander';
 import { loadSurface, maxInputSizeOption } from '../load.js';
-import { inspectSurface, type InspectReport } from '../../src/report/inspect.js';
+import { inspectSurface, inspectProblems, type InspectReport } from '../../src/report/inspect.js';
 import { action, fmt, toJson } from '../run.js';
+import { requireOption, parseRequirements, runGates, formatGates, failOnGates } from '../gates.js';
 
 /** Human-readable lines of an inspect report. */
 export function formatInspect(r: InspectReport): string {
@@ -13,16 +14,7 @@ export function formatInspect(r: InspectReport): string {
   L.push(
     `  components ${r.components}, boundary loops ${r.boundaryLoops}, Euler characteristic ${r.eulerCharacteristic}, genus ${r.genus ?? 'n/a (not orientable)'}`,
   );
-  const probs: string[] = [];
-  if (r.nonManifoldEdges) {
-    const e = r.locations.nonManifoldEdges[0]!;
-    probs.push(`${r.nonManifoldEdges} non-manifold edge(s) (first: vertices ${e.a}–${e.b}, faces ${e.faces.join(', ')})`);
-  }
-  if (r.nonManifoldVertices) probs.push(`${r.nonManifoldVertices} non-manifold vertex(es) (first: vertex ${r.locations.nonManifoldVertices[0]})`);
-  if (!r.orientable) probs.push('not orientable');
-  if (r.flippedFaces) probs.push(`${r.flippedFaces} face(s) had inconsistent orientation (re-oriented)`);
-  if (r.degenerateFacesDropped) probs.push(`${r.degenerateFacesDropped} degenerate face(s) dropped (first: face ${r.locations.degenerateFaces[0]})`);
-  if (r.isolatedVertices) probs.push(`${r.isolatedVertices} vertex(es) used by no face`);
+  const probs = inspectProblems(r);
   L.push(`  problems: ${probs.length ? probs.join('; ') : 'none'}`);
   L.push(`  area ${fmt(r.area)} units², bounding box [${r.boundingBox.min.map((x) => fmt(x)).join(', ')}] – [${r.boundingBox.max.map((x) => fmt(x)).join(', ')}]`);
   L.push(`  edge length min ${fmt(r.edgeLength.min)} / mean ${fmt(r.edgeLength.mean)} / max ${fmt(r.edgeLength.max)} units`);
@@ -41,11 +33,15 @@ export function registerInspect(program: Command): void {
     .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
     .option('--json', 'print the report as JSON (keys documented in the README)')
     .addOption(maxInputSizeOption())
+    .addOption(requireOption())
     .action(
-      action(async (mesh: string, opts: { json?: boolean; maxInputSize?: string }) => {
+      action(async (mesh: string, opts: { json?: boolean; maxInputSize?: string; require?: string[] }) => {
+        const reqs = parseRequirements(opts.require); // a typo is exit 2 before any work
         const { surface } = await loadSurface(mesh, { maxInputSize: opts.maxInputSize });
         const r = inspectSurface(surface);
-        process.stdout.write((opts.json ? toJson(r) : formatInspect(r)) + '\n');
+        const gates = runGates(r, reqs);
+        process.stdout.write((opts.json ? toJson(reqs.length ? { ...r, requirements: gates } : r) : formatInspect(r) + formatGates(gates)) + '\n');
+        failOnGates(gates); // exit 1, each failed requirement with its measured value
       }),
     );
 }

@@ -14,6 +14,7 @@
 import type { Topology } from './topology.js';
 import { next } from './topology.js';
 import { boundaryLoops } from './boundary.js';
+import { glueSeams } from './seams.js';
 
 /** Summary of one connected component. */
 export interface ComponentInfo {
@@ -99,15 +100,18 @@ export function components(t: Topology, seams?: Int32Array): Components {
 
 /**
  * Vertices, edges and boundary loops of each component on the surface as
- * given: seam copies of a vertex are merged (union–find), each seam pair is
- * one edge, and loops are the connected pieces of the graph of the other
- * boundary edges (on a manifold surface every boundary vertex has two
- * boundary edges, so each piece is one cycle).
+ * given: seam copies of a vertex are merged, each seam pair is one edge, and
+ * loops are the connected pieces of the graph of the other boundary edges (on
+ * a manifold surface every boundary vertex has two boundary edges, so each
+ * piece is one cycle).
  */
 function countAsGiven(t: Topology, seams: Int32Array, faceComponent: Int32Array, vertexComponent: Int32Array, info: ComponentInfo[]): void {
   const { nv } = t;
-  const parent = new Int32Array(nv);
-  for (let v = 0; v < nv; v++) parent[v] = v;
+  const { rep, seamHalfedge } = glueSeams(t, seams);
+  for (let i = 0; i + 1 < seams.length; i += 2) info[faceComponent[(seams[i]! / 3) | 0]!]!.edges--;
+  for (let v = 0; v < nv; v++) if (vertexComponent[v]! >= 0 && rep[v] === v) info[vertexComponent[v]!]!.vertices++;
+  // boundary loops: union–find over class representatives along non-seam boundary edges
+  const parent = Int32Array.from(rep);
   const find = (x: number): number => {
     while (parent[x] !== x) {
       parent[x] = parent[parent[x]!]!;
@@ -115,26 +119,12 @@ function countAsGiven(t: Topology, seams: Int32Array, faceComponent: Int32Array,
     }
     return x;
   };
-  const join = (a: number, b: number) => {
-    const ra = find(a), rb = find(b);
-    if (ra !== rb) parent[ra] = rb;
-  };
-  const isSeam = new Uint8Array(t.twin.length);
-  for (let i = 0; i < seams.length; i += 2) {
-    const h0 = seams[i]!, h1 = seams[i + 1]!;
-    isSeam[h0] = 1;
-    isSeam[h1] = 1;
-    join(t.tri[h0]!, t.tri[h1]!); // both sides run the same way
-    join(t.tri[next(h0)]!, t.tri[next(h1)]!);
-    info[faceComponent[(h0 / 3) | 0]!]!.edges--;
-  }
-  for (let v = 0; v < nv; v++) if (vertexComponent[v]! >= 0 && find(v) === v) info[vertexComponent[v]!]!.vertices++;
-  // boundary loops: components of the non-seam boundary edges over merged vertices
   const onBoundary = new Uint8Array(nv);
   for (let h = 0; h < t.twin.length; h++) {
-    if (t.twin[h] !== -1 || isSeam[h]) continue;
+    if (t.twin[h] !== -1 || seamHalfedge[h]) continue;
     onBoundary[t.tri[h]!] = 1;
-    join(t.tri[h]!, t.tri[next(h)]!);
+    const ra = find(t.tri[h]!), rb = find(t.tri[next(h)]!);
+    if (ra !== rb) parent[ra] = rb;
   }
   const counted = new Uint8Array(nv);
   for (let v = 0; v < nv; v++) {

@@ -18,7 +18,11 @@ export interface Surface {
   positions: Float64Array;
   /** Input polygon of each topology face. */
   facePolygon: Uint32Array;
-  /** Problems found and repairs made while building. */
+  /**
+   * Problems found and repairs made while building. Its face indices
+   * (`degenerateFaces`, `duplicateFaces`, `nonManifoldEdges[].faces`) are the
+   * file's faces (polygons), counted from 0.
+   */
   report: BuildReport;
 }
 
@@ -43,6 +47,14 @@ export function surfaceFromMeshData(data: MeshData, options: BuildOptions = {}):
     positions[3 * v + 1] = data.positions[o + 1]!;
     positions[3 * v + 2] = data.positions[o + 2]!;
   }
+  // face indices in the report: triangles → the file's polygons
+  const src = tr.source;
+  for (let i = 0; i < report.degenerateFaces.length; i++) report.degenerateFaces[i] = src[report.degenerateFaces[i]!]!;
+  for (const d of report.duplicateFaces) {
+    d.face = src[d.face]!;
+    d.of = src[d.of]!;
+  }
+  for (const e of report.nonManifoldEdges) e.faces = e.faces.map((f) => src[f]!);
   const facePolygon = new Uint32Array(topology.nf);
   for (let f = 0; f < topology.nf; f++) facePolygon[f] = tr.source[topology.faceOrigin[f]!]!;
   return { data, topology, positions, facePolygon, report };

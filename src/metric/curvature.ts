@@ -14,12 +14,33 @@
  *   normal (a sphere with outward normals has H = 1/R).
  * Boundary vertices get K = H = 0 and are flagged: neither is defined there by
  * these formulas.
+ *
+ * Robustness (what degenerate and sliver triangles do):
+ * - corner angles come from Kahan's formula (`triangle.ts`), which keeps
+ *   needles and caps accurate and makes every triangle's angles sum to π,
+ *   zero-area ones included, so Gauss–Bonnet stays exact on any mesh;
+ * - the angles of a thin triangle are ill-conditioned in its side lengths
+ *   (from a² = b² + c² − 2bc·cos θ_a, dθ_a/da = a / 2A, and alike for b and
+ *   c), so side lengths rounded to a relative ε = 2⁻⁵² leave each corner of
+ *   face f uncertain by up to τ_f = 4ε·(a² + b² + c²) / 2A_f + 8επ (at most
+ *   π; π for zero-area faces). A vertex's defect is known only to within
+ *   Σ τ_f over its corners plus 2πε per corner for the sum; within that
+ *   bound K is reported as exactly 0, and so is the per-vertex defect: a flat
+ *   vertex ringed by slivers or caps must not turn rounding noise over a tiny
+ *   area into a huge K. The totals use the unrounded defects, so discrete
+ *   Gauss–Bonnet stays exact;
+ * - an interior vertex whose area is 0 (all its triangles have zero area)
+ *   gets K = 0 and is counted in `zeroAreaVertices`: K is not defined there;
+ * - given the orientation seams of a non-orientable surface, the copies of
+ *   a vertex made by the cut share one angle sum, one defect and one area,
+ *   so the defects are those of the surface as given.
  */
 import type { IntrinsicMesh } from './intrinsic.js';
 import type { Topology } from '../mesh/topology.js';
 import { next } from '../mesh/topology.js';
-import { cornerAngles, halfedgeCotans, mixedVoronoiVertexAreas } from './triangle.js';
+import { cornerAngles, halfedgeCotans, mixedVoronoiVertexAreas, triangleArea } from './triangle.js';
 import { boundaryVertexMask } from '../mesh/boundary.js';
+import { glueSeams } from '../mesh/seams.js';
 
 /** Per-vertex curvature quantities and their totals. */
 export interface Curvature {
@@ -35,32 +56,76 @@ export interface Curvature {
   totalInteriorDefect: number;
   /** Σ of boundary turning, radians. */
   totalBoundaryTurning: number;
+  /** Interior vertices (counted once per seam class) whose area is 0: K is set to 0 there, not defined. */
+  zeroAreaVertices: number;
 }
 
-/** Angle defects, boundary turning and Gaussian curvature from edge lengths alone. */
-export function gaussianCurvature(m: IntrinsicMesh): Curvature {
+/**
+ * Rounding bound of each corner angle of a triangle with sides a, b, c and
+ * area A, given side lengths accurate to a relative ε (see the module comment).
+ */
+export function cornerAngleUncertainty(a: number, b: number, c: number, area: number): number {
+  const eps = Number.EPSILON;
+  const u = area > 0 ? (4 * eps * (a * a + b * b + c * c)) / (2 * area) + 8 * eps * Math.PI : Math.PI;
+  return u < Math.PI ? u : Math.PI;
+}
+
+/**
+ * Angle defects, boundary turning and Gaussian curvature from edge lengths alone.
+ *
+ * @param seams - `BuildReport.orientationSeams` of a non-orientable surface
+ *   (optional): the seam copies of a vertex are then counted as one vertex
+ */
+export function gaussianCurvature(m: IntrinsicMesh, seams?: Int32Array): Curvature {
   const t = m.topology;
   const ang = cornerAngles(m);
-  const boundary = boundaryVertexMask(t);
+  const glued = seams && seams.length > 0 ? glueSeams(t, seams) : null;
+  const rep = glued ? glued.rep : null;
+  const boundary = glued ? glued.boundary : boundaryVertexMask(t);
   const sum = new Float64Array(t.nv);
-  for (let h = 0; h < ang.length; h++) sum[t.tri[h]!]! += ang[h]!;
-  const angleDefect = new Float64Array(t.nv);
-  const vertexArea = mixedVoronoiVertexAreas(m);
-  const gaussian = new Float64Array(t.nv);
-  let totalInteriorDefect = 0, totalBoundaryTurning = 0;
-  for (let v = 0; v < t.nv; v++) {
-    if (t.vertexHalfedge[v]! < 0) continue; // isolated
-    if (boundary[v]) {
-      angleDefect[v] = Math.PI - sum[v]!;
-      totalBoundaryTurning += angleDefect[v]!;
-    } else {
-      angleDefect[v] = 2 * Math.PI - sum[v]!;
-      totalInteriorDefect += angleDefect[v]!;
-      const a = vertexArea[v]!;
-      gaussian[v] = a > 0 ? angleDefect[v]! / a : 0;
+  const tol = new Float64Array(t.nv); // rounding bound of each angle sum
+  const L = m.edgeLength;
+  for (let f = 0; f < t.nf; f++) {
+    const a = L[t.edgeOf[3 * f]!]!, b = L[t.edgeOf[3 * f + 1]!]!, c = L[t.edgeOf[3 * f + 2]!]!;
+    const u = cornerAngleUncertainty(a, b, c, triangleArea(a, b, c)) + 2 * Math.PI * Number.EPSILON;
+    for (let k = 0; k < 3; k++) {
+      const h = 3 * f + k;
+      const v = rep ? rep[t.tri[h]!]! : t.tri[h]!;
+      sum[v]! += ang[h]!;
+      tol[v]! += u;
     }
   }
-  return { boundary, angleDefect, vertexArea, gaussian, totalInteriorDefect, totalBoundaryTurning };
+  const vertexArea = mixedVoronoiVertexAreas(m);
+  if (rep) {
+    for (let v = 0; v < t.nv; v++) if (rep[v] !== v) vertexArea[rep[v]!]! += vertexArea[v]!;
+  }
+  const angleDefect = new Float64Array(t.nv);
+  const gaussian = new Float64Array(t.nv);
+  let totalInteriorDefect = 0, totalBoundaryTurning = 0, zeroAreaVertices = 0;
+  for (let v = 0; v < t.nv; v++) {
+    if (t.vertexHalfedge[v]! < 0 || (rep && rep[v] !== v)) continue; // isolated, or a seam copy
+    const raw = (boundary[v] ? Math.PI : 2 * Math.PI) - sum[v]!;
+    const d = Math.abs(raw) <= tol[v]! ? 0 : raw;
+    angleDefect[v] = d;
+    const a = vertexArea[v]!;
+    if (boundary[v]) {
+      totalBoundaryTurning += raw;
+    } else {
+      totalInteriorDefect += raw;
+      if (a > 0) gaussian[v] = d / a;
+      else zeroAreaVertices++;
+    }
+  }
+  if (rep) {
+    for (let v = 0; v < t.nv; v++) {
+      const r = rep[v]!;
+      if (r === v) continue;
+      angleDefect[v] = angleDefect[r]!;
+      gaussian[v] = gaussian[r]!;
+      vertexArea[v] = vertexArea[r]!;
+    }
+  }
+  return { boundary, angleDefect, vertexArea, gaussian, totalInteriorDefect, totalBoundaryTurning, zeroAreaVertices };
 }
 
 /**

@@ -4,9 +4,24 @@
  * Area by Kahan's needle-safe formula (W. Kahan, "Miscalculating area and
  * angles of a needle-like triangle", 2000/2014): with a ≥ b ≥ c,
  *   A = ¼ √((a + (b + c))(c − (a − b))(c + (a − b))(a + (b − c))).
- * Angles as θ_a = atan2(4A, b² + c² − a²), which stays accurate for needles
- * and caps (the area carries the small quantity). Lengths that break the
- * triangle inequality give A = 0 and angles {π, 0, 0}: never NaN.
+ * Angles by the same paper's formula: for the angle C opposite side c, with
+ * the other two sides a ≥ b,
+ *   μ = c − (a − b) if b ≥ c, else b − (a − c);
+ *   C = 2·atan √(((a − b) + c)·μ / ((a + (b + c))·((a − c) + b))),
+ * parentheses as written. Every angle of a needle or a cap keeps its relative
+ * accuracy, so the three sum to π within a few ulps (the cosine rule
+ * b² + c² − a² loses all digits of the angles next to a needle's short side,
+ * and a flat vertex ringed by needles then showed a false angle defect).
+ *
+ * Degenerate triangles, chosen so that the angles always sum to π (which is
+ * what makes discrete Gauss–Bonnet exact on every mesh):
+ * - collinear (c = a + b): angles {π, 0, 0}; lengths that break the triangle
+ *   inequality are treated the same (area 0, never NaN);
+ * - one side zero, the other two equal (two corners coincide): {π/2, π/2, 0},
+ *   the limit of an isosceles triangle whose base shrinks;
+ * - all sides zero (three coincident corners): {π/3, π/3, π/3} by convention.
+ * Side lengths far from 1 (beyond 2^±300) are scaled by an exact power of two
+ * first, so products neither overflow nor underflow.
  *
  * Conventions for half-edge arrays: `angle[h]` is the interior angle at the
  * tail of half-edge h, so the angle opposite h is `angle[prev(h)]`.
@@ -24,9 +39,62 @@ export function triangleArea(a: number, b: number, c: number): number {
   return p > 0 ? 0.25 * Math.sqrt(p) : 0;
 }
 
-/** Angle opposite side `a` in the triangle with sides a, b, c (radians, in [0, π]). */
+/** Angle opposite side `a` in the triangle with sides a, b, c (radians, in [0, π]; see the module comment). */
 export function angleOpposite(a: number, b: number, c: number): number {
-  return Math.atan2(4 * triangleArea(a, b, c), b * b + c * c - a * a);
+  anglesOfSides(a, b, c, scratch, 0);
+  return scratch[0]!;
+}
+
+const scratch = new Float64Array(3);
+const HUGE = 2 ** 300, TINY = 2 ** -300;
+
+/**
+ * Kahan's angle opposite side `c` of a triangle whose other sides are
+ * `a ≥ b`, for lengths that satisfy the triangle inequality. 0/0 happens
+ * only for b = 0, c = a (two coincident corners): π/2.
+ */
+function kahanAngle(a: number, b: number, c: number): number {
+  const mu = b >= c ? c - (a - b) : b - (a - c);
+  const num = (a - b + c) * mu;
+  const den = (a + (b + c)) * (a - c + b);
+  const r = num / den;
+  return r === r ? 2 * Math.atan(Math.sqrt(r)) : Math.PI / 2; // r > 0 / 0 = ∞ gives π
+}
+
+/**
+ * Writes the angles opposite sides l0, l1, l2 to `out[o]`, `out[o+1]`,
+ * `out[o+2]`. They sum to π for every input (see the module comment).
+ */
+export function anglesOfSides(l0: number, l1: number, l2: number, out: Float64Array, o: number): void {
+  let x = l0, y = l1, z = l2; // sort a copy: x ≥ y ≥ z
+  if (x < y) { const t = x; x = y; y = t; }
+  if (y < z) { const t = y; y = z; z = t; }
+  if (x < y) { const t = x; x = y; y = t; }
+  if (!(x > 0)) {
+    out[o] = out[o + 1] = out[o + 2] = Math.PI / 3;
+    return;
+  }
+  if (x > HUGE || x < TINY) {
+    const s = 2 ** -Math.round(Math.log2(x)); // exact scaling
+    l0 *= s; l1 *= s; l2 *= s; z *= s; y *= s; x *= s;
+  }
+  if (z - (x - y) <= 0) {
+    // collinear or not a triangle: π opposite the longest side (the first one if tied)
+    if (z - (x - y) === 0 && z === 0) {
+      // spike: z = 0, x = y
+      const iz = l2 === 0 ? 2 : l1 === 0 ? 1 : 0;
+      out[o] = out[o + 1] = out[o + 2] = Math.PI / 2;
+      out[o + iz] = 0;
+      return;
+    }
+    const ix = l0 === x ? 0 : l1 === x ? 1 : 2;
+    out[o] = out[o + 1] = out[o + 2] = 0;
+    out[o + ix] = Math.PI;
+    return;
+  }
+  out[o] = kahanAngle(l1 > l2 ? l1 : l2, l1 > l2 ? l2 : l1, l0);
+  out[o + 1] = kahanAngle(l0 > l2 ? l0 : l2, l0 > l2 ? l2 : l0, l1);
+  out[o + 2] = kahanAngle(l0 > l1 ? l0 : l1, l0 > l1 ? l1 : l0, l2);
 }
 
 /**
@@ -66,17 +134,15 @@ export function faceAreas(m: IntrinsicMesh, out = new Float64Array(m.topology.nf
   return out;
 }
 
-/** Interior angle at the tail vertex of every half-edge. */
+/** Interior angle at the tail vertex of every half-edge (Kahan's formula; see the module comment). */
 export function cornerAngles(m: IntrinsicMesh, out = new Float64Array(3 * m.topology.nf)): Float64Array {
+  const { edgeOf } = m.topology;
+  const L = m.edgeLength;
   for (let f = 0; f < m.topology.nf; f++) {
-    const l = sides(m, f);
-    const s = 4 * triangleArea(l[0], l[1], l[2]);
-    for (let k = 0; k < 3; k++) {
-      // angle at tail(3f+k) lies between half-edges 3f+k and prev(3f+k) = 3f+(k+2)%3;
-      // the side opposite it is next(3f+k) = 3f+(k+1)%3
-      const a = l[(k + 1) % 3]!, b = l[k]!, c = l[(k + 2) % 3]!;
-      out[3 * f + k] = Math.atan2(s, b * b + c * c - a * a);
-    }
+    // the angle at tail(3f+k) lies between half-edges 3f+k and prev(3f+k); the side
+    // opposite it is next(3f+k) = 3f+(k+1)%3. So pass the sides rotated by one.
+    const l0 = L[edgeOf[3 * f]!]!, l1 = L[edgeOf[3 * f + 1]!]!, l2 = L[edgeOf[3 * f + 2]!]!;
+    anglesOfSides(l1, l2, l0, out, 3 * f);
   }
   return out;
 }

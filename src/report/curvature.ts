@@ -6,6 +6,7 @@ import type { Surface } from '../mesh/surface.js';
 import { intrinsicFromPositions } from '../metric/intrinsic.js';
 import { gaussianCurvature, meanCurvature, gaussBonnetResidual } from '../metric/curvature.js';
 import { components } from '../mesh/components.js';
+import { glueSeams } from '../mesh/seams.js';
 
 /** Min / mean / max of a statistic. */
 export interface Stat {
@@ -31,6 +32,8 @@ export interface CurvatureResult {
     totalBoundaryTurning: number;
     eulerCharacteristic: number;
     gaussBonnetResidual: number;
+    /** Interior vertices of zero area (all their triangles have zero area): Gaussian curvature is not defined there and is written as 0. */
+    zeroAreaVertices: number;
   };
 }
 
@@ -51,12 +54,14 @@ function stat(values: Float64Array, mask: Uint8Array, active: (v: number) => boo
 export function curvatureSummary(s: Surface): CurvatureResult {
   const t = s.topology;
   const im = intrinsicFromPositions(t, s.positions);
-  const c = gaussianCurvature(im);
+  const seams = s.report.orientationSeams;
+  const c = gaussianCurvature(im, seams);
   const H = meanCurvature(im, s.positions, c.vertexArea, c.boundary);
-  const chi = components(t).info.reduce((a, x) => a + x.eulerCharacteristic, 0);
+  const chi = components(t, seams).info.reduce((a, x) => a + x.eulerCharacteristic, 0);
+  const copy = seams.length > 0 ? glueSeams(t, seams).rep : null;
   const used = (v: number) => t.vertexHalfedge[v]! >= 0;
   let nb = 0, ni = 0;
-  for (let v = 0; v < t.nv; v++) if (used(v)) c.boundary[v] ? nb++ : ni++;
+  for (let v = 0; v < t.nv; v++) if (used(v) && (!copy || copy[v] === v)) c.boundary[v] ? nb++ : ni++;
   // Gaussian and mean curvature are not defined at boundary vertices by these formulas
   for (let v = 0; v < t.nv; v++) {
     if (c.boundary[v]) {
@@ -78,6 +83,7 @@ export function curvatureSummary(s: Surface): CurvatureResult {
       totalBoundaryTurning: c.totalBoundaryTurning,
       eulerCharacteristic: chi,
       gaussBonnetResidual: gaussBonnetResidual(c, chi),
+      zeroAreaVertices: c.zeroAreaVertices,
     },
   };
 }

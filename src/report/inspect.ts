@@ -1,7 +1,20 @@
 /**
  * Mesh health summary: counts, topology, repairs, geometry and the
  * Gauss–Bonnet check. Everything here is plain data for JSON output; the keys
- * are documented in the README and kept stable.
+ * are documented in the README and kept stable (new keys are added, never
+ * renamed).
+ *
+ * Counts are those of the surface as given: duplicate faces are dropped
+ * before anything is counted, and a non-orientable surface is counted with its
+ * orientation seams glued (see `mesh/seams.ts`).
+ *
+ * Triangle quality, with h the mean edge length (the mesh scale):
+ * - zero-area: thickness 2A / ℓ_max (the height over the longest side) at
+ *   most {@link ZERO_THICKNESS}·h, exact zeros included; collinear corners,
+ *   coincident corners and whole meshes collapsed to a point land here;
+ * - cap: not zero-area, largest angle at least {@link CAP_ANGLE_DEG}°;
+ * - needle: not zero-area nor a cap, smallest angle at most {@link NEEDLE_ANGLE_DEG}°.
+ * Angle thresholds are scale-free; the zero-area one scales with h.
  */
 import type { Surface } from '../mesh/surface.js';
 import { components } from '../mesh/components.js';
@@ -9,7 +22,16 @@ import { boundaryLoops } from '../mesh/boundary.js';
 import { intrinsicFromPositions } from '../metric/intrinsic.js';
 import { cornerAngles, faceAreas } from '../metric/triangle.js';
 import { gaussianCurvature, gaussBonnetResidual } from '../metric/curvature.js';
-import type { NonManifoldEdge } from '../mesh/build.js';
+import type { NonManifoldEdge, DuplicateFace } from '../mesh/build.js';
+
+/** A triangle is zero-area when its thickness 2A/ℓ_max is at most this fraction of the mean edge length. */
+export const ZERO_THICKNESS = 1e-9;
+/** A triangle with a largest angle at least this (degrees) is a cap. */
+export const CAP_ANGLE_DEG = 160;
+/** A triangle with a smallest angle at most this (degrees) is a needle (unless it is a cap). */
+export const NEEDLE_ANGLE_DEG = 5;
+/** How many locations each list carries. */
+const LISTED = 1000;
 
 /** The `inspect` report (see README for each key). */
 export interface InspectReport {
@@ -27,6 +49,18 @@ export interface InspectReport {
   nonManifoldEdges: number;
   nonManifoldVertices: number;
   degenerateFacesDropped: number;
+  /** Faces dropped because an earlier face has the same vertex set. */
+  duplicateFacesDropped: number;
+  /** Triangles of zero area (see the module comment). */
+  zeroAreaTriangles: number;
+  /** Triangles with a largest angle ≥ {@link CAP_ANGLE_DEG}° (not zero-area). */
+  capTriangles: number;
+  /** Triangles with a smallest angle ≤ {@link NEEDLE_ANGLE_DEG}° (not zero-area, not caps). */
+  needleTriangles: number;
+  /** Edges of zero length (their two ends coincide). */
+  zeroLengthEdges: number;
+  /** Interior vertices whose area is zero: Gaussian curvature is not defined there. */
+  zeroAreaVertices: number;
   isolatedVertices: number;
   area: number;
   boundingBox: { min: [number, number, number]; max: [number, number, number] };
@@ -49,19 +83,53 @@ export interface InspectReport {
     nonManifoldEdges: NonManifoldEdge[];
     nonManifoldVertices: number[];
     degenerateFaces: number[];
+    /** Dropped duplicates: `face` repeats the vertex set of the earlier `of` (file faces, from 0). */
+    duplicateFaces: DuplicateFace[];
+    /** File faces (from 0) of the first zero-area, cap and needle triangles. */
+    zeroAreaTriangles: number[];
+    capTriangles: number[];
+    needleTriangles: number[];
   };
+}
+
+/** Problems as short phrases, in the order `inspect` prints them; empty for a healthy mesh. */
+export function inspectProblems(r: InspectReport): string[] {
+  const probs: string[] = [];
+  const first = (xs: number[]) => (xs.length ? ` (first: face ${xs[0]})` : '');
+  if (r.nonManifoldEdges) {
+    const e = r.locations.nonManifoldEdges[0]!;
+    probs.push(`${r.nonManifoldEdges} non-manifold edge(s) (first: vertices ${e.a}–${e.b}, faces ${e.faces.join(', ')})`);
+  }
+  if (r.nonManifoldVertices) probs.push(`${r.nonManifoldVertices} non-manifold vertex(es) (first: vertex ${r.locations.nonManifoldVertices[0]})`);
+  if (!r.orientable) probs.push('not orientable');
+  if (r.flippedFaces) probs.push(`${r.flippedFaces} face(s) had inconsistent orientation (re-oriented)`);
+  if (r.degenerateFacesDropped) probs.push(`${r.degenerateFacesDropped} degenerate face(s) dropped (first: face ${r.locations.degenerateFaces[0]})`);
+  if (r.duplicateFacesDropped) {
+    const d = r.locations.duplicateFaces[0]!;
+    probs.push(`${r.duplicateFacesDropped} duplicate face(s) dropped (first: face ${d.face} repeats face ${d.of})`);
+  }
+  if (r.triangles > 0 && r.zeroAreaTriangles === r.triangles) probs.push(`every triangle has zero area (the mesh has no extent: area ${r.area} units²)`);
+  else if (r.zeroAreaTriangles) probs.push(`${r.zeroAreaTriangles} zero-area triangle(s)${first(r.locations.zeroAreaTriangles)}`);
+  if (r.zeroLengthEdges) probs.push(`${r.zeroLengthEdges} zero-length edge(s) (coincident vertices)`);
+  if (r.capTriangles) probs.push(`${r.capTriangles} cap triangle(s) (an angle ≥ ${CAP_ANGLE_DEG}°)${first(r.locations.capTriangles)}`);
+  if (r.needleTriangles) probs.push(`${r.needleTriangles} needle triangle(s) (an angle ≤ ${NEEDLE_ANGLE_DEG}°)${first(r.locations.needleTriangles)}`);
+  if (r.zeroAreaVertices) probs.push(`${r.zeroAreaVertices} interior vertex(es) of zero area (Gaussian curvature undefined there)`);
+  if (r.isolatedVertices) probs.push(`${r.isolatedVertices} vertex(es) used by no face`);
+  return probs;
 }
 
 /** Computes the health summary of a surface. */
 export function inspectSurface(s: Surface): InspectReport {
   const t = s.topology;
-  const comps = components(t);
+  const seams = s.report.orientationSeams;
+  const comps = components(t, seams);
   const im = intrinsicFromPositions(t, s.positions);
   const ang = cornerAngles(im);
   const A = faceAreas(im);
-  const curv = gaussianCurvature(im);
+  const curv = gaussianCurvature(im, seams);
   const chi = comps.info.reduce((a, c) => a + c.eulerCharacteristic, 0);
   const orientable = s.report.nonOrientableComponents === 0;
+  const quality = triangleQuality(s, im.edgeLength, A, ang);
 
   let area = 0;
   for (let f = 0; f < t.nf; f++) area += A[f]!;
@@ -76,13 +144,17 @@ export function inspectSurface(s: Surface): InspectReport {
     }
     if (fo) obtuse++;
   }
-  let lmin = Infinity, lmax = 0, lsum = 0;
+  let lmin = Infinity, lmax = 0, lsum = 0, zeroLengthEdges = 0;
   for (let e = 0; e < t.ne; e++) {
     const l = im.edgeLength[e]!;
     if (l < lmin) lmin = l;
     if (l > lmax) lmax = l;
     lsum += l;
+    if (l === 0) zeroLengthEdges++;
   }
+  // seams are one edge of the surface as given, counted twice in the topology
+  const seamEdges = seams.length / 2;
+  const edges = t.ne - seamEdges;
   const min: [number, number, number] = [Infinity, Infinity, Infinity];
   const max: [number, number, number] = [-Infinity, -Infinity, -Infinity];
   const P = s.data.positions;
@@ -101,9 +173,9 @@ export function inspectSurface(s: Surface): InspectReport {
     vertices: s.data.positions.length / 3,
     faces: s.data.faceOffsets.length - 1,
     triangles: t.nf,
-    edges: t.ne,
+    edges,
     components: comps.count,
-    boundaryLoops: boundaryLoops(t).length,
+    boundaryLoops: seams.length ? comps.info.reduce((a, c) => a + c.boundaryLoops, 0) : boundaryLoops(t).length,
     eulerCharacteristic: chi,
     genus: genusOf(genusSum),
     orientable,
@@ -111,10 +183,16 @@ export function inspectSurface(s: Surface): InspectReport {
     nonManifoldEdges: s.report.nonManifoldEdgeCount,
     nonManifoldVertices: s.report.nonManifoldVertexCount,
     degenerateFacesDropped: s.report.degenerateFaces.length,
+    duplicateFacesDropped: s.report.duplicateFaceCount,
+    zeroAreaTriangles: quality.zero.length,
+    capTriangles: quality.cap.length,
+    needleTriangles: quality.needle.length,
+    zeroLengthEdges,
+    zeroAreaVertices: curv.zeroAreaVertices,
     isolatedVertices: s.report.isolatedVertices,
     area,
     boundingBox: { min, max },
-    edgeLength: { min: lmin, mean: t.ne ? lsum / t.ne : 0, max: lmax },
+    edgeLength: { min: t.ne ? lmin : 0, mean: t.ne ? lsum / t.ne : 0, max: lmax },
     minAngleDeg: minA * deg,
     maxAngleDeg: maxA * deg,
     obtuseFraction: t.nf ? obtuse / t.nf : 0,
@@ -125,7 +203,40 @@ export function inspectSurface(s: Surface): InspectReport {
     locations: {
       nonManifoldEdges: s.report.nonManifoldEdges,
       nonManifoldVertices: s.report.nonManifoldVertices,
-      degenerateFaces: s.report.degenerateFaces.slice(0, 1000),
+      degenerateFaces: s.report.degenerateFaces.slice(0, LISTED),
+      duplicateFaces: s.report.duplicateFaces.slice(0, LISTED),
+      zeroAreaTriangles: quality.zero.slice(0, LISTED),
+      capTriangles: quality.cap.slice(0, LISTED),
+      needleTriangles: quality.needle.slice(0, LISTED),
     },
   };
 }
+
+/** Zero-area, cap and needle triangles as file faces (see the module comment); lists hold every hit. */
+function triangleQuality(
+  s: Surface,
+  len: Float64Array,
+  area: Float64Array,
+  ang: Float64Array,
+): { zero: number[]; cap: number[]; needle: number[] } {
+  const t = s.topology;
+  let sum = 0;
+  for (let e = 0; e < len.length; e++) sum += len[e]!;
+  const h = len.length ? sum / len.length : 0;
+  const cap = (CAP_ANGLE_DEG * Math.PI) / 180, needle = (NEEDLE_ANGLE_DEG * Math.PI) / 180;
+  const out = { zero: [] as number[], cap: [] as number[], needle: [] as number[] };
+  for (let f = 0; f < t.nf; f++) {
+    const lmax = Math.max(len[t.edgeOf[3 * f]!]!, len[t.edgeOf[3 * f + 1]!]!, len[t.edgeOf[3 * f + 2]!]!);
+    const thickness = lmax > 0 ? (2 * area[f]!) / lmax : 0;
+    const face = s.facePolygon[f]!;
+    if (thickness <= ZERO_THICKNESS * h) {
+      out.zero.push(face);
+      continue;
+    }
+    const a0 = ang[3 * f]!, a1 = ang[3 * f + 1]!, a2 = ang[3 * f + 2]!;
+    if (Math.max(a0, a1, a2) >= cap) out.cap.push(face);
+    else if (Math.min(a0, a1, a2) <= needle) out.needle.push(face);
+  }
+  return out;
+}
+

@@ -3,7 +3,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { fc, test } from '@fast-check/vitest';
-import { triangleArea, angleOpposite, cotOpposite, cornerAngles, faceAreas, mixedVoronoiVertexAreas, barycentricVertexAreas } from '../../src/metric/triangle.js';
+import { triangleArea, angleOpposite, cotOpposite, cornerAngles, faceAreas, mixedVoronoiVertexAreas, barycentricVertexAreas, anglesOfSides } from '../../src/metric/triangle.js';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, intrinsicFromLengths } from '../../src/metric/intrinsic.js';
 import { flatGrid, icosphere } from '../fixtures/shapes.js';
@@ -27,6 +27,44 @@ describe('closed forms', () => {
       // small angle opposite ε: 2·asin(ε/2)
       expect(Math.abs(angleOpposite(eps, 1, 1) - 2 * Math.asin(eps / 2)) / eps).toBeLessThan(1e-12);
     }
+  });
+  it('needle: the two angles beside the short side keep their accuracy too (Kahan 2000, angle formula)', () => {
+    // isosceles 1, 1, ε: base angles (π − 2·asin(ε/2)) / 2 = π/2 − asin(ε/2) (elementary). The cosine
+    // rule gives b² + c² − a² = ε² + 1 − 1, which rounds to 0 for ε < 1e-8: a base angle of exactly π/2
+    for (const eps of [1e-6, 1e-9, 1e-12]) {
+      const base = Math.PI / 2 - Math.asin(eps / 2);
+      expect(Math.abs(angleOpposite(1, 1, eps) - base)).toBeLessThan(4e-16);
+      const out = new Float64Array(3);
+      anglesOfSides(1, eps, 1, out, 0);
+      expect(Math.abs(out[0]! + out[1]! + out[2]! - Math.PI)).toBeLessThan(4 * Number.EPSILON * Math.PI);
+    }
+  });
+  it('degenerate triangles: angles still sum to π (collinear {π,0,0}, spike {π/2,π/2,0}, point {π/3}×3)', () => {
+    // conventions documented in src/metric/triangle.ts; the sum π is what keeps discrete Gauss–Bonnet exact
+    const out = new Float64Array(3);
+    anglesOfSides(3, 1, 2, out, 0); // collinear corners: 3 = 1 + 2
+    expect(Array.from(out)).toEqual([Math.PI, 0, 0]);
+    anglesOfSides(1, 0, 1, out, 0); // two corners coincide: the limit of an isosceles triangle with a shrinking base
+    expect(Array.from(out)).toEqual([Math.PI / 2, 0, Math.PI / 2]);
+    anglesOfSides(0, 0, 0, out, 0); // three coincident corners
+    expect(Array.from(out)).toEqual([Math.PI / 3, Math.PI / 3, Math.PI / 3]);
+    anglesOfSides(1e-200, 1e-200, 1e-200, out, 0); // tiny equilateral: no underflow to a false degenerate
+    for (const x of out) expect(x).toBeCloseTo(Math.PI / 3, 15);
+    anglesOfSides(3e200, 4e200, 5e200, out, 0); // huge 3-4-5: no overflow
+    expect(out[2]!).toBeCloseTo(Math.PI / 2, 15);
+  });
+  test.prop([
+    fc.oneof(fc.constant(0), fc.double({ min: 1e-12, max: 100, noNaN: true })),
+    fc.oneof(fc.constant(0), fc.double({ min: 1e-12, max: 100, noNaN: true })),
+    fc.oneof(fc.constant(0), fc.double({ min: 1e-12, max: 100, noNaN: true })),
+  ])('property: for any lengths, the three angles lie in [0, π] and sum to π (Euclid; degenerate conventions above)', (a, b, c) => {
+    const out = new Float64Array(3);
+    anglesOfSides(a, b, c, out, 0);
+    for (const x of out) {
+      expect(x).toBeGreaterThanOrEqual(0);
+      expect(x).toBeLessThanOrEqual(Math.PI);
+    }
+    expect(Math.abs(out[0]! + out[1]! + out[2]! - Math.PI)).toBeLessThan(1e-14);
   });
   it('lengths that break the triangle inequality give area 0 and angles {π, 0, 0}, never NaN', () => {
     expect(triangleArea(1, 1, 3)).toBe(0);

@@ -9,7 +9,7 @@
  * - Cylinder: intrinsically flat (developable), two boundary circles, χ = 0.
  */
 import { describe, expect, it } from 'vitest';
-import { icosphere, cylinder, torus, flatGrid, terrain, transform } from '../fixtures/shapes.js';
+import { icosphere, cylinder, torus, flatGrid, terrain, transform, gridTriangles } from '../fixtures/shapes.js';
 import { genusTwoSlab } from '../fixtures/voxels.js';
 import { buildTopology } from '../../src/mesh/build.js';
 import { components } from '../../src/mesh/components.js';
@@ -99,5 +99,94 @@ describe('flat meshes (common practice: a planar triangulation has zero interior
     expect(chi).toBe(1);
     expect(Math.abs(gaussBonnetResidual(c, chi))).toBeLessThan(1e-9);
     expect(c.totalInteriorDefect).not.toBe(0);
+  });
+});
+
+describe('degenerate and sliver meshes (flat ⇒ K = 0; Gauss–Bonnet: Σ defects + Σ turning = 2πχ on any polyhedral surface)', () => {
+  it('flat strip of caps and needles (height 2e-9 over unit cells): every interior K and defect exactly 0', () => {
+    // the planar surface is flat, K = 0 (common practice); lengths of such caps cannot resolve their
+    // small angles, so the defect noise (~1e-8 rad over areas ~1e-9 gave |K| ≈ 13 before) is below the bound
+    for (const d of [1e-3, 1e-6, 1e-9]) {
+      const nx = 20, ny = 2;
+      const positions = new Float64Array(3 * (nx + 1) * (ny + 1));
+      for (let j = 0; j <= ny; j++) {
+        for (let i = 0; i <= nx; i++) {
+          const v = j * (nx + 1) + i;
+          positions[3 * v] = i + 0.37 * j; // sheared: every triangle is a needle or a cap
+          positions[3 * v + 1] = j * d;
+        }
+      }
+      const { c, chi } = analyse({ positions, triangles: gridTriangles(nx, ny) });
+      expect(chi).toBe(1);
+      let interior = 0;
+      for (let v = 0; v < c.angleDefect.length; v++) {
+        expect(Number.isFinite(c.gaussian[v]!)).toBe(true);
+        if (c.boundary[v]) continue;
+        interior++;
+        expect(c.gaussian[v]).toBe(0);
+        expect(c.angleDefect[v]).toBe(0);
+      }
+      expect(interior).toBe(nx - 1);
+      expect(Math.abs(gaussBonnetResidual(c, chi))).toBeLessThan(1e-9);
+    }
+  });
+  it('flat mesh with a collinear (zero-area) triangle under a T-junction: raw interior defects 0, Gauss–Bonnet exact', () => {
+    // square 0..2 × 0..1 fanned from (1, 0.5); the bottom side carries the midpoint 1 = (1, 0) and the
+    // collinear triangle 1-0-2 closes it, so vertex 1 is interior with angles θ + θ' + π = 2π (flat: defect 0)
+    const positions = Float64Array.from([0, 0, 0, 1, 0, 0, 2, 0, 0, 0, 1, 0, 2, 1, 0, 1, 0.5, 0]);
+    const triangles = Uint32Array.from([0, 1, 5, 1, 2, 5, 2, 4, 5, 4, 3, 5, 3, 0, 5, 1, 0, 2]);
+    const { c, chi } = analyse({ positions, triangles });
+    expect(chi).toBe(1);
+    expect(c.boundary[1]).toBe(0);
+    expect(c.boundary[5]).toBe(0);
+    expect(Math.abs(c.totalInteriorDefect)).toBeLessThan(1e-15); // unrounded defects of vertices 1 and 5
+    expect(c.gaussian[1]).toBe(0);
+    expect(c.gaussian[5]).toBe(0);
+    expect(Math.abs(c.totalBoundaryTurning - 2 * Math.PI)).toBeLessThan(1e-12); // a disc: 2πχ = 2π
+  });
+  it('every vertex at one point: no NaN, K = 0 with every interior vertex counted as zero-area, Gauss–Bonnet residual 0', () => {
+    // a collapsed sphere keeps χ = 2; with angles of π/3 (the documented convention) Σ defects =
+    // 2πV − πF = 2πχ exactly (Descartes), where the old angles (all 0) left a residual of 2π·(V − 2)
+    const s = icosphere(1);
+    const positions = new Float64Array(s.positions.length).fill(0.25);
+    const { c, chi, t } = analyse({ positions, triangles: s.triangles });
+    expect(chi).toBe(2);
+    expect(c.zeroAreaVertices).toBe(t.nv);
+    for (let v = 0; v < t.nv; v++) expect(c.gaussian[v]).toBe(0);
+    expect(Math.abs(gaussBonnetResidual(c, chi))).toBeLessThan(1e-12);
+  });
+  it('Möbius strip in space: defects and turning sum to 2πχ = 0 on the surface as given (seams glued)', () => {
+    // χ(Möbius strip) = 0 (standard topology); the combinatorial Gauss–Bonnet identity holds on any
+    // triangulated surface, orientable or not
+    const n = 48, w = 3, R = 3, positions = new Float64Array(3 * n * (w + 1)), tri: number[] = [];
+    const id = (i: number, j: number) => (i % n) * (w + 1) + j;
+    for (let i = 0; i < n; i++) {
+      const u = (2 * Math.PI * i) / n;
+      for (let j = 0; j <= w; j++) {
+        const s = j / w - 0.5; // across the band; half a turn of the band per loop
+        const r = R + s * Math.cos(u / 2);
+        positions.set([r * Math.cos(u), r * Math.sin(u), s * Math.sin(u / 2)], 3 * id(i, j));
+      }
+    }
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < w; j++) {
+        const a = id(i, j), b = id(i, j + 1);
+        const c = i < n - 1 ? id(i + 1, j) : id(0, w - j), d = i < n - 1 ? id(i + 1, j + 1) : id(0, w - j - 1);
+        tri.push(a, c, b, b, c, d);
+      }
+    }
+    const { topology: t, report } = buildTopology(tri, n * (w + 1));
+    expect(report.nonOrientableComponents).toBe(1);
+    const im = intrinsicFromPositions(t, new Float64Array(Array.from(t.vertexOrigin).flatMap((o) => [positions[3 * o]!, positions[3 * o + 1]!, positions[3 * o + 2]!])));
+    const c = gaussianCurvature(im, report.orientationSeams);
+    const chi = components(t, report.orientationSeams).info.reduce((a, x) => a + x.eulerCharacteristic, 0);
+    expect(chi).toBe(0);
+    expect(Math.abs(gaussBonnetResidual(c, chi))).toBeLessThan(1e-9);
+    // counted on the cut topology instead (a disc, χ = 1) the identity holds too, with 2π more:
+    // the seam's copies of interior vertices become boundary vertices there
+    const cut = gaussianCurvature(im);
+    const chiCut = components(t).info.reduce((a, x) => a + x.eulerCharacteristic, 0);
+    expect(chiCut).toBe(1);
+    expect(Math.abs(gaussBonnetResidual(cut, chiCut))).toBeLessThan(1e-9);
   });
 });
