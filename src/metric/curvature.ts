@@ -136,12 +136,17 @@ export function gaussianCurvature(m: IntrinsicMesh, seams?: Int32Array): Curvatu
  * @param positions - x, y, z per topology vertex
  * @param vertexArea - mixed-Voronoi areas (from {@link gaussianCurvature})
  * @param boundary - boundary mask (from {@link gaussianCurvature})
+ * @param seams - orientation seams, as for {@link gaussianCurvature}: the
+ *   copies of a vertex pool their Laplacian and normal (the normal of a copy
+ *   across a seam is turned to agree with its class's), so every copy gets the
+ *   value of the whole vertex; its sign is only local on such a surface
  */
 export function meanCurvature(
   m: IntrinsicMesh,
   positions: Float64Array,
   vertexArea: Float64Array,
   boundary: Uint8Array,
+  seams?: Int32Array,
 ): Float64Array {
   const t: Topology = m.topology;
   const cot = halfedgeCotans(m);
@@ -168,8 +173,23 @@ export function meanCurvature(
       nrm[v + 2]! += nz;
     }
   }
+  const rep = seams && seams.length > 0 ? glueSeams(t, seams).rep : null;
+  if (rep) {
+    for (let v = 0; v < t.nv; v++) {
+      const r = rep[v]!;
+      if (r === v) continue;
+      let dot = 0;
+      for (let d = 0; d < 3; d++) dot += nrm[3 * r + d]! * nrm[3 * v + d]!;
+      const sign = dot < 0 ? -1 : 1;
+      for (let d = 0; d < 3; d++) {
+        lap[3 * r + d]! += lap[3 * v + d]!;
+        nrm[3 * r + d]! += sign * nrm[3 * v + d]!;
+      }
+    }
+  }
   const H = new Float64Array(t.nv);
   for (let v = 0; v < t.nv; v++) {
+    if (rep && rep[v] !== v) continue;
     const A = vertexArea[v]!;
     if (boundary[v] || !(A > 0)) continue;
     const nl = Math.hypot(nrm[3 * v]!, nrm[3 * v + 1]!, nrm[3 * v + 2]!);
@@ -180,6 +200,7 @@ export function meanCurvature(
     const h = dot / (4 * A * nl);
     H[v] = Number.isFinite(h) ? h : 0;
   }
+  if (rep) for (let v = 0; v < t.nv; v++) H[v] = H[rep[v]!]!;
   return H;
 }
 

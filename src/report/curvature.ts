@@ -56,7 +56,7 @@ export function curvatureSummary(s: Surface): CurvatureResult {
   const im = intrinsicFromPositions(t, s.positions);
   const seams = s.report.orientationSeams;
   const c = gaussianCurvature(im, seams);
-  const H = meanCurvature(im, s.positions, c.vertexArea, c.boundary);
+  const H = meanCurvature(im, s.positions, c.vertexArea, c.boundary, seams);
   const chi = components(t, seams).info.reduce((a, x) => a + x.eulerCharacteristic, 0);
   const copy = seams.length > 0 ? glueSeams(t, seams).rep : null;
   const used = (v: number) => t.vertexHalfedge[v]! >= 0;

@@ -189,4 +189,48 @@ describe('degenerate and sliver meshes (flat ⇒ K = 0; Gauss–Bonnet: Σ defec
     expect(chiCut).toBe(1);
     expect(Math.abs(gaussBonnetResidual(cut, chiCut))).toBeLessThan(1e-9);
   });
+  it('Möbius strip: |H| and K at each vertex do not depend on where the orientation seam falls', () => {
+    // curvature is a property of the surface (do Carmo 1976), not of the cut that gives it half-edges:
+    // listing the faces from another start moves the breadth-first seam elsewhere
+    const n = 40, w = 2, positions = new Float64Array(3 * n * (w + 1)), tri: number[] = [];
+    const id = (i: number, j: number) => (i % n) * (w + 1) + j;
+    for (let i = 0; i < n; i++) {
+      const u = (2 * Math.PI * i) / n;
+      for (let j = 0; j <= w; j++) {
+        const s = j / w - 0.5, r = 3 + s * Math.cos(u / 2);
+        positions.set([r * Math.cos(u), r * Math.sin(u), s * Math.sin(u / 2)], 3 * id(i, j));
+      }
+    }
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < w; j++) {
+        const a = id(i, j), b = id(i, j + 1);
+        const c = i < n - 1 ? id(i + 1, j) : id(0, w - j), d = i < n - 1 ? id(i + 1, j + 1) : id(0, w - j - 1);
+        tri.push(a, c, b, b, c, d);
+      }
+    }
+    const nf = tri.length / 3;
+    const perVertex = (faces: number[], firstFace: number) => {
+      const { topology: t, report } = buildTopology(faces, n * (w + 1));
+      const pos = new Float64Array(Array.from(t.vertexOrigin).flatMap((o) => [positions[3 * o]!, positions[3 * o + 1]!, positions[3 * o + 2]!]));
+      const im = intrinsicFromPositions(t, pos);
+      const c = gaussianCurvature(im, report.orientationSeams);
+      const H = meanCurvature(im, pos, c.vertexArea, c.boundary, report.orientationSeams);
+      const K = new Float64Array(n * (w + 1)), absH = new Float64Array(n * (w + 1));
+      for (let v = 0; v < t.nv; v++) {
+        K[t.vertexOrigin[v]!] = c.gaussian[v]!;
+        absH[t.vertexOrigin[v]!] = Math.abs(H[v]!);
+      }
+      const original = (h: number) => (t.faceOrigin[(h / 3) | 0]! + firstFace) % nf; // face index in `tri`
+      return { K, absH, seamFaces: new Set(Array.from(report.orientationSeams, original)) };
+    };
+    const a = perVertex(tri, 0);
+    const shift = 3 * w * 2 * (n / 2); // start the list half-way round the band
+    const b = perVertex([...tri.slice(shift), ...tri.slice(0, shift)], shift / 3);
+    expect(a.seamFaces.size).toBeGreaterThan(0);
+    expect([...a.seamFaces].some((f) => b.seamFaces.has(f))).toBe(false); // the seams lie apart
+    for (let v = 0; v < n * (w + 1); v++) {
+      expect(Math.abs(a.K[v]! - b.K[v]!)).toBeLessThan(1e-9);
+      expect(Math.abs(a.absH[v]! - b.absH[v]!)).toBeLessThan(1e-9);
+    }
+  });
 });
