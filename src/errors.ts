@@ -74,6 +74,15 @@ export function limitError(detail: string, location?: string): OrthodromeError {
   return new OrthodromeError('LIMIT', detail, location);
 }
 
+/** A byte count for limit messages: `1 GiB`, `512 MiB`, `1.5 KiB`, `900 bytes` (powers of 1024). */
+export function formatBytes(n: number): string {
+  if (!Number.isFinite(n)) return String(n);
+  const units = ['bytes', 'KiB', 'MiB', 'GiB', 'TiB'];
+  let u = 0, x = n;
+  while (x >= 1024 && u < units.length - 1) { x /= 1024; u++; }
+  return u === 0 ? `${Math.round(n)} bytes` : `${Number(x.toPrecision(4))} ${units[u]}`;
+}
+
 /** True when `e` is an {@link OrthodromeError}. */
 export function isOrthodromeError(e: unknown): e is OrthodromeError {
   return e instanceof OrthodromeError;

@@ -32,6 +32,8 @@ export interface DistanceOptions {
   heat?: HeatOptions;
   /** Stop at this distance (methods `exact` and `graph`); farther vertices are Infinity. */
   maxDistance?: number;
+  /** Memory budget of each exact solve, bytes (method `exact`; default 2 GiB): a run that would exceed it throws `LIMIT`. */
+  memoryBudget?: number;
 }
 
 /** Options of one solve. */
@@ -55,6 +57,8 @@ export interface DistanceResult {
   solveMs: number;
   /** False when the method stopped early (targets settled or maxDistance reached). */
   complete: boolean;
+  /** Why an incomplete exact solve stopped (`targets` settled, or `maxDistance`); absent or null otherwise. */
+  stoppedBy?: 'targets' | 'maxDistance' | null;
   /** Method-specific figures (windows, faces touched, …). */
   details: Record<string, number | boolean | string>;
 }
@@ -167,6 +171,7 @@ function prepareMethod(mesh: IntrinsicMesh, method: DistanceMethod, opts: Distan
       const r = exactDistance(mesh, sources, {
         geometry,
         ...(opts.maxDistance !== undefined ? { maxDistance: opts.maxDistance } : {}),
+        ...(opts.memoryBudget !== undefined ? { memoryBudget: opts.memoryBudget } : {}),
         ...(early ? { targets: so.targets } : {}),
       });
       return {
@@ -174,7 +179,8 @@ function prepareMethod(mesh: IntrinsicMesh, method: DistanceMethod, opts: Distan
         at: (p) => r.distanceAt(p),
         solveMs: performance.now() - t0,
         complete: r.complete,
-        details: { windows: r.windows, facesTouched: r.facesTouched, faceFraction: t.nf ? r.facesTouched / t.nf : 0 },
+        stoppedBy: r.stoppedBy,
+        details: { windows: r.windows, facesTouched: r.facesTouched, faceFraction: t.nf ? r.facesTouched / t.nf : 0, memoryBytes: r.peakBytes },
       };
     },
   };

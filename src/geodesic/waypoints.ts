@@ -31,8 +31,9 @@ export interface WaypointPath {
  * path (its stops lie on different components) the result is "unreachable":
  * `length` is Infinity, `path` is empty (legs are never joined across a
  * gap), and `legs` tells which leg failed (its length is Infinity).
+ * `opts.memoryBudget` bounds each leg's exact run (bytes; see ExactOptions).
  */
-export function shortestPathThrough(mesh: IntrinsicMesh, stops0: SurfacePoint[]): WaypointPath {
+export function shortestPathThrough(mesh: IntrinsicMesh, stops0: SurfacePoint[], opts: { memoryBudget?: number } = {}): WaypointPath {
   const stops = stops0.map((p, i) => checkSurfacePoint(p, mesh.topology, `stop ${i}`));
   const legs: { path: SurfacePath; length: number }[] = [];
   const points: SurfacePoint[] = [];
@@ -40,7 +41,7 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops0: SurfacePoint[])
   const geometry = stops.length > 1 ? prepareExactGeometry(mesh) : undefined;
   for (let i = 0; i + 1 < stops.length; i++) {
     const a = stops[i]!, b = stops[i + 1]!;
-    const r = exactDistance(mesh, { points: [a], curves: [] }, { targets: [b], geometry });
+    const r = exactDistance(mesh, { points: [a], curves: [] }, { targets: [b], geometry, ...(opts.memoryBudget !== undefined ? { memoryBudget: opts.memoryBudget } : {}) });
     const reached = Number.isFinite(r.distanceAt(b));
     const p: SurfacePath = reached ? r.pathTo(b) : { points: [], length: Infinity };
     legs.push({ path: p, length: p.length });

@@ -103,6 +103,16 @@ export class BucketQueue {
     return this.head.byteLength + this.tail.byteLength + this.next.byteLength + this.ids.byteLength;
   }
 
+  /**
+   * Bytes of the queue arrays written so far: the pool is reserved ahead as
+   * zero pages the system maps only when written, and entries are taken in
+   * order, so only the first `used` entries cost memory (the memory budget
+   * counts these).
+   */
+  get touchedBytes(): number {
+    return this.head.byteLength + this.tail.byteLength + 8 * this.used;
+  }
+
   private growBuckets(min: number): void {
     const c = Math.min(Math.max(min, 2 * this.head.length), MAX_BUCKETS);
     const h = new Int32Array(c).fill(-1), t = new Int32Array(c).fill(-1);

@@ -41,6 +41,15 @@
  * The solver reads edge lengths only (faces laid out in the plane from
  * their three lengths), so any intrinsic metric works.
  *
+ * Memory. Windows are the run's memory (54 bytes each, 11–66 per face
+ * measured on terrains). The store grows on demand within a memory budget
+ * (`memoryBudget`, bytes; budget.ts); a whole-mesh run projects its size
+ * from its first part and refuses early when it will not fit. Either way
+ * the run ends with a `LIMIT` error naming the budget and the option, never
+ * with the process running out of memory. Typed arrays live outside the JS
+ * heap, so V8's heap limit does not bound the budget (checked: a run
+ * storing 300 MB of windows passes under --max-old-space-size=40).
+ *
  * Sources: vertices; points on edges and in faces (their faces' edges get
  * windows, their faces' corners straight distances); curves, as the union
  * of their points and straight segments (planar fronts, see planar.ts and
@@ -51,7 +60,7 @@ import type { SurfacePoint } from '../../query/surface-point.js';
 import { checkSurfacePoint } from '../../query/surface-point.js';
 import type { DistanceField, SurfacePath } from '../field.js';
 import type { SourceSet } from '../sources.js';
-import { limitError, usageError } from '../../errors.js';
+import { formatBytes, limitError, usageError } from '../../errors.js';
 import { facesOfPoint } from './layout.js';
 import { createState } from './state.js';
 import { prepareExactGeometry } from './geometry.js';
@@ -66,6 +75,9 @@ import { tracePath } from './backtrace.js';
 import { pathLength } from '../path.js';
 import { windowUsage } from './usage.js';
 import type { WindowUsage } from './usage.js';
+import { DEFAULT_MEMORY_BUDGET } from './budget.js';
+
+export { DEFAULT_MEMORY_BUDGET } from './budget.js';
 
 /** Options of {@link exactDistance}. */
 export interface ExactOptions {
@@ -73,7 +85,13 @@ export interface ExactOptions {
   maxDistance?: number;
   /** Stop as soon as every target's distance is final (a two-point query). */
   targets?: SurfacePoint[];
-  /** Guard on the number of windows (default 64 per face, at least 200 000, at most 24 million: about 1.9 GB peak). */
+  /**
+   * Memory budget of the run in bytes (default {@link DEFAULT_MEMORY_BUDGET}, 2 GiB; Infinity
+   * for none): the solver's arrays, windows (54 bytes each) and queues. A run that reaches it,
+   * or is projected to, throws a `LIMIT` error.
+   */
+  memoryBudget?: number;
+  /** Optional cap on the number of windows (default none: the memory budget bounds the run). */
   maxWindows?: number;
   /**
    * The mesh's source-independent data from {@link prepareExactGeometry}, reused across runs on
@@ -92,6 +110,13 @@ export interface ExactResult {
   facesTouched: number;
   /** False when the run stopped early (maxDistance or targets). */
   complete: boolean;
+  /**
+   * Why an incomplete run stopped: `targets` (every target was final) or `maxDistance`
+   * (something lay farther); null for a complete run.
+   */
+  stoppedBy: 'targets' | 'maxDistance' | null;
+  /** Bytes the run accounted against its memory budget at its largest. */
+  peakBytes: number;
   /** Exact distance at any surface point (Infinity when unreachable or beyond where the run stopped). */
   distanceAt(p: SurfacePoint): number;
   /** An exact shortest path from the sources to p; empty with length Infinity when p was not reached. */
@@ -100,40 +125,51 @@ export interface ExactResult {
   windowUsage(samples?: number): WindowUsage;
 }
 
-/** Default window cap for a mesh of nf faces. */
-export function defaultMaxWindows(nf: number): number {
-  return Math.min(Math.max(200_000, 64 * nf), 24_000_000);
+/** Windows reserved up front by a whole-mesh run on nf faces (64 per face covers most meshes; more grows the store). */
+function wholeMeshReservation(nf: number): number {
+  return Math.max(200_000, 64 * nf);
 }
 
 /**
  * Exact geodesic distance from a source set on an intrinsic mesh.
- * Throws USAGE for bad sources or options and LIMIT when the window cap trips.
+ * Throws USAGE for bad sources or options and LIMIT when the memory budget
+ * (or an explicit window cap) does not hold the run.
  */
 export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: ExactOptions = {}): ExactResult {
   const t = mesh.topology;
   const maxD = opts.maxDistance ?? Infinity;
   if (!(maxD >= 0)) throw usageError(`maxDistance must be a non-negative number, got ${opts.maxDistance}`);
-  const maxW = opts.maxWindows ?? defaultMaxWindows(t.nf);
+  const maxW = opts.maxWindows ?? Infinity;
   if (!(maxW >= 1)) throw usageError(`maxWindows must be a positive number, got ${opts.maxWindows}`);
+  const budget = opts.memoryBudget ?? DEFAULT_MEMORY_BUDGET;
+  if (!(budget > 0)) throw usageError(`memoryBudget must be a positive number of bytes, got ${opts.memoryBudget}`);
   sources.points.forEach((p) => checkSurfacePoint(p, t, 'source'));
   sources.curves.forEach((c, i) => c.forEach((p) => checkSurfacePoint(p, t, `curve ${i}`)));
   const targets = (opts.targets ?? []).map((p) => checkSurfacePoint(p, t, 'target'));
   if (opts.geometry && opts.geometry.mesh !== mesh) throw usageError('geometry was prepared for another mesh');
   const geometry = opts.geometry ?? prepareExactGeometry(mesh);
 
-  // a whole-mesh run reserves the cap at once: large typed arrays are zero pages mapped lazily, so
-  // only the windows made cost memory, and doubling (copying, touching every copied page) is
-  // avoided. A run that stops early (targets, maxDistance) starts small and doubles: it makes few
-  // windows, and a huge reservation per query costs more than it saves (measured: a two-point
-  // query on 20k faces took 3x longer). Where the reservation is refused (a browser tab's
-  // limit), start small too.
+  // a whole-mesh run reserves 64 windows per face at once (within the budget): large typed arrays
+  // are zero pages mapped lazily, so only the windows made cost memory, and doubling (copying,
+  // touching every copied page) is avoided on most meshes; rough terrain needs more and grows. A
+  // run that stops early (targets, maxDistance) starts small and doubles: it makes few windows,
+  // and a huge reservation per query costs more than it saves (measured: a two-point query on
+  // 20k faces took 3x longer). Where the reservation is refused (a browser tab's limit), start
+  // small too. Only whole-mesh runs project their size (budget.ts): an early stop's extent is
+  // unknown.
   const small = Math.min(maxW, 65536);
+  const whole = targets.length === 0 && maxD === Infinity;
   let s: ExactState;
   try {
-    s = createState(mesh, maxD, maxW, targets.length || maxD < Infinity ? small : maxW, geometry);
+    s = createState(mesh, maxD, maxW, whole ? Math.min(maxW, wholeMeshReservation(t.nf)) : small, geometry, budget, whole);
   } catch (e) {
     if (!(e instanceof RangeError)) throw e;
-    s = createState(mesh, maxD, maxW, small, geometry);
+    try {
+      s = createState(mesh, maxD, maxW, small, geometry, budget, whole);
+    } catch (e2) {
+      if (!(e2 instanceof RangeError)) throw e2;
+      throw limitError(`exact geodesics: the system refused memory for the run's arrays (mesh of ${t.nf} faces); free memory or use the heat method (--method heat)`);
+    }
   }
   markPseudoSources(s);
   const all = seedSources(s, sources);
@@ -166,12 +202,7 @@ export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: Exa
     };
   }
   const stopKey = runEvents(s, stop);
-  if (s.overflow) {
-    throw limitError(
-      `exact geodesics: the window cap of ${maxW} was reached (mesh of ${t.nf} faces); ` +
-        'raise maxWindows, set maxDistance, or use the heat or graph method',
-    );
-  }
+  if (s.overflow) throw overflowError(s);
   const reach = Math.min(stopKey, maxD);
   const distance = new Float64Array(t.nv);
   for (let v = 0; v < t.nv; v++) distance[v] = s.dist[v]! <= reach ? s.dist[v]! : Infinity;
@@ -182,6 +213,9 @@ export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: Exa
     windows: s.win.count,
     facesTouched: countTouched(s),
     complete: stopKey === Infinity && !s.capped,
+    // runEvents returns a key ≤ maxDistance only when stop() fired (an overflow threw above)
+    stoppedBy: stopKey < Infinity && stopKey <= maxD ? 'targets' : stopKey < Infinity || s.capped ? 'maxDistance' : null,
+    peakBytes: Math.max(s.win.budget.peakBytes, s.win.budget.total(s.win.count)),
     distanceAt(p) {
       checkSurfacePoint(p, t, 'point');
       const v = best(p).value;
@@ -196,6 +230,38 @@ export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: Exa
     },
     windowUsage: (samples) => windowUsage(s, samples),
   };
+}
+
+/** The LIMIT error for a run whose window store ran out of room, by what refused it. */
+function overflowError(s: ExactState): Error {
+  const b = s.win.budget, nf = s.t.nf;
+  const where = `${s.win.count} windows stored on ${s.win.touchedFaces()} of ${nf} faces`;
+  const advice = 'set a maximum distance (maxDistance, --max-distance) if only nearby distances are needed, or use the heat method (--method heat) for whole fields';
+  switch (b.tripped) {
+    case 'windows':
+      return limitError(`exact geodesics: the window cap of ${b.maxWindows} (maxWindows) was reached (${where}); raise maxWindows, or ${advice}`);
+    case 'estimate':
+      return limitError(
+        `exact geodesics: this run would need about ${formatBytes(b.neededBytes)} (about ${(b.projectedWindows / 1e6).toPrecision(3)} million windows, estimated after ` +
+          `${Math.round(100 * b.touchedShare)}% of the faces), more than the memory budget of ${formatBytes(b.limit)}; ` +
+          `raise the budget (memoryBudget, --memory-budget), or ${advice}`,
+      );
+    case 'allocation':
+      return limitError(
+        `exact geodesics: the system refused ${formatBytes(b.neededBytes)} for the window store (${where}) within the memory budget of ` +
+          `${formatBytes(b.limit)}; free memory or lower the budget (memoryBudget, --memory-budget) so the run stops cleanly, or ${advice}`,
+      );
+    default:
+      if (b.total(0) > b.limit) {
+        return limitError(
+          `exact geodesics: the memory budget of ${formatBytes(b.limit)} is less than the mesh alone needs (${formatBytes(b.total(0))} ` +
+            `for ${nf} faces, before any window); raise the budget (memoryBudget, --memory-budget), or use the heat method (--method heat) for whole fields`,
+        );
+      }
+      return limitError(
+        `exact geodesics: the memory budget of ${formatBytes(b.limit)} was reached (${where}); raise the budget (memoryBudget, --memory-budget), or ${advice}`,
+      );
+  }
 }
 
 function countTouched(s: ExactState): number {

@@ -158,8 +158,8 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     s.capped = true;
     return -1;
   }
-  if (W.count >= s.maxWindows) {
-    s.overflow = true;
+  if (W.count >= W.room && !W.makeRoom()) {
+    s.overflow = true; // the budget, the window cap or the allocator refused (W.budget.tripped says which)
     return -1;
   }
   // a queued window on this half-edge with the same image and σ that touches N: grow it instead
@@ -293,7 +293,8 @@ export function settleVertex(s: ExactState, v: number): void {
 /**
  * Runs the event loop until both queues are empty, the next key passes
  * `maxDistance`, `stop(key)` returns true (checked every 32 events) or the
- * window cap trips. Returns the key at which it stopped (Infinity when the
+ * window store has no more room (`s.overflow`: the memory budget, the window
+ * cap or the allocator refused). Returns the key at which it stopped (Infinity when the
  * queues ran dry): every vertex bound ≤ that key is exact.
  *
  * A vertex is settled only when its key is at most the window queue's

@@ -9,6 +9,7 @@ import { prepareExactGeometry } from './geometry.js';
 import { WindowStore } from './windows.js';
 import { EventQueue } from './queue.js';
 import { BucketQueue } from './bucket-queue.js';
+import { RunBudget } from './budget.js';
 
 /** How a vertex's distance bound was reached (`viaType`); see each constant. */
 export type Via = 0 | 1 | 2 | 3 | 4;
@@ -77,9 +78,9 @@ export interface ExactState {
   pointRoots: PointRoot[];
   /** Windows beyond this key are not stored. */
   readonly maxDistance: number;
-  /** Window cap. */
+  /** Explicit window cap (Infinity when none; the memory budget is in `win.budget`). */
   readonly maxWindows: number;
-  /** Set when the window cap tripped. */
+  /** Set when the store had no more room (why: `win.budget.tripped`). */
   overflow: boolean;
   /** Set when something was left out for lying beyond maxDistance. */
   capped: boolean;
@@ -95,12 +96,20 @@ export interface ExactState {
 
 /**
  * Allocates the state of one run; `capacity` is the initial window
- * capacity. `geometry` must have been made for `mesh` (made here when absent).
+ * capacity reserved, `maxWindows` an explicit window cap (Infinity for
+ * none). `geometry` must have been made for `mesh` (made here when absent).
+ * `memoryBudget` (bytes, default none) bounds the run's arrays (budget.ts);
+ * `estimate` lets the budget refuse early a run projected not to fit (only
+ * for runs that cover every reachable face).
  */
-export function createState(mesh: IntrinsicMesh, maxDistance: number, maxWindows: number, capacity: number, geometry = prepareExactGeometry(mesh)): ExactState {
+export function createState(
+  mesh: IntrinsicMesh, maxDistance: number, maxWindows: number, capacity: number,
+  geometry = prepareExactGeometry(mesh), memoryBudget = Infinity, estimate = false,
+): ExactState {
   const t = mesh.topology;
   const { hl, hc } = geometry;
-  return {
+  const budget = new RunBudget(memoryBudget, maxWindows, estimate);
+  const s: ExactState = {
     mesh, t, geometry, hl, hc,
     dist: new Float64Array(t.nv).fill(Infinity),
     viaType: new Uint8Array(t.nv),
@@ -108,7 +117,7 @@ export function createState(mesh: IntrinsicMesh, maxDistance: number, maxWindows
     settled: new Uint8Array(t.nv),
     pseudo: new Uint8Array(t.nv),
     angle: new Float64Array(0),
-    win: new WindowStore(t.nf, capacity, maxWindows),
+    win: new WindowStore(t, capacity, budget),
     queue: new EventQueue(Math.min(capacity, t.nv + 1024)),
     wq: new BucketQueue(geometry.bucketWidth, capacity),
     rootVertex: new Int32Array(64),
@@ -122,6 +131,11 @@ export function createState(mesh: IntrinsicMesh, maxDistance: number, maxWindows
     prune: true,
     wedge: true,
   };
+  // per-vertex arrays of this run (dist, viaType, viaId, settled, pseudo) and the shared geometry
+  const g = geometry;
+  budget.fixedBytes = 15 * t.nv + s.win.fixedBytes + g.hl.byteLength + g.hc.byteLength + g.angle.byteLength + g.saddle.byteLength;
+  budget.queueBytes = () => s.queue.bytes + s.wq.touchedBytes;
+  return s;
 }
 
 /** Registers a root and returns its id. */

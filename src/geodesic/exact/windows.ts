@@ -26,10 +26,21 @@
  * half-edge keeps a singly linked list (`heHead`, `nextOnHe`) of the live
  * windows lying on it (a window is unlinked when it dies), in increasing b0
  * when the run prunes (the order lets a scan stop early; see addWindow).
+ *
+ * Room. The store holds at most `room` windows before it asks the run's
+ * budget for more (budget.ts): `add` requires `count < room`, and the caller
+ * calls `makeRoom()` when the store is full. Arrays are reserved ahead and
+ * grow by doubling when the budget allows the copy; a refused allocation
+ * (RangeError) is reported as such, never thrown mid-run.
  */
+import type { Topology } from '../../mesh/topology.js';
+import { RunBudget, WINDOW_BYTES } from './budget.js';
+
 export class WindowStore {
   /** Number of windows stored. */
   count = 0;
+  /** `add` may be called while count < room; past it, call {@link makeRoom}. */
+  room: number;
   /** Half-edge each window lies on. */
   he: Int32Array;
   /** Interval start along the half-edge, from its tail. */
@@ -52,17 +63,23 @@ export class WindowStore {
   flat: Uint8Array;
   /** First window on each half-edge, −1 when none. */
   readonly heHead: Int32Array;
-
-  private readonly maxCapacity: number;
+  /** 1 for each face that has held a window (up to date after {@link touchedFaces}). */
+  readonly faceSeen: Uint8Array;
+  private faces = 0;
+  private scanned = 0;
+  /** The run's memory budget. */
+  readonly budget: RunBudget;
+  private readonly t: Topology;
 
   /**
-   * @param nf - number of faces
-   * @param capacity - initial capacity (grows by doubling)
-   * @param maxCapacity - growth never goes past this (the run's window cap)
+   * @param t - the mesh's topology
+   * @param capacity - initial capacity reserved (grows by doubling as the budget allows)
+   * @param budget - the run's budget (default: none)
    */
-  constructor(nf: number, capacity: number, maxCapacity = Infinity) {
-    const c = Math.max(64, Math.min(capacity, maxCapacity));
-    this.maxCapacity = Math.max(c, maxCapacity);
+  constructor(t: Topology, capacity: number, budget = new RunBudget(Infinity)) {
+    this.t = t;
+    this.budget = budget;
+    const c = Math.max(64, Math.min(capacity, budget.maxWindows, Math.floor(budget.limit / WINDOW_BYTES)));
     this.he = new Int32Array(c);
     this.b0 = new Float64Array(c);
     this.b1 = new Float64Array(c);
@@ -73,12 +90,13 @@ export class WindowStore {
     this.nextOnHe = new Int32Array(c);
     this.state = new Uint8Array(c);
     this.flat = new Uint8Array(c);
-    this.heHead = new Int32Array(3 * nf).fill(-1);
+    this.heHead = new Int32Array(3 * t.nf).fill(-1);
+    this.faceSeen = new Uint8Array(t.nf);
+    this.room = 0; // the first add asks the budget (the state's fixed bytes are known by then)
   }
 
-  /** Stores a window and returns its id; it is linked after window `after` on its half-edge (−1: at the head). */
+  /** Stores a window (requires count < room) and returns its id; it is linked after window `after` on its half-edge (−1: at the head). */
   add(he: number, b0: number, b1: number, sx: number, sy: number, sigma: number, parent: number, flat = 0, after = -1): number {
-    if (this.count === this.he.length) this.grow();
     const w = this.count++;
     this.he[w] = he; this.b0[w] = b0; this.b1[w] = b1;
     this.sx[w] = sx; this.sy[w] = sy; this.sigma[w] = sigma; this.parent[w] = parent;
@@ -94,18 +112,67 @@ export class WindowStore {
     return w;
   }
 
-  /** Bytes held by the window arrays. */
-  get bytes(): number {
-    return this.he.length * 54 + this.heHead.byteLength;
+  /** Number of faces that have held a window (brings {@link faceSeen} up to date). */
+  touchedFaces(): number {
+    const { faceSeen, he } = this;
+    let n = this.faces;
+    for (let w = this.scanned; w < this.count; w++) {
+      const f = (he[w]! / 3) | 0;
+      if (!faceSeen[f]) { faceSeen[f] = 1; n++; }
+    }
+    this.scanned = this.count;
+    return (this.faces = n);
   }
 
-  private grow(): void {
-    const c = Math.min(2 * this.he.length, this.maxCapacity);
-    const gi = (a: Int32Array) => { const b = new Int32Array(c); b.set(a); return b; };
-    const gf = (a: Float64Array) => { const b = new Float64Array(c); b.set(a); return b; };
-    this.he = gi(this.he); this.parent = gi(this.parent); this.nextOnHe = gi(this.nextOnHe);
-    const st = new Uint8Array(c); st.set(this.state); this.state = st;
-    const fl = new Uint8Array(c); fl.set(this.flat); this.flat = fl;
-    this.b0 = gf(this.b0); this.b1 = gf(this.b1); this.sx = gf(this.sx); this.sy = gf(this.sy); this.sigma = gf(this.sigma);
+  /**
+   * Asks the budget for room for more windows, growing the arrays when
+   * needed; false when the budget, the window cap or the allocator refuses
+   * (why: `budget.tripped`).
+   */
+  makeRoom(): boolean {
+    const b = this.budget;
+    const room = b.nextRoom(this.t, this.count, this.touchedFaces(), this.faceSeen);
+    if (room <= this.count) return false;
+    if (room > this.he.length) {
+      if (!b.allowsGrowth(this.count)) return false;
+      // double; but when a store of twice the size could never be copied again within the budget,
+      // take everything the budget holds now (else the run would stop at the doubled size, up to
+      // half the budget short)
+      const full = Math.floor((b.limit - b.total(0)) / WINDOW_BYTES);
+      let c = 2 * this.he.length;
+      if (b.total(c, c * WINDOW_BYTES) > b.limit) c = full;
+      c = Math.max(room, Math.min(c, b.maxWindows, full));
+      try {
+        this.grow(c);
+      } catch (e) {
+        if (!(e instanceof RangeError)) throw e;
+        b.refused(c * WINDOW_BYTES);
+        return false;
+      }
+    }
+    this.room = room;
+    return true;
+  }
+
+  /** Bytes held by the window arrays (reserved, not all written). */
+  get bytes(): number {
+    return this.he.length * WINDOW_BYTES + this.heHead.byteLength + this.faceSeen.byteLength;
+  }
+
+  /** Bytes of the per-face arrays (fixed for the run). */
+  get fixedBytes(): number {
+    return this.heHead.byteLength + this.faceSeen.byteLength;
+  }
+
+  private grow(c: number): void {
+    // allocate every new array before replacing any, so a refusal leaves the store intact
+    const n = this.count;
+    const gi = (a: Int32Array) => { const b = new Int32Array(c); b.set(a.subarray(0, n)); return b; };
+    const gf = (a: Float64Array) => { const b = new Float64Array(c); b.set(a.subarray(0, n)); return b; };
+    const gu = (a: Uint8Array) => { const b = new Uint8Array(c); b.set(a.subarray(0, n)); return b; };
+    const he = gi(this.he), parent = gi(this.parent), nextOnHe = gi(this.nextOnHe), state = gu(this.state), flat = gu(this.flat);
+    const b0 = gf(this.b0), b1 = gf(this.b1), sx = gf(this.sx), sy = gf(this.sy), sigma = gf(this.sigma);
+    this.he = he; this.parent = parent; this.nextOnHe = nextOnHe; this.state = state; this.flat = flat;
+    this.b0 = b0; this.b1 = b1; this.sx = sx; this.sy = sy; this.sigma = sigma;
   }
 }
