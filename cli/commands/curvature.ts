@@ -39,7 +39,7 @@ export function registerCurvature(program: Command): void {
             `  mean curvature (1/units): min ${fmt(s.mean.min)}, mean ${fmt(s.mean.mean)}, max ${fmt(s.mean.max)}`,
             `  total angle defect ${fmt(s.totalAngleDefect)} rad + boundary turning ${fmt(s.totalBoundaryTurning)} rad = 2π·χ with χ = ${s.eulerCharacteristic} (residual ${fmt(s.gaussBonnetResidual, 3)} rad)`,
           ];
-          if (s.zeroAreaVertices) L.push(`  ${s.zeroAreaVertices} interior vertex(es) of zero area: Gaussian curvature is not defined there and is written as 0`);
+          if (s.zeroAreaVertices) L.push(`  ${s.zeroAreaVertices} interior vertex(es) of zero area: Gaussian and mean curvature are not defined there (written as empty / null)`);
           if (opts.output) L.push(`  wrote ${opts.output}`);
           process.stdout.write(L.join('\n') + '\n');
         }

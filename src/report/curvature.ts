@@ -18,9 +18,12 @@ export interface Stat {
 /** Per-vertex curvature arrays plus summary. */
 export interface CurvatureResult {
   angleDefect: Float64Array;
-  /** Gaussian curvature per vertex; NaN at boundary vertices (not defined there). */
+  /**
+   * Gaussian curvature per vertex; NaN at boundary vertices and at interior
+   * vertices of zero area (not defined there; written as empty / null).
+   */
   gaussianCurvature: Float64Array;
-  /** Mean curvature per vertex; NaN at boundary vertices (not defined there). */
+  /** Mean curvature per vertex; NaN where the Gaussian curvature is (not defined there). */
   meanCurvature: Float64Array;
   boundary: Uint8Array;
   summary: {
@@ -32,7 +35,7 @@ export interface CurvatureResult {
     totalBoundaryTurning: number;
     eulerCharacteristic: number;
     gaussBonnetResidual: number;
-    /** Interior vertices of zero area (all their triangles have zero area): Gaussian curvature is not defined there and is written as 0. */
+    /** Interior vertices of zero area (all their triangles have zero area): Gaussian curvature is not defined there (NaN, written as empty / null). */
     zeroAreaVertices: number;
   };
 }
@@ -42,6 +45,7 @@ function stat(values: Float64Array, mask: Uint8Array, active: (v: number) => boo
   for (let v = 0; v < values.length; v++) {
     if (mask[v] || !active(v)) continue;
     const x = values[v]!;
+    if (Number.isNaN(x)) continue; // not defined there
     if (x < min) min = x;
     if (x > max) max = x;
     sum += x;
@@ -66,6 +70,9 @@ export function curvatureSummary(s: Surface): CurvatureResult {
   for (let v = 0; v < t.nv; v++) {
     if (c.boundary[v]) {
       c.gaussian[v] = NaN;
+      H[v] = NaN;
+    } else if (used(v) && !(c.vertexArea[v]! > 0)) {
+      c.gaussian[v] = NaN; // defect over zero area
       H[v] = NaN;
     }
   }
