@@ -71,6 +71,8 @@ export interface InspectReport {
   totalAngleDefect: number;
   totalBoundaryTurning: number;
   gaussBonnetResidual: number;
+  /** The problems found, one short phrase each, as `inspect` prints them (empty for a healthy mesh). */
+  problems: string[];
   componentList: {
     faces: number;
     vertices: number;
@@ -168,7 +170,7 @@ export function inspectSurface(s: Surface): InspectReport {
   const deg = 180 / Math.PI;
   const genusOf = (g: number) => (orientable && Number.isInteger(g) ? g : null);
   const genusSum = comps.info.reduce((a, c) => a + c.genus, 0);
-  return {
+  const report: InspectReport = {
     file: s.data.name,
     vertices: s.data.positions.length / 3,
     faces: s.data.faceOffsets.length - 1,
@@ -199,6 +201,7 @@ export function inspectSurface(s: Surface): InspectReport {
     totalAngleDefect: curv.totalInteriorDefect,
     totalBoundaryTurning: curv.totalBoundaryTurning,
     gaussBonnetResidual: gaussBonnetResidual(curv, chi),
+    problems: [],
     componentList: comps.info.map((c) => ({ ...c, genus: genusOf(c.genus) })),
     locations: {
       nonManifoldEdges: s.report.nonManifoldEdges,
@@ -210,6 +213,8 @@ export function inspectSurface(s: Surface): InspectReport {
       needleTriangles: quality.needle.slice(0, LISTED),
     },
   };
+  report.problems = inspectProblems(report);
+  return report;
 }
 
 /** Zero-area, cap and needle triangles as file faces (see the module comment); lists hold every hit. */

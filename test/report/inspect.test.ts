@@ -113,6 +113,7 @@ describe('inspect: degenerate meshes are not healthy', () => {
     expect(r.components).toBe(1);
     expect(Math.abs(r.gaussBonnetResidual)).toBeLessThan(1e-9);
     expect(problems).toEqual(['not orientable']);
+    expect(r.problems).toEqual(problems); // the same list in --json
   });
   it('a 40 000-triangle fan is a disc and healthy apart from its needles (valence 40 000 at the centre)', () => {
     const s = fanDisc(40000);
