@@ -23,7 +23,8 @@ export { colorize, rampColor, type ColorizeOptions } from './io/colormap.js';
 // the half-edge mesh
 export type { Topology } from './mesh/topology.js';
 export { next, prev, faceOf, tail, tip, isBoundaryVertex, isBoundaryEdge, forEachOutgoing } from './mesh/topology.js';
-export { buildTopology, type BuildReport, type BuildOptions, type BuiltMesh, type NonManifoldEdge } from './mesh/build.js';
+export { buildTopology, type BuildReport, type BuildOptions, type BuiltMesh, type NonManifoldEdge, type DuplicateFace } from './mesh/build.js';
+export { glueSeams, type GluedVertices } from './mesh/seams.js';
 export { triangulate, type Triangulation } from './mesh/triangulate.js';
 export { boundaryLoops, boundaryVertexMask } from './mesh/boundary.js';
 export { components, type Components, type ComponentInfo } from './mesh/components.js';
@@ -34,7 +35,7 @@ export type { IntrinsicMesh } from './metric/intrinsic.js';
 export { intrinsicFromPositions, intrinsicFromLengths, edgeLengthsFromPositions, meanEdgeLength, triangleInequalityViolations } from './metric/intrinsic.js';
 export {
   triangleArea, angleOpposite, cotOpposite, faceAreas, cornerAngles, halfedgeCotans, edgeCotanWeights,
-  barycentricVertexAreas, mixedVoronoiVertexAreas, COT_LIMIT,
+  barycentricVertexAreas, mixedVoronoiVertexAreas, COT_LIMIT, anglesOfSides,
 } from './metric/triangle.js';
 export { gaussianCurvature, meanCurvature, gaussBonnetResidual, type Curvature } from './metric/curvature.js';
 export { intrinsicDelaunay, type DelaunayOptions, type DelaunayResult } from './metric/delaunay.js';
@@ -67,6 +68,6 @@ export { SurfaceLocator, closestOnTriangle, type SnapResult } from './query/snap
 export { PointResolver, type Landing } from './query/resolve.js';
 
 // reports
-export { inspectSurface, type InspectReport } from './report/inspect.js';
+export { inspectSurface, inspectProblems, type InspectReport } from './report/inspect.js';
 export { curvatureSummary, type CurvatureResult } from './report/curvature.js';
 export { shortestPathThrough, type WaypointPath } from './geodesic/waypoints.js';
