@@ -60,7 +60,9 @@ afterAll(async () => {
 describe('core in the browser', () => {
   it('bundles without Node modules and gives the same distances as Node', async () => {
     // launched here, not in beforeAll, so that a missing browser is a failed test rather than a skipped one
-    browser = (await launchChromium()).browser;
+    const launched = await launchChromium();
+    browser = launched.browser;
+    console.log(`browser: ${launched.source} (${launched.executable}), Chromium ${browser.version()}`);
     const s = icosphere(3, 2);
     const page = await browser.newPage();
     await page.goto(url);
