@@ -143,7 +143,8 @@ export function approximateMinimumDegree(g: AdjacencyGraph): Int32Array {
   let least = 0;
 
   while (nLeft > 0) {
-    while (bucket[least] === -1) least++;
+    while (least < n && bucket[least] === -1) least++;
+    if (least === n) throw new Error('approximateMinimumDegree: internal error, no variable left to eliminate');
     const p = bucket[least]!;
     unlink(p);
     const pw = weight[p]!;
