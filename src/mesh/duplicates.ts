@@ -112,3 +112,62 @@ export function distinctFaces(triangles: ArrayLike<number>, nv: number, maxListe
   }
   return { tri, faceOrigin, degenerateFaces, duplicateFaces, duplicateFaceCount };
 }
+
+/** Order-independent 32-bit mix of one vertex index. */
+function mix(v: number): number {
+  let x = Math.imul(v ^ (v >>> 16), 0x45d9f3b);
+  x = Math.imul(x ^ (x >>> 16), 0x45d9f3b);
+  return (x ^ (x >>> 16)) >>> 0;
+}
+
+/**
+ * Duplicate polygons (more than three corners; triangles are left to
+ * {@link distinctFaces}): for each face of `faceOffsets`/`faceIndices`, the
+ * earliest face with the same size and vertex set, or -1. Two differently
+ * listed copies of a quad would be cut along different diagonals, so their
+ * triangles would not repeat each other: this catches them first. Expected
+ * linear time: faces are bucketed by an order-independent hash of their
+ * vertex set (counting sort), and only faces sharing a bucket are compared.
+ */
+export function findDuplicatePolygons(faceOffsets: Uint32Array, faceIndices: Uint32Array): Int32Array {
+  const nf = faceOffsets.length - 1;
+  const firstOf = new Int32Array(Math.max(nf, 0)).fill(-1);
+  let np = 0;
+  for (let f = 0; f < nf; f++) if (faceOffsets[f + 1]! - faceOffsets[f]! > 3) np++;
+  if (np < 2) return firstOf;
+  let M = 1;
+  while (M < np) M <<= 1;
+  const bucketOf = new Int32Array(nf).fill(-1);
+  const count = new Int32Array(M + 1);
+  for (let f = 0; f < nf; f++) {
+    const s = faceOffsets[f]!, e = faceOffsets[f + 1]!;
+    if (e - s <= 3) continue;
+    let sum = 0, xor = 0;
+    for (let i = s; i < e; i++) {
+      const m = mix(faceIndices[i]!);
+      sum = (sum + m) >>> 0;
+      xor ^= Math.imul(m, 0x9e3779b1);
+    }
+    const b = ((sum ^ (xor >>> 7) ^ Math.imul(e - s, 0x27d4eb2d)) >>> 0) & (M - 1);
+    bucketOf[f] = b;
+    count[b + 1]!++;
+  }
+  for (let b = 0; b < M; b++) count[b + 1]! += count[b]!;
+  const order = new Int32Array(np);
+  const fill = count.slice(0, M);
+  for (let f = 0; f < nf; f++) if (bucketOf[f]! >= 0) order[fill[bucketOf[f]!]!++] = f; // ascending f in each bucket
+  const key = (f: number) => Array.from(faceIndices.subarray(faceOffsets[f]!, faceOffsets[f + 1]!)).sort((x, y) => x - y).join(',');
+  for (let b = 0; b < M; b++) {
+    const s = count[b]!, e = count[b + 1]!;
+    if (e - s < 2) continue;
+    const seen = new Map<string, number>();
+    for (let i = s; i < e; i++) {
+      const f = order[i]!;
+      const k = key(f);
+      const first = seen.get(k);
+      if (first === undefined) seen.set(k, f);
+      else firstOf[f] = first;
+    }
+  }
+  return firstOf;
+}

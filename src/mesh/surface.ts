@@ -5,7 +5,8 @@
 import type { MeshData } from '../io/mesh-data.js';
 import { buildTopology, type BuildReport, type BuildOptions } from './build.js';
 import type { Topology } from './topology.js';
-import { triangulate } from './triangulate.js';
+import { triangulate, type Triangulation } from './triangulate.js';
+import { findDuplicatePolygons, type DuplicateFace } from './duplicates.js';
 import { inputError } from '../errors.js';
 
 /** Everything known about a loaded surface. */
@@ -32,7 +33,12 @@ export interface Surface {
  */
 export function surfaceFromMeshData(data: MeshData, options: BuildOptions = {}): Surface {
   const nv = data.positions.length / 3;
-  const tr = triangulate(data);
+  let tr = triangulate(data);
+  // polygons repeated with another starting corner triangulate differently: drop them first
+  const dupPoly = findDuplicatePolygons(data.faceOffsets, data.faceIndices);
+  const polyDups: DuplicateFace[] = [];
+  for (let f = 0; f < dupPoly.length; f++) if (dupPoly[f]! >= 0) polyDups.push({ face: f, of: dupPoly[f]! });
+  if (polyDups.length > 0) tr = withoutPolygons(tr, dupPoly);
   const { topology, report } = buildTopology(tr.triangles, nv, options);
   if (topology.nf === 0) {
     throw inputError(
@@ -55,6 +61,11 @@ export function surfaceFromMeshData(data: MeshData, options: BuildOptions = {}):
     d.of = src[d.of]!;
   }
   for (const e of report.nonManifoldEdges) e.faces = e.faces.map((f) => src[f]!);
+  if (polyDups.length > 0) {
+    const maxListed = options.maxListed ?? 1000;
+    report.duplicateFaces = [...polyDups, ...report.duplicateFaces].sort((a, b) => a.face - b.face).slice(0, maxListed);
+    report.duplicateFaceCount += polyDups.length;
+  }
   const facePolygon = new Uint32Array(topology.nf);
   for (let f = 0; f < topology.nf; f++) facePolygon[f] = tr.source[topology.faceOrigin[f]!]!;
   return { data, topology, positions, facePolygon, report };
@@ -66,4 +77,18 @@ export function surfaceFromMeshData(data: MeshData, options: BuildOptions = {}):
  */
 export function isManifold(s: Surface): boolean {
   return s.report.nonManifoldEdgeCount === 0 && s.report.nonManifoldVertexCount === 0 && s.report.orientationCuts === 0;
+}
+
+/** The triangulation without the triangles of the polygons marked (≥ 0) in `drop`. */
+function withoutPolygons(tr: Triangulation, drop: Int32Array): Triangulation {
+  let n = 0;
+  for (let t = 0; t < tr.source.length; t++) if (drop[tr.source[t]!]! < 0) n++;
+  const triangles = new Uint32Array(3 * n);
+  const source = new Uint32Array(n);
+  for (let t = 0, k = 0; t < tr.source.length; t++) {
+    if (drop[tr.source[t]!]! >= 0) continue;
+    triangles.set(tr.triangles.subarray(3 * t, 3 * t + 3), 3 * k);
+    source[k++] = tr.source[t]!;
+  }
+  return { ...tr, triangles, source };
 }

@@ -28,6 +28,8 @@
  * `vertexHalfedge[v]` is the boundary half-edge leaving it, so the rotation
  * starting there sweeps the whole fan and stops at `twin === -1`. Every vertex
  * of a built topology has a single fan (non-manifold input is split first).
+ * A non-orientable piece (Möbius strip) is cut along seams to get here; the
+ * build lists them (`BuildReport.orientationSeams`, glued back by `seams.ts`).
  */
 
 /** Half-edge connectivity of a triangle mesh (see the module comment). */

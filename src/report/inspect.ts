@@ -49,7 +49,11 @@ export interface InspectReport {
   nonManifoldEdges: number;
   nonManifoldVertices: number;
   degenerateFacesDropped: number;
-  /** Faces dropped because an earlier face has the same vertex set. */
+  /**
+   * Faces dropped because an earlier face has the same vertex set: file faces
+   * (a repeated polygon counts once), plus any triangle of a polygon that
+   * repeats another triangle.
+   */
   duplicateFacesDropped: number;
   /** Triangles of zero area (see the module comment). */
   zeroAreaTriangles: number;

@@ -89,6 +89,22 @@ describe('inspect: degenerate meshes are not healthy', () => {
     expect(r.triangles).toBe(nf);
     expect(problems).toEqual([`2 duplicate face(s) dropped (first: face ${nf} repeats face 0)`]);
   });
+  it('a quad repeated from another corner (so cut along the other diagonal) is found as a duplicate face', () => {
+    // two unit quads side by side (faces 0, 1) and face 0 again as face 2, listed from another corner
+    const positions = Float64Array.from([0, 0, 0, 1, 0, 0, 2, 0, 0, 0, 1, 0, 1, 1, 0, 2, 1, 0]);
+    const data = {
+      ...meshFromTriangles(positions, [], 'quads.obj'),
+      faceOffsets: Uint32Array.from([0, 4, 8, 12]),
+      faceIndices: Uint32Array.from([0, 1, 4, 3, 1, 2, 5, 4, 1, 4, 3, 0]),
+    };
+    const r = inspectSurface(surfaceFromMeshData(data));
+    expect(r.faces).toBe(3);
+    expect(r.triangles).toBe(4);
+    expect(r.duplicateFacesDropped).toBe(1);
+    expect(r.locations.duplicateFaces).toEqual([{ face: 2, of: 0 }]);
+    expect(r.eulerCharacteristic).toBe(1); // a disc (rectangle)
+    expect(r.nonManifoldEdges).toBe(0);
+  });
   it('Möbius strip of 60 quads: not orientable, χ = 0, 240 edges, 1 boundary loop, no non-manifold vertex', () => {
     const n = 60, positions = new Float64Array(3 * 2 * n), tri: number[] = [];
     for (let i = 0; i < n; i++) {
