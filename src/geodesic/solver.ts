@@ -26,6 +26,9 @@ import { valueAtPoint } from './heat-sources.js';
 import { exactDistance } from './exact/index.js';
 import { prepareExactGeometry } from './exact/geometry.js';
 
+/** Largest edge length (and inverse of the smallest non-zero one) {@link prepareDistance} accepts, mesh units. */
+export const MAX_LENGTH = 1e60;
+
 /** Options for {@link prepareDistance}. */
 export interface DistanceOptions {
   /** Heat-method options (method `heat` only). */
@@ -77,7 +80,8 @@ export interface DistanceSolver {
 
 /**
  * Prepares a solver of the given method for `mesh` (an edge length that is
- * negative or not finite is an `INPUT` error). Its `solve` validates
+ * negative, not finite, above {@link MAX_LENGTH} or non-zero below its
+ * inverse is an `INPUT` error). Its `solve` validates
  * every source and target (`USAGE` error naming the bad point, see
  * `checkSurfacePoint`), and throws `NUMERIC` if the method produced a NaN.
  */
@@ -87,6 +91,11 @@ export function prepareDistance(mesh: IntrinsicMesh, method: DistanceMethod, opt
   for (let e = 0; e < t.ne; e++) {
     const l = mesh.edgeLength[e]!;
     if (!(l >= 0 && l < Infinity)) throw inputError(`edge ${e} has invalid length ${l}`, method);
+    // products of four lengths (triangle areas) must stay inside double range; measured: the exact method
+    // silently degrades to edge-graph values beyond about 1e±76
+    if (l > MAX_LENGTH || (l > 0 && l < 1 / MAX_LENGTH)) {
+      throw inputError(`edge ${e} has length ${l}, outside the ${1 / MAX_LENGTH} to ${MAX_LENGTH} mesh units the solvers handle; rescale the mesh (change its units)`, method);
+    }
   }
   const inner = prepareMethod(mesh, method, opts);
   const clean = (sources: SourceSet): SourceSet => ({

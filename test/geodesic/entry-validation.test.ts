@@ -107,6 +107,25 @@ describe('a corrupted metric is refused, never measured', () => {
   });
 });
 
+describe('mesh units the solvers cannot measure in are refused', () => {
+  it('edge lengths near 1e±77 are an INPUT error naming the edge (measured: exact degrades silently there)', () => {
+    for (const scale of [1e62, 1e-62]) {
+      const p = s.positions.map((x) => x * scale);
+      const m = intrinsicFromPositions(t, p);
+      for (const method of ['exact', 'heat', 'graph'] as DistanceMethod[]) {
+        const e = thrown(() => prepareDistance(m, method));
+        expect(isOrthodromeError(e) && e.code === 'INPUT', `${method} ${scale}`).toBe(true);
+        expect((e as Error).message).toMatch(/rescale the mesh/);
+      }
+    }
+    // 1e±50 is fine: the distance corner to corner of the flat 3×3 square scales exactly (similarity)
+    for (const scale of [1e50, 1e-50]) {
+      const m = intrinsicFromPositions(t, s.positions.map((x) => x * scale));
+      expect(prepareDistance(m, 'exact').solve(pointSources([{ kind: 'vertex', vertex: 0 }])).field.distance[15]! / scale).toBeCloseTo(3 * Math.SQRT2, 12);
+    }
+  });
+});
+
 describe('waypoints across an unreachable gap', () => {
   it('two separate squares: the result is unreachable, with no joined path', () => {
     const a = flatGrid(2, 2, 1, 1);
