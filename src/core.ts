@@ -51,7 +51,7 @@ export { pointSources, boundaryCurves, type SourceSet } from './geodesic/sources
 export { HeatSolver, type HeatOptions, type HeatStats } from './geodesic/heat.js';
 export { graphDistance, graphValueAt, type GraphOptions } from './geodesic/graph.js';
 export { orientationCover, prepareCoverDistance, type OrientationCover } from './geodesic/cover.js';
-export { exactDistance, type ExactOptions, type ExactResult } from './geodesic/exact/index.js';
+export { exactDistance, DEFAULT_MEMORY_BUDGET, type ExactOptions, type ExactResult } from './geodesic/exact/index.js';
 export type { WindowUsage } from './geodesic/exact/usage.js';
 export { prepareExactGeometry, type ExactGeometry } from './geodesic/exact/geometry.js';
 export { pathPolyline, pathLength } from './geodesic/path.js';
@@ -70,4 +70,5 @@ export { PointResolver, type Landing } from './query/resolve.js';
 // reports
 export { inspectSurface, inspectProblems, type InspectReport } from './report/inspect.js';
 export { curvatureSummary, type CurvatureResult } from './report/curvature.js';
+export { parseRequirement, checkRequirements, checkableKeys, type Requirement, type RequirementResult, type Comparison } from './report/require.js';
 export { shortestPathThrough, type WaypointPath } from './geodesic/waypoints.js';
