@@ -87,16 +87,7 @@ export interface DistanceSolver {
  */
 export function prepareDistance(mesh: IntrinsicMesh, method: DistanceMethod, opts: DistanceOptions = {}): DistanceSolver {
   const t = mesh.topology;
-  // a NaN length would silently drop its edge from the exact and graph searches (every comparison false)
-  for (let e = 0; e < t.ne; e++) {
-    const l = mesh.edgeLength[e]!;
-    if (!(l >= 0 && l < Infinity)) throw inputError(`edge ${e} has invalid length ${l}`, method);
-    // products of four lengths (triangle areas) must stay inside double range; measured: the exact method
-    // silently degrades to edge-graph values beyond about 1e±76
-    if (l > MAX_LENGTH || (l > 0 && l < 1 / MAX_LENGTH)) {
-      throw inputError(`edge ${e} has length ${l}, outside the ${1 / MAX_LENGTH} to ${MAX_LENGTH} mesh units the solvers handle; rescale the mesh (change its units)`, method);
-    }
-  }
+  checkEdgeLengths(mesh, method);
   const inner = prepareMethod(mesh, method, opts);
   const clean = (sources: SourceSet): SourceSet => ({
     points: sources.points.map((p) => checkSurfacePoint(p, t, 'source')),
@@ -123,6 +114,26 @@ export function prepareDistance(mesh: IntrinsicMesh, method: DistanceMethod, opt
       };
     },
   };
+}
+
+/**
+ * Refuses a metric the solvers cannot measure in (`INPUT` error naming the
+ * edge and `label`): a length that is negative or not finite (a NaN would
+ * silently drop its edge from the exact and graph searches, every
+ * comparison being false), above {@link MAX_LENGTH}, or non-zero below its
+ * inverse (products of four lengths, triangle areas, must stay inside double
+ * range; measured: the exact method silently degrades to edge-graph values
+ * beyond about 1e±76).
+ */
+export function checkEdgeLengths(mesh: IntrinsicMesh, label: string): void {
+  const t = mesh.topology;
+  for (let e = 0; e < t.ne; e++) {
+    const l = mesh.edgeLength[e]!;
+    if (!(l >= 0 && l < Infinity)) throw inputError(`edge ${e} has invalid length ${l}`, label);
+    if (l > MAX_LENGTH || (l > 0 && l < 1 / MAX_LENGTH)) {
+      throw inputError(`edge ${e} has length ${l}, outside the ${1 / MAX_LENGTH} to ${MAX_LENGTH} mesh units the solvers handle; rescale the mesh (change its units)`, label);
+    }
+  }
 }
 
 function prepareMethod(mesh: IntrinsicMesh, method: DistanceMethod, opts: DistanceOptions): DistanceSolver {

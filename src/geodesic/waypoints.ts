@@ -6,6 +6,7 @@
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { SurfacePoint } from '../query/surface-point.js';
 import { checkSurfacePoint } from '../query/surface-point.js';
+import { checkEdgeLengths } from './solver.js';
 import type { SurfacePath } from './field.js';
 import { exactDistance } from './exact/index.js';
 import { prepareExactGeometry } from './exact/geometry.js';
@@ -26,7 +27,8 @@ export interface WaypointPath {
 }
 
 /**
- * Exact shortest path visiting `stops` in order. Every stop is validated
+ * Exact shortest path visiting `stops` in order. The metric is checked
+ * (`checkEdgeLengths`) and every stop is validated
  * (`USAGE` error naming it, see `checkSurfacePoint`). When some leg has no
  * path (its stops lie on different components) the result is "unreachable":
  * `length` is Infinity, `path` is empty (legs are never joined across a
@@ -34,6 +36,7 @@ export interface WaypointPath {
  * `opts.memoryBudget` bounds each leg's exact run (bytes; see ExactOptions).
  */
 export function shortestPathThrough(mesh: IntrinsicMesh, stops0: SurfacePoint[], opts: { memoryBudget?: number } = {}): WaypointPath {
+  checkEdgeLengths(mesh, 'path');
   const stops = stops0.map((p, i) => checkSurfacePoint(p, mesh.topology, `stop ${i}`));
   const legs: { path: SurfacePath; length: number }[] = [];
   const points: SurfacePoint[] = [];

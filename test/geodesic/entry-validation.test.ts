@@ -117,6 +117,8 @@ describe('mesh units the solvers cannot measure in are refused', () => {
         expect(isOrthodromeError(e) && e.code === 'INPUT', `${method} ${scale}`).toBe(true);
         expect((e as Error).message).toMatch(/rescale the mesh/);
       }
+      const e = thrown(() => shortestPathThrough(m, [{ kind: 'vertex', vertex: 0 }, { kind: 'vertex', vertex: 15 }]));
+      expect(isOrthodromeError(e) && e.code === 'INPUT', `path ${scale}`).toBe(true);
     }
     // 1e±50 is fine: the distance corner to corner of the flat 3×3 square scales exactly (similarity)
     for (const scale of [1e50, 1e-50]) {
