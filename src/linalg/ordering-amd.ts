@@ -72,10 +72,8 @@ export function approximateMinimumDegree(g: AdjacencyGraph): Int32Array {
   let stampNow = 0;
   const keys = new Float64Array(n); // hash · n + variable, sorted to group equal hashes
 
-  let pool = new Int32Array(Math.max(16, xadj[n]! + (xadj[n]! >> 2) + 2 * n));
+  let pool: Int32Array = new Int32Array(Math.max(16, xadj[n]! + (xadj[n]! >> 2) + 2 * n));
   let top = 0;
-  let sp = 0; // stamp of the current pivot step
-  let lpWeight = 0; // |L_p|, weighted
   const denseAbove = Math.max(64, Math.floor(8 * Math.sqrt(n)));
   let emitted = 0;
   let denseCount = 0;
@@ -112,33 +110,9 @@ export function approximateMinimumDegree(g: AdjacencyGraph): Int32Array {
     if (h !== -1) before[h] = v;
     bucket[d] = v;
   };
-  /** Adds variable u to L_p (at the pool's end) unless it is not a live variable or already there. */
-  const take = (u: number): void => {
-    if (state[u] !== VARIABLE || stamp[u] === sp) return;
-    stamp[u] = sp;
-    pool[top++] = u;
-    lpWeight += weight[u]!;
-    unlink(u);
-  };
   const emitChain = (v: number): void => {
     for (let u = v; u !== -1; u = chainNext[u]!) order[emitted++] = u;
   };
-  /** Copies every live list into a fresh pool with at least `need` free entries at the end. */
-  const compact = (need: number): void => {
-    let live = 0;
-    for (let v = 0; v < n; v++) if (state[v] === VARIABLE || state[v] === ELEMENT) live += size[v]!;
-    const fresh = new Int32Array(Math.max(pool.length, live + (live >> 1) + need + 1024));
-    let t = 0;
-    for (let v = 0; v < n; v++) {
-      if (state[v] !== VARIABLE && state[v] !== ELEMENT) continue;
-      fresh.set(pool.subarray(begin[v]!, begin[v]! + size[v]!), t);
-      begin[v] = t;
-      t += size[v]!;
-    }
-    pool = fresh;
-    top = t;
-  };
-
   for (let v = 0; v < n; v++) if (state[v] === VARIABLE) link(v);
   let least = 0;
 
@@ -154,19 +128,34 @@ export function approximateMinimumDegree(g: AdjacencyGraph): Int32Array {
     // 1. build L_p at the end of the pool; its variables are stamped and taken out of the buckets
     let need = size[p]! - nElems[p]!;
     for (let q = begin[p]!; q < begin[p]! + nElems[p]!; q++) if (state[pool[q]!] === ELEMENT) need += size[pool[q]!]!;
-    if (top + need > pool.length) compact(need);
-    sp = stampNow++;
+    if (top + need > pool.length) {
+      pool = compactPool(pool, begin, size, state, need);
+      top = 0;
+      for (let v = 0; v < n; v++) if (state[v] === VARIABLE || state[v] === ELEMENT) top += size[v]!;
+    }
+    const sp = stampNow++; // stamp of this pivot step
     stamp[p] = sp; // keeps p out of L_p
     const lpStart = top;
-    lpWeight = 0;
+    let lpWeight = 0; // |L_p|, weighted
+    // (a variable joins L_p once: live, not p, not yet stamped; it leaves its degree bucket)
     for (let q = begin[p]!; q < begin[p]! + size[p]!; q++) {
       const x = pool[q]!;
       if (q < begin[p]! + nElems[p]!) {
         if (state[x] !== ELEMENT) continue;
-        for (let r = begin[x]!; r < begin[x]! + size[x]!; r++) take(pool[r]!);
+        for (let r = begin[x]!; r < begin[x]! + size[x]!; r++) {
+          const u = pool[r]!;
+          if (state[u] !== VARIABLE || stamp[u] === sp) continue;
+          stamp[u] = sp;
+          pool[top++] = u;
+          lpWeight += weight[u]!;
+          unlink(u);
+        }
         state[x] = GONE; // absorbed into p
-      } else {
-        take(x);
+      } else if (state[x] === VARIABLE && stamp[x] !== sp) {
+        stamp[x] = sp;
+        pool[top++] = x;
+        lpWeight += weight[x]!;
+        unlink(x);
       }
     }
     const lpEnd = top;
@@ -233,8 +222,9 @@ export function approximateMinimumDegree(g: AdjacencyGraph): Int32Array {
     }
 
     // 4. supervariables: variables with equal hashes and equal lists are merged
-    const group = keys.subarray(0, candidates).sort();
-    for (let a = 0; a < candidates; a++) {
+    const group = keys;
+    if (candidates > 1) keys.subarray(0, candidates).sort();
+    for (let a = 0; a < candidates - 1; a++) {
       const va = group[a]! % n;
       if (state[va] !== VARIABLE) continue;
       const ha = Math.floor(group[a]! / n);
@@ -274,4 +264,23 @@ export function approximateMinimumDegree(g: AdjacencyGraph): Int32Array {
   }
   for (let v = 0; v < n; v++) if (state[v] === DENSE) order[emitted++] = v;
   return order;
+}
+
+/**
+ * Copies the lists of live variables and elements, in node order, into a
+ * fresh pool with room for at least `need` more entries, updating `begin`.
+ */
+function compactPool(pool: Int32Array, begin: Int32Array, size: Int32Array, state: Uint8Array, need: number): Int32Array {
+  const n = begin.length;
+  let live = 0;
+  for (let v = 0; v < n; v++) if (state[v] === VARIABLE || state[v] === ELEMENT) live += size[v]!;
+  const fresh = new Int32Array(Math.max(pool.length, live + (live >> 1) + need + 1024));
+  let t = 0;
+  for (let v = 0; v < n; v++) {
+    if (state[v] !== VARIABLE && state[v] !== ELEMENT) continue;
+    fresh.set(pool.subarray(begin[v]!, begin[v]! + size[v]!), t);
+    begin[v] = t;
+    t += size[v]!;
+  }
+  return fresh;
 }
