@@ -113,10 +113,10 @@ export function distinctFaces(triangles: ArrayLike<number>, nv: number, maxListe
   return { tri, faceOrigin, degenerateFaces, duplicateFaces, duplicateFaceCount };
 }
 
-/** Order-independent 32-bit mix of one vertex index. */
-function mix(v: number): number {
-  let x = Math.imul(v ^ (v >>> 16), 0x45d9f3b);
-  x = Math.imul(x ^ (x >>> 16), 0x45d9f3b);
+/** 32-bit mix of one vertex index (summed and xor-ed over a face: order-independent). */
+function mix(v: number, k: number): number {
+  let x = Math.imul(v ^ (v >>> 16), k);
+  x = Math.imul(x ^ (x >>> 15), 0x2c1b3c6d);
   return (x ^ (x >>> 16)) >>> 0;
 }
 
@@ -127,7 +127,8 @@ function mix(v: number): number {
  * listed copies of a quad would be cut along different diagonals, so their
  * triangles would not repeat each other: this catches them first. Expected
  * linear time: faces are bucketed by an order-independent hash of their
- * vertex set (counting sort), and only faces sharing a bucket are compared.
+ * vertex set (counting sort); within a bucket a face is compared with the
+ * distinct faces seen so far, by a second hash and then exactly.
  */
 export function findDuplicatePolygons(faceOffsets: Uint32Array, faceIndices: Uint32Array): Int32Array {
   const nf = faceOffsets.length - 1;
@@ -135,38 +136,45 @@ export function findDuplicatePolygons(faceOffsets: Uint32Array, faceIndices: Uin
   let np = 0;
   for (let f = 0; f < nf; f++) if (faceOffsets[f + 1]! - faceOffsets[f]! > 3) np++;
   if (np < 2) return firstOf;
-  let M = 1;
-  while (M < np) M <<= 1;
+  let M = 2;
+  while (M < 2 * np) M <<= 1;
   const bucketOf = new Int32Array(nf).fill(-1);
+  const check = new Uint32Array(nf);
   const count = new Int32Array(M + 1);
   for (let f = 0; f < nf; f++) {
     const s = faceOffsets[f]!, e = faceOffsets[f + 1]!;
     if (e - s <= 3) continue;
-    let sum = 0, xor = 0;
+    let h1 = Math.imul(e - s, 0x27d4eb2d), h2 = e - s;
     for (let i = s; i < e; i++) {
-      const m = mix(faceIndices[i]!);
-      sum = (sum + m) >>> 0;
-      xor ^= Math.imul(m, 0x9e3779b1);
+      const v = faceIndices[i]!;
+      h1 = (h1 + mix(v, 0x45d9f3b)) >>> 0;
+      h2 ^= mix(v, 0x119de1f3);
     }
-    const b = ((sum ^ (xor >>> 7) ^ Math.imul(e - s, 0x27d4eb2d)) >>> 0) & (M - 1);
-    bucketOf[f] = b;
-    count[b + 1]!++;
+    bucketOf[f] = h1 & (M - 1);
+    check[f] = h2 >>> 0;
+    count[bucketOf[f]! + 1]!++;
   }
   for (let b = 0; b < M; b++) count[b + 1]! += count[b]!;
   const order = new Int32Array(np);
   const fill = count.slice(0, M);
   for (let f = 0; f < nf; f++) if (bucketOf[f]! >= 0) order[fill[bucketOf[f]!]!++] = f; // ascending f in each bucket
-  const key = (f: number) => Array.from(faceIndices.subarray(faceOffsets[f]!, faceOffsets[f + 1]!)).sort((x, y) => x - y).join(',');
+  const sorted = (f: number) => Array.from(faceIndices.subarray(faceOffsets[f]!, faceOffsets[f + 1]!)).sort((x, y) => x - y);
+  const same = (f: number, g: number) => {
+    if (check[f] !== check[g] || faceOffsets[f + 1]! - faceOffsets[f]! !== faceOffsets[g + 1]! - faceOffsets[g]!) return false;
+    const a = sorted(f), b = sorted(g);
+    return a.every((x, i) => x === b[i]);
+  };
+  const reps: number[] = [];
   for (let b = 0; b < M; b++) {
     const s = count[b]!, e = count[b + 1]!;
     if (e - s < 2) continue;
-    const seen = new Map<string, number>();
+    reps.length = 0;
     for (let i = s; i < e; i++) {
       const f = order[i]!;
-      const k = key(f);
-      const first = seen.get(k);
-      if (first === undefined) seen.set(k, f);
-      else firstOf[f] = first;
+      let dup = -1;
+      for (const g of reps) if (same(f, g)) { dup = g; break; }
+      if (dup >= 0) firstOf[f] = dup;
+      else reps.push(f);
     }
   }
   return firstOf;
