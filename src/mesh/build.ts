@@ -112,7 +112,7 @@ export function buildTopology(
   const nf = faceOrigin.length;
   const nh = 3 * nf;
 
-  // 2. group half-edges by undirected edge: bucket by min vertex, then by max vertex.
+  // 2. group half-edges by undirected edge (linear radix sort on the vertex pair)
   let groups = groupHalfedges(tri, nv);
 
   // 3. orientation
