@@ -5,7 +5,8 @@
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { SurfacePoint } from '../query/surface-point.js';
-import { checkSurfacePoint } from '../query/surface-point.js';
+import { checkSurfacePoint, formatSurfacePoint } from '../query/surface-point.js';
+import { usageError } from '../errors.js';
 import { checkEdgeLengths } from './solver.js';
 import type { SurfacePath } from './field.js';
 import { exactDistance } from './exact/index.js';
@@ -34,23 +35,35 @@ export interface WaypointPath {
  * `length` is Infinity, `path` is empty (legs are never joined across a
  * gap), and `legs` tells which leg failed (its length is Infinity).
  * `opts.memoryBudget` bounds each leg's exact run (bytes; see ExactOptions).
+ *
+ * A stop may be given as several points that are one point of the surface
+ * as given (the copies of a vertex split while building, see
+ * `PointResolver.copies`): each leg leaves from all of them and arrives at
+ * the one it reaches first. Where the path passes from one copy to another
+ * it lists both (same position, no face between them: `faces` is −1 there
+ * and `cumulative` does not grow).
  */
-export function shortestPathThrough(mesh: IntrinsicMesh, stops0: SurfacePoint[], opts: { memoryBudget?: number } = {}): WaypointPath {
+export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint | SurfacePoint[])[], opts: { memoryBudget?: number } = {}): WaypointPath {
   checkEdgeLengths(mesh, 'path');
-  const stops = stops0.map((p, i) => checkSurfacePoint(p, mesh.topology, `stop ${i}`));
+  const stops = stops0.map((p, i) => (Array.isArray(p) ? p : [p]).map((q) => checkSurfacePoint(q, mesh.topology, `stop ${i}`)));
+  if (stops.some((s) => s.length === 0)) throw usageError('a stop needs at least one point', 'path');
   const legs: { path: SurfacePath; length: number }[] = [];
   const points: SurfacePoint[] = [];
   let length = 0;
   const geometry = stops.length > 1 ? prepareExactGeometry(mesh) : undefined;
   for (let i = 0; i + 1 < stops.length; i++) {
-    const a = stops[i]!, b = stops[i + 1]!;
-    const r = exactDistance(mesh, { points: [a], curves: [] }, { targets: [b], geometry, ...(opts.memoryBudget !== undefined ? { memoryBudget: opts.memoryBudget } : {}) });
-    const reached = Number.isFinite(r.distanceAt(b));
-    const p: SurfacePath = reached ? r.pathTo(b) : { points: [], length: Infinity };
+    const as = stops[i]!, bs = stops[i + 1]!;
+    const r = exactDistance(mesh, { points: as, curves: [] }, { targets: bs, geometry, ...(opts.memoryBudget !== undefined ? { memoryBudget: opts.memoryBudget } : {}) });
+    // the nearest spelling of the next stop (copies of a split vertex: the one this leg reaches first)
+    let b = bs[0]!, db = r.distanceAt(b);
+    for (const q of bs.slice(1)) { const d = r.distanceAt(q); if (d < db) { db = d; b = q; } }
+    const p: SurfacePath = Number.isFinite(db) ? r.pathTo(b) : { points: [], length: Infinity };
     legs.push({ path: p, length: p.length });
     length += p.length;
     if (!Number.isFinite(p.length)) continue;
-    points.push(...(points.length ? p.points.slice(1) : p.points));
+    // legs share their stop; a leg may leave from another copy of it (same position), kept then
+    const last = points[points.length - 1];
+    points.push(...(last && p.points[0] && formatSurfacePoint(last) === formatSurfacePoint(p.points[0]) ? p.points.slice(1) : p.points));
   }
   if (!Number.isFinite(length)) {
     return { path: { points: [], length: Infinity }, length: Infinity, legs, cumulative: new Float64Array(0), faces: new Int32Array(0) };

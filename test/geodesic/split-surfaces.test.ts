@@ -25,9 +25,22 @@ import { PointResolver } from '../../src/query/resolve.js';
 import { prepareDistance } from '../../src/geodesic/solver.js';
 import { orientationCover, prepareCoverDistance } from '../../src/geodesic/cover.js';
 import { pointSources } from '../../src/geodesic/sources.js';
+import { shortestPathThrough } from '../../src/geodesic/waypoints.js';
 import type { DistanceMethod } from '../../src/geodesic/field.js';
 
 describe('split vertices: a source on a split vertex seeds every copy', () => {
+  it('bow-tie: a path through the shared vertex uses both copies (length: two unit edges, closed form)', () => {
+    const P = Float64Array.from([0, 0, 0, 1, 0, 0, 1, 1, 0, -1, 0, 0, -1, -1, 0]);
+    const surface = surfaceFromMeshData(meshFromTriangles(P, Uint32Array.from([0, 1, 2, 0, 3, 4]), 'bowtie'));
+    const t = surface.topology;
+    const r = new PointResolver(t, surface.positions);
+    const stops = ['v:3', 'v:0', 'v:1'].map((x) => r.resolveAll(x));
+    const route = shortestPathThrough(intrinsicFromPositions(t, surface.positions), stops);
+    expect(route.length).toBeCloseTo(2, 12);
+    expect(route.cumulative[route.cumulative.length - 1]).toBeCloseTo(2, 12);
+    expect(route.legs.map((l) => l.length)).toEqual([1, 1]);
+  });
+
   it('bow-tie: every vertex of both triangles is reached, at its Euclidean distance', () => {
     const P = Float64Array.from([0, 0, 0, 1, 0, 0, 1, 1, 0, -1, 0, 0, -1, -1, 0]);
     const surface = surfaceFromMeshData(meshFromTriangles(P, Uint32Array.from([0, 1, 2, 0, 3, 4]), 'bowtie'));
