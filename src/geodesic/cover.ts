@@ -22,7 +22,8 @@ import { intrinsicFromPositions, type IntrinsicMesh } from '../metric/intrinsic.
 import type { SurfacePoint } from '../query/surface-point.js';
 import { checkSurfacePoint } from '../query/surface-point.js';
 import type { SourceSet } from './sources.js';
-import type { DistanceMethod } from './field.js';
+import type { DistanceMethod, SurfacePath } from './field.js';
+import { shortestPathThrough, type WaypointPath } from './waypoints.js';
 import { prepareDistance, type DistanceOptions, type DistanceSolver } from './solver.js';
 import { baryInFace } from './exact/evaluate.js';
 import { commonFaces } from './exact/layout.js';
@@ -45,6 +46,10 @@ export interface OrientationCover {
   liftSegment(a: SurfacePoint, b: SurfacePoint, f: number): SurfacePoint[][];
   /** The boundary of the surface as given (the seams are not boundary), as base curves of vertices. */
   boundaryCurves(): SurfacePoint[][];
+  /** The base point under a cover point (the covering map), in canonical spelling. */
+  project(p: SurfacePoint): SurfacePoint;
+  /** The base face under a cover face (−1 stays −1). */
+  baseFace(F: number): number;
 }
 
 /**
@@ -145,7 +150,22 @@ export function orientationCover(t: Topology, positions: Float64Array, seams: In
     for (let v = 0; v < nv; v++) for (const u of vertexLifts(v)) if (values[u]! < out[v]!) out[v] = values[u]!;
     return out;
   };
-  return { base: t, mesh, positions: positions2, lifts, fold, liftSegment, boundaryCurves };
+  const baseFace = (F: number): number => (F < 0 ? -1 : ct.faceOrigin[F]! % nf);
+  const project = (q0: SurfacePoint): SurfacePoint => {
+    const q = checkSurfacePoint(q0, ct, 'point');
+    if (q.kind === 'vertex') return { kind: 'vertex', vertex: below[ct.vertexOrigin[q.vertex]!]! };
+    const F = q.kind === 'face' ? q.face : (ct.edgeHalfedge[q.edge]! / 3) | 0;
+    const cb = [0, 0, 0];
+    baryInFace(ct, F, q, cb);
+    const f = baseFace(F), sheet = ct.faceOrigin[F]! >= nf ? 1 : 0;
+    const b: [number, number, number] = [0, 0, 0];
+    for (let j = 0; j < 3; j++) {
+      const c = cls(t.tri[3 * f + j]!, sheet);
+      for (let k = 0; k < 3; k++) if (ct.vertexOrigin[ct.tri[3 * F + k]!] === c) b[j] = cb[k]!;
+    }
+    return checkSurfacePoint({ kind: 'face', face: f, bary: b }, t, 'point');
+  };
+  return { base: t, mesh, positions: positions2, lifts, fold, liftSegment, boundaryCurves, project, baseFace };
 }
 
 /**
@@ -176,5 +196,27 @@ export function prepareCoverDistance(cover: OrientationCover, method: DistanceMe
       const field = { ...r.field, distance: cover.fold(r.field.distance), sources: [...sources.points, ...sources.curves.flat()] };
       return { ...r, field, at: (p) => Math.min(...cover.lifts(p).map((q) => r.at(q))) };
     },
+  };
+}
+
+/**
+ * The exact shortest path through `stops` (base points, or lists of
+ * equivalent base points) on a surface with orientation seams: traced on the
+ * double cover from every lift of each stop, then mapped down. Points are
+ * base spellings; across a seam two consecutive points share no base face
+ * (they meet through the seam). `cumulative`, `faces` (mapped to base faces)
+ * and the lengths are those of the cover path (the covering map keeps
+ * lengths).
+ */
+export function coverPathThrough(cover: OrientationCover, stops: (SurfacePoint | SurfacePoint[])[], opts: { memoryBudget?: number } = {}): WaypointPath {
+  const lifted = stops.map((s) => (Array.isArray(s) ? s : [s]).flatMap((p) => cover.lifts(p)));
+  const r = shortestPathThrough(cover.mesh, lifted, opts);
+  const down = (p: SurfacePath): SurfacePath => ({ points: p.points.map(cover.project), length: p.length });
+  return {
+    path: down(r.path),
+    length: r.length,
+    legs: r.legs.map((l) => ({ path: down(l.path), length: l.length })),
+    cumulative: r.cumulative,
+    faces: r.faces.map(cover.baseFace),
   };
 }

@@ -23,7 +23,8 @@ import { surfaceFromMeshData } from '../../src/mesh/surface.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import { PointResolver } from '../../src/query/resolve.js';
 import { prepareDistance } from '../../src/geodesic/solver.js';
-import { orientationCover, prepareCoverDistance } from '../../src/geodesic/cover.js';
+import { coverPathThrough, orientationCover, prepareCoverDistance } from '../../src/geodesic/cover.js';
+import { pathPolyline } from '../../src/geodesic/path.js';
 import { pointSources } from '../../src/geodesic/sources.js';
 import { shortestPathThrough } from '../../src/geodesic/waypoints.js';
 import type { DistanceMethod } from '../../src/geodesic/field.js';
@@ -131,6 +132,24 @@ describe('non-orientable surfaces: paths cross the seam', () => {
         if (a !== s) continue;
         expect(de[b]!, `edge v:${s}–v:${b}`).toBeCloseTo(Math.hypot(P[3 * a]! - P[3 * b]!, P[3 * a + 1]! - P[3 * b + 1]!, P[3 * a + 2]! - P[3 * b + 2]!), 12);
       }
+    }
+  });
+
+  it('shortest paths cross the seam: length equals the distance, and the 3D polyline has that length', () => {
+    const cover = orientationCover(t, surface.positions, seams);
+    const exact = prepareCoverDistance(cover, 'exact');
+    const r = new PointResolver(t, surface.positions);
+    for (const [a, b] of [[30, 37], [0, 33], [62, 1], [5, 45]] as const) {
+      const route = coverPathThrough(cover, [r.resolveAll(`v:${a}`), r.resolveAll(`v:${b}`)]);
+      const d = r.foldCopies(exact.solve(pointSources(r.resolveAll(`v:${a}`))).field.distance)[b]!;
+      expect(route.length, `v:${a} → v:${b}`).toBeCloseTo(d, 12);
+      expect(route.length).toBeLessThanOrEqual(edgeDijkstra(P, T, a)[b]! + 1e-12); // a path along input edges is no shorter
+      // each piece lies in one flat triangle, so its chord is its length (elementary)
+      const xyz = pathPolyline(route.path, t, surface.positions);
+      let sum = 0;
+      for (let i = 3; i < xyz.length; i += 3) sum += Math.hypot(xyz[i]! - xyz[i - 3]!, xyz[i + 1]! - xyz[i - 2]!, xyz[i + 2]! - xyz[i - 1]!);
+      expect(sum, `polyline v:${a} → v:${b}`).toBeCloseTo(d, 12);
+      expect(route.cumulative[route.cumulative.length - 1]).toBeCloseTo(d, 12);
     }
   });
 
