@@ -50,13 +50,13 @@ export { fieldStats } from './geodesic/field.js';
 export { pointSources, boundaryCurves, type SourceSet } from './geodesic/sources.js';
 export { HeatSolver, type HeatOptions, type HeatStats } from './geodesic/heat.js';
 export { graphDistance, graphValueAt, type GraphOptions } from './geodesic/graph.js';
-export { orientationCover, prepareCoverDistance, type OrientationCover } from './geodesic/cover.js';
+export { orientationCover, prepareCoverDistance, coverPathThrough, type OrientationCover } from './geodesic/cover.js';
 export { exactDistance, DEFAULT_MEMORY_BUDGET, type ExactOptions, type ExactResult } from './geodesic/exact/index.js';
 export type { WindowUsage } from './geodesic/exact/usage.js';
 export { prepareExactGeometry, type ExactGeometry } from './geodesic/exact/geometry.js';
 export { pathPolyline, pathLength } from './geodesic/path.js';
 export {
-  prepareDistance, type DistanceSolver, type DistanceResult, type DistanceOptions, type SolveOptions,
+  prepareDistance, checkEdgeLengths, MAX_LENGTH, type DistanceSolver, type DistanceResult, type DistanceOptions, type SolveOptions,
 } from './geodesic/solver.js';
 
 // points on the surface
