@@ -126,6 +126,8 @@ export class RunBudget {
   /** Projects the windows of the whole run from its second half so far (see the module comment). */
   private projectionTrips(t: Topology, count: number, faces: number, faceSeen: Uint8Array): boolean {
     const hc = this.histCount, hf = this.histFaces;
+    // samples about a block apart (the store also asks when it fills its reservation)
+    if (hc.length && count - hc[hc.length - 1]! < BLOCK / 2) return false;
     hc.push(count);
     hf.push(faces);
     if (count < 4 * BLOCK) return false;

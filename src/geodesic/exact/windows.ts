@@ -130,27 +130,29 @@ export class WindowStore {
    * (why: `budget.tripped`).
    */
   makeRoom(): boolean {
-    const b = this.budget;
-    const room = b.nextRoom(this.t, this.count, this.touchedFaces(), this.faceSeen);
-    if (room <= this.count) return false;
-    if (room > this.he.length) {
-      if (!b.allowsGrowth(this.count)) return false;
-      // double; but when a store of twice the size could never be copied again within the budget,
-      // take everything the budget holds now (else the run would stop at the doubled size, up to
-      // half the budget short)
-      const full = Math.floor((b.limit - b.total(0)) / WINDOW_BYTES);
-      let c = 2 * this.he.length;
-      if (b.total(c, c * WINDOW_BYTES) > b.limit) c = full;
-      c = Math.max(room, Math.min(c, b.maxWindows, full));
-      try {
-        this.grow(c);
-      } catch (e) {
-        if (!(e instanceof RangeError)) throw e;
-        b.refused(c * WINDOW_BYTES);
-        return false;
-      }
+    const b = this.budget, n = this.count;
+    const allowed = b.nextRoom(this.t, n, this.touchedFaces(), this.faceSeen);
+    if (allowed <= n) return false;
+    if (n < this.he.length) {
+      this.room = Math.min(allowed, this.he.length); // reserved room left: fill it before growing
+      return true;
     }
-    this.room = room;
+    if (!b.allowsGrowth(n)) return false;
+    // double; but when a store of twice the size could never be copied again within the budget, take
+    // everything the budget holds now (else the run would stop at the doubled size, up to half the
+    // budget short). allowed ≤ full and n < maxWindows (nextRoom), so c > n.
+    const full = Math.floor((b.limit - b.total(0)) / WINDOW_BYTES);
+    let c = 2 * this.he.length;
+    if (b.total(c, c * WINDOW_BYTES) > b.limit) c = full;
+    c = Math.min(c, b.maxWindows, full);
+    try {
+      this.grow(c);
+    } catch (e) {
+      if (!(e instanceof RangeError)) throw e;
+      b.refused(c * WINDOW_BYTES);
+      return false;
+    }
+    this.room = Math.min(allowed, c);
     return true;
   }
 
