@@ -13,7 +13,10 @@ import { PointResolver } from '../../src/query/resolve.js';
 import { formatSurfacePoint, type SurfacePoint } from '../../src/query/surface-point.js';
 import { boundaryCurves, type SourceSet } from '../../src/geodesic/sources.js';
 import { prepareDistance, type DistanceOptions } from '../../src/geodesic/solver.js';
-import { fieldStats, type DistanceMethod } from '../../src/geodesic/field.js';
+import { orientationCover, prepareCoverDistance } from '../../src/geodesic/cover.js';
+import type { DistanceMethod } from '../../src/geodesic/field.js';
+import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
+import { describeField, summarizeField } from '../field-summary.js';
 import { usageError } from '../../src/errors.js';
 import { commonFaces } from '../../src/geodesic/exact/layout.js';
 
@@ -33,6 +36,7 @@ interface DistanceCliOptions {
   mollify: boolean;
   splitNonmanifold?: boolean;
   maxInputSize?: string;
+  memoryBudget?: string;
 }
 
 const collect = (v: string, prev: string[] = []) => [...prev, v];
@@ -66,6 +70,7 @@ export function registerDistance(program: Command): void {
     .option('--no-mollify', 'heat: do not mollify near-degenerate triangles')
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
     .addOption(maxInputSizeOption())
+    .addOption(memoryBudgetOption())
     .addHelpText('after', `\nDistances are in the mesh's own units; unreachable points get null (JSON) or an empty field (CSV).\n${TERRAIN_CAUTION}\n${MACHINING_CAUTION}`)
     .action(action(async (mesh: string, o: DistanceCliOptions) => runDistance(mesh, o)));
 }
@@ -74,9 +79,12 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
   if (o.output) checkFieldOutput(o.output, [mesh]);
   const maxDistance = positiveNumber(o.maxDistance, '--max-distance');
   const timeScale = positiveNumber(o.timeScale, '--time-scale');
+  const memoryBudget = memoryBudgetBytes(o.memoryBudget);
   const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
   const t = surface.topology;
   const resolver = new PointResolver(t, surface.positions);
+  const seams = surface.report.orientationSeams;
+  const cover = seams.length ? orientationCover(t, surface.positions, seams) : null;
 
   // source sets
   const specs: string[] = o.from ?? [];
@@ -97,10 +105,10 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
     const set: SourceSet = { points: [], curves: [] };
     for (const s of list) {
       if (s.trim() === 'boundary') {
-        const loops = boundaryCurves(t);
+        const loops = cover ? cover.boundaryCurves() : boundaryCurves(t);
         if (loops.length === 0) throw usageError('--from boundary: the mesh has no boundary', mesh);
         set.curves.push(...loops);
-      } else set.points.push(resolver.resolve(s, '--from'));
+      } else set.points.push(...resolver.resolveAll(s, '--from')); // every copy of a split vertex
     }
     return set;
   };
@@ -109,7 +117,7 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
     : [{ specs: [...specs, ...curveSpecs.map((c) => `curve(${c})`)], set: withCurves(toSet(specs), curves) }];
   const targets: SurfacePoint[] = (o.to ?? []).map((s) => resolver.resolve(s, '--to'));
 
-  const opts: DistanceOptions = {};
+  const opts: DistanceOptions = { memoryBudget };
   if (maxDistance !== undefined) opts.maxDistance = maxDistance;
   if (o.method === 'heat') {
     opts.heat = { intrinsicDelaunay: o.intrinsicDelaunay, mollify: o.mollify };
@@ -117,11 +125,12 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
     if (o.heatBoundary) opts.heat.boundary = o.heatBoundary;
   }
   const t0 = performance.now();
-  const im = intrinsicFromPositions(t, surface.positions);
-  const solver = prepareDistance(im, o.method, opts);
+  // a non-orientable surface was cut along seams to build it: solve on its double cover (paths cross the seams)
+  const solver = cover ? prepareCoverDistance(cover, o.method, opts) : prepareDistance(intrinsicFromPositions(t, surface.positions), o.method, opts);
   const prepareMs = since(t0);
 
-  const fieldNeeded = Boolean(o.output) || !o.to || o.to.length === 0 || o.json === true;
+  // only -o needs every vertex; --json reports what was computed (machine output never changes the work)
+  const fieldNeeded = Boolean(o.output) || !o.to || o.to.length === 0;
   let solveMs = 0;
   const results = sets.map(({ specs: sp, set }) => {
     const r = solver.solve(set, { targets, fieldNeeded });
@@ -129,8 +138,9 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
     return {
       sources: sp,
       result: r,
-      targets: targets.map((p, i) => ({ point: o.to![i]!, surfacePoint: formatSurfacePoint(p), distance: r.at(p) })),
-      stats: fieldStats(r.field.distance),
+      targets: targets.map((p, i) => ({ point: o.to![i]!, surfacePoint: formatSurfacePoint(p), distance: Math.min(...resolver.copies(p).map((q) => r.at(q))) })),
+      field: resolver.foldCopies(r.field.distance), // a split file vertex: the nearest of its copies
+      summary: summarizeField(resolver.foldCopies(r.field.distance), r.complete, r.stoppedBy, maxDistance, !fieldNeeded),
     };
   });
 
@@ -141,7 +151,7 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
       results.map((r, i) => ({
         name: results.length > 1 ? `distance_${i}` : 'distance',
         unit: 'mesh units',
-        values: r.result.field.distance,
+        values: r.field,
         plyFill: -1,
       })),
       { plyAscii: o.ascii },
@@ -153,21 +163,19 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
     const one = (r: (typeof results)[number]) => ({
       sources: r.sources,
       targets: r.targets,
-      field: { min: r.stats.min, max: r.stats.max, mean: r.stats.mean, unreachableVertices: r.stats.unreachable },
-      complete: r.result.complete,
+      field: r.summary,
+      complete: r.result.complete && r.summary.stoppedBy === null, // graph reports complete at --max-distance too
       details: r.result.details,
     });
     const base = { method: o.method, unit: 'mesh units', mesh, output: o.output ?? null };
-    const body = results.length === 1 ? { ...base, ...one(results[0]!) } : { ...base, sets: results.map(one) };
+    const snapped = resolver.landings.map((l) => ({ point: l.spec, surfacePoint: formatSurfacePoint(l.point), position: l.position, moved: l.distance }));
+    const body = { ...(results.length === 1 ? { ...base, ...one(results[0]!) } : { ...base, sets: results.map(one) }), snapped };
     process.stdout.write(toJson({ ...body, timings, prepare: solver.prepareDetails }) + '\n');
   } else {
     const L: string[] = [`${mesh}: ${o.method} distances (mesh units), ${t.nv} vertices`];
+    for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map((x) => fmt(x, 9)).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
     for (const r of results) {
-      if (r.result.complete) {
-        L.push(`  from ${r.sources.join(' ')}: min ${fmt(r.stats.min)}, mean ${fmt(r.stats.mean)}, max ${fmt(r.stats.max)}${r.stats.unreachable ? `; ${r.stats.unreachable} vertices unreachable` : ''}`);
-      } else {
-        L.push(`  from ${r.sources.join(' ')}: stopped once the targets were settled (${r.stats.unreachable} of ${t.nv} vertices not computed; give -o or --json for the whole field)`);
-      }
+      L.push(`  from ${r.sources.join(' ')}: ${describeField(r.summary, maxDistance)}`);
       for (const tg of r.targets) L.push(`    to ${tg.point}: ${Number.isFinite(tg.distance) ? fmt(tg.distance, 9) : 'unreachable'}`);
     }
     L.push(`  timings: load ${fmt(timings.load, 4)} ms, prepare ${fmt(timings.prepare, 4)} ms, solve ${fmt(timings.solve, 4)} ms`);

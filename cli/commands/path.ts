@@ -4,6 +4,7 @@
  */
 import type { Command } from 'commander';
 import { loadSurface, maxInputSizeOption } from '../load.js';
+import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { checkOutput, outputFormat } from '../output.js';
 import { action, fmt, since, toJson } from '../run.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
@@ -12,6 +13,7 @@ import { PointResolver } from '../../src/query/resolve.js';
 import { formatSurfacePoint } from '../../src/query/surface-point.js';
 import { shortestPathThrough } from '../../src/geodesic/waypoints.js';
 import { pathPolyline } from '../../src/geodesic/path.js';
+import { coverPathThrough, orientationCover } from '../../src/geodesic/cover.js';
 import { writeObjPolyline } from '../../src/io/write-obj.js';
 import { toCsv } from '../../src/io/csv.js';
 import { writeFileAtomic } from '../../src/io/atomic.js';
@@ -29,6 +31,7 @@ interface PathCliOptions {
   json?: boolean;
   splitNonmanifold?: boolean;
   maxInputSize?: string;
+  memoryBudget?: string;
 }
 
 /** Registers the command. */
@@ -45,6 +48,7 @@ export function registerPath(program: Command): void {
     .option('--json', 'print the result as JSON')
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
     .addOption(maxInputSizeOption())
+    .addOption(memoryBudgetOption())
     .addHelpText(
       'after',
       `\nLengths are in the mesh's own units. GeoJSON coordinates are the mesh's own coordinates (RFC 7946 expects\nWGS 84 longitude/latitude; use the file only where another system is agreed).\n${TERRAIN_CAUTION}\n${MACHINING_CAUTION}`,
@@ -55,18 +59,21 @@ export function registerPath(program: Command): void {
 async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
   if (o.output) checkOutput(o.output, PATH_FORMATS, [mesh]);
   if (!o.to && !o.closed) throw usageError('give --to, or --closed to return to the start');
+  const memoryBudget = memoryBudgetBytes(o.memoryBudget);
   const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
   const t = surface.topology;
   const resolver = new PointResolver(t, surface.positions);
+  // a non-orientable surface was cut along seams to build it: trace on its double cover (paths cross the seams)
+  const seams = surface.report.orientationSeams;
+  const cover = seams.length ? orientationCover(t, surface.positions, seams) : null;
   const specs = [o.from, ...(o.via ?? []), ...(o.to ? [o.to] : [])];
   const labels = ['--from', ...(o.via ?? []).map(() => '--via'), ...(o.to ? ['--to'] : [])];
-  const stops = specs.map((s, i) => resolver.resolve(s, labels[i]));
+  const stops = specs.map((s, i) => resolver.resolveAll(s, labels[i])); // a split vertex: every copy
   if (o.closed) stops.push(stops[0]!);
   if (stops.length < 2) throw usageError('a path needs at least two points');
 
   const t0 = performance.now();
-  const im = intrinsicFromPositions(t, surface.positions);
-  const route = shortestPathThrough(im, stops);
+  const route = cover ? coverPathThrough(cover, stops, { memoryBudget }) : shortestPathThrough(intrinsicFromPositions(t, surface.positions), stops, { memoryBudget });
   const solveMs = since(t0);
   if (!Number.isFinite(route.length)) {
     const leg = route.legs.findIndex((l) => !Number.isFinite(l.length));
@@ -102,6 +109,7 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
       points,
       surfacePoints: route.path.points.map(formatSurfacePoint),
       legs: route.legs.map((l, i) => ({ from: specs[i] ?? specs[0], to: specs[i + 1] ?? specs[0], length: l.length })),
+      snapped: resolver.landings.map((l) => ({ point: l.spec, surfacePoint: formatSurfacePoint(l.point), position: l.position, moved: l.distance })),
       timings: { load: loadMs, solve: solveMs },
     };
   }
@@ -109,6 +117,7 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
     process.stdout.write(toJson({ mesh, ...resultJson(), output: o.output ?? null }) + '\n');
   } else {
     const L = [`${mesh}: shortest path ${fmt(route.length, 9)} mesh units, ${n} points, ${route.legs.length} leg(s)`];
+    for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map((x) => fmt(x, 9)).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
     route.legs.forEach((l, i) => L.push(`  leg ${i + 1}: ${specs[i] ?? specs[0]} → ${specs[i + 1] ?? specs[0]}: ${fmt(l.length, 9)}`));
     L.push(`  timings: load ${fmt(loadMs, 4)} ms, solve ${fmt(solveMs, 4)} ms`);
     if (o.output) L.push(`  wrote ${o.output}`);
