@@ -201,7 +201,17 @@ export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: Exa
       return all;
     };
   }
-  const stopKey = runEvents(s, stop);
+  let stopKey: number;
+  try {
+    stopKey = runEvents(s, stop);
+  } catch (e) {
+    // a queue that cannot grow (the window store reports its own refusals through s.overflow)
+    if (!(e instanceof RangeError)) throw e;
+    throw limitError(
+      `exact geodesics: the system refused memory for the event queues (${e.message}; ${s.win.count} windows stored, mesh of ${t.nf} faces); ` +
+        'free memory, set a maximum distance (maxDistance, --max-distance), or use the heat method (--method heat) for whole fields',
+    );
+  }
   if (s.overflow) throw overflowError(s);
   const reach = Math.min(stopKey, maxD);
   const distance = new Float64Array(t.nv);
