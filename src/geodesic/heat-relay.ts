@@ -69,7 +69,10 @@ export function heatCeiling(maxGrad: number, maxDiag: number): number {
  * Runs the heat solve(s) through `heat(rhs, u)` (which may overwrite rhs)
  * and accumulates b (zeroed here). `rhs` holds the initial heat on entry and
  * is used as the relay workspace. Returns the number of faces left with
- * X = 0 in components that carry heat, and the number of stages used.
+ * X = 0 in components that carry heat, the number of stages used, and the
+ * vertices of heated components the stage cap left unreached (`unsettled`;
+ * their distances would be wrong). Vertices left because no heat reaches
+ * them at all (negative heat of a non-M-matrix) count as flat faces instead.
  */
 export function assembleDivergence(
   w: RelayWork,
@@ -77,14 +80,14 @@ export function assembleDivergence(
   rhs: Float64Array,
   u: Float64Array,
   b: Float64Array,
-): { flatFaces: number; stages: number } {
+): { flatFaces: number; stages: number; unsettled: number } {
   const { t, comp, wildcard, stage, compTau: tau, compHot: hot } = w;
   const nv = t.nv;
   hot.fill(0);
   for (let v = 0; v < nv; v++) if (rhs[v]! > 0 && comp[v]! >= 0) hot[comp[v]!] = 1;
   stage.fill(-1);
   b.fill(0);
-  let flat = 0, k = 0;
+  let flat = 0, k = 0, unsettled = 0;
   for (;; k++) {
     let sum = 0;
     for (let v = 0; v < nv; v++) sum += rhs[v]!;
@@ -106,6 +109,7 @@ export function assembleDivergence(
       if (wildcard[v] || u[v]! >= tau[c]!) { stage[v] = k; settled++; } else pending++;
     }
     const last = pending === 0 || settled === 0 || k + 1 >= MAX_RELAY_STAGES;
+    unsettled = k + 1 >= MAX_RELAY_STAGES ? pending : 0;
     flat += scatterStage(w, k, u, b, last);
     if (last) break;
     // front: settled-in-this-stage vertices with an unsettled neighbour release u/τ
@@ -117,7 +121,7 @@ export function assembleDivergence(
       if (stage[c] === k && stage[a] === -1 && !wildcard[c]) rhs[c] = u[c]! / tau[comp[c]!]!;
     }
   }
-  return { flatFaces: flat, stages: k + 1 };
+  return { flatFaces: flat, stages: k + 1, unsettled };
 }
 
 /**

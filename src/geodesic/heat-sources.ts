@@ -14,6 +14,11 @@
  *   segment as long as one edge weighs like one point), spread by
  *   ∫ φ_i ds = ℓ (λ_i(p) + λ_i(q)) / 2, the hat functions being linear along
  *   the segment inside one face.
+ *
+ * Dirichlet data of the Poisson step ({@link sourceDirichlet}): the vertices
+ * carrying a source's weight are held at their straight in-face distance to
+ * it (0 on a source vertex), so every source point and curve is the zero
+ * level of the recovered field, not only the lowest one.
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { Topology } from '../mesh/topology.js';
@@ -22,7 +27,7 @@ import type { SurfacePoint } from '../query/surface-point.js';
 import { checkSurfacePoint } from '../query/surface-point.js';
 import { next } from '../mesh/topology.js';
 import { usageError } from '../errors.js';
-import { layoutFace, pointInLayout, commonFaces } from './exact/layout.js';
+import { layoutFace, pointInLayout, commonFaces, pointSegmentDistance } from './exact/layout.js';
 
 /**
  * Calls visit(v, λ_v) for every original vertex carrying weight in p
@@ -126,4 +131,68 @@ export function addSourceHeat(m: IntrinsicMesh, sources: SourceSet, h: number, o
     if (curve.length > 1 && !(length > 0)) forEachPointWeight(t, curve[0]!, add(1), label);
   });
   return total;
+}
+
+/**
+ * Dirichlet data for the Poisson step (see the module comment): sets
+ * fixed[v] = 1 and g[v] = the straight in-face distance from v to the nearest
+ * source element touching it, for
+ * - a source point: the vertices carrying its weight (0 at a vertex source,
+ *   the distance along the edge for an edge point, to the corner for a face point);
+ * - a curve segment along an edge (or at a vertex): the vertices carrying its
+ *   end points' weight;
+ * - a curve segment across a face: all three corners of that face.
+ * Flat in-face distances are exact within one face of a flat region and an
+ * upper bound elsewhere. Returns the number of fixed vertices. Indices refer
+ * to `m`, whose vertex ids the intrinsic triangulation keeps.
+ */
+export function sourceDirichlet(m: IntrinsicMesh, sources: SourceSet, fixed: Uint8Array, g: Float64Array): number {
+  const t = m.topology;
+  fixed.fill(0);
+  g.fill(0);
+  let count = 0;
+  const set = (v: number, d: number): void => {
+    if (!fixed[v]) { fixed[v] = 1; g[v] = d; count++; } else if (d < g[v]!) g[v] = d;
+  };
+  const lay = new Float64Array(6), a = new Float64Array(2), b = new Float64Array(2);
+  const point = (p: SurfacePoint): void => {
+    if (p.kind === 'vertex') { set(p.vertex, 0); return; }
+    if (p.kind === 'edge') {
+      const h = t.edgeHalfedge[p.edge]!, l = m.edgeLength[p.edge]!;
+      if (p.t < 1) set(t.tri[h]!, p.t * l);
+      if (p.t > 0) set(t.tri[next(h)]!, (1 - p.t) * l);
+      return;
+    }
+    layoutFace(m, p.face, lay);
+    const s = p.bary[0] + p.bary[1] + p.bary[2];
+    const x = (p.bary[0] * lay[0]! + p.bary[1] * lay[2]! + p.bary[2] * lay[4]!) / s;
+    const y = (p.bary[0] * lay[1]! + p.bary[1] * lay[3]! + p.bary[2] * lay[5]!) / s;
+    for (let k = 0; k < 3; k++) if (p.bary[k]! > 0) set(t.tri[3 * p.face + k]!, Math.hypot(lay[2 * k]! - x, lay[2 * k + 1]! - y));
+  };
+  const carriers: number[] = [];
+  const carry = (v: number): void => { if (!carriers.includes(v)) carriers.push(v); };
+  sources.points.forEach((p, i) => forEachPointWeight(t, p, () => {}, `source ${i}`));
+  sources.points.forEach(point);
+  sources.curves.forEach((curve, ci) => {
+    curve.forEach((p) => { forEachPointWeight(t, p, () => {}, `curve ${ci}`); point(p); });
+    for (let i = 1; i < curve.length; i++) {
+      const p = curve[i - 1]!, q = curve[i]!;
+      const f = commonFaces(t, p, q)[0];
+      if (f === undefined) throw usageError('consecutive curve points share no face', `curve ${ci}, points ${i - 1}-${i}`);
+      carriers.length = 0;
+      forEachPointWeight(t, p, carry);
+      forEachPointWeight(t, q, carry);
+      layoutFace(m, f, lay);
+      pointInLayout(t, f, p, lay, a);
+      pointInLayout(t, f, q, lay, b);
+      if (p.kind === 'face') { const s = p.bary[0] + p.bary[1] + p.bary[2]; a[0]! /= s; a[1]! /= s; }
+      if (q.kind === 'face') { const s = q.bary[0] + q.bary[1] + q.bary[2]; b[0]! /= s; b[1]! /= s; }
+      for (let k = 0; k < 3; k++) {
+        const v = t.tri[3 * f + k]!;
+        if (carriers.length <= 2 && !carriers.includes(v)) continue;
+        set(v, pointSegmentDistance(lay[2 * k]!, lay[2 * k + 1]!, a[0]!, a[1]!, b[0]!, b[1]!));
+      }
+    }
+  });
+  return count;
 }

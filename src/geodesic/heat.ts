@@ -5,7 +5,9 @@
  * 1. heat:     (M + t L) u = δ          t = m·h², h = mean edge length
  * 2. field:    X_f = −∇u_f / |∇u_f|     per face, relayed where u underflows (heat-relay.ts)
  * 3. distance: L φ = b,  b_i = Σ_f A_f ∇φ_i·X_f   (least squares ∇φ ≈ X)
- * 4. shift φ so its least value at the sources is zero, clamp below at 0.
+ * 4. point sources: shift φ so its least value at the sources is zero;
+ *    curve sources: φ held at the sources' Dirichlet data instead, so every
+ *    curve is the zero level (heat-poisson.ts, SourcePoisson); clamp at 0.
  *
  * L is the PSD cotan Laplacian and M the lumped mass on an intrinsic
  * Delaunay triangulation of the mollified metric (both on by default): all
@@ -18,10 +20,16 @@
  * m = 1 (the heat decays like e^(−r/√t)); beyond that the heat underflows,
  * ∇u = 0 and those faces are counted in `lastSolve.flatFaces`.
  *
- * Boundaries: 'neumann' uses the natural condition, 'dirichlet' fixes u = 0 on
+ * Boundaries: 'neumann' uses the natural condition, 'dirichlet' fixes u on
  * the boundary, 'average' (default, the paper's recommendation) averages the
- * two heat solutions. A component whose sources all lie on the boundary has
- * u = 0 under Dirichlet; there the Neumann solution is used instead.
+ * two heat solutions. The Dirichlet data are 0 except at boundary vertices
+ * carrying source heat δ_v, which are held at δ_v / (M + tL)_vv (the value a
+ * lone heated vertex takes): a source on the boundary is then a boundary
+ * value, as in Varadhan's formula with Dirichlet data, instead of being
+ * erased (which made all three modes equal for boundary sources).
+ *
+ * A NaN or infinite value in the solve is a `NUMERIC` error, never a
+ * distance; so is heat that underflows beyond the relay (timeScale too small).
  *
  * The Poisson step pins one vertex per connected component (heat-poisson.ts).
  *
@@ -46,11 +54,20 @@ import { boundaryVertexMask } from '../mesh/boundary.js';
 import { addSourceHeat, sourceValue } from './heat-sources.js';
 import { factorPoisson } from './heat-poisson.js';
 import { assembleDivergence, heatCeiling, type RelayWork } from './heat-relay.js';
-import { usageError, inputError } from '../errors.js';
+import { usageError, inputError, numericError } from '../errors.js';
+import { sourceDirichlet } from './heat-sources.js';
+import { SourcePoisson } from './heat-poisson.js';
+import { liftDirichlet, type EdgePattern } from '../metric/laplacian.js';
+
+/** Source curves solved one by one (see {@link HeatSolver.distance}); more are solved together. */
+export const MAX_SEPARATE_CURVES = 8;
+
+/** Accepted range of {@link HeatOptions.timeScale}: outside it the heat underflows within a few rings or the field is smoothed flat. */
+export const TIME_SCALE_RANGE: readonly [number, number] = [1e-2, 1e4];
 
 /** Options of {@link HeatSolver.prepare}. */
 export interface HeatOptions {
-  /** m in t = m·h² (h = mean edge length); default 1. */
+  /** m in t = m·h² (h = mean edge length); default 1, within {@link TIME_SCALE_RANGE}. */
   timeScale?: number;
   /**
    * Boundary condition of the heat step; default 'average' (the paper's
@@ -109,6 +126,8 @@ export interface HeatSolveStats {
   flatFaces: number;
   /** Heat solves (stages) needed: 1 unless the heat underflowed far from the sources. */
   relayStages: number;
+  /** Time spent factoring the Poisson matrix for this source set (curve sources only; 0 when reused), ms. */
+  sourceFactorMs: number;
 }
 
 /** Factors, geometry and masks a prepared solver keeps. */
@@ -129,6 +148,14 @@ interface HeatParts {
   heatN: CholeskyFactor;
   heatD: CholeskyFactor | null;
   poisson: CholeskyFactor;
+  /** Pattern, Laplacian values, time step and heat-matrix diagonal (Dirichlet data of the heat step). */
+  p: EdgePattern;
+  Lv: Float64Array;
+  step: number;
+  heatDiag: Float64Array;
+  /** Boundary rows of the Dirichlet heat step: boundary or inactive. */
+  fixedD: Uint8Array;
+  sourcePoisson: SourcePoisson;
 }
 
 /** A prepared heat-method solver: factor once, then answer many source sets. */
@@ -140,13 +167,15 @@ export class HeatSolver {
   /** Preparation figures. */
   readonly stats: HeatStats;
   /** Figures of the last distance() call. */
-  lastSolve: HeatSolveStats = { solveMs: 0, flatFaces: 0, relayStages: 0 };
+  lastSolve: HeatSolveStats = { solveMs: 0, flatFaces: 0, relayStages: 0, sourceFactorMs: 0 };
 
   private readonly parts: HeatParts;
   private readonly relay: RelayWork;
   private readonly rhs: Float64Array;
   private readonly u: Float64Array;
   private readonly uD: Float64Array;
+  private readonly gD: Float64Array;
+  private readonly fixed: Uint8Array;
   private readonly b: Float64Array;
   private readonly compMax: Float64Array;
   private readonly compShift: Float64Array;
@@ -162,6 +191,8 @@ export class HeatSolver {
     this.rhs = new Float64Array(nv);
     this.u = new Float64Array(nv);
     this.uD = new Float64Array(nv);
+    this.gD = new Float64Array(nv);
+    this.fixed = new Uint8Array(nv);
     this.b = new Float64Array(nv);
     this.compMax = new Float64Array(parts.componentCount);
     this.compShift = new Float64Array(parts.componentCount);
@@ -175,15 +206,16 @@ export class HeatSolver {
 
   /**
    * One heat step u = (M + tL)⁻¹ rhs under the boundary mode; may overwrite
-   * rhs. A component whose Dirichlet heat is identically zero (all its
-   * sources on the boundary) keeps the Neumann solution.
+   * rhs. Dirichlet data: see the module comment. A component without heat
+   * keeps the (zero) Neumann solution.
    */
   private readonly heatStep = (rhs: Float64Array, u: Float64Array): void => {
     const { heatN, heatD, onBoundary, vertexComponent: comp, boundaryMode } = this.parts;
     heatN.solve(rhs, u);
     if (!heatD) return;
-    const nv = u.length, uD = this.uD;
-    for (let v = 0; v < nv; v++) if (onBoundary[v]) rhs[v] = 0;
+    const nv = u.length, uD = this.uD, g = this.gD, { fixedD, heatDiag, p, Lv, step } = this.parts;
+    for (let v = 0; v < nv; v++) g[v] = onBoundary[v] && rhs[v]! > 0 && heatDiag[v]! > 0 ? rhs[v]! / heatDiag[v]! : 0;
+    liftDirichlet(p, Lv, step, fixedD, g, rhs);
     heatD.solve(rhs, uD);
     const cmax = this.compMax.fill(0);
     for (let v = 0; v < nv; v++) if (comp[v]! >= 0 && uD[v]! > cmax[comp[v]!]!) cmax[comp[v]!] = uD[v]!;
@@ -202,7 +234,8 @@ export class HeatSolver {
   static prepare(mesh: IntrinsicMesh, opts: HeatOptions = {}): HeatSolver {
     const t0 = performance.now();
     const m = opts.timeScale ?? 1;
-    if (!(m > 0 && Number.isFinite(m))) throw usageError(`timeScale must be a positive number, got ${m}`, 'heat');
+    const [mLo, mHi] = TIME_SCALE_RANGE;
+    if (!(m >= mLo && m <= mHi)) throw usageError(`timeScale must lie in [${mLo}, ${mHi}], got ${m}`, 'heat');
     const boundary = opts.boundary ?? 'average';
     if (!['average', 'neumann', 'dirichlet'].includes(boundary)) throw usageError(`unknown boundary condition '${boundary}'`, 'heat');
     const delta = opts.mollifyDelta ?? DEFAULT_MOLLIFY_DELTA;
@@ -244,18 +277,20 @@ export class HeatSolver {
     const t2 = performance.now();
 
     const A = combine(p, step, Lv, 1, Mv);
+    const heatDiag = new Float64Array(t.nv);
+    for (let v = 0; v < t.nv; v++) heatDiag[v] = A[p.diagSlot[v]!]!;
     constrainRows(p, A, inactive);
     let maxDiag = 0, maxGrad = 0;
     for (let v = 0; v < t.nv; v++) maxDiag = Math.max(maxDiag, A[p.diagSlot[v]!]!);
     for (let i = 0; i < geom.grad.length; i++) maxGrad = Math.max(maxGrad, Math.abs(geom.grad[i]!));
     const heatN = CholeskyFactor.factor(patternMatrix(p, A), sym);
     let heatD: CholeskyFactor | null = null;
+    const fixedD = new Uint8Array(t.nv);
     let hasBoundary = false;
     for (let v = 0; v < t.nv && !hasBoundary; v++) hasBoundary = onBoundary[v] === 1 && !inactive[v];
     if (boundary !== 'neumann' && hasBoundary) {
-      const fixed = new Uint8Array(t.nv);
-      for (let v = 0; v < t.nv; v++) fixed[v] = inactive[v]! | onBoundary[v]!;
-      constrainRows(p, A, fixed);
+      for (let v = 0; v < t.nv; v++) fixedD[v] = inactive[v]! | onBoundary[v]!;
+      constrainRows(p, A, fixedD);
       heatD = CholeskyFactor.factor(patternMatrix(p, A), sym);
     }
     const { factor: poisson, blocked, shifted } = factorPoisson(p, sym, Lv, Mv, inactive, comp.vertexComponent, comp.count, h);
@@ -268,47 +303,90 @@ export class HeatSolver {
     };
     return new HeatSolver(mesh, work, stats, {
       boundaryMode: boundary, geom, inactive, minMass, heatCeiling: heatCeiling(maxGrad, maxDiag), vertexComponent: comp.vertexComponent, componentCount: comp.count,
-      onBoundary, blocked, heatN, heatD, poisson,
+      onBoundary, blocked, heatN, heatD, poisson, p, Lv, step, heatDiag, fixedD,
+      sourcePoisson: new SourcePoisson(p, sym, Lv, inactive, comp.vertexComponent, comp.count),
     });
   }
 
   /**
    * Distance from a source set (points and curves on the input mesh) to every
    * vertex, in mesh units. Vertices of components without a source get
-   * Infinity. Throws `USAGE` for invalid or empty source sets.
+   * Infinity. Throws `USAGE` for invalid or empty source sets, `NUMERIC` when
+   * the solve produces a NaN or infinite value or the heat underflows.
+   *
+   * Up to {@link MAX_SEPARATE_CURVES} curves are solved one by one (the point
+   * sources together) and the fields combined by their minimum,
+   * d(x, A ∪ B) = min(d(x, A), d(x, B)): one smoothed field for sources of
+   * different shape moves the seam between them by about √t·ln(ratio of
+   * their heat) (a concave rim out-heats a convex one), 3% on an annulus.
+   * Each curve is held at zero by Dirichlet data, which costs one numeric
+   * factorization per curve (the last one is kept for a repeated call).
+   * More curves are solved at once, all held at zero (one factorization).
    */
   distance(sources: SourceSet): DistanceField {
     const t0 = performance.now();
+    const nv = this.triangulation.topology.nv;
+    this.rhs.fill(0);
+    const total = addSourceHeat(this.mesh, sources, this.stats.meanEdgeLength, this.rhs);
+    if (!(total > 0)) throw usageError('the source set is empty', 'heat');
+    const parts: SourceSet[] = [];
+    if (sources.curves.length > MAX_SEPARATE_CURVES) parts.push(sources);
+    else {
+      if (sources.points.length > 0) parts.push({ points: sources.points, curves: [] });
+      for (const c of sources.curves) parts.push({ points: [], curves: [c] });
+    }
+    const stats: HeatSolveStats = { solveMs: 0, flatFaces: 0, relayStages: 0, sourceFactorMs: 0 };
+    const phi = new Float64Array(nv).fill(Infinity);
+    const part = parts.length > 1 ? new Float64Array(nv) : phi;
+    for (const src of parts) {
+      this.solvePart(src, part, stats);
+      if (part !== phi) for (let v = 0; v < nv; v++) if (part[v]! < phi[v]!) phi[v] = part[v]!;
+    }
+    stats.solveMs = performance.now() - t0;
+    this.lastSolve = stats;
+    return { method: 'heat', distance: phi, sources: [...sources.points, ...sources.curves.flat()] };
+  }
+
+  /** One field: point sources shifted to zero, or curves held at zero. */
+  private solvePart(sources: SourceSet, phi: Float64Array, stats: HeatSolveStats): void {
     const { rhs, b } = this;
     const { blocked, vertexComponent: comp, componentCount: nc } = this.parts;
-    const t = this.triangulation.topology;
-    const nv = t.nv;
+    const nv = phi.length;
     rhs.fill(0);
-    const total = addSourceHeat(this.mesh, sources, this.stats.meanEdgeLength, rhs);
-    if (!(total > 0)) throw usageError('the source set is empty', 'heat');
-
-    const { flatFaces, stages } = assembleDivergence(this.relay, this.heatStep, rhs, this.u, b);
-    for (let v = 0; v < nv; v++) if (blocked[v]) b[v] = 0;
-    const phi = new Float64Array(nv);
-    this.parts.poisson.solve(b, phi);
-
-    // shift each component so its least source value is zero (see sourceValue)
+    addSourceHeat(this.mesh, sources, this.stats.meanEdgeLength, rhs);
+    const { flatFaces, stages, unsettled } = assembleDivergence(this.relay, this.heatStep, rhs, this.u, b);
+    if (unsettled > 0) {
+      throw numericError(`the heat underflowed before reaching ${unsettled} vertices (t = ${this.stats.timeStep}); raise timeScale`, 'heat');
+    }
+    stats.flatFaces += flatFaces;
+    stats.relayStages = Math.max(stats.relayStages, stages);
     const shift = this.compShift.fill(Infinity);
-    const seen = (p: SurfacePoint): void => {
+    const seen = (p: SurfacePoint, val: number): void => {
       const c = comp[p.kind === 'vertex' ? p.vertex : p.kind === 'edge' ? t0v(this.mesh, p.edge) : this.mesh.topology.tri[3 * p.face]!]!;
-      const val = sourceValue(this.mesh, p, phi, this.lay, this.xy);
       if (c >= 0 && val < shift[c]!) shift[c] = val;
     };
-    for (const p of sources.points) seen(p);
-    for (const curve of sources.curves) for (const p of curve) seen(p);
+    if (sources.curves.length > 0) {
+      // curves: every source is the zero level (Dirichlet data, heat-poisson.ts)
+      sourceDirichlet(this.mesh, sources, this.fixed, this.gD);
+      const sp = this.parts.sourcePoisson;
+      sp.solve(this.fixed, this.gD, b, phi);
+      stats.sourceFactorMs += sp.lastFactorMs;
+      for (const p of sources.points) seen(p, 0);
+      for (const curve of sources.curves) for (const p of curve) seen(p, 0);
+    } else {
+      // point sources: shift each component so its least source value is zero (see sourceValue)
+      for (let v = 0; v < nv; v++) if (blocked[v]) b[v] = 0;
+      this.parts.poisson.solve(b, phi);
+      for (const p of sources.points) seen(p, sourceValue(this.mesh, p, phi, this.lay, this.xy));
+    }
     for (let v = 0; v < nv; v++) {
       const c = comp[v]!;
       const s = c >= 0 && c < nc ? shift[c]! : Infinity;
-      const d = s < Infinity ? phi[v]! - s : Infinity;
-      phi[v] = d > 0 ? d : d === Infinity ? Infinity : 0; // clamps tiny negatives; NaN cannot pass `d > 0`
+      if (s === Infinity) { phi[v] = Infinity; continue; }
+      const d = phi[v]! - s;
+      if (!Number.isFinite(d)) throw numericError(`the heat method produced ${d} at vertex ${v}`, 'heat');
+      phi[v] = d > 0 ? d : 0; // clamps tiny negatives
     }
-    this.lastSolve = { solveMs: performance.now() - t0, flatFaces, relayStages: stages };
-    return { method: 'heat', distance: phi, sources: [...sources.points, ...sources.curves.flat()] };
   }
 }
 

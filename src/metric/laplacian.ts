@@ -214,6 +214,27 @@ export function constrainRows(p: EdgePattern, values: Float64Array, fixed: Uint8
   }
 }
 
+/**
+ * Moves known values to the right-hand side of a system whose `fixed` rows
+ * and columns were replaced by the identity ({@link constrainRows}): for
+ * every stored pair (i free, j fixed), rhs_i −= scale · values_ij · g_j, so
+ * that the free rows solve A_FF x_F = rhs_F − A_FD g_D. Sets rhs_j = g_j on
+ * the fixed rows. `values` are the unconstrained matrix entries.
+ */
+export function liftDirichlet(
+  p: EdgePattern, values: Float64Array, scale: number, fixed: Uint8Array, g: Float64Array, rhs: Float64Array,
+): void {
+  for (let j = 0; j < p.n; j++) {
+    const fj = fixed[j]!;
+    for (let s = p.colPtr[j]! + 1; s < p.colPtr[j + 1]!; s++) {
+      const i = p.rowIdx[s]!, fi = fixed[i]!;
+      if (fj && !fi) rhs[i]! -= scale * values[s]! * g[j]!;
+      else if (fi && !fj) rhs[j]! -= scale * values[s]! * g[i]!;
+    }
+  }
+  for (let v = 0; v < p.n; v++) if (fixed[v]) rhs[v] = g[v]!;
+}
+
 /** Per-face gradient of a per-vertex function: out[2f], out[2f+1] in face f's frame. */
 export function faceGradient(t: Topology, g: FaceGeometry, u: Float64Array, out = new Float64Array(2 * t.nf)): Float64Array {
   const G = g.grad;

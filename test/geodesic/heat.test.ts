@@ -108,25 +108,37 @@ describe('HeatSolver invariants', () => {
     for (let v = 0; v < nS; v++) expect(both[v]).toBeCloseTo(d[v]!, 12);
   });
 
-  it('supports every boundary mode; Dirichlet falls back to Neumann for boundary sources', () => {
+  it('supports every boundary mode; a boundary source is Dirichlet data, so the modes differ there', () => {
     const s = flatGrid(30, 30, 1, 1, 0.2, 6);
     const m = meshOf(s);
     const P = s.positions;
+    const byMode: Partial<Record<'average' | 'neumann' | 'dirichlet', Float64Array>> = {};
     for (const boundary of ['average', 'neumann', 'dirichlet'] as const) {
       const solver = HeatSolver.prepare(m, { boundary });
       expect(solver.stats.factorizations).toBe(boundary === 'neumann' ? 2 : 3);
       for (const src of [15 * 31 + 15, 15]) { // an interior vertex, then a boundary vertex
         const d = solver.distance(vsrc(src)).distance;
+        if (src === 15) (byMode[boundary] = d);
         let err = 0, n = 0;
         for (let v = 0; v < d.length; v++) {
           const g = Math.hypot(P[3 * v]! - P[3 * src]!, P[3 * v + 1]! - P[3 * src + 1]!);
           if (g < 0.1) continue;
           err += Math.abs(d[v]! - g) / g; n++;
         }
-        // straight-line distance in a convex flat domain (elementary); Dirichlet alone is the least accurate
-        expect(err / n).toBeLessThan(boundary === 'dirichlet' ? 0.08 : 0.03);
+        // straight-line distance in a convex flat domain (elementary). Dirichlet alone
+        // (u = 0 on the rest of the boundary) bends the field towards the boundary, worst
+        // for a source on it (Crane, Weischedel & Wardetzky 2013 recommend averaging the two; REFERENCES.md)
+        expect(err / n).toBeLessThan(boundary === 'dirichlet' ? (src === 15 ? 0.25 : 0.08) : 0.03);
       }
     }
+    // the three modes give three different fields for a boundary source
+    let dAN = 0, dND = 0;
+    for (let v = 0; v < byMode.average!.length; v++) {
+      dAN = Math.max(dAN, Math.abs(byMode.average![v]! - byMode.neumann![v]!));
+      dND = Math.max(dND, Math.abs(byMode.neumann![v]! - byMode.dirichlet![v]!));
+    }
+    expect(dAN).toBeGreaterThan(1e-3);
+    expect(dND).toBeGreaterThan(1e-2);
   });
 
   it('stays finite on degenerate faces with mollification and flips off, and mollifies when on', () => {
