@@ -84,6 +84,11 @@ export class PointResolver {
     return out;
   }
 
+  /** The topology copies of every split file vertex (one list per file vertex, two or more copies each). */
+  splitGroups(): number[][] {
+    return [...this.copyMap().values()];
+  }
+
   /** File vertex → its topology copies, for split vertices only. */
   private copyMap(): Map<number, number[]> {
     if (this.copyList) return this.copyList;

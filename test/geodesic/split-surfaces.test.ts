@@ -25,8 +25,10 @@ import { PointResolver } from '../../src/query/resolve.js';
 import { prepareDistance } from '../../src/geodesic/solver.js';
 import { coverPathThrough, orientationCover, prepareCoverDistance } from '../../src/geodesic/cover.js';
 import { pathPolyline } from '../../src/geodesic/path.js';
+import { surfacePointPosition, type SurfacePoint } from '../../src/query/surface-point.js';
 import { pointSources } from '../../src/geodesic/sources.js';
 import { shortestPathThrough } from '../../src/geodesic/waypoints.js';
+import { throughPinches } from '../../src/geodesic/pinch.js';
 import type { DistanceMethod } from '../../src/geodesic/field.js';
 
 describe('split vertices: a source on a split vertex seeds every copy', () => {
@@ -58,6 +60,34 @@ describe('split vertices: a source on a split vertex seeds every copy', () => {
         if (method === 'heat') expect(Number.isFinite(d[v]!), `heat v:${v}`).toBe(true);
         else expect(d[v], `${method} v:${v}`).toBeCloseTo(Math.hypot(P[3 * v]!, P[3 * v + 1]!), 12);
       }
+    }
+  });
+});
+
+describe('pinch points: paths pass through a split vertex, as on the surface as given', () => {
+  it('bow-tie from a far corner: through the pinch, |source − pinch| + |pinch − v| (each triangle flat: closed form)', () => {
+    const P = Float64Array.from([0, 0, 0, 1, 0, 0, 1, 1, 0, -1, 0, 0, -1, -1, 0]);
+    const surface = surfaceFromMeshData(meshFromTriangles(P, Uint32Array.from([0, 1, 2, 0, 3, 4]), 'bowtie'));
+    const t = surface.topology;
+    const r = new PointResolver(t, surface.positions);
+    const norm = (v: number) => Math.hypot(P[3 * v]!, P[3 * v + 1]!);
+    for (const method of ['exact', 'graph'] as DistanceMethod[]) {
+      const solver = throughPinches(prepareDistance(intrinsicFromPositions(t, surface.positions), method), r.splitGroups());
+      const res = solver.solve(pointSources(r.resolveAll('v:3')), { targets: [{ kind: 'vertex', vertex: 2 }], fieldNeeded: false });
+      const d = r.foldCopies(res.field.distance);
+      for (const v of [1, 2]) expect(d[v], `${method} v:${v}`).toBeCloseTo(1 + norm(v), 12);
+      expect(d[4], `${method} v:4`).toBeCloseTo(Math.hypot(0, 1), 12); // same triangle: straight
+      // a face point beyond the pinch, for exact: 1 + its straight distance from the pinch (graph: an upper bound)
+      const fp: SurfacePoint = { kind: 'face', face: 0, bary: [0.2, 0.3, 0.5] };
+      const xyz = surfacePointPosition(fp, t, surface.positions);
+      const want = 1 + Math.hypot(xyz[0]!, xyz[1]!);
+      if (method === 'exact') expect(res.at(fp)).toBeCloseTo(want, 12);
+      else expect(res.at(fp)).toBeGreaterThanOrEqual(want - 1e-12);
+      expect(res.at(fp)).toBeLessThan(Infinity);
+      expect(res.at({ kind: 'vertex', vertex: 2 })).toBeCloseTo(1 + Math.SQRT2, 12);
+      // with a cap of no extra solves the same query is a LIMIT error, not a wrong number
+      const capped = throughPinches(prepareDistance(intrinsicFromPositions(t, surface.positions), method), r.splitGroups(), { maxPinchSolves: 0 });
+      expect(() => capped.solve(pointSources(r.resolveAll('v:3')))).toThrow(/raise maxPinchSolves/);
     }
   });
 });
