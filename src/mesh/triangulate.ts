@@ -20,7 +20,11 @@
  *    first, since a straight corner can only be clipped after its corner
  *    changes; otherwise the best-shaped one (largest 2·area / Σ side²). This
  *    search runs for polygons up to {@link BEST_EAR_LIMIT} corners; larger
- *    ones take the first ear found (classic O(n²)).
+ *    ones take the first ear found, and test emptiness against the corners
+ *    that do not turn left only (a simple polygon's ear candidate that holds
+ *    any vertex holds a reflex one: Eberly, "Triangulation by Ear Clipping",
+ *    2002). A convex n-gon cap, common in CAD exports, then clips in O(n)
+ *    instead of O(n²) (20 000 corners: 6.7 s before).
  * 3. When no ear exists (self-intersecting or folded input) the left-turning
  *    corner with the largest area is clipped; when no corner turns left at all
  *    (collinear or degenerate remainder) the rest is fanned.
@@ -45,11 +49,22 @@ interface Work {
   xy: Float64Array;
   nextOf: Int32Array;
   prevOf: Int32Array;
+  /** Large polygons: corners that do not turn left (may hold stale entries), and flags. */
+  reflex: Int32Array;
+  inReflex: Uint8Array;
+  alive: Uint8Array;
+}
+
+function newWork(n: number): Work {
+  return {
+    xy: new Float64Array(2 * n), nextOf: new Int32Array(n), prevOf: new Int32Array(n),
+    reflex: new Int32Array(n), inReflex: new Uint8Array(n), alive: new Uint8Array(n),
+  };
 }
 
 function workFor(w: Work, n: number): Work {
   if (w.nextOf.length >= n) return w;
-  return { xy: new Float64Array(2 * n), nextOf: new Int32Array(n), prevOf: new Int32Array(n) };
+  return newWork(n);
 }
 
 /** Twice the signed area of (a, b, c) in the plane. */
@@ -73,7 +88,7 @@ export function triangulate(m: MeshData): Triangulation {
   for (let f = 0; f < nf; f++) nt += Math.max(0, FO[f + 1]! - FO[f]! - 2);
   const triangles = new Uint32Array(3 * nt);
   const source = new Uint32Array(nt);
-  let w: Work = { xy: new Float64Array(0), nextOf: new Int32Array(0), prevOf: new Int32Array(0) };
+  let w: Work = newWork(0);
   let t = 0;
   for (let f = 0; f < nf; f++) {
     const s = FO[f]!, n = FO[f + 1]! - s;
@@ -147,6 +162,35 @@ function clipPolygon(P: Float64Array, FI: Uint32Array, s: number, n: number, w: 
   for (let k = 0; k < n; k++) { nextOf[k] = (k + 1) % n; prevOf[k] = (k + n - 1) % n; }
   let left = n, start = 0;
   const best = n <= BEST_EAR_LIMIT;
+  // large polygons: emptiness is tested against the corners that do not turn left only
+  const { reflex, inReflex, alive } = w;
+  let nReflex = 0;
+  const markIfReflex = (k: number) => {
+    if (inReflex[k] || orient(xy, prevOf[k]!, k, nextOf[k]!) > tol) return;
+    inReflex[k] = 1;
+    reflex[nReflex++] = k;
+  };
+  if (!best) {
+    for (let k = 0; k < n; k++) { alive[k] = 1; inReflex[k] = 0; }
+    for (let k = 0; k < n; k++) markIfReflex(k);
+  }
+  const emptyOfReflex = (a: number, i: number, c: number): boolean => {
+    for (let j = 0; j < nReflex; ) {
+      const p = reflex[j]!;
+      if (!alive[p] || orient(xy, prevOf[p]!, p, nextOf[p]!) > tol) {
+        inReflex[p] = 0; // clipped, or turns left now: drop it from the list
+        reflex[j] = reflex[--nReflex]!;
+        continue;
+      }
+      j++;
+      if (p === a || p === i || p === c) continue;
+      const vp = FI[s + p]!;
+      if (vp === FI[s + a] || vp === FI[s + i] || vp === FI[s + c]) continue;
+      if (dist2(xy, p, a) === 0 || dist2(xy, p, i) === 0 || dist2(xy, p, c) === 0) continue;
+      if (orient(xy, a, i, p) >= 0 && orient(xy, i, c, p) >= 0 && orient(xy, c, a, p) >= 0) return false;
+    }
+    return true;
+  };
   while (left > 3) {
     let ear = -1, earQ = -Infinity, bulge = -1, bulgeA = tol;
     let i = start;
@@ -155,7 +199,7 @@ function clipPolygon(P: Float64Array, FI: Uint32Array, s: number, n: number, w: 
       const area = orient(xy, a, i, c);
       if (!(area > tol)) continue;
       if (area > bulgeA) { bulgeA = area; bulge = i; }
-      if (!isEmpty(xy, FI, s, a, i, c, nextOf)) continue;
+      if (!(best ? isEmpty(xy, FI, s, a, i, c, nextOf) : emptyOfReflex(a, i, c))) continue;
       // Straight corners can only go once a neighbour is clipped (their corner
       // then bends), so ears next to one come first; else the best shape.
       const nearStraight = Math.abs(orient(xy, prevOf[a]!, a, i)) <= tol || Math.abs(orient(xy, i, c, nextOf[c]!)) <= tol;
@@ -170,6 +214,11 @@ function clipPolygon(P: Float64Array, FI: Uint32Array, s: number, n: number, w: 
     nextOf[a] = c; prevOf[c] = a;
     start = c;
     left--;
+    if (!best) {
+      alive[ear] = 0;
+      markIfReflex(a); // a clipped neighbour may turn right on self-intersecting input
+      markIfReflex(c);
+    }
   }
   // Three corners left, or a remainder without any left turn: fan it.
   const a = start;
