@@ -51,6 +51,7 @@ export { pointSources, boundaryCurves, type SourceSet } from './geodesic/sources
 export { HeatSolver, type HeatOptions, type HeatStats } from './geodesic/heat.js';
 export { graphDistance, graphValueAt, type GraphOptions } from './geodesic/graph.js';
 export { orientationCover, prepareCoverDistance, coverPathThrough, type OrientationCover } from './geodesic/cover.js';
+export { throughPinches, DEFAULT_MAX_PINCH_SOLVES, type PinchOptions } from './geodesic/pinch.js';
 export { exactDistance, DEFAULT_MEMORY_BUDGET, type ExactOptions, type ExactResult } from './geodesic/exact/index.js';
 export type { WindowUsage } from './geodesic/exact/usage.js';
 export { prepareExactGeometry, type ExactGeometry } from './geodesic/exact/geometry.js';
