@@ -133,6 +133,14 @@ export function gaussianCurvature(m: IntrinsicMesh, seams?: Int32Array): Curvatu
  * the embedding). Normals are area-weighted face normals; boundary and
  * zero-area vertices get 0.
  *
+ * Rounding: the normal of a sliver comes from a cross product that cancels,
+ * so on a flat mesh of slivers the in-plane Laplacian picks up a normal part
+ * that is pure noise (a tilted flat strip of height 2e-9 gave |H| ≈ 2e8).
+ * Each face adds at most 4ε·(M·(|u| + |v|) + |u||v|) to the error of the
+ * summed normal N (u, v its edge vectors, M the largest coordinate
+ * magnitude), and rounded positions move the Laplacian by at most
+ * 2ε·M·Σ|w|; when |Δx·N/|N|| lies within 4·(|Δx|·δN/|N| + 2ε·M·Σ|w|), H is 0.
+ *
  * @param positions - x, y, z per topology vertex
  * @param vertexArea - mixed-Voronoi areas (from {@link gaussianCurvature})
  * @param boundary - boundary mask (from {@link gaussianCurvature})
@@ -152,10 +160,17 @@ export function meanCurvature(
   const cot = halfedgeCotans(m);
   const lap = new Float64Array(3 * t.nv); // Σ (cot α + cot β)(x_v − x_j)
   const nrm = new Float64Array(3 * t.nv); // Σ face normal × 2·area
+  const wsum = new Float64Array(t.nv); // Σ |w| (rounding bound of the Laplacian)
+  const nerr = new Float64Array(t.nv); // rounding bound of |nrm|
+  let M = 0;
+  for (let k = 0; k < positions.length; k++) M = Math.max(M, Math.abs(positions[k]!));
+  const eps = Number.EPSILON;
   for (let h = 0; h < cot.length; h++) {
     // half-edge h = (i → j) contributes cot(opposite h)·(x_i − x_j) to i and the reverse to j
     const i = t.tri[h]!, j = t.tri[next(h)]!;
     const w = cot[h]!;
+    wsum[i]! += Math.abs(w);
+    wsum[j]! += Math.abs(w);
     for (let d = 0; d < 3; d++) {
       const diff = positions[3 * i + d]! - positions[3 * j + d]!;
       lap[3 * i + d]! += w * diff;
@@ -167,10 +182,13 @@ export function meanCurvature(
     const ux = positions[b]! - positions[a]!, uy = positions[b + 1]! - positions[a + 1]!, uz = positions[b + 2]! - positions[a + 2]!;
     const vx = positions[c]! - positions[a]!, vy = positions[c + 1]! - positions[a + 1]!, vz = positions[c + 2]! - positions[a + 2]!;
     const nx = uy * vz - uz * vy, ny = uz * vx - ux * vz, nz = ux * vy - uy * vx;
+    const ul = Math.hypot(ux, uy, uz), vl = Math.hypot(vx, vy, vz);
+    const err = 4 * eps * (M * (ul + vl) + ul * vl);
     for (const v of [a, b, c]) {
       nrm[v]! += nx;
       nrm[v + 1]! += ny;
       nrm[v + 2]! += nz;
+      nerr[v / 3]! += err;
     }
   }
   const rep = seams && seams.length > 0 ? glueSeams(t, seams).rep : null;
@@ -185,6 +203,8 @@ export function meanCurvature(
         lap[3 * r + d]! += lap[3 * v + d]!;
         nrm[3 * r + d]! += sign * nrm[3 * v + d]!;
       }
+      wsum[r]! += wsum[v]!;
+      nerr[r]! += nerr[v]!;
     }
   }
   const H = new Float64Array(t.nv);
@@ -196,6 +216,8 @@ export function meanCurvature(
     if (!(nl > 0)) continue;
     let dot = 0;
     for (let d = 0; d < 3; d++) dot += lap[3 * v + d]! * nrm[3 * v + d]!;
+    const lapLen = Math.hypot(lap[3 * v]!, lap[3 * v + 1]!, lap[3 * v + 2]!);
+    if (Math.abs(dot / nl) <= 4 * (lapLen * (nerr[v]! / nl) + 2 * eps * M * wsum[v]!)) continue; // noise: H = 0
     // Δx·n = dot / (2A·|n|) = 2H
     const h = dot / (4 * A * nl);
     H[v] = Number.isFinite(h) ? h : 0;

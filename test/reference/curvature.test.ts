@@ -130,6 +130,21 @@ describe('degenerate and sliver meshes (flat ⇒ K = 0; Gauss–Bonnet: Σ defec
       expect(Math.abs(gaussBonnetResidual(c, chi))).toBeLessThan(1e-9);
     }
   });
+  it('tilted flat sliver strip: H = 0 (flat); thin-ring cylinder keeps H = 1/(2R) (do Carmo 1976)', () => {
+    // a plane has H = 0; the normal of a sliver rounds badly, and the in-plane Laplacian then had a
+    // normal part of pure noise (|H| ≈ 2e8 at height 2e-9): within its rounding bound H is 0
+    for (const d of [1e-3, 1e-6, 1e-9]) {
+      const nx = 20, ny = 2, positions = new Float64Array(3 * (nx + 1) * (ny + 1));
+      for (let j = 0; j <= ny; j++) {
+        for (let i = 0; i <= nx; i++) positions.set([i + 0.37 * j, j * d, 0], 3 * (j * (nx + 1) + i));
+      }
+      const { c, H } = analyse(transform({ positions, triangles: gridTriangles(nx, ny) }, 0.7, [3, -2, 5]));
+      for (let v = 0; v < H.length; v++) if (!c.boundary[v]) expect(H[v]).toBe(0);
+    }
+    // rings 2.5e-4 tall and 0.2 wide (aspect ≈ 800) at an offset: still resolved, |H| = 1/(2R) = 0.25
+    const { c, H } = analyse(transform(cylinder(64, 4, 2, 1e-3), 0.3, [1000, 2000, -500]));
+    for (let v = 0; v < H.length; v++) if (!c.boundary[v]) expect(Math.abs(Math.abs(H[v]!) - 0.25)).toBeLessThan(1e-5);
+  });
   it('flat mesh with a collinear (zero-area) triangle under a T-junction: raw interior defects 0, Gauss–Bonnet exact', () => {
     // square 0..2 × 0..1 fanned from (1, 0.5); the bottom side carries the midpoint 1 = (1, 0) and the
     // collinear triangle 1-0-2 closes it, so vertex 1 is interior with angles θ + θ' + π = 2π (flat: defect 0)
