@@ -158,6 +158,12 @@ describe('HeatSolver invariants', () => {
     const m = meshOf(flatGrid(4, 4));
     expectUsage(() => HeatSolver.prepare(m, { timeScale: 0 }));
     expectUsage(() => HeatSolver.prepare(m, { timeScale: Number.NaN }));
+    // issue #8 item 9: 1e-200 gave 21.3 for a true 150.6 and 1e-300 all zeros, with exit 0;
+    // the accepted range is TIME_SCALE_RANGE (common practice: t = m·h² with m near 1)
+    expectUsage(() => HeatSolver.prepare(m, { timeScale: 1e-200 }));
+    expectUsage(() => HeatSolver.prepare(m, { timeScale: 1e-300 }));
+    expectUsage(() => HeatSolver.prepare(m, { timeScale: 1e300 }));
+    expectUsage(() => HeatSolver.prepare(m, { timeScale: Infinity }));
     expectUsage(() => HeatSolver.prepare(m, { mollifyDelta: -1 }));
     expectUsage(() => HeatSolver.prepare(m, { boundary: 'robin' as never }));
     expectUsage(() => HeatSolver.prepare(m, { ordering: 'best' as never }));
