@@ -48,7 +48,7 @@ export { TripletMatrix, analyzeCholesky, CholeskyFactor, type CscMatrix, type Or
 export type { DistanceField, DistanceMethod, SurfacePath } from './geodesic/field.js';
 export { fieldStats } from './geodesic/field.js';
 export { pointSources, boundaryCurves, type SourceSet } from './geodesic/sources.js';
-export { HeatSolver, type HeatOptions, type HeatStats } from './geodesic/heat.js';
+export { HeatSolver, TIME_SCALE_RANGE, type HeatOptions, type HeatStats } from './geodesic/heat.js';
 export { graphDistance, graphValueAt, type GraphOptions } from './geodesic/graph.js';
 export { orientationCover, prepareCoverDistance, coverPathThrough, type OrientationCover } from './geodesic/cover.js';
 export { throughPinches, DEFAULT_MAX_PINCH_SOLVES, type PinchOptions } from './geodesic/pinch.js';

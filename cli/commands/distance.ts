@@ -19,6 +19,7 @@ import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { describeField, summarizeField } from '../field-summary.js';
 import { usageError } from '../../src/errors.js';
 import { commonFaces } from '../../src/geodesic/exact/layout.js';
+import { TIME_SCALE_RANGE } from '../../src/geodesic/heat.js';
 
 interface DistanceCliOptions {
   from?: string[];
@@ -64,7 +65,7 @@ export function registerDistance(program: Command): void {
     .option('--ascii', 'write PLY output as ascii instead of binary')
     .option('--json', 'print the result as JSON')
     .option('--max-distance <d>', 'exact and graph: stop at this distance (mesh units); farther vertices get no distance')
-    .option('--time-scale <m>', 'heat: time step t = m·h², h the mean edge length (default 1)')
+    .option('--time-scale <m>', `heat: time step t = m·h², h the mean edge length (default 1, from ${TIME_SCALE_RANGE[0]} to ${TIME_SCALE_RANGE[1]})`)
     .addOption(new Option('--heat-boundary <mode>', 'heat: boundary condition of the heat step').choices(['average', 'neumann', 'dirichlet']))
     .option('--no-intrinsic-delaunay', 'heat: build the Laplacian on the input triangles instead of the intrinsic Delaunay triangulation')
     .option('--no-mollify', 'heat: do not mollify near-degenerate triangles')
@@ -79,6 +80,9 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
   if (o.output) checkFieldOutput(o.output, [mesh]);
   const maxDistance = positiveNumber(o.maxDistance, '--max-distance');
   const timeScale = positiveNumber(o.timeScale, '--time-scale');
+  if (timeScale !== undefined && !(timeScale >= TIME_SCALE_RANGE[0] && timeScale <= TIME_SCALE_RANGE[1])) {
+    throw usageError(`--time-scale must lie in [${TIME_SCALE_RANGE[0]}, ${TIME_SCALE_RANGE[1]}], got '${o.timeScale}'`);
+  }
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
   const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
   const t = surface.topology;
