@@ -14,6 +14,7 @@ import { formatSurfacePoint, type SurfacePoint } from '../../src/query/surface-p
 import { boundaryCurves, type SourceSet } from '../../src/geodesic/sources.js';
 import { prepareDistance, type DistanceOptions } from '../../src/geodesic/solver.js';
 import { orientationCover, prepareCoverDistance } from '../../src/geodesic/cover.js';
+import { throughPinches } from '../../src/geodesic/pinch.js';
 import type { DistanceMethod } from '../../src/geodesic/field.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { describeField, summarizeField } from '../field-summary.js';
@@ -130,7 +131,12 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
   }
   const t0 = performance.now();
   // a non-orientable surface was cut along seams to build it: solve on its double cover (paths cross the seams)
-  const solver = cover ? prepareCoverDistance(cover, o.method, opts) : prepareDistance(intrinsicFromPositions(t, surface.positions), o.method, opts);
+  // and paths pass through split vertices (pinch points where sheets meet), as on the surface as given
+  const solver = throughPinches(
+    cover ? prepareCoverDistance(cover, o.method, opts) : prepareDistance(intrinsicFromPositions(t, surface.positions), o.method, opts),
+    resolver.splitGroups(),
+    maxDistance !== undefined ? { maxDistance } : {},
+  );
   const prepareMs = since(t0);
 
   // only -o needs every vertex; --json reports what was computed (machine output never changes the work)
