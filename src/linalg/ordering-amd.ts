@@ -70,10 +70,7 @@ export function approximateMinimumDegree(g: AdjacencyGraph): Int32Array {
   const outsideStep = new Int32Array(n).fill(-1);
   const stamp = new Int32Array(n).fill(-1);
   let stampNow = 0;
-  // supervariable candidates of one step, chained by hash value (mod n)
-  const hashFirst = new Int32Array(n).fill(-1);
-  const hashNext = new Int32Array(n);
-  const hashOf = new Int32Array(n);
+  const keys = new Float64Array(n); // hash · n + variable, sorted to group equal hashes
 
   let pool: Int32Array = new Int32Array(Math.max(16, xadj[n]! + (xadj[n]! >> 2) + 2 * n));
   let top = 0;
@@ -181,6 +178,7 @@ export function approximateMinimumDegree(g: AdjacencyGraph): Int32Array {
     }
 
     // 3. prune each variable's lists, absorb covered elements, bound its degree
+    let candidates = 0;
     for (let k = lpStart; k < lpEnd; k++) {
       const v = pool[k]!;
       const b = begin[v]!, ne = nElems[v]!, end = b + size[v]!;
@@ -220,36 +218,31 @@ export function approximateMinimumDegree(g: AdjacencyGraph): Int32Array {
         continue;
       }
       outside[v] = partial; // v is a variable: this slot is free for it this step
-      const h = hash % n;
-      hashOf[v] = h;
-      hashNext[v] = hashFirst[h]!;
-      hashFirst[h] = v;
+      keys[candidates++] = (hash % n) * n + v;
     }
 
     // 4. supervariables: variables with equal hashes and equal lists are merged
-    for (let k = lpStart; k < lpEnd; k++) {
-      const v = pool[k]!;
-      if (state[v] !== VARIABLE) continue;
-      const first = hashFirst[hashOf[v]!]!;
-      if (first === -1) continue; // this chain was done
-      hashFirst[hashOf[v]!] = -1;
-      for (let va = first; va !== -1; va = hashNext[va]!) {
-        if (state[va] !== VARIABLE) continue;
-        let mark = -1;
-        for (let vc = hashNext[va]!; vc !== -1; vc = hashNext[vc]!) {
-          if (state[vc] !== VARIABLE || size[vc] !== size[va] || nElems[vc] !== nElems[va]) continue;
-          if (mark === -1) {
-            mark = stampNow++;
-            for (let q = begin[va]!; q < begin[va]! + size[va]!; q++) stamp[pool[q]!] = mark;
-          }
-          let same = true;
-          for (let q = begin[vc]!; same && q < begin[vc]! + size[vc]!; q++) same = stamp[pool[q]!] === mark;
-          if (!same) continue;
-          weight[va]! += weight[vc]!;
-          state[vc] = GONE;
-          chainNext[chainLast[va]!] = vc;
-          chainLast[va] = chainLast[vc]!;
+    const group = keys;
+    if (candidates > 1) keys.subarray(0, candidates).sort();
+    for (let a = 0; a < candidates - 1; a++) {
+      const va = group[a]! % n;
+      if (state[va] !== VARIABLE) continue;
+      const ha = Math.floor(group[a]! / n);
+      let mark = -1;
+      for (let c = a + 1; c < candidates && Math.floor(group[c]! / n) === ha; c++) {
+        const vc = group[c]! % n;
+        if (state[vc] !== VARIABLE || size[vc] !== size[va] || nElems[vc] !== nElems[va]) continue;
+        if (mark === -1) {
+          mark = stampNow++;
+          for (let q = begin[va]!; q < begin[va]! + size[va]!; q++) stamp[pool[q]!] = mark;
         }
+        let same = true;
+        for (let q = begin[vc]!; same && q < begin[vc]! + size[vc]!; q++) same = stamp[pool[q]!] === mark;
+        if (!same) continue;
+        weight[va]! += weight[vc]!;
+        state[vc] = GONE;
+        chainNext[chainLast[va]!] = vc;
+        chainLast[va] = chainLast[vc]!;
       }
     }
 
