@@ -73,7 +73,7 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
   if (stops.length < 2) throw usageError('a path needs at least two points');
 
   const t0 = performance.now();
-  const route = cover ? coverPathThrough(cover, stops, { memoryBudget }) : shortestPathThrough(intrinsicFromPositions(t, surface.positions), stops, { memoryBudget });
+  const route = cover ? coverPathThrough(cover, stops, { memoryBudget }) : shortestPathThrough(intrinsicFromPositions(t, surface.positions), stops, { memoryBudget, pinches: resolver.splitGroups() });
   const solveMs = since(t0);
   if (!Number.isFinite(route.length)) {
     const leg = route.legs.findIndex((l) => !Number.isFinite(l.length));

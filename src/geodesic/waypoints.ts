@@ -6,10 +6,11 @@
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { SurfacePoint } from '../query/surface-point.js';
 import { checkSurfacePoint, formatSurfacePoint } from '../query/surface-point.js';
-import { usageError } from '../errors.js';
+import { limitError, usageError } from '../errors.js';
 import { checkEdgeLengths } from './solver.js';
 import type { SurfacePath } from './field.js';
-import { exactDistance } from './exact/index.js';
+import { exactDistance, type ExactResult } from './exact/index.js';
+import { DEFAULT_MAX_PINCH_SOLVES } from './pinch.js';
 import { prepareExactGeometry } from './exact/geometry.js';
 import { commonFaces, layoutFace, pointInLayout } from './exact/layout.js';
 
@@ -27,6 +28,52 @@ export interface WaypointPath {
   faces: Int32Array;
 }
 
+/** Options of {@link shortestPathThrough}. */
+export interface WaypointOptions {
+  /** Memory budget of each exact run, bytes (see ExactOptions). */
+  memoryBudget?: number;
+  /**
+   * Pinch points: the copies of each vertex split where sheets meet (e.g.
+   * `PointResolver.splitGroups()`); paths may pass through them (see pinch.ts).
+   */
+  pinches?: number[][];
+  /** Most extra exact runs per leg for pinch points (default 256) before a `LIMIT` error. */
+  maxPinchSolves?: number;
+}
+
+/**
+ * One leg: the shortest path from any of `as` to the nearest of `bs`. With
+ * pinch points, a Dijkstra over them as in pinch.ts (each run a whole
+ * field), then the path is unwound run by run; it lists both copies where it
+ * passes a pinch point.
+ */
+function legPath(run: (from: SurfacePoint[], targets?: SurfacePoint[]) => ExactResult, as: SurfacePoint[], bs: SurfacePoint[], pinches: number[][], cap: number): SurfacePath {
+  const runs: { offset: number; r: ExactResult; from: number; via: SurfacePoint | null }[] = [
+    { offset: 0, r: pinches.length ? run(as) : run(as, bs), from: -1, via: null },
+  ];
+  const done = new Uint8Array(pinches.length);
+  for (;;) {
+    let g = -1, m = Infinity, k = -1, c = -1;
+    pinches.forEach((copies, i) => {
+      if (done[i]) return;
+      runs.forEach((R, j) => { for (const v of copies) if (R.offset + R.r.field.distance[v]! < m) { m = R.offset + R.r.field.distance[v]!; g = i; k = j; c = v; } });
+    });
+    if (g < 0) break;
+    if (runs.length > cap) throw limitError(`a path leg reaches more than ${cap} pinch points (vertices split where sheets meet); raise maxPinchSolves or repair the mesh`, 'pinch points');
+    done[g] = 1;
+    runs.push({ offset: m, r: run(pinches[g]!.map((vertex) => ({ kind: 'vertex', vertex }))), from: k, via: { kind: 'vertex', vertex: c } });
+  }
+  // the nearest spelling of the next stop (copies of a split vertex: the one reached first), by any run
+  let best = Infinity, K = -1, end: SurfacePoint = bs[0]!;
+  runs.forEach((R, j) => { for (const b of bs) { const x = R.offset + R.r.distanceAt(b); if (x < best) { best = x; K = j; end = b; } } });
+  if (K < 0) return { points: [], length: Infinity };
+  const segments: SurfacePoint[][] = [];
+  for (let j = K, target: SurfacePoint | null = end; j >= 0 && target; target = runs[j]!.via, j = runs[j]!.from) {
+    segments.unshift(runs[j]!.r.pathTo(target).points);
+  }
+  return { points: segments.flat(), length: best };
+}
+
 /**
  * Exact shortest path visiting `stops` in order. The metric is checked
  * (`checkEdgeLengths`) and every stop is validated
@@ -34,7 +81,8 @@ export interface WaypointPath {
  * path (its stops lie on different components) the result is "unreachable":
  * `length` is Infinity, `path` is empty (legs are never joined across a
  * gap), and `legs` tells which leg failed (its length is Infinity).
- * `opts.memoryBudget` bounds each leg's exact run (bytes; see ExactOptions).
+ * `opts.memoryBudget` bounds each leg's exact run (bytes; see ExactOptions);
+ * with `opts.pinches`, legs may pass through pinch points.
  *
  * A stop may be given as several points that are one point of the surface
  * as given (the copies of a vertex split while building, see
@@ -43,7 +91,7 @@ export interface WaypointPath {
  * it lists both (same position, no face between them: `faces` is −1 there
  * and `cumulative` does not grow).
  */
-export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint | SurfacePoint[])[], opts: { memoryBudget?: number } = {}): WaypointPath {
+export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint | SurfacePoint[])[], opts: WaypointOptions = {}): WaypointPath {
   checkEdgeLengths(mesh, 'path');
   const stops = stops0.map((p, i) => (Array.isArray(p) ? p : [p]).map((q) => checkSurfacePoint(q, mesh.topology, `stop ${i}`)));
   if (stops.some((s) => s.length === 0)) throw usageError('a stop needs at least one point', 'path');
@@ -52,12 +100,10 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint |
   let length = 0;
   const geometry = stops.length > 1 ? prepareExactGeometry(mesh) : undefined;
   for (let i = 0; i + 1 < stops.length; i++) {
-    const as = stops[i]!, bs = stops[i + 1]!;
-    const r = exactDistance(mesh, { points: as, curves: [] }, { targets: bs, geometry, ...(opts.memoryBudget !== undefined ? { memoryBudget: opts.memoryBudget } : {}) });
-    // the nearest spelling of the next stop (copies of a split vertex: the one this leg reaches first)
-    let b = bs[0]!, db = r.distanceAt(b);
-    for (const q of bs.slice(1)) { const d = r.distanceAt(q); if (d < db) { db = d; b = q; } }
-    const p: SurfacePath = Number.isFinite(db) ? r.pathTo(b) : { points: [], length: Infinity };
+    const run = (from: SurfacePoint[], targets?: SurfacePoint[]) => exactDistance(mesh, { points: from, curves: [] }, {
+      geometry, ...(targets ? { targets } : {}), ...(opts.memoryBudget !== undefined ? { memoryBudget: opts.memoryBudget } : {}),
+    });
+    const p = legPath(run, stops[i]!, stops[i + 1]!, opts.pinches ?? [], opts.maxPinchSolves ?? DEFAULT_MAX_PINCH_SOLVES);
     legs.push({ path: p, length: p.length });
     length += p.length;
     if (!Number.isFinite(p.length)) continue;

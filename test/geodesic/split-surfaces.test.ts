@@ -85,6 +85,15 @@ describe('pinch points: paths pass through a split vertex, as on the surface as 
       else expect(res.at(fp)).toBeGreaterThanOrEqual(want - 1e-12);
       expect(res.at(fp)).toBeLessThan(Infinity);
       expect(res.at({ kind: 'vertex', vertex: 2 })).toBeCloseTo(1 + Math.SQRT2, 12);
+      if (method === 'exact') {
+        // the shortest path from v:4 to v:2 runs straight through the pinch: 2√2 (closed form)
+        const m = intrinsicFromPositions(t, surface.positions);
+        const route = shortestPathThrough(m, [r.resolveAll('v:4'), r.resolveAll('v:2')], { pinches: r.splitGroups() });
+        expect(route.length).toBeCloseTo(2 * Math.SQRT2, 12);
+        expect(route.cumulative[route.cumulative.length - 1]).toBeCloseTo(2 * Math.SQRT2, 12);
+        expect(shortestPathThrough(m, [r.resolveAll('v:4'), r.resolveAll('v:2')]).length).toBe(Infinity); // without: the sheets are apart
+        expect(() => shortestPathThrough(m, [r.resolveAll('v:4'), r.resolveAll('v:2')], { pinches: r.splitGroups(), maxPinchSolves: 0 })).toThrow(/raise maxPinchSolves/);
+      }
       // with a cap of no extra solves the same query is a LIMIT error, not a wrong number
       const capped = throughPinches(prepareDistance(intrinsicFromPositions(t, surface.positions), method), r.splitGroups(), { maxPinchSolves: 0 });
       expect(() => capped.solve(pointSources(r.resolveAll('v:3')))).toThrow(/raise maxPinchSolves/);
