@@ -5,16 +5,20 @@
  * 1. `CHROMIUM_PATH`, when set (it must exist: a wrong path is an error, not
  *    a reason to look elsewhere);
  * 2. a system `chromium` on the PATH (Debian's package installs /usr/bin/chromium);
- * 3. the Chromium shipped by the dev dependency `@sparticuz/chromium`, unpacked
- *    to the temporary folder on first use (about 1.5 s), WebGL 2 through
- *    SwiftShader. Its package asks for Node 22, but it launches on Node 20
- *    (npm only warns about the engine).
+ * 3. the Chromium shipped by the dev dependency `@sparticuz/chromium`, WebGL 2
+ *    through SwiftShader. Its package asks for Node 22, but it launches on
+ *    Node 20 (npm only warns about the engine). On first use it is unpacked
+ *    (about 1.5 s) into a private folder that is then renamed to
+ *    `<tmp>/orthodrome-chromium-<version>`, so a run never sees another run's
+ *    half-unpacked browser, nor another project's /tmp/chromium.
  *
  * Failing to launch is an error, never a skip: a fresh machine with only Node
  * and npm must run the browser test.
  */
-import { accessSync, constants, existsSync } from 'node:fs';
-import { delimiter, join } from 'node:path';
+import { accessSync, constants, existsSync, mkdtempSync, readFileSync, renameSync, rmSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { tmpdir } from 'node:os';
+import { delimiter, dirname, join } from 'node:path';
 import { chromium as playwright, type Browser } from 'playwright-core';
 
 /** Where the browser came from, for messages. */
@@ -68,7 +72,37 @@ export async function launchChromium(): Promise<LaunchedBrowser> {
   } catch (e) {
     throw new Error(`no Chromium: CHROMIUM_PATH is unset, no 'chromium' on the PATH, and the dev dependency @sparticuz/chromium did not load (run npm ci): ${(e as Error).message}`);
   }
-  const executable = await packaged.executablePath();
+  const executable = await unpackOnce(packaged);
   const browser = await playwright.launch({ executablePath: executable, args: packaged.args, headless: true });
   return { browser, executable, source: '@sparticuz/chromium' };
+}
+
+/**
+ * The packaged browser's executable, unpacked once per version: the package
+ * unpacks into os.tmpdir(), so TMPDIR points at a fresh private folder while
+ * it does, and that folder is then renamed into place (atomic; if another run
+ * got there first, its copy is used and ours removed).
+ */
+async function unpackOnce(packaged: typeof import('@sparticuz/chromium').default): Promise<string> {
+  const pkgFile = join(dirname(createRequire(import.meta.url).resolve('@sparticuz/chromium')), '..', 'package.json');
+  const version = (JSON.parse(readFileSync(pkgFile, 'utf8')) as { version: string }).version;
+  const home = join(tmpdir(), `orthodrome-chromium-${version}`);
+  const exe = join(home, 'chromium');
+  if (isExecutable(exe)) return exe;
+  const scratch = mkdtempSync(`${home}.part-`);
+  const saved = process.env.TMPDIR;
+  process.env.TMPDIR = scratch;
+  try {
+    await packaged.executablePath();
+  } finally {
+    if (saved === undefined) delete process.env.TMPDIR;
+    else process.env.TMPDIR = saved;
+  }
+  try {
+    renameSync(scratch, home);
+  } catch (e) {
+    rmSync(scratch, { recursive: true, force: true });
+    if (!isExecutable(exe)) throw e;
+  }
+  return exe;
 }
