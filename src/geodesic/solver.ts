@@ -26,7 +26,7 @@ import { valueAtPoint } from './heat-sources.js';
 import { exactDistance } from './exact/index.js';
 import { prepareExactGeometry } from './exact/geometry.js';
 
-/** Largest edge length (and inverse of the smallest non-zero one) {@link prepareDistance} accepts, mesh units. */
+/** Largest edge length {@link prepareDistance} accepts, mesh units; a non-zero face must be at least its inverse across. */
 export const MAX_LENGTH = 1e60;
 
 /** Options for {@link prepareDistance}. */
@@ -80,8 +80,8 @@ export interface DistanceSolver {
 
 /**
  * Prepares a solver of the given method for `mesh` (an edge length that is
- * negative, not finite, above {@link MAX_LENGTH} or non-zero below its
- * inverse is an `INPUT` error). Its `solve` validates
+ * negative, not finite or above {@link MAX_LENGTH}, or a face smaller than
+ * its inverse, is an `INPUT` error: see {@link checkEdgeLengths}). Its `solve` validates
  * every source and target (`USAGE` error naming the bad point, see
  * `checkSurfacePoint`), and throws `NUMERIC` if the method produced a NaN.
  */
@@ -118,20 +118,27 @@ export function prepareDistance(mesh: IntrinsicMesh, method: DistanceMethod, opt
 
 /**
  * Refuses a metric the solvers cannot measure in (`INPUT` error naming the
- * edge and `label`): a length that is negative or not finite (a NaN would
- * silently drop its edge from the exact and graph searches, every
- * comparison being false), above {@link MAX_LENGTH}, or non-zero below its
- * inverse (products of four lengths, triangle areas, must stay inside double
- * range; measured: the exact method silently degrades to edge-graph values
- * beyond about 1e±76).
+ * edge or face and `label`): a length that is negative or not finite (a NaN
+ * would silently drop its edge from the exact and graph searches, every
+ * comparison being false), above {@link MAX_LENGTH}, or a face whose longest
+ * edge is non-zero but below its inverse (products of four lengths, triangle
+ * areas, must stay inside double range; measured: the exact method silently
+ * degrades to edge-graph values on meshes scaled by 1e77 or 1e-80).
  */
 export function checkEdgeLengths(mesh: IntrinsicMesh, label: string): void {
   const t = mesh.topology;
   for (let e = 0; e < t.ne; e++) {
     const l = mesh.edgeLength[e]!;
     if (!(l >= 0 && l < Infinity)) throw inputError(`edge ${e} has invalid length ${l}`, label);
-    if (l > MAX_LENGTH || (l > 0 && l < 1 / MAX_LENGTH)) {
-      throw inputError(`edge ${e} has length ${l}, outside the ${1 / MAX_LENGTH} to ${MAX_LENGTH} mesh units the solvers handle; rescale the mesh (change its units)`, label);
+    if (l > MAX_LENGTH) {
+      throw inputError(`edge ${e} has length ${l}, beyond the ${MAX_LENGTH} mesh units the solvers handle; rescale the mesh (change its units)`, label);
+    }
+  }
+  const L = mesh.edgeLength, eo = t.edgeOf;
+  for (let f = 0; f < t.nf; f++) {
+    const m = Math.max(L[eo[3 * f]!]!, L[eo[3 * f + 1]!]!, L[eo[3 * f + 2]!]!);
+    if (m > 0 && m < 1 / MAX_LENGTH) {
+      throw inputError(`face ${f} is only ${m} mesh units across, below the ${1 / MAX_LENGTH} the solvers handle; rescale the mesh (change its units)`, label);
     }
   }
 }

@@ -9,6 +9,9 @@ import { triangulate, type Triangulation } from './triangulate.js';
 import { findDuplicatePolygons, type DuplicateFace } from './duplicates.js';
 import { inputError } from '../errors.js';
 
+/** Largest coordinate magnitude a surface may have (edges then stay below the solvers' 1e60 mesh units). */
+export const MAX_COORDINATE = 1e59;
+
 /** Everything known about a loaded surface. */
 export interface Surface {
   /** The data as read from the file. */
@@ -52,6 +55,12 @@ export function surfaceFromMeshData(data: MeshData, options: BuildOptions = {}):
     positions[3 * v] = data.positions[o]!;
     positions[3 * v + 1] = data.positions[o + 1]!;
     positions[3 * v + 2] = data.positions[o + 2]!;
+    // products of four lengths (triangle areas) must stay in double range: see checkEdgeLengths (solver.ts)
+    for (let d = 0; d < 3; d++) {
+      if (Math.abs(positions[3 * v + d]!) > MAX_COORDINATE) {
+        throw inputError(`coordinate ${positions[3 * v + d]} is beyond ±${MAX_COORDINATE}; rescale the mesh (change its units)`, `${data.name}: vertex ${topology.vertexOrigin[v]}`);
+      }
+    }
   }
   // face indices in the report: triangles → the file's polygons
   const src = tr.source;

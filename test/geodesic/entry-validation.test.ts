@@ -20,6 +20,8 @@ import { checkSurfacePoint } from '../../src/query/surface-point.js';
 import type { SurfacePoint } from '../../src/query/surface-point.js';
 import { isOrthodromeError } from '../../src/errors.js';
 import { flatGrid } from '../fixtures/shapes.js';
+import { surfaceFromMeshData } from '../../src/mesh/surface.js';
+import { meshFromTriangles } from '../../src/io/mesh-data.js';
 
 const s = flatGrid(3, 3, 3, 3);
 const mesh = intrinsicFromPositions(buildTopology(s.triangles, s.positions.length / 3).topology, s.positions);
@@ -120,6 +122,10 @@ describe('mesh units the solvers cannot measure in are refused', () => {
       const e = thrown(() => shortestPathThrough(m, [{ kind: 'vertex', vertex: 0 }, { kind: 'vertex', vertex: 15 }]));
       expect(isOrthodromeError(e) && e.code === 'INPUT', `path ${scale}`).toBe(true);
     }
+    // a file at such coordinates is refused while loading, naming the file and the vertex
+    const e = thrown(() => surfaceFromMeshData(meshFromTriangles(s.positions.map((x) => x * 1e62), s.triangles, 'huge.obj')));
+    expect(isOrthodromeError(e) && e.code === 'INPUT').toBe(true);
+    expect((e as Error).message).toMatch(/^huge\.obj: vertex \d+: coordinate .* rescale the mesh/);
     // 1e±50 is fine: the distance corner to corner of the flat 3×3 square scales exactly (similarity)
     for (const scale of [1e50, 1e-50]) {
       const m = intrinsicFromPositions(t, s.positions.map((x) => x * scale));
