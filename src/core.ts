@@ -72,4 +72,4 @@ export { PointResolver, type Landing } from './query/resolve.js';
 export { inspectSurface, inspectProblems, type InspectReport } from './report/inspect.js';
 export { curvatureSummary, type CurvatureResult } from './report/curvature.js';
 export { parseRequirement, checkRequirements, checkableKeys, type Requirement, type RequirementResult, type Comparison } from './report/require.js';
-export { shortestPathThrough, type WaypointPath } from './geodesic/waypoints.js';
+export { shortestPathThrough, type WaypointPath, type WaypointOptions } from './geodesic/waypoints.js';
