@@ -2,7 +2,8 @@
  * Heat-method geodesic distance (Crane, Weischedel, Wardetzky, "Geodesics in
  * Heat", ACM TOG 32(5), 2013), working from edge lengths only.
  *
- * 1. heat:     (M + t L) u = δ          t = m·h², h = mean edge length
+ * 0. remesh:   mollify, intrinsic Delaunay flips, split long edges, flip again
+ * 1. heat:     (M + t L) u = δ          t = m·h², h = mean edge length of that triangulation
  * 2. field:    X_f = −∇u_f / |∇u_f|     per face, relayed where u underflows (heat-relay.ts)
  * 3. distance: L φ = b,  b_i = Σ_f A_f ∇φ_i·X_f   (least squares ∇φ ≈ X)
  * 4. point sources: shift φ so its least value at the sources is zero;
@@ -45,6 +46,7 @@ import { analyzeCholesky, CholeskyFactor } from '../linalg/index.js';
 import { meanEdgeLength } from '../metric/intrinsic.js';
 import { mollify, DEFAULT_MOLLIFY_DELTA } from '../metric/mollify.js';
 import { intrinsicDelaunay } from '../metric/delaunay.js';
+import { refineLongEdges } from '../metric/refine.js';
 import {
   edgePattern, cotanLaplacian, lumpedMass, faceGeometry, combine, constrainRows, patternMatrix,
   type FaceGeometry,
@@ -62,12 +64,23 @@ import { liftDirichlet, type EdgePattern } from '../metric/laplacian.js';
 /** Source curves solved one by one (see {@link HeatSolver.distance}); more are solved together. */
 export const MAX_SEPARATE_CURVES = 8;
 
+/** Edges longer than this many equilateral edge lengths are split by the refinement (see {@link HeatOptions.refine}). */
+export const REFINE_FACTOR = 3;
+
+/** Edge length of an equilateral mesh with the same total area and face count: √(4A / (√3·F)). */
+function equilateralEdge(m: IntrinsicMesh): number {
+  const area = faceGeometry(m).area;
+  let A = 0;
+  for (let f = 0; f < area.length; f++) A += area[f]!;
+  return Math.sqrt((4 * A) / (Math.sqrt(3) * Math.max(1, area.length)));
+}
+
 /** Accepted range of {@link HeatOptions.timeScale}: outside it the heat underflows within a few rings or the field is smoothed flat. */
 export const TIME_SCALE_RANGE: readonly [number, number] = [1e-2, 1e4];
 
 /** Options of {@link HeatSolver.prepare}. */
 export interface HeatOptions {
-  /** m in t = m·h² (h = mean edge length); default 1, within {@link TIME_SCALE_RANGE}. */
+  /** m in t = m·h² (h = mean edge length of the intrinsic triangulation); default 1, within {@link TIME_SCALE_RANGE}. */
   timeScale?: number;
   /**
    * Boundary condition of the heat step; default 'average' (the paper's
@@ -77,6 +90,12 @@ export interface HeatOptions {
   boundary?: 'average' | 'neumann' | 'dirichlet';
   /** Flip to an intrinsic Delaunay triangulation first; default true. */
   intrinsicDelaunay?: boolean;
+  /**
+   * Split interior edges longer than {@link REFINE_FACTOR} times the edge of an
+   * equilateral mesh with the same area and face count (metric/refine.ts), then
+   * flip to Delaunay again; default true (needs intrinsicDelaunay).
+   */
+  refine?: boolean;
   /** Mollify edge lengths first (Sharp & Crane 2020); default true. */
   mollify?: boolean;
   /** Mollification margin δ as a fraction of h; default 1e-5. */
@@ -99,6 +118,10 @@ export interface HeatStats {
   flips: number;
   /** True when the flip cap stopped the Delaunay loop early. */
   flipsCapped: boolean;
+  /** Vertices inserted by the intrinsic refinement (results are returned at the input's vertices only). */
+  inserted: number;
+  /** True when the refinement stopped at its vertex cap (max(1000, nv) insertions). */
+  refineCapped: boolean;
   /** Uniform length added by mollification (mesh units; 0 when none was needed). */
   mollifyEpsilon: number;
   /** Nonzeros of one Cholesky factor (diagonal included). */
@@ -109,6 +132,8 @@ export interface HeatStats {
   ordering: string;
   /** Mean edge length h of the input mesh (mesh units). */
   meanEdgeLength: number;
+  /** Mean edge length of the intrinsic triangulation, the h of the time step (mesh units). */
+  stepEdgeLength: number;
   /** Time step t = m·h² (mesh units squared). */
   timeStep: number;
   /** True when the Poisson step fell back from pinning to L + εM. */
@@ -162,7 +187,7 @@ interface HeatParts {
 export class HeatSolver {
   /** The input mesh (source indices refer to it). */
   readonly mesh: IntrinsicMesh;
-  /** The intrinsic triangulation the solver works on (same vertices as `mesh`). */
+  /** The intrinsic triangulation the solver works on: `mesh`'s vertices first (same ids), then those the refinement inserted. */
   readonly triangulation: IntrinsicMesh;
   /** Preparation figures. */
   readonly stats: HeatStats;
@@ -187,7 +212,7 @@ export class HeatSolver {
     this.triangulation = triangulation;
     this.stats = stats;
     this.parts = parts;
-    const nv = mesh.topology.nv;
+    const nv = triangulation.topology.nv;
     this.rhs = new Float64Array(nv);
     this.u = new Float64Array(nv);
     this.uD = new Float64Array(nv);
@@ -251,15 +276,27 @@ export class HeatSolver {
     }
     const h = meanEdgeLength(mesh);
     if (!(h > 0)) throw usageError('mesh has no positive edge length', 'heat');
-    const step = m * h * h;
 
     let work = mesh, epsilon = 0, flips = 0, flipsCapped = false;
     if (opts.mollify ?? true) ({ mesh: work, epsilon } = mollify(work, delta));
+    let inserted = 0, refineCapped = false;
     if (opts.intrinsicDelaunay ?? true) {
-      const r = intrinsicDelaunay(work);
+      let r = intrinsicDelaunay(work);
       work = r.mesh; flips = r.flips; flipsCapped = r.capped;
+      if (opts.refine ?? true) {
+        const ref = refineLongEdges(work, REFINE_FACTOR * equilateralEdge(work), Math.max(1000, t.nv));
+        inserted = ref.inserted; refineCapped = ref.capped;
+        if (inserted > 0) {
+          r = intrinsicDelaunay(ref.mesh);
+          work = r.mesh; flips += r.flips; flipsCapped ||= r.capped;
+        }
+      }
     }
     const t1 = performance.now();
+    const tw = work.topology;
+    // h of the time step: mean edge of the triangulation solved on (after flips and refinement)
+    const hStep = meanEdgeLength(work);
+    const step = m * hStep * hStep;
 
     const p = edgePattern(work.topology);
     const Lv = cotanLaplacian(work, p), Mv = lumpedMass(work);
@@ -267,9 +304,9 @@ export class HeatSolver {
     const comp = components(work.topology);
     const onBoundary = boundaryVertexMask(work.topology);
     // rows without area (isolated vertices, or only zero-area faces) are fixed to u = 0
-    const inactive = new Uint8Array(t.nv);
+    const inactive = new Uint8Array(tw.nv);
     let minMass = Infinity;
-    for (let v = 0; v < t.nv; v++) {
+    for (let v = 0; v < tw.nv; v++) {
       if (!(Mv[v]! > 0)) inactive[v] = 1;
       else if (Mv[v]! < minMass) minMass = Mv[v]!;
     }
@@ -277,19 +314,19 @@ export class HeatSolver {
     const t2 = performance.now();
 
     const A = combine(p, step, Lv, 1, Mv);
-    const heatDiag = new Float64Array(t.nv);
-    for (let v = 0; v < t.nv; v++) heatDiag[v] = A[p.diagSlot[v]!]!;
+    const heatDiag = new Float64Array(tw.nv);
+    for (let v = 0; v < tw.nv; v++) heatDiag[v] = A[p.diagSlot[v]!]!;
     constrainRows(p, A, inactive);
     let maxDiag = 0, maxGrad = 0;
-    for (let v = 0; v < t.nv; v++) maxDiag = Math.max(maxDiag, A[p.diagSlot[v]!]!);
+    for (let v = 0; v < tw.nv; v++) maxDiag = Math.max(maxDiag, A[p.diagSlot[v]!]!);
     for (let i = 0; i < geom.grad.length; i++) maxGrad = Math.max(maxGrad, Math.abs(geom.grad[i]!));
     const heatN = CholeskyFactor.factor(patternMatrix(p, A), sym);
     let heatD: CholeskyFactor | null = null;
-    const fixedD = new Uint8Array(t.nv);
+    const fixedD = new Uint8Array(tw.nv);
     let hasBoundary = false;
-    for (let v = 0; v < t.nv && !hasBoundary; v++) hasBoundary = onBoundary[v] === 1 && !inactive[v];
+    for (let v = 0; v < tw.nv && !hasBoundary; v++) hasBoundary = onBoundary[v] === 1 && !inactive[v];
     if (boundary !== 'neumann' && hasBoundary) {
-      for (let v = 0; v < t.nv; v++) fixedD[v] = inactive[v]! | onBoundary[v]!;
+      for (let v = 0; v < tw.nv; v++) fixedD[v] = inactive[v]! | onBoundary[v]!;
       constrainRows(p, A, fixedD);
       heatD = CholeskyFactor.factor(patternMatrix(p, A), sym);
     }
@@ -298,8 +335,8 @@ export class HeatSolver {
 
     const stats: HeatStats = {
       prepareMs: t3 - t0, remeshMs: t1 - t0, analysisMs: t2 - t1, factorMs: t3 - t2,
-      flips, flipsCapped, mollifyEpsilon: epsilon, nnzL: sym.nnzL, factorizations: heatD ? 3 : 2,
-      ordering: sym.ordering, meanEdgeLength: h, timeStep: step, poissonShifted: shifted,
+      flips, flipsCapped, inserted, refineCapped, mollifyEpsilon: epsilon, nnzL: sym.nnzL, factorizations: heatD ? 3 : 2,
+      ordering: sym.ordering, meanEdgeLength: h, stepEdgeLength: hStep, timeStep: step, poissonShifted: shifted,
     };
     return new HeatSolver(mesh, work, stats, {
       boundaryMode: boundary, geom, inactive, minMass, heatCeiling: heatCeiling(maxGrad, maxDiag), vertexComponent: comp.vertexComponent, componentCount: comp.count,
@@ -344,7 +381,8 @@ export class HeatSolver {
     }
     stats.solveMs = performance.now() - t0;
     this.lastSolve = stats;
-    return { method: 'heat', distance: phi, sources: [...sources.points, ...sources.curves.flat()] };
+    const nIn = this.mesh.topology.nv;
+    return { method: 'heat', distance: phi.length === nIn ? phi : phi.slice(0, nIn), sources: [...sources.points, ...sources.curves.flat()] };
   }
 
   /** One field: point sources shifted to zero, or curves held at zero. */

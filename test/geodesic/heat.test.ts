@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import { buildTopology } from '../../src/mesh/build.js';
-import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
+import { intrinsicFromPositions, meanEdgeLength, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { HeatSolver } from '../../src/geodesic/heat.js';
 import { isOrthodromeError } from '../../src/errors.js';
 import type { SourceSet } from '../../src/geodesic/sources.js';
@@ -206,7 +206,9 @@ describe('HeatSolver invariants', () => {
     const m = meshOf(hills());
     const d1 = HeatSolver.prepare(m).distance(vsrc(250)).distance;
     const s10 = HeatSolver.prepare(m, { timeScale: 10 });
-    expect(s10.stats.timeStep).toBeCloseTo(10 * s10.stats.meanEdgeLength ** 2, 12);
+    // t = m·h² with h the mean edge of the triangulation solved on
+    expect(s10.stats.stepEdgeLength).toBeCloseTo(meanEdgeLength(s10.triangulation), 12);
+    expect(s10.stats.timeStep).toBeCloseTo(10 * s10.stats.stepEdgeLength ** 2, 12);
     const d10 = s10.distance(vsrc(250)).distance;
     let diff = 0;
     for (let v = 0; v < d1.length; v++) diff = Math.max(diff, Math.abs(d10[v]! - d1[v]!));
