@@ -177,7 +177,7 @@ export function findSupernodes(
   }
   rows = rows.slice(0, top);
   if (maxRows * maxRows > MAX_FRONT) {
-    throw limitError(`supernodal Cholesky would need a ${maxRows}×${maxRows} dense frontal matrix (too large; the ordering leaves a separator of that size)`);
+    throw limitError(`supernodal Cholesky would need a ${maxRows}×${maxRows} dense frontal matrix (too large; the ordering leaves a separator of that size); no option raises this heat-method limit: use --method exact or graph, or a coarser mesh`);
   }
   // value offsets and the peak of the update-matrix stack (postorder: children on top)
   const valPtr = new Int32Array(nsuper + 1);
@@ -187,7 +187,7 @@ export function findSupernodes(
     const nr = rowPtr[s + 1]! - rowPtr[s]!;
     valPtr[s] = v;
     v += ((nc * (nc + 1)) >> 1) + (nr - nc) * nc;
-    if (v > MAX_VALUES) throw limitError(`supernodal Cholesky factor would need more than ${MAX_VALUES} values`);
+    if (v > MAX_VALUES) throw limitError(`supernodal Cholesky factor would need more than ${MAX_VALUES} values (32-bit offsets); no option raises this heat-method limit: use --method exact or graph, or a coarser mesh`);
     for (let ch = childHead[s]!; ch !== -1; ch = childNext[ch]!) {
       const m = rowPtr[ch + 1]! - rowPtr[ch]! - (superStart[ch + 1]! - superStart[ch]!);
       stack -= (m * (m + 1)) / 2;

@@ -143,7 +143,7 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
   let total = 0;
   for (let k = 0; k < n; k++) {
     total += colCount[k]!;
-    if (total > MAX_NNZ_L) throw limitError(`Cholesky factor would have more than ${MAX_NNZ_L} nonzeros`);
+    if (total > MAX_NNZ_L) throw limitError(`Cholesky factor would have more than ${MAX_NNZ_L} nonzeros (32-bit offsets); no option raises this heat-method limit: use --method exact or graph, or a coarser mesh`);
     lColPtr[k + 1] = total;
   }
   const supernodal = method === 'supernodal' ? findSupernodes(n, parent, colCount, C.lowPtr, C.lowIdx) : null;
