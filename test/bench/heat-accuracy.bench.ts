@@ -15,6 +15,7 @@ import { prepareDistance } from '../../src/geodesic/solver.js';
 import { boundaryCurves, type SourceSet } from '../../src/geodesic/sources.js';
 import { icosphere, flatGrid, terrain, fanDisc, rng, type Shape } from '../fixtures/shapes.js';
 import { twoHolePlate } from '../fixtures/holed-plates.js';
+import { terrainBlock } from '../fixtures/blocks.js';
 
 const BENCH = 'heat-accuracy';
 const timeScale = Number(process.argv.find((a) => a.startsWith('--time-scale='))?.slice(13) ?? 1);
@@ -33,37 +34,6 @@ function noisyTerrain(n: number): Shape {
   return s;
 }
 
-/**
- * A terrain block: the smooth terrain on top, each vertical side a fan of
- * long thin triangles from the top rim to the two bottom corners of that
- * side, and a two-triangle bottom (CAD-style solid terrain export).
- */
-function terrainBlock(n: number): Shape {
-  const top = terrain(n, n, 10, 10, hills);
-  const nv = (n + 1) * (n + 1);
-  const positions = new Float64Array(3 * (nv + 4));
-  positions.set(top.positions);
-  const corners = [[0, 0], [10, 0], [10, 10], [0, 10]] as const;
-  corners.forEach(([x, y], k) => positions.set([x, y, -3], 3 * (nv + k)));
-  const tris: number[] = Array.from(top.triangles);
-  const id = (i: number, j: number): number => j * (n + 1) + i;
-  // rim walked counter-clockwise seen from +z: bottom side (j = 0), right, top, left
-  const sides: number[][] = [[], [], [], []];
-  for (let i = 0; i <= n; i++) sides[0]!.push(id(i, 0));
-  for (let j = 0; j <= n; j++) sides[1]!.push(id(n, j));
-  for (let i = n; i >= 0; i--) sides[2]!.push(id(i, n));
-  for (let j = n; j >= 0; j--) sides[3]!.push(id(0, j));
-  for (let k = 0; k < 4; k++) {
-    const a = nv + k, b = nv + ((k + 1) % 4), rim = sides[k]!;
-    const mid = rim.length >> 1;
-    // outward faces: rim edge (p, q) and a bottom corner below, seen from outside
-    for (let i = 0; i + 1 < rim.length; i++) tris.push(rim[i + 1]!, rim[i]!, i < mid ? a : b);
-    tris.push(rim[mid]!, a, b);
-  }
-  tris.push(nv, nv + 2, nv + 1, nv, nv + 3, nv + 2);
-  return { positions, triangles: Uint32Array.from(tris) };
-}
-
 interface Kind { name: string; make: (level: 0 | 1) => Shape; source: (m: IntrinsicMesh, s: Shape) => SourceSet }
 
 const nearest = (s: Shape, x: number, y: number, z = 0): SourceSet => {
@@ -80,7 +50,7 @@ const kinds: Kind[] = [
   { name: 'flat-square', make: (l) => flatGrid(40 * 2 ** l, 40 * 2 ** l, 1, 1, 0.2, 3), source: (_m, s) => nearest(s, 0.25, 0.25) },
   { name: 'smooth-terrain', make: (l) => terrain(40 * 2 ** l, 40 * 2 ** l, 10, 10, hills), source: (_m, s) => nearest(s, 2.5, 2.5) },
   { name: 'noisy-terrain', make: (l) => noisyTerrain(40 * 2 ** l), source: (_m, s) => nearest(s, 2.5, 2.5) },
-  { name: 'terrain-long-edge-sides', make: (l) => terrainBlock(40 * 2 ** l), source: (_m, s) => nearest(s, 2.5, 2.5, 1) },
+  { name: 'terrain-long-edge-sides', make: (l) => terrainBlock(40 * 2 ** l, hills), source: (_m, s) => nearest(s, 2.5, 2.5, 1) },
   { name: 'high-valence-fan', make: (l) => fanDisc(400 * 2 ** l), source: () => ({ points: [{ kind: 'vertex', vertex: 1 }], curves: [] }) },
   { name: 'plate-two-holes-point', make: (l) => twoHolePlate(10, 10 / (30 * 2 ** l)), source: (_m, s) => nearest(s, 0, 5) },
   { name: 'plate-two-holes-boundary', make: (l) => twoHolePlate(10, 10 / (30 * 2 ** l)), source: (m) => ({ points: [], curves: boundaryCurves(m.topology) }) },
