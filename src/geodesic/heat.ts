@@ -44,9 +44,7 @@ import type { SourceSet } from './sources.js';
 import type { SurfacePoint } from '../query/surface-point.js';
 import { analyzeCholesky, CholeskyFactor } from '../linalg/index.js';
 import { meanEdgeLength } from '../metric/intrinsic.js';
-import { mollify, DEFAULT_MOLLIFY_DELTA } from '../metric/mollify.js';
-import { intrinsicDelaunay } from '../metric/delaunay.js';
-import { refineLongEdges } from '../metric/refine.js';
+import { heatTriangulation, MAX_SEPARATE_CURVES, type HeatOptions, type HeatStats, type HeatSolveStats } from './heat-setup.js';
 import {
   edgePattern, cotanLaplacian, lumpedMass, faceGeometry, combine, constrainRows, patternMatrix,
   type FaceGeometry,
@@ -56,104 +54,14 @@ import { boundaryVertexMask } from '../mesh/boundary.js';
 import { addSourceHeat, sourceValue } from './heat-sources.js';
 import { factorPoisson } from './heat-poisson.js';
 import { assembleDivergence, heatCeiling, type RelayWork } from './heat-relay.js';
-import { usageError, inputError, numericError } from '../errors.js';
+import { usageError, numericError } from '../errors.js';
 import { sourceDirichlet } from './heat-sources.js';
 import { SourcePoisson } from './heat-poisson.js';
 import { liftDirichlet, type EdgePattern } from '../metric/laplacian.js';
 
-/** Source curves solved one by one (see {@link HeatSolver.distance}); more are solved together. */
-export const MAX_SEPARATE_CURVES = 8;
-
-/** Edges longer than this many equilateral edge lengths are split by the refinement (see {@link HeatOptions.refine}). */
-export const REFINE_FACTOR = 3;
-
-/** Edge length of an equilateral mesh with the same total area and face count: √(4A / (√3·F)). */
-function equilateralEdge(m: IntrinsicMesh): number {
-  const area = faceGeometry(m).area;
-  let A = 0;
-  for (let f = 0; f < area.length; f++) A += area[f]!;
-  return Math.sqrt((4 * A) / (Math.sqrt(3) * Math.max(1, area.length)));
-}
-
-/** Accepted range of {@link HeatOptions.timeScale}: outside it the heat underflows within a few rings or the field is smoothed flat. */
-export const TIME_SCALE_RANGE: readonly [number, number] = [1e-2, 1e4];
-
-/** Options of {@link HeatSolver.prepare}. */
-export interface HeatOptions {
-  /** m in t = m·h² (h = mean edge length of the intrinsic triangulation); default 1, within {@link TIME_SCALE_RANGE}. */
-  timeScale?: number;
-  /**
-   * Boundary condition of the heat step; default 'average' (the paper's
-   * recommendation). 'dirichlet' alone bends the field towards the boundary
-   * and is poor in regions only a few edges wide.
-   */
-  boundary?: 'average' | 'neumann' | 'dirichlet';
-  /** Flip to an intrinsic Delaunay triangulation first; default true. */
-  intrinsicDelaunay?: boolean;
-  /**
-   * Split interior edges longer than {@link REFINE_FACTOR} times the edge of an
-   * equilateral mesh with the same area and face count (metric/refine.ts), then
-   * flip to Delaunay again; default true (needs intrinsicDelaunay).
-   */
-  refine?: boolean;
-  /** Mollify edge lengths first (Sharp & Crane 2020); default true. */
-  mollify?: boolean;
-  /** Mollification margin δ as a fraction of h; default 1e-5. */
-  mollifyDelta?: number;
-  /** Fill-reducing ordering of the Cholesky factorizations; default the linalg default. */
-  ordering?: 'amd' | 'nd' | 'natural';
-}
-
-/** What {@link HeatSolver.prepare} did and how long it took. */
-export interface HeatStats {
-  /** Wall time of prepare, ms. */
-  prepareMs: number;
-  /** Of which: mollification + intrinsic flips, ms. */
-  remeshMs: number;
-  /** Of which: ordering + symbolic analysis, ms. */
-  analysisMs: number;
-  /** Of which: numeric factorizations, ms. */
-  factorMs: number;
-  /** Intrinsic flips made. */
-  flips: number;
-  /** True when the flip cap stopped the Delaunay loop early. */
-  flipsCapped: boolean;
-  /** Vertices inserted by the intrinsic refinement (results are returned at the input's vertices only). */
-  inserted: number;
-  /** True when the refinement stopped at its vertex cap (max(1000, nv) insertions). */
-  refineCapped: boolean;
-  /** Uniform length added by mollification (mesh units; 0 when none was needed). */
-  mollifyEpsilon: number;
-  /** Nonzeros of one Cholesky factor (diagonal included). */
-  nnzL: number;
-  /** Number of numeric factorizations (2 or 3). */
-  factorizations: number;
-  /** The ordering used. */
-  ordering: string;
-  /** Mean edge length h of the input mesh (mesh units). */
-  meanEdgeLength: number;
-  /** Mean edge length of the intrinsic triangulation, the h of the time step (mesh units). */
-  stepEdgeLength: number;
-  /** Time step t = m·h² (mesh units squared). */
-  timeStep: number;
-  /** True when the Poisson step fell back from pinning to L + εM. */
-  poissonShifted: boolean;
-}
-
-/** Timing and diagnostics of the last {@link HeatSolver.distance} call. */
-export interface HeatSolveStats {
-  /** Wall time, ms. */
-  solveMs: number;
-  /**
-   * Faces left with X = 0: ∇u = 0 even after relaying (see heat-relay.ts).
-   * In 'dirichlet' mode, faces with three boundary corners always count here.
-   */
-  flatFaces: number;
-  /** Heat solves (stages) needed: 1 unless the heat underflowed far from the sources. */
-  relayStages: number;
-  /** Time spent factoring the Poisson matrix for this source set (curve sources only; 0 when reused), ms. */
-  sourceFactorMs: number;
-}
+export {
+  MAX_SEPARATE_CURVES, REFINE_FACTOR, TIME_SCALE_RANGE, type HeatOptions, type HeatStats, type HeatSolveStats,
+} from './heat-setup.js';
 
 /** Factors, geometry and masks a prepared solver keeps. */
 interface HeatParts {
@@ -258,40 +166,7 @@ export class HeatSolver {
    */
   static prepare(mesh: IntrinsicMesh, opts: HeatOptions = {}): HeatSolver {
     const t0 = performance.now();
-    const m = opts.timeScale ?? 1;
-    const [mLo, mHi] = TIME_SCALE_RANGE;
-    if (!(m >= mLo && m <= mHi)) throw usageError(`timeScale must lie in [${mLo}, ${mHi}], got ${m}`, 'heat');
-    const boundary = opts.boundary ?? 'average';
-    if (!['average', 'neumann', 'dirichlet'].includes(boundary)) throw usageError(`unknown boundary condition '${boundary}'`, 'heat');
-    const delta = opts.mollifyDelta ?? DEFAULT_MOLLIFY_DELTA;
-    if (!(delta >= 0 && Number.isFinite(delta))) throw usageError(`mollifyDelta must be a non-negative number, got ${delta}`, 'heat');
-    if (opts.ordering !== undefined && !['amd', 'nd', 'natural'].includes(opts.ordering)) {
-      throw usageError(`unknown ordering '${opts.ordering}'`, 'heat');
-    }
-    const t = mesh.topology;
-    if (t.nf === 0 || t.nv === 0) throw usageError('mesh has no faces', 'heat');
-    for (let e = 0; e < t.ne; e++) {
-      const l = mesh.edgeLength[e]!;
-      if (!(l >= 0 && l < Infinity)) throw inputError(`edge ${e} has invalid length ${l}`, 'heat');
-    }
-    const h = meanEdgeLength(mesh);
-    if (!(h > 0)) throw usageError('mesh has no positive edge length', 'heat');
-
-    let work = mesh, epsilon = 0, flips = 0, flipsCapped = false;
-    if (opts.mollify ?? true) ({ mesh: work, epsilon } = mollify(work, delta));
-    let inserted = 0, refineCapped = false;
-    if (opts.intrinsicDelaunay ?? true) {
-      let r = intrinsicDelaunay(work);
-      work = r.mesh; flips = r.flips; flipsCapped = r.capped;
-      if (opts.refine ?? true) {
-        const ref = refineLongEdges(work, REFINE_FACTOR * equilateralEdge(work), Math.max(1000, t.nv));
-        inserted = ref.inserted; refineCapped = ref.capped;
-        if (inserted > 0) {
-          r = intrinsicDelaunay(ref.mesh);
-          work = r.mesh; flips += r.flips; flipsCapped ||= r.capped;
-        }
-      }
-    }
+    const { m, boundary, work, h, epsilon, flips, flipsCapped, inserted, refineCapped } = heatTriangulation(mesh, opts);
     const t1 = performance.now();
     const tw = work.topology;
     // h of the time step: mean edge of the triangulation solved on (after flips and refinement)

@@ -28,6 +28,15 @@
 import type { Topology } from '../mesh/topology.js';
 import type { IntrinsicMesh } from './intrinsic.js';
 import { next, prev } from '../mesh/topology.js';
+import { triangleArea } from './triangle.js';
+
+/** Edge length of an equilateral mesh with the same total area and face count: √(4A / (√3·F)). */
+export function equilateralEdge(m: IntrinsicMesh): number {
+  const { topology: t, edgeLength: L } = m;
+  let A = 0;
+  for (let f = 0; f < t.nf; f++) A += triangleArea(L[t.edgeOf[3 * f]!]!, L[t.edgeOf[3 * f + 1]!]!, L[t.edgeOf[3 * f + 2]!]!);
+  return Math.sqrt((4 * A) / (Math.sqrt(3) * Math.max(1, t.nf)));
+}
 
 /** Result of {@link refineLongEdges}. */
 export interface RefineResult {
