@@ -36,6 +36,7 @@ interface DistanceCliOptions {
   heatBoundary?: 'average' | 'neumann' | 'dirichlet';
   intrinsicDelaunay: boolean;
   mollify: boolean;
+  refine: boolean;
   splitNonmanifold?: boolean;
   maxInputSize?: string;
   memoryBudget?: string;
@@ -70,6 +71,7 @@ export function registerDistance(program: Command): void {
     .addOption(new Option('--heat-boundary <mode>', 'heat: boundary condition of the heat step').choices(['average', 'neumann', 'dirichlet']))
     .option('--no-intrinsic-delaunay', 'heat: build the Laplacian on the input triangles instead of the intrinsic Delaunay triangulation')
     .option('--no-mollify', 'heat: do not mollify near-degenerate triangles')
+    .option('--no-refine', 'heat: do not split long edges of the intrinsic triangulation (added vertices cost time and memory)')
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
     .addOption(maxInputSizeOption())
     .addOption(memoryBudgetOption())
@@ -125,7 +127,7 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
   const opts: DistanceOptions = { memoryBudget };
   if (maxDistance !== undefined) opts.maxDistance = maxDistance;
   if (o.method === 'heat') {
-    opts.heat = { intrinsicDelaunay: o.intrinsicDelaunay, mollify: o.mollify };
+    opts.heat = { intrinsicDelaunay: o.intrinsicDelaunay, mollify: o.mollify, refine: o.refine };
     if (timeScale !== undefined) opts.heat.timeScale = timeScale;
     if (o.heatBoundary) opts.heat.boundary = o.heatBoundary;
   }
