@@ -55,6 +55,9 @@ export interface RefineResult {
  */
 export function refineLongEdges(m: IntrinsicMesh, maxLength: number, maxInserted: number): RefineResult {
   const src = m.topology;
+  let any = false;
+  for (let e = 0; e < src.ne && !any; e++) any = m.edgeLength[e]! > maxLength && src.twin[src.edgeHalfedge[e]!]! >= 0;
+  if (!any || maxInserted < 1) return { mesh: m, inserted: 0, capped: any };
   const tri = Array.from(src.tri), twin = Array.from(src.twin), edgeOf = Array.from(src.edgeOf);
   const eh = Array.from(src.edgeHalfedge), vh = Array.from(src.vertexHalfedge);
   const vo = Array.from(src.vertexOrigin), fo = Array.from(src.faceOrigin);
