@@ -12,5 +12,5 @@
  * @packageDocumentation
  */
 export * from './core.js';
-export { readMeshFile, readMeshFileSync } from './io/read-mesh.js';
-export { writeFileAtomic, writeFileAtomicSync } from './io/atomic.js';
+export { readMeshFile, readMeshFileSync, DEFAULT_MAX_INPUT_BYTES, type ReadMeshOptions } from './io/read-mesh.js';
+export { writeFileAtomic, writeFileAtomicSync, type AtomicData, type AtomicOptions } from './io/atomic.js';
