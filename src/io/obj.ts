@@ -9,7 +9,8 @@
  * The scan works on the bytes directly: no string per line, numbers are
  * assembled digit by digit (see {@link scanReal}), growable typed buffers.
  * Vertex indices are those of the file (1-based there, 0-based here). A
- * leading UTF-8 byte-order mark is ignored.
+ * leading UTF-8 byte-order mark is ignored; LF, CRLF and CR-only line ends
+ * are all read.
  */
 import { inputError } from '../errors.js';
 import type { MeshData, PropertyColumn } from './mesh-data.js';
@@ -86,6 +87,8 @@ class ObjScan {
  */
 export function parseObj(bytes: Uint8Array, name: string): MeshData {
   bytes = stripBom(bytes);
+  // Classic Mac OS line ends (CR only): read as LF, so line numbers hold too.
+  if (bytes.indexOf(10) < 0 && bytes.indexOf(13) >= 0) bytes = bytes.map((c) => (c === 13 ? 10 : c));
   const s = new ObjScan(bytes, name);
   scanStatements(s);
   const { nv, nf, ni, rgb } = s;

@@ -2,7 +2,7 @@
  * One mesh, every way of spelling it on disk, read to the same positions and
  * faces: OBJ, ascii PLY, binary PLY (little and big endian, float and double
  * coordinates), each gzip-compressed, with a UTF-8 byte-order mark, with CRLF
- * line ends, and handed over as a view into a larger (pooled) buffer.
+ * line ends (CR only for OBJ), and handed over as a view into a larger (pooled) buffer.
  *
  * Sources: the PLY format description (Turk, "The PLY Polygon File Format",
  * 1994: header grammar, binary scalar types and byte orders); the Wavefront
@@ -94,6 +94,8 @@ const spellings: [string, Uint8Array][] = [];
     const text = name.endsWith('.obj') || b.indexOf(0) < 0;
     spellings.push([name, b], [name, bom(b)], [name, embedded(b)], [`${name}.gz`, gzipSync(b)], [`${name}.gz`, gzipSync(bom(b))]);
     spellings.push([name, text ? crlf(b) : crlfHeader(b)]);
+    // CR-only line ends (classic Mac OS text), OBJ only.
+    if (name.endsWith('.obj')) spellings.push([name, b.map((c) => (c === 10 ? 13 : c))]);
   }
 }
 
