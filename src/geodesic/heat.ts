@@ -54,7 +54,7 @@ import { boundaryVertexMask } from '../mesh/boundary.js';
 import { addSourceHeat, sourceValue } from './heat-sources.js';
 import { factorPoisson } from './heat-poisson.js';
 import { assembleDivergence, heatCeiling, type RelayWork } from './heat-relay.js';
-import { usageError, numericError } from '../errors.js';
+import { usageError, numericError, isOrthodromeError } from '../errors.js';
 import { sourceDirichlet } from './heat-sources.js';
 import { SourcePoisson } from './heat-poisson.js';
 import { liftDirichlet, type EdgePattern } from '../metric/laplacian.js';
@@ -278,12 +278,21 @@ export class HeatSolver {
       const c = comp[p.kind === 'vertex' ? p.vertex : p.kind === 'edge' ? t0v(this.mesh, p.edge) : this.mesh.topology.tri[3 * p.face]!]!;
       if (c >= 0 && val < shift[c]!) shift[c] = val;
     };
+    let held = false;
     if (sources.curves.length > 0) {
       // curves: every source is the zero level (Dirichlet data, heat-poisson.ts)
       sourceDirichlet(this.mesh, sources, this.fixed, this.gD);
       const sp = this.parts.sourcePoisson;
-      sp.solve(this.fixed, this.gD, b, phi);
+      try {
+        sp.solve(this.fixed, this.gD, b, phi);
+        held = true;
+      } catch (e) {
+        // L_FF singular (free vertices joined to the sources only through faces without area): shift instead
+        if (!isOrthodromeError(e) || e.code !== 'NUMERIC') throw e;
+      }
       stats.sourceFactorMs += sp.lastFactorMs;
+    }
+    if (held) {
       for (const p of sources.points) seen(p, 0);
       for (const curve of sources.curves) for (const p of curve) seen(p, 0);
     } else {
@@ -291,6 +300,7 @@ export class HeatSolver {
       for (let v = 0; v < nv; v++) if (blocked[v]) b[v] = 0;
       this.parts.poisson.solve(b, phi);
       for (const p of sources.points) seen(p, sourceValue(this.mesh, p, phi, this.lay, this.xy));
+      for (const curve of sources.curves) for (const p of curve) seen(p, sourceValue(this.mesh, p, phi, this.lay, this.xy));
     }
     for (let v = 0; v < nv; v++) {
       const c = comp[v]!;

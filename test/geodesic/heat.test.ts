@@ -147,8 +147,14 @@ describe('HeatSolver invariants', () => {
     // squash three interior vertices onto their right neighbours: zero-area and inverted faces
     for (const v of [12, 35, 58]) { P[3 * v] = P[3 * (v + 1)]!; P[3 * v + 1] = P[3 * (v + 1) + 1]!; }
     const m = meshOf(s);
-    const plain = HeatSolver.prepare(m, { mollify: false, intrinsicDelaunay: false }).distance(vsrc(60)).distance;
+    const plainSolver = HeatSolver.prepare(m, { mollify: false, intrinsicDelaunay: false });
+    const plain = plainSolver.distance(vsrc(60)).distance;
     for (const x of plain) expect(Number.isFinite(x) && x >= 0).toBe(true);
+    // a curve source (Dirichlet data in the Poisson step, or the shift where that matrix is singular)
+    const curve = plainSolver.distance({ points: [], curves: [[{ kind: 'vertex', vertex: 60 }, { kind: 'vertex', vertex: 61 }]] }).distance;
+    for (const x of curve) expect(Number.isFinite(x) && x >= 0).toBe(true);
+    expect(curve[60]).toBe(0);
+    expect(curve[61]).toBe(0);
     const good = HeatSolver.prepare(m);
     expect(good.stats.mollifyEpsilon).toBeGreaterThan(0);
     for (const x of good.distance(vsrc(60)).distance) expect(Number.isFinite(x) && x >= 0).toBe(true);
