@@ -7,7 +7,7 @@
  * refusing memory) · 70 internal error.
  * No stack trace is printed unless ORTHODROME_DEBUG=1.
  */
-import { isOrthodromeError } from '../src/errors.js';
+import { isOrthodromeError, OrthodromeError } from '../src/errors.js';
 
 /** Exit status for a successful run. */
 export const EXIT_OK = 0;
@@ -80,6 +80,18 @@ export function reportError(e: unknown): number {
   return EXIT_INTERNAL;
 }
 
+/**
+ * A NUMERIC or LIMIT error that names no place gets the command's mesh file
+ * (its first argument, when a string) as location, so that every refusal of
+ * a run names the file it was working on.
+ */
+function naming(e: unknown, file: unknown): unknown {
+  if (typeof file !== 'string' || !isOrthodromeError(e) || e.location !== undefined || (e.code !== 'NUMERIC' && e.code !== 'LIMIT')) return e;
+  const named = new OrthodromeError(e.code, e.detail, file);
+  named.stack = e.stack;
+  return named;
+}
+
 /** Wraps a command action: runs it and sets the exit code from its outcome. */
 export function action<A extends unknown[]>(fn: (...args: A) => Promise<number | void> | number | void) {
   return async (...args: A): Promise<void> => {
@@ -87,7 +99,7 @@ export function action<A extends unknown[]>(fn: (...args: A) => Promise<number |
       const code = await fn(...args);
       process.exitCode = typeof code === 'number' ? code : EXIT_OK;
     } catch (e) {
-      process.exitCode = reportError(e);
+      process.exitCode = reportError(naming(e, args[0]));
     }
   };
 }

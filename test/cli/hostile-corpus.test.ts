@@ -33,7 +33,7 @@ import { surfaceFromMeshData, isManifold } from '../../src/mesh/surface.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import { prepareDistance } from '../../src/geodesic/solver.js';
 import { next } from '../../src/mesh/topology.js';
-import { isOrthodromeError } from '../../src/errors.js';
+import { isOrthodromeError, limitError, numericError, usageError } from '../../src/errors.js';
 import * as run from '../../cli/run.js';
 import { terrain, rng } from '../fixtures/shapes.js';
 
@@ -190,6 +190,30 @@ describe('hostile corpus, in-process (parse, build, exact solve)', () => {
     // UTF-16 text.
     const o5 = solveFile('wide.obj', Uint8Array.from([0xfe, 0xff, 0, 0x76, 0, 0x20, 0, 0x30]));
     expect(o5.ok ? 'ok' : o5.message).toBe('wide.obj: UTF-16 text is not supported (save the file as UTF-8 or ASCII)');
+  });
+});
+
+describe('refusals from the solvers name the mesh file (cli/run.ts action)', () => {
+  it('a NUMERIC or LIMIT error without a location gets the command\'s mesh; others are left alone', async () => {
+    const lines: string[] = [];
+    const write = process.stderr.write;
+    const before = process.exitCode;
+    process.stderr.write = ((s: string) => (lines.push(s), true)) as typeof process.stderr.write;
+    try {
+      await run.action(async (_mesh: string, _o: object) => { throw numericError('matrix is not positive definite (pivot -3 at column 34)'); })('hill.obj', {});
+      await run.action(async (_mesh: string, _o: object) => { throw limitError('window cap reached'); })('hill.obj', {});
+      await run.action(async (_mesh: string, _o: object) => { throw numericError('bad', 'hill.obj: face 3'); })('other.obj', {});
+      await run.action(async (_mesh: string, _o: object) => { throw usageError('give at least one --from'); })('hill.obj', {});
+    } finally {
+      process.stderr.write = write;
+      process.exitCode = before;
+    }
+    expect(lines).toEqual([
+      'orthodrome: hill.obj: matrix is not positive definite (pivot -3 at column 34)\n',
+      'orthodrome: hill.obj: window cap reached\n',
+      'orthodrome: hill.obj: face 3: bad\n',
+      'orthodrome: give at least one --from\n',
+    ]);
   });
 });
 
