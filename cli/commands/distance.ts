@@ -58,7 +58,7 @@ export function registerDistance(program: Command): void {
     .command('distance')
     .description('geodesic distance on the surface from sources to every vertex and to target points')
     .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
-    .option('--from <point>', "source: v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2, p:X,Y,Z (nearest surface point) or 'boundary' (all boundary loops); repeat for several", collect)
+    .option('--from <point>', "source: v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2, p:X,Y,Z (nearest surface point in 3D), p:X,Y (the surface point straight below or above, along +z) or 'boundary' (all boundary loops); repeat for several", collect)
     .option('--from-curve <points>', "a curve source: point specs separated by ';', each consecutive pair on a common face (e.g. 'v:3;e:17:0.5;v:9'); repeat for several", collect)
     .option('--to <point>', 'target point whose distance is printed; repeat for several', collect)
     .option('--each', 'treat each --from as its own source set (one field per source, one prepared solver)')

@@ -40,7 +40,7 @@ export function registerPath(program: Command): void {
     .command('path')
     .description('exact shortest path on the surface from a point to another, through optional waypoints')
     .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
-    .requiredOption('--from <point>', 'start: v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2 or p:X,Y,Z (nearest surface point)')
+    .requiredOption('--from <point>', 'start: v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2, p:X,Y,Z (nearest surface point in 3D) or p:X,Y (straight below or above, along +z)')
     .option('--to <point>', 'end point (required unless --closed)')
     .option('--via <point>', 'waypoint visited in order between --from and --to; repeat for several', collect)
     .option('--closed', 'return to the start after the last point (a closed loop)')
