@@ -14,6 +14,7 @@ import type { IntrinsicMesh } from '../../metric/intrinsic.js';
 import { cornerAngles } from '../../metric/triangle.js';
 import { layoutAlong } from './layout.js';
 import { saddleFlags } from './pseudo-sources.js';
+import { sharpFlags } from './winding.js';
 
 /** Window-queue bucket width as a fraction of the mean edge length (narrower: closer to key order, more empty buckets to skip). */
 const BUCKET = 0.25;
@@ -32,6 +33,8 @@ export interface ExactGeometry {
   readonly saddle: Uint8Array;
   /** Number of such vertices. */
   readonly saddles: number;
+  /** 1 for interior vertices so sharp that a window can wind round them (winding.ts). */
+  readonly sharp: Uint8Array;
   /** Width of a window-queue bucket, in mesh units. */
   readonly bucketWidth: number;
 }
@@ -46,5 +49,7 @@ export function prepareExactGeometry(mesh: IntrinsicMesh): ExactGeometry {
   const angle = cornerAngles(mesh);
   const saddle = new Uint8Array(t.nv);
   const saddles = saddleFlags(t, angle, saddle);
-  return { mesh, hl, hc, angle, saddle, saddles, bucketWidth: nh ? (BUCKET * sum) / nh : 1 };
+  const sharp = new Uint8Array(t.nv);
+  sharpFlags(t, angle, sharp);
+  return { mesh, hl, hc, angle, saddle, saddles, sharp, bucketWidth: nh ? (BUCKET * sum) / nh : 1 };
 }

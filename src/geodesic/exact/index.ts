@@ -14,8 +14,10 @@
  * of Xin & Wang, ACM TOG 28(4), 2009 (proof in propagate.ts), merging of
  * touching windows with the same image (flat regions stay one window), and
  * saddles lighting only the wedge where a geodesic can bend around them
- * (pseudo-wedge.ts). Window lists are kept sorted along their edges so the
- * trimming scans stop early.
+ * (pseudo-wedge.ts), and windows that would go once round a sharp vertex
+ * dropped (winding.ts: such a path is beaten by the edge it crosses twice;
+ * without it a tall spike made tens of thousands of windows). Window lists
+ * are kept sorted along their edges so the trimming scans stop early.
  *
  * Cost. On noisy meshes the windows are real structure, not waste: every
  * saddle (about half the vertices of a jittered terrain) owns a thin shadow

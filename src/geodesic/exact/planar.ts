@@ -22,6 +22,7 @@ import { next, prev } from '../../mesh/topology.js';
 import type { ExactState } from './state.js';
 import { relaxVertex, VIA_WINDOW } from './state.js';
 import { addWindow } from './propagate.js';
+import { windsAround } from './winding.js';
 
 /** √(x² + y²) without Math.hypot's overflow guard, which costs several times more in V8 (lengths here are far from 1e±154). Local to each hot module so it inlines. */
 function len2(x: number, y: number): number {
@@ -50,8 +51,9 @@ export function propagatePlanar(s: ExactState, w: number): void {
   const hp = prev(h), hn = next(h);
   const xc = xC < b0 ? b0 : xC > b1 ? b1 : xC; // as for point windows: exact when lit, a bound otherwise
   relaxVertex(s, t.tri[hp]!, c + ux * xc + len2(cx - xc, cy), VIA_WINDOW, w);
-  const gp = t.twin[hp]!;
-  if (gp >= 0 && b0 < xC) {
+  const gp = t.twin[hp]!, sharp = s.geometry.sharp;
+  // a front that would go once round a sharp vertex carries no shortest path (winding.ts)
+  if (gp >= 0 && b0 < xC && !(sharp[A] && windsAround(W, t, w, gp, A))) {
     // A→C hit at s(x) = x·uy / (cx·uy − cy·ux)
     const den = cx * uy - cy * ux, x1 = b1 < xC ? b1 : xC;
     const lca = len2(cx, cy), Lc = s.hl[gp]!;
@@ -61,7 +63,7 @@ export function propagatePlanar(s: ExactState, w: number): void {
     }
   }
   const gn = t.twin[hn]!;
-  if (gn >= 0 && b1 > xC) {
+  if (gn >= 0 && b1 > xC && !(sharp[B] && windsAround(W, t, w, gn, B))) {
     // B→C hit at s(x) = (x − L)·uy / ((cx − L)·uy − cy·ux); the twin runs C→B
     const den = (cx - L) * uy - cy * ux, x0 = b0 > xC ? b0 : xC;
     const dx = L - cx, dy = -cy, lbc = len2(dx, dy), Lc = s.hl[gn]!;

@@ -41,6 +41,7 @@ import { addRoot, relaxVertex, VIA_WINDOW, VIA_VERTEX } from './state.js';
 import { trimBoth } from './trim.js';
 import { propagatePlanar } from './planar.js';
 import { emitPseudoSource } from './pseudo-wedge.js';
+import { windsAround } from './winding.js';
 
 /** √(x² + y²) without Math.hypot's overflow guard, which costs several times more in V8 (lengths here are far from 1e±154). Local to each hot module so it inlines. */
 function len2(x: number, y: number): number {
@@ -56,6 +57,7 @@ const trimPair = trimBoth;
 const relax = relaxVertex;
 const next1 = next;
 const prev1 = prev;
+const winds = windsAround;
 
 /** Relative slack of the filter and of degenerate-width tests. */
 const REL = 1e-12;
@@ -171,6 +173,7 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     if (o1 < b0 - tolI || o0 > b1 + tolI) continue;
     const n0 = o0 < b0 ? o0 : b0, n1 = o1 > b1 ? o1 : b1;
     W.b0[o] = n0; W.b1[o] = n1;
+    if (W.parent[o] !== parent) W.parent[o] = o; // pieces of two histories: o points at itself (winding.ts)
     if (key < windowKey(W, o, o0, o1)) s.wq.push(windowKey(W, o, n0, n1), o); // the old entry pops later and is skipped
     return o;
   }
@@ -219,8 +222,8 @@ export function propagateWindow(s: ExactState, w: number): void {
   // bound when a ray through a flat vertex grazes it from outside by a rounding error
   const xc = xC < b0 ? b0 : xC > b1 ? b1 : xC;
   relax(s, t.tri[hp]!, sigma + len2(xc - sx, sy) + len2(cx - xc, cy), VIA_WINDOW, w);
-  const gp = t.twin[hp]!;
-  if (gp >= 0 && b0 < xC) {
+  const gp = t.twin[hp]!, sharp = s.geometry.sharp;
+  if (gp >= 0 && b0 < xC && !(sharp[A] && winds(W, t, w, gp, A))) {
     // line A + u·(C − A): u(x) = x·sy / ((x − sx)·cy + sy·cx)
     const x1 = b1 < xC ? b1 : xC;
     const u0 = unit(b0 * sy, (b0 - sx) * cy + sy * cx);
@@ -233,7 +236,7 @@ export function propagateWindow(s: ExactState, w: number): void {
     }
   }
   const gn = t.twin[hn]!;
-  if (gn >= 0 && b1 > xC) {
+  if (gn >= 0 && b1 > xC && !(sharp[B] && winds(W, t, w, gn, B))) {
     // line B + u·(C − B): u(x) = sy·(x − L) / ((x − sx)·cy + sy·(cx − L))
     const x0 = b0 > xC ? b0 : xC;
     const u0 = x0 === xC ? 1 : unit(sy * (x0 - L), (x0 - sx) * cy + sy * (cx - L));

@@ -133,7 +133,7 @@ export function createState(
   };
   // per-vertex arrays of this run (dist, viaType, viaId, settled, pseudo) and the shared geometry
   const g = geometry;
-  budget.fixedBytes = 15 * t.nv + s.win.fixedBytes + g.hl.byteLength + g.hc.byteLength + g.angle.byteLength + g.saddle.byteLength;
+  budget.fixedBytes = 15 * t.nv + s.win.fixedBytes + g.hl.byteLength + g.hc.byteLength + g.angle.byteLength + g.saddle.byteLength + g.sharp.byteLength;
   budget.queueBytes = () => s.queue.bytes + s.wq.touchedBytes;
   return s;
 }
