@@ -78,6 +78,7 @@ import { pathLength } from '../path.js';
 import { windowUsage } from './usage.js';
 import type { WindowUsage } from './usage.js';
 import { DEFAULT_MEMORY_BUDGET } from './budget.js';
+import { divergedError } from './guard.js';
 
 export { DEFAULT_MEMORY_BUDGET } from './budget.js';
 
@@ -134,8 +135,10 @@ function wholeMeshReservation(nf: number): number {
 
 /**
  * Exact geodesic distance from a source set on an intrinsic mesh.
- * Throws USAGE for bad sources or options and LIMIT when the memory budget
- * (or an explicit window cap) does not hold the run.
+ * Throws USAGE for bad sources or options, LIMIT when the memory budget
+ * (or an explicit window cap) does not hold the run, and NUMERIC when the
+ * run passes a bound no correct run reaches (guard.ts: windows piling up on
+ * one edge of a near-degenerate mesh) rather than running on endlessly.
  */
 export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: ExactOptions = {}): ExactResult {
   const t = mesh.topology;
@@ -214,6 +217,7 @@ export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: Exa
         'free memory, set a maximum distance (maxDistance, --max-distance), or use the heat method (--method heat) for whole fields',
     );
   }
+  if (s.diverged) throw divergedError(s, s.events);
   if (s.overflow) throw overflowError(s);
   const reach = Math.min(stopKey, maxD);
   const distance = new Float64Array(t.nv);

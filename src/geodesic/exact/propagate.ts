@@ -42,6 +42,7 @@ import { trimBoth } from './trim.js';
 import { propagatePlanar } from './planar.js';
 import { emitPseudoSource } from './pseudo-wedge.js';
 import { windsAround } from './winding.js';
+import { MAX_PER_HALF_EDGE, eventBound } from './guard.js';
 
 /** √(x² + y²) without Math.hypot's overflow guard, which costs several times more in V8 (lengths here are far from 1e±154). Local to each hot module so it inlines. */
 function len2(x: number, y: number): number {
@@ -177,6 +178,11 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     if (key < windowKey(W, o, o0, o1)) s.wq.push(windowKey(W, o, n0, n1), o); // the old entry pops later and is skipped
     return o;
   }
+  if (W.heCount[h]! >= MAX_PER_HALF_EDGE) {
+    s.diverged = 'edge'; // windows piling up on one edge: the run is not converging (guard.ts)
+    s.divergedAt = h;
+    return -1;
+  }
   // keep h's list sorted: insert after the last window starting at or before b0
   let at = -1;
   if (prune) {
@@ -295,9 +301,10 @@ export function settleVertex(s: ExactState, v: number): void {
 
 /**
  * Runs the event loop until both queues are empty, the next key passes
- * `maxDistance`, `stop(key)` returns true (checked every 32 events) or the
+ * `maxDistance`, `stop(key)` returns true (checked every 32 events), the
  * window store has no more room (`s.overflow`: the memory budget, the window
- * cap or the allocator refused). Returns the key at which it stopped (Infinity when the
+ * cap or the allocator refused) or the run passes a bound no correct run
+ * reaches (`s.diverged`, guard.ts). Returns the key at which it stopped (Infinity when the
  * queues ran dry): every vertex bound ≤ that key is exact.
  *
  * A vertex is settled only when its key is at most the window queue's
@@ -314,10 +321,11 @@ export function runEvents(s: ExactState, stop?: (key: number) => boolean): numbe
     if (key === Infinity) return Infinity;
     if (key > s.maxDistance) return key;
     if (stop && (n++ & 31) === 0 && stop(key)) return key;
+    if ((++s.events & 1023) === 0 && s.events > eventBound(s)) s.diverged = 'events';
     if (vk <= wk) {
       const v = -1 - vq.pop();
       if (!s.settled[v]) settleVertex(s, v);
     } else propagateWindow(s, wq.pop());
-    if (s.overflow) return key;
+    if (s.overflow || s.diverged) return key;
   }
 }

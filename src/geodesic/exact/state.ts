@@ -84,6 +84,12 @@ export interface ExactState {
   overflow: boolean;
   /** Set when something was left out for lying beyond maxDistance. */
   capped: boolean;
+  /** Set when the run was stopped as not converging (guard.ts): which bound it passed. */
+  diverged: '' | 'edge' | 'events';
+  /** The half-edge that passed its window cap (diverged 'edge'). */
+  divergedAt: number;
+  /** Events processed so far (guard.ts). */
+  events: number;
   /**
    * Pruning on (default): vertex filter, trimming and merging. Off, every
    * window propagates unpruned (plain window propagation, for reference
@@ -128,6 +134,9 @@ export function createState(
     maxWindows,
     overflow: false,
     capped: false,
+    diverged: '',
+    divergedAt: -1,
+    events: 0,
     prune: true,
     wedge: true,
   };

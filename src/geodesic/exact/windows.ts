@@ -63,6 +63,8 @@ export class WindowStore {
   flat: Uint8Array;
   /** First window on each half-edge, −1 when none. */
   readonly heHead: Int32Array;
+  /** Windows made on each half-edge, dead ones included (saturates at 65535; guard.ts caps it far below). */
+  readonly heCount: Uint16Array;
   /** 1 for each face that has held a window (up to date after {@link touchedFaces}). */
   readonly faceSeen: Uint8Array;
   private faces = 0;
@@ -91,6 +93,7 @@ export class WindowStore {
     this.state = new Uint8Array(c);
     this.flat = new Uint8Array(c);
     this.heHead = new Int32Array(3 * t.nf).fill(-1);
+    this.heCount = new Uint16Array(3 * t.nf);
     this.faceSeen = new Uint8Array(t.nf);
     this.room = 0; // the first add asks the budget (the state's fixed bytes are known by then)
   }
@@ -102,6 +105,7 @@ export class WindowStore {
     this.sx[w] = sx; this.sy[w] = sy; this.sigma[w] = sigma; this.parent[w] = parent;
     this.state[w] = 0;
     this.flat[w] = flat;
+    this.heCount[he]++;
     if (after < 0) {
       this.nextOnHe[w] = this.heHead[he]!;
       this.heHead[he] = w;
@@ -158,12 +162,12 @@ export class WindowStore {
 
   /** Bytes held by the window arrays (reserved, not all written). */
   get bytes(): number {
-    return this.he.length * WINDOW_BYTES + this.heHead.byteLength + this.faceSeen.byteLength;
+    return this.he.length * WINDOW_BYTES + this.fixedBytes;
   }
 
   /** Bytes of the per-face arrays (fixed for the run). */
   get fixedBytes(): number {
-    return this.heHead.byteLength + this.faceSeen.byteLength;
+    return this.heHead.byteLength + this.heCount.byteLength + this.faceSeen.byteLength;
   }
 
   private grow(c: number): void {
