@@ -2,10 +2,16 @@
  * Exact-geodesic benchmark: single source to all vertices on ~10k, ~100k and
  * ~1M faces (jittered terrain grid; perturbed icosphere), with time, windows
  * created, peak RSS and the ratio to edge-graph Dijkstra measured in the
- * same run on the same mesh; a two-point query between nearby points
+ * same run on the same mesh (edgeDijkstra in harness.ts, the one yardstick); a two-point query between nearby points
  * (targets option): time and fraction of faces touched, also on a mesh
  * whose solver geometry was prepared once (geometry.ts); and the event queue
  * (typed-array heap) against heap-js on the same push/pop sequence.
+ *
+ * Also the kinds of mesh users bring (meshes.ts: smooth and fractal
+ * heightfields, a scan-like Delaunay terrain, a CAD part with thin triangles
+ * and fans) at ~200k faces (~20k with `--quick`): windows per face and ns per
+ * window on each, and whether the whole field fits the memory budget
+ * (status "limit" otherwise). `EXACT_CASE=scan-200k` runs one case.
  *
  * `--quick` runs the ~10k and ~100k sizes only. Goals at 1M faces: ≤ 8×
  * Dijkstra, two-point query touching a small fraction of faces, peak RSS
@@ -16,17 +22,16 @@
  * with the time it took to get there.
  */
 import { Heap } from 'heap-js';
-import { emit, timeMedian, peakRssMB, quick } from './harness.js';
+import { emit, timeMedian, timeEdgeDijkstra, peakRssMB, quick } from './harness.js';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, meanEdgeLength, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { exactDistance, type ExactResult } from '../../src/geodesic/exact/index.js';
 import { prepareExactGeometry } from '../../src/geodesic/exact/geometry.js';
 import { EventQueue } from '../../src/geodesic/exact/queue.js';
-import { graphDistance } from '../../src/geodesic/graph.js';
 import { pointSources } from '../../src/geodesic/sources.js';
 import { isOrthodromeError } from '../../src/errors.js';
 import { rng, type Shape } from '../fixtures/shapes.js';
-import { jitteredTerrain, bumpySphere } from './meshes.js';
+import { jitteredTerrain, bumpySphere, USER_MESHES } from './meshes.js';
 
 const BENCH = 'exact';
 
@@ -53,7 +58,7 @@ async function runCase(name: string, s: Shape, big: boolean): Promise<void> {
   const [a, b] = pickPair(s, m, 8);
   const src = pointSources([{ kind: 'vertex', vertex: a }]);
   const runs = big ? 1 : 3;
-  const g = await timeMedian(() => graphDistance(m, src), big ? 3 : 5, 1);
+  const g = await timeEdgeDijkstra(m, a, big ? 3 : 5); // the one yardstick (harness.ts)
   emit({ bench: BENCH, case: name, metric: 'graph_ms', value: g.ms, unit: 'ms', ...extra });
   let ex: { ms: number; result: ExactResult } | undefined;
   const t0 = performance.now();
@@ -119,6 +124,10 @@ const cases: [string, () => Shape, boolean][] = [
   ['terrain-100k', () => jitteredTerrain(224, 1), true],
   ['sphere-82k', () => bumpySphere(6, 2), true],
 ];
+// the kinds of mesh users bring (meshes.ts): ~20k faces in --quick, ~200k in a full run
+for (const [kind, make] of Object.entries(USER_MESHES)) {
+  cases.push(quick() ? [`${kind}-20k`, () => make(20_000, 1), false] : [`${kind}-200k`, () => make(200_000, 1), true]);
+}
 if (!quick()) cases.push(['terrain-1M', () => jitteredTerrain(708, 1), true], ['sphere-1.3M', () => bumpySphere(8, 2), true]);
 if (!only || only === 'queue') await queueCase();
 for (const [name, make, big] of cases) if (!only || name === only) await runCase(name, make(), big);

@@ -5,13 +5,13 @@
  * two). Per ordering: ordering time, symbolic time, nnz(L), factor time
  * (refactorization with the same analysis), solve time (forward + back),
  * effective bandwidth 2 × bytes(L) / solve time, peak RSS. Baseline in the same
- * run: Dijkstra with a typed-array binary heap (decrease-key) over the same
- * edge graph, so `factor/dijkstra` and `solve/dijkstra` ratios are emitted.
+ * run: the typed-array binary-heap Dijkstra of harness.ts (the one yardstick)
+ * over the same edge graph, so `factor/dijkstra` and `solve/dijkstra` ratios are emitted.
  * For nested dissection also: the factor without the SIMD kernel and (up to
  * 200k) the simplicial up-looking method, as before/after figures.
  * `BENCH_CASE=grid` runs the cases whose name contains the text.
  */
-import { emit, peakRssMB, quick, timeMedian } from './harness.js';
+import { emit, peakRssMB, quick, timeMedian, edgeDijkstra } from './harness.js';
 import { flatGrid, icosphere, terrain, rng } from '../fixtures/shapes.js';
 import type { Shape } from '../fixtures/shapes.js';
 import { buildTopology } from '../../src/mesh/build.js';
@@ -48,84 +48,6 @@ function heatSystem(s: Shape): { A: CscMatrix; ea: Int32Array; eb: Int32Array; e
   return { A: T.toCsc(), ea, eb, elen: m.edgeLength };
 }
 
-/** Dijkstra from vertex 0 over an edge list, binary heap with decrease-key on typed arrays. */
-function dijkstra(n: number, ea: Int32Array, eb: Int32Array, elen: Float64Array): Float64Array {
-  const deg = new Int32Array(n + 1);
-  for (let e = 0; e < ea.length; e++) {
-    deg[ea[e]! + 1]!++;
-    deg[eb[e]! + 1]!++;
-  }
-  for (let v = 0; v < n; v++) deg[v + 1]! += deg[v]!;
-  const nbr = new Int32Array(deg[n]!), wt = new Float64Array(deg[n]!);
-  const fill = deg.slice(0, n);
-  for (let e = 0; e < ea.length; e++) {
-    let q = fill[ea[e]!]!++;
-    nbr[q] = eb[e]!;
-    wt[q] = elen[e]!;
-    q = fill[eb[e]!]!++;
-    nbr[q] = ea[e]!;
-    wt[q] = elen[e]!;
-  }
-  const dist = new Float64Array(n).fill(Infinity);
-  const heap = new Int32Array(n);
-  const pos = new Int32Array(n).fill(-1); // −1 never queued, −2 settled
-  let size = 0;
-  const up = (k: number) => {
-    const v = heap[k]!, d = dist[v]!;
-    while (k > 0) {
-      const pk = (k - 1) >> 1, pv = heap[pk]!;
-      if (dist[pv]! <= d) break;
-      heap[k] = pv;
-      pos[pv] = k;
-      k = pk;
-    }
-    heap[k] = v;
-    pos[v] = k;
-  };
-  const down = (k: number) => {
-    const v = heap[k]!, d = dist[v]!;
-    for (;;) {
-      let c = 2 * k + 1;
-      if (c >= size) break;
-      if (c + 1 < size && dist[heap[c + 1]!]! < dist[heap[c]!]!) c++;
-      if (dist[heap[c]!]! >= d) break;
-      heap[k] = heap[c]!;
-      pos[heap[k]!] = k;
-      k = c;
-    }
-    heap[k] = v;
-    pos[v] = k;
-  };
-  dist[0] = 0;
-  heap[size++] = 0;
-  pos[0] = 0;
-  while (size > 0) {
-    const u = heap[0]!;
-    pos[u] = -2;
-    const last = heap[--size]!;
-    if (size > 0) {
-      heap[0] = last;
-      pos[last] = 0;
-      down(0);
-    }
-    const du = dist[u]!;
-    for (let q = deg[u]!; q < deg[u + 1]!; q++) {
-      const v = nbr[q]!;
-      if (pos[v] === -2) continue;
-      const nd = du + wt[q]!;
-      if (nd < dist[v]!) {
-        dist[v] = nd;
-        if (pos[v] === -1) {
-          heap[size] = v;
-          pos[v] = size++;
-        }
-        up(pos[v]!);
-      }
-    }
-  }
-  return dist;
-}
-
 interface Case {
   name: string;
   make: () => Shape;
@@ -154,7 +76,7 @@ async function main(): Promise<void> {
     if (only && !c.name.includes(only)) continue;
     const { A, ea, eb, elen } = heatSystem(c.make());
     const n = A.n;
-    const dj = await timeMedian(() => dijkstra(n, ea, eb, elen), n > 500_000 ? 3 : 5);
+    const dj = await timeMedian(() => edgeDijkstra(n, ea, eb, elen, 0), n > 500_000 ? 3 : 5);
     emit({ bench: BENCH, case: c.name, metric: 'dijkstra', value: dj.ms, unit: 'ms', n });
     const r = rng(5);
     const b = Float64Array.from({ length: n }, () => r() - 0.5);
