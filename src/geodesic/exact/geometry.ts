@@ -1,7 +1,8 @@
 /**
  * What the exact solver needs of a mesh before any source is known: each
  * half-edge's length and its face laid out along it, the corner angles,
- * which vertices are pseudo-sources, and the window-queue bucket width.
+ * which vertices are pseudo-sources, which are sharp enough for a window to
+ * wind round them (winding.ts), and the window-queue bucket width.
  * Computing it is linear in the mesh and, on a two-point query, costs more
  * than the query itself (measured: ~170 ms of ~200 ms on a 1M-face
  * terrain), so a prepared solver or a run of several legs computes it once

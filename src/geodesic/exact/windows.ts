@@ -63,7 +63,7 @@ export class WindowStore {
   flat: Uint8Array;
   /** First window on each half-edge, −1 when none. */
   readonly heHead: Int32Array;
-  /** Windows made on each half-edge, dead ones included (saturates at 65535; guard.ts caps it far below). */
+  /** Windows made on each half-edge, dead ones included (addWindow stops a run at guard.ts's cap, far below 65535). */
   readonly heCount: Uint16Array;
   /** 1 for each face that has held a window (up to date after {@link touchedFaces}). */
   readonly faceSeen: Uint8Array;
