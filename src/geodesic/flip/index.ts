@@ -1,0 +1,75 @@
+/**
+ * Exact geodesic paths by edge flips (Sharp & Crane, "You Can Find Geodesic
+ * Paths in Triangle Meshes by Just Flipping Edges", ACM TOG 39(6), 2020).
+ *
+ * Design:
+ * - start-path.ts: the edge-graph shortest path between the two vertices
+ *   (Dijkstra with a target stop);
+ * - triangulation.ts: a copy of the mesh's connectivity and lengths that can
+ *   flip edges, with a direction per half-edge (signposts, Sharp, Soliman &
+ *   Crane 2019) so every intrinsic edge can be found on the input surface;
+ * - flipout.ts: FlipOut until every bend is at least π on both sides;
+ * - trace.ts: the final intrinsic edges traced across the input faces.
+ *
+ * Only the lengths are read (the metric is the interface); coordinates come
+ * in later, when the caller turns surface points into a polyline.
+ *
+ * Which geodesic: FlipOut shortens within the homotopy class of the start
+ * path, so the result is the shortest path in the class of the edge-graph
+ * shortest route. Callers that need a guarantee of the global minimum on a
+ * surface with holes or handles compare it with window propagation
+ * (waypoints.ts does on small meshes, see `FLIP_CHECK_FACES` there).
+ */
+import type { IntrinsicMesh } from '../../metric/intrinsic.js';
+import type { SurfacePath } from '../field.js';
+import type { SurfacePoint } from '../../query/surface-point.js';
+import { FlipTriangulation } from './triangulation.js';
+import { shortestEdgePath } from './start-path.js';
+import { shortenPath } from './flipout.js';
+import { tracePath } from './trace.js';
+
+export { BEND_TOLERANCE } from './flipout.js';
+
+/** Result of {@link flipGeodesicPath}. */
+export interface FlipPathResult {
+  /**
+   * `ok`: a geodesic was found and traced; `unreachable`: the vertices lie on
+   * different components; `failed`: FlipOut did not converge or a traced
+   * edge did not end where it should (rounding on a degenerate mesh); the
+   * caller should use another method.
+   */
+  status: 'ok' | 'unreachable' | 'failed';
+  /** The path on the input surface (empty unless `ok`). */
+  path: SurfacePath;
+  /** Length of the edge-graph start path, mesh units. */
+  startLength: number;
+  /** Edge flips made. */
+  flips: number;
+  /** FlipOut sweeps over the path. */
+  sweeps: number;
+}
+
+/**
+ * A geodesic path (locally shortest, every bend ≥ π on both sides up to
+ * {@link BEND_TOLERANCE}) from vertex `from` to vertex `to`, shortened by
+ * intrinsic edge flips from the edge-graph shortest path. The path's length
+ * is the sum of its intrinsic edge lengths; its points are the two vertices,
+ * the input-edge crossings and the input vertices it passes through.
+ * The mesh is not modified.
+ */
+export function flipGeodesicPath(mesh: IntrinsicMesh, from: number, to: number): FlipPathResult {
+  const none = (status: FlipPathResult['status'], startLength = Infinity): FlipPathResult => ({
+    status, path: { points: [], length: Infinity }, startLength, flips: 0, sweeps: 0,
+  });
+  if (from === to) {
+    return { status: 'ok', path: { points: [{ kind: 'vertex', vertex: from }], length: 0 }, startLength: 0, flips: 0, sweeps: 0 };
+  }
+  const start = shortestEdgePath(mesh, from, to);
+  if (!start) return none('unreachable');
+  const tri = new FlipTriangulation(mesh);
+  const r = shortenPath(tri, start);
+  if (!r.converged) return none('failed', start.length);
+  const points: SurfacePoint[] = [];
+  if (!tracePath(tri, r.vertices, r.edges, points)) return none('failed', start.length);
+  return { status: 'ok', path: { points, length: r.length }, startLength: start.length, flips: tri.flips, sweeps: r.sweeps };
+}

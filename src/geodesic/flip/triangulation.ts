@@ -1,0 +1,206 @@
+/**
+ * An intrinsic triangulation that can flip edges and still says where each
+ * of its edges runs on the input surface.
+ *
+ * Follows the signpost idea of Sharp, Soliman & Crane, "Navigating Intrinsic
+ * Triangulations", ACM TOG 38(4), 2019, reduced to what paths need: the
+ * vertex set never changes (every intrinsic vertex is an input vertex), and
+ * each intrinsic half-edge stores its length (per edge) and its direction at
+ * its tail as an angle `dir[h]`, measured counter-clockwise on the input
+ * surface from the input's reference half-edge `vertexHalfedge[v]` of the
+ * tail. Those two numbers are enough to trace the edge across the input faces
+ * (trace.ts); no coordinates are stored here. Angles are true angles (not
+ * rescaled to 2π): flips do not change cone angles, and a vertex's total
+ * angle Θ(v) is the sum of its input corner angles. Interior vertices take
+ * angles modulo Θ(v); boundary vertices never wrap (a wedge never crosses the
+ * boundary gap), so their angles stay in [0, Θ(v)].
+ *
+ * Directions are set lazily: a vertex gets them (from its input fan, rotating
+ * `twin[prev(h)]` counter-clockwise) the first time it is touched, and every
+ * flip touches its four quad vertices first, so an untouched vertex's fan is
+ * still the input fan. Work and memory outside the arrays copied up front
+ * stay proportional to the region the path sweeps.
+ *
+ * Flip layout, the same as the sketch in src/metric/delaunay.ts: the quad
+ * (a, b, c) + (b, a, d) with diagonal h = a→b becomes (d, c, a) + (c, d, b)
+ * with h = d→c; outer half-edges move to new slots with their edge ids (edge
+ * ids are stable, so a path stored as edge ids survives flips elsewhere). The
+ * new directions follow Sharp et al. 2019 §3.2: the direction of d→c is that
+ * of d→b plus the new corner at d, and c→d that of c→a plus the corner at c.
+ */
+import type { IntrinsicMesh } from '../../metric/intrinsic.js';
+import type { Topology } from '../../mesh/topology.js';
+import { next, prev } from '../../mesh/topology.js';
+import { angleOpposite, triangleArea } from '../../metric/triangle.js';
+
+/** An input mesh under flips, with a direction per half-edge (see the module comment). */
+export class FlipTriangulation {
+  /** Corner vertices per face slot (tail of each half-edge). */
+  readonly tri: Uint32Array;
+  /** Opposite half-edge, −1 on the boundary. */
+  readonly twin: Int32Array;
+  /** Stable edge id per half-edge slot. */
+  readonly edgeOf: Int32Array;
+  /** One half-edge slot per edge. */
+  readonly edgeHalfedge: Int32Array;
+  /** Length per edge id. */
+  readonly length: Float64Array;
+  /** Direction of each half-edge at its tail, radians from the tail's input reference (valid once the tail is set up). */
+  readonly dir: Float64Array;
+  /** Total angle per vertex (valid once the vertex is set up). */
+  readonly theta: Float64Array;
+  /** 1 on boundary vertices (valid once set up). */
+  readonly onBoundary: Uint8Array;
+  /** Number of flips made. */
+  flips = 0;
+  private readonly ready: Uint8Array;
+  private readonly anchor: Int32Array;
+
+  /** Copies the connectivity and lengths of `input` (the input is never modified). */
+  constructor(readonly input: IntrinsicMesh) {
+    const t = input.topology;
+    this.tri = t.tri.slice();
+    this.twin = t.twin.slice();
+    this.edgeOf = t.edgeOf.slice();
+    this.edgeHalfedge = t.edgeHalfedge.slice();
+    this.anchor = t.vertexHalfedge.slice();
+    this.length = input.edgeLength.slice();
+    this.dir = new Float64Array(t.tri.length);
+    this.theta = new Float64Array(t.nv);
+    this.onBoundary = new Uint8Array(t.nv);
+    this.ready = new Uint8Array(t.nv);
+  }
+
+  /** The input topology (directions are measured in its fans). */
+  get topology(): Topology {
+    return this.input.topology;
+  }
+
+  /** Length of the edge of half-edge h. */
+  len(h: number): number {
+    return this.length[this.edgeOf[h]!]!;
+  }
+
+  /** Interior angle at the tail of half-edge h in its current face. */
+  corner(h: number): number {
+    return angleOpposite(this.len(next(h)), this.len(h), this.len(prev(h)));
+  }
+
+  /** The half-edge of edge e that leaves vertex v (−1 if v is not an end of e). */
+  leaving(e: number, v: number): number {
+    const h = this.edgeHalfedge[e]!;
+    if (this.tri[h] === v) return h;
+    const o = this.twin[h]!;
+    return o >= 0 && this.tri[o] === v ? o : -1;
+  }
+
+  /** Sets up the directions around v from its (untouched) input fan; idempotent. */
+  prepare(v: number): void {
+    if (this.ready[v]) return;
+    this.ready[v] = 1;
+    const start = this.anchor[v]!;
+    if (start < 0) return;
+    const { twin, dir } = this;
+    let h = start, a = 0, n = 0;
+    for (;;) {
+      dir[h] = a;
+      a += this.corner(h);
+      const o = twin[prev(h)]!;
+      if (o < 0) { this.onBoundary[v] = 1; break; }
+      if (o === start || ++n > this.tri.length) break;
+      h = o;
+    }
+    this.theta[v] = a;
+  }
+
+  /**
+   * Direction of edge e at its end v (v set up): that of its half-edge
+   * leaving v, or Θ(v) for a boundary edge that only enters v (the last
+   * direction of a boundary vertex's fan).
+   */
+  direction(e: number, v: number): number {
+    const h = this.leaving(e, v);
+    return h >= 0 ? this.dir[h]! : this.theta[v]!;
+  }
+
+  /**
+   * Counter-clockwise angle at v from direction `from` to direction `to`
+   * (v set up); Infinity when that sweep crosses the boundary gap of a
+   * boundary vertex.
+   */
+  sweep(v: number, from: number, to: number): number {
+    const d = to - from;
+    if (this.onBoundary[v]) return d >= 0 ? d : Infinity;
+    return d >= 0 ? d : d + this.theta[v]!;
+  }
+
+  /**
+   * Flips the edge of interior half-edge h in place. Returns false, changing
+   * nothing, when the flip is not possible: a boundary edge, the twin in the
+   * same face, a loop edge would result, an outer side is glued onto the
+   * quad, or a new face would have no area (the quad is not strictly convex).
+   */
+  flip(h: number): boolean {
+    const { tri, twin, edgeOf, edgeHalfedge: eh, anchor, dir, length: L } = this;
+    const o = twin[h]!;
+    if (o < 0) return false;
+    const f0 = (h / 3) | 0, f1 = (o / 3) | 0;
+    if (f0 === f1) return false;
+    const hn = next(h), hp = prev(h), on = next(o), op = prev(o);
+    const a = tri[h]!, b = tri[hn]!, c = tri[hp]!, d = tri[op]!;
+    if (c === d) return false;
+    const lab = L[edgeOf[h]!]!, lbc = L[edgeOf[hn]!]!, lca = L[edgeOf[hp]!]!;
+    const lad = L[edgeOf[on]!]!, ldb = L[edgeOf[op]!]!;
+    const A0 = triangleArea(lab, lbc, lca), A1 = triangleArea(lab, lad, ldb);
+    if (!(A0 > 0 && A1 > 0 && lab > 0)) return false;
+    // unfold: a = (0, 0), b = (lab, 0), c above the axis, d below it
+    const xc = (lab * lab + lca * lca - lbc * lbc) / (2 * lab), yc = (2 * A0) / lab;
+    const xd = (lab * lab + lad * lad - ldb * ldb) / (2 * lab), yd = (2 * A1) / lab;
+    const lcd = Math.hypot(xc - xd, yc + yd);
+    if (!(triangleArea(lcd, lca, lad) > 0 && triangleArea(lcd, ldb, lbc) > 0)) return false;
+    const eHn = edgeOf[hn]!, eHp = edgeOf[hp]!, eOn = edgeOf[on]!, eOp = edgeOf[op]!;
+    const tHn = twin[hn]!, tHp = twin[hp]!, tOn = twin[on]!, tOp = twin[op]!;
+    if (inQuad(tHn, f0, f1) || inQuad(tHp, f0, f1) || inQuad(tOn, f0, f1) || inQuad(tOp, f0, f1)) return false;
+    this.prepare(a); this.prepare(b); this.prepare(c); this.prepare(d);
+    const dHn = dir[hn]!, dHp = dir[hp]!, dOn = dir[on]!, dOp = dir[op]!;
+    const fixA = anchor[a] === h || anchor[a] === on, fixB = anchor[b] === o || anchor[b] === hn;
+    const fixC = anchor[c] === hp, fixD = anchor[d] === op;
+
+    tri[h] = d; tri[hn] = c; tri[hp] = a;
+    tri[o] = c; tri[on] = d; tri[op] = b;
+    const relink = (slot: number, e: number, tw: number, dd: number): void => {
+      edgeOf[slot] = e;
+      twin[slot] = tw;
+      if (tw >= 0) twin[tw] = slot;
+      eh[e] = slot;
+      dir[slot] = dd;
+    };
+    relink(hn, eHp, tHp, dHp); // c→a
+    relink(hp, eOn, tOn, dOn); // a→d
+    relink(on, eOp, tOp, dOp); // d→b
+    relink(op, eHn, tHn, dHn); // b→c
+    L[edgeOf[h]!] = lcd;
+    // d→c: from d→b, turn by the corner at d of (c, d, b), opposite side bc
+    dir[h] = this.wrap(d, dOp + angleOpposite(lbc, lcd, ldb));
+    // c→d: from c→a, turn by the corner at c of (d, c, a), opposite side ad
+    dir[o] = this.wrap(c, dHp + angleOpposite(lad, lcd, lca));
+    if (fixA) anchor[a] = hp;
+    if (fixB) anchor[b] = op;
+    if (fixC) anchor[c] = hn;
+    if (fixD) anchor[d] = on;
+    this.flips++;
+    return true;
+  }
+
+  private wrap(v: number, x: number): number {
+    if (this.onBoundary[v]) return x;
+    const T = this.theta[v]!;
+    return x >= T ? x - T : x;
+  }
+}
+
+/** True when half-edge tw (≥ 0) belongs to face f0 or f1. */
+function inQuad(tw: number, f0: number, f1: number): boolean {
+  const g = (tw / 3) | 0;
+  return tw >= 0 && (g === f0 || g === f1);
+}
