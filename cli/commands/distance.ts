@@ -6,15 +6,14 @@
 import { Command, Option } from 'commander';
 import { loadSurface, maxInputSizeOption } from '../load.js';
 import { checkFieldOutput, writeVertexColumns } from '../output.js';
-import { action, fmt, since, toJson } from '../run.js';
+import { action, fmt, toJson } from '../run.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
-import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import { PointResolver } from '../../src/query/resolve.js';
 import { formatSurfacePoint, type SurfacePoint } from '../../src/query/surface-point.js';
 import { boundaryCurves, type SourceSet } from '../../src/geodesic/sources.js';
-import { prepareDistance, type DistanceOptions } from '../../src/geodesic/solver.js';
-import { orientationCover, prepareCoverDistance } from '../../src/geodesic/cover.js';
-import { throughPinches } from '../../src/geodesic/pinch.js';
+import type { DistanceOptions } from '../../src/geodesic/solver.js';
+import { orientationCover } from '../../src/geodesic/cover.js';
+import { solveSets } from '../jobs.js';
 import type { DistanceMethod } from '../../src/geodesic/field.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { describeField, summarizeField } from '../field-summary.js';
@@ -40,6 +39,7 @@ interface DistanceCliOptions {
   splitNonmanifold?: boolean;
   maxInputSize?: string;
   memoryBudget?: string;
+  jobs?: string;
 }
 
 const collect = (v: string, prev: string[] = []) => [...prev, v];
@@ -62,6 +62,7 @@ export function registerDistance(program: Command): void {
     .option('--from-curve <points>', "a curve source: point specs separated by ';', each consecutive pair on a common face (e.g. 'v:3;e:17:0.5;v:9'); repeat for several", collect)
     .option('--to <point>', 'target point whose distance is printed; repeat for several', collect)
     .option('--each', 'treat each --from as its own source set (one field per source, one prepared solver)')
+    .option('--jobs <n>', '--each: solve the source sets in N worker threads sharing the mesh (default 1; --memory-budget is shared among them)')
     .addOption(new Option('--method <method>', 'exact (window propagation), heat (heat method, approximate) or graph (along edges)').choices(['exact', 'heat', 'graph']).default('exact'))
     .option('-o, --output <file>', 'write the per-vertex distances: .ply (binary, coloured), .csv or .json; add .gz to compress')
     .option('--ascii', 'write PLY output as ascii instead of binary')
@@ -87,6 +88,9 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
     throw usageError(`--time-scale must lie in [${TIME_SCALE_RANGE[0]}, ${TIME_SCALE_RANGE[1]}], got '${o.timeScale}'`);
   }
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
+  const jobs = o.jobs === undefined ? 1 : Number(o.jobs);
+  if (!Number.isInteger(jobs) || jobs < 1 || jobs > 256) throw usageError(`--jobs must be a whole number from 1 to 256, got '${o.jobs}'`);
+  if (jobs > 1 && !o.each) throw usageError('--jobs works with --each (one source set per --from)');
   const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
   const t = surface.topology;
   const resolver = new PointResolver(t, surface.positions);
@@ -131,21 +135,23 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
     if (timeScale !== undefined) opts.heat.timeScale = timeScale;
     if (o.heatBoundary) opts.heat.boundary = o.heatBoundary;
   }
-  const t0 = performance.now();
   // a non-orientable surface was cut along seams to build it: solve on its double cover (paths cross the seams)
-  // and paths pass through split vertices (pinch points where sheets meet), as on the surface as given
-  const solver = throughPinches(
-    cover ? prepareCoverDistance(cover, o.method, opts) : prepareDistance(intrinsicFromPositions(t, surface.positions), o.method, opts),
-    resolver.splitGroups(),
-    maxDistance !== undefined ? { maxDistance } : {},
-  );
-  const prepareMs = since(t0);
-
+  // and paths pass through split vertices (pinch points where sheets meet), as on the surface as given;
+  // --each sets go to `jobs` worker threads sharing the mesh (jobs.ts), else are solved here in turn
   // only -o needs every vertex; --json reports what was computed (machine output never changes the work)
   const fieldNeeded = Boolean(o.output) || !o.to || o.to.length === 0;
+  const solved = await solveSets(
+    { topology: t, positions: surface.positions, seams, groups: resolver.splitGroups(), method: o.method, opts, cover },
+    sets.map((s) => s.set),
+    { targets, fieldNeeded },
+    targets.flatMap((p) => resolver.copies(p)),
+    jobs,
+  );
+  const prepareMs = Math.round(solved.prepareMs * 100) / 100;
+  const solver = { prepareDetails: solved.prepareDetails };
   let solveMs = 0;
-  const results = sets.map(({ specs: sp, set }) => {
-    const r = solver.solve(set, { targets, fieldNeeded });
+  const results = sets.map(({ specs: sp }, i) => {
+    const r = solved.results[i]!;
     solveMs += r.solveMs;
     return {
       sources: sp,

@@ -24,7 +24,7 @@ import { HeatSolver, type HeatOptions } from './heat.js';
 import { graphDistance, graphValueAt } from './graph.js';
 import { valueAtPoint } from './heat-sources.js';
 import { exactDistance } from './exact/index.js';
-import { prepareExactGeometry } from './exact/geometry.js';
+import { prepareExactGeometry, type ExactGeometry } from './exact/geometry.js';
 
 /** Largest edge length {@link prepareDistance} accepts, mesh units; a non-zero face must be at least its inverse across. */
 export const MAX_LENGTH = 1e60;
@@ -37,6 +37,11 @@ export interface DistanceOptions {
   maxDistance?: number;
   /** Memory budget of each exact solve, bytes (method `exact`; default 2 GiB): a run that would exceed it throws `LIMIT`. */
   memoryBudget?: number;
+  /**
+   * Method `exact`: the mesh's source-independent data, already made by `prepareExactGeometry`
+   * for this very mesh object (e.g. shared between worker threads); made afresh when absent.
+   */
+  exactGeometry?: ExactGeometry;
 }
 
 /** Options of one solve. */
@@ -187,7 +192,7 @@ function prepareMethod(mesh: IntrinsicMesh, method: DistanceMethod, opts: Distan
     };
   }
   const p0 = performance.now();
-  const geometry = prepareExactGeometry(mesh);
+  const geometry = opts.exactGeometry?.mesh === mesh ? opts.exactGeometry : prepareExactGeometry(mesh);
   return {
     method,
     prepareMs: performance.now() - p0,

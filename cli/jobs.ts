@@ -1,0 +1,212 @@
+/**
+ * `distance --each --jobs N`: source sets solved in parallel worker threads
+ * (node:worker_threads; Node-only, so it lives in cli/, not src/).
+ *
+ * The main thread loads the mesh once and copies its topology arrays,
+ * positions and edge lengths into shared memory (SharedArrayBuffer) once; for
+ * the exact method it also prepares the source-independent geometry
+ * (`prepareExactGeometry`) once, in shared memory. Workers get views of
+ * those buffers, not copies, and rebuild only small objects around them. The
+ * heat method's factorization is made by each worker (it is not shared:
+ * N workers prepare N times, at the same time, and hold N factors).
+ *
+ * Work is handed out one source set at a time to whichever worker is free;
+ * each solve is the same deterministic computation as with `--jobs 1`, so
+ * results are identical, in the order of the sets. The memory budget is the
+ * total for the run: each of the N concurrent solves gets 1/N of it.
+ */
+import { Worker } from 'node:worker_threads';
+import type { Topology } from '../src/mesh/topology.js';
+import { intrinsicFromPositions, type IntrinsicMesh } from '../src/metric/intrinsic.js';
+import { OrthodromeError, isOrthodromeError } from '../src/errors.js';
+import type { SourceSet } from '../src/geodesic/sources.js';
+import type { SurfacePoint } from '../src/query/surface-point.js';
+import { prepareDistance, type DistanceOptions, type DistanceResult, type DistanceSolver, type SolveOptions } from '../src/geodesic/solver.js';
+import { orientationCover, prepareCoverDistance, type OrientationCover } from '../src/geodesic/cover.js';
+import { throughPinches } from '../src/geodesic/pinch.js';
+import { prepareExactGeometry, type ExactGeometry } from '../src/geodesic/exact/geometry.js';
+import type { DistanceMethod } from '../src/geodesic/field.js';
+
+/** Everything needed to prepare the same solver in any thread. */
+export interface SolverSpec {
+  topology: Topology;
+  positions: Float64Array;
+  /** The surface's orientation seams (empty: orientable). */
+  seams: Int32Array;
+  /** Split vertices that paths pass through (PointResolver.splitGroups). */
+  groups: number[][];
+  method: DistanceMethod;
+  opts: DistanceOptions;
+  /** The intrinsic mesh of `topology` (made from positions when absent). */
+  mesh?: IntrinsicMesh;
+  /** The orientation cover, when already built (main thread). */
+  cover?: OrientationCover | null;
+}
+
+/** Prepares the solver of `distance` for a spec: on the double cover when there are seams, through pinch points. */
+export function prepareSolver(spec: SolverSpec): DistanceSolver {
+  const { topology: t, positions, seams, method, opts } = spec;
+  const cover = spec.cover !== undefined ? spec.cover : seams.length ? orientationCover(t, positions, seams) : null;
+  const maxDistance = opts.maxDistance;
+  return throughPinches(
+    cover ? prepareCoverDistance(cover, method, opts) : prepareDistance(spec.mesh ?? meshOf(t, positions), method, opts),
+    spec.groups,
+    maxDistance !== undefined ? { maxDistance } : {},
+  );
+}
+
+const meshOf = (t: Topology, positions: Float64Array): IntrinsicMesh => intrinsicFromPositions(t, positions);
+
+type Shareable = Uint32Array | Int32Array | Float64Array | Uint8Array;
+
+const isTyped = (x: unknown): x is Shareable =>
+  x instanceof Uint32Array || x instanceof Int32Array || x instanceof Float64Array || x instanceof Uint8Array;
+
+/** A copy of `a` in a SharedArrayBuffer (or `a` itself when it already is in one). */
+export function toShared<T extends Shareable>(a: T): T {
+  if (a.buffer instanceof SharedArrayBuffer) return a;
+  const C = a.constructor as new (b: SharedArrayBuffer) => T;
+  const out = new C(new SharedArrayBuffer(a.byteLength));
+  (out as Float64Array).set(a as Float64Array);
+  return out;
+}
+
+/** Every typed-array field of `o` moved to shared memory; other fields kept. */
+function sharedFields<T extends object>(o: T): T {
+  const out: Record<string, unknown> = {};
+  for (const [k, v] of Object.entries(o)) out[k] = isTyped(v) ? toShared(v) : v;
+  return out as T;
+}
+
+/** What a worker receives once (shared buffers inside). */
+export interface WorkerInit {
+  topology: Topology;
+  positions: Float64Array;
+  edgeLength: Float64Array;
+  seams: Int32Array;
+  groups: number[][];
+  method: DistanceMethod;
+  opts: DistanceOptions;
+  /** ExactGeometry without its mesh, arrays shared (exact method on an orientable surface). */
+  geometry: Omit<ExactGeometry, 'mesh'> | null;
+}
+
+/** One task: a source set, and the points whose values are wanted. */
+export interface WorkerTask { id: number; set: SourceSet; solve: SolveOptions; atPoints: SurfacePoint[] }
+
+/** A worker's answer: a solved set, or an error. */
+export type WorkerReply =
+  | { kind: 'ready'; prepareMs: number; prepareDetails: Record<string, number | boolean | string> }
+  | { kind: 'done'; id: number; distance: Float64Array; at: number[]; solveMs: number; complete: boolean; stoppedBy: DistanceResult['stoppedBy']; details: DistanceResult['details'] }
+  | { kind: 'error'; id: number; error: { name: string; message: string; code?: string; detail?: string; location?: string } };
+
+/** Rebuilds the solver spec in a worker from its init message (views of the shared buffers). */
+export function specFromInit(w: WorkerInit): SolverSpec {
+  const mesh: IntrinsicMesh = { topology: w.topology, edgeLength: w.edgeLength };
+  const opts: DistanceOptions = { ...w.opts };
+  if (w.geometry) opts.exactGeometry = { ...w.geometry, mesh } as ExactGeometry;
+  return { topology: w.topology, positions: w.positions, seams: w.seams, groups: w.groups, method: w.method, opts, mesh };
+}
+
+/** An error sent across threads, as plain data. */
+export function errorData(e: unknown): { name: string; message: string; code?: string; detail?: string; location?: string } {
+  if (isOrthodromeError(e)) return { name: e.name, message: e.message, code: e.code, detail: e.detail, ...(e.location !== undefined ? { location: e.location } : {}) };
+  if (e instanceof Error) return { name: e.name, message: e.message };
+  return { name: 'Error', message: String(e) };
+}
+
+function revive(d: { name: string; message: string; code?: string; detail?: string; location?: string }, jobs: number): Error {
+  if (d.code) {
+    const detail = d.code === 'LIMIT' ? `${d.detail}; with --jobs ${jobs} each of the ${jobs} solves at once gets 1/${jobs} of the memory budget` : d.detail!;
+    return new OrthodromeError(d.code as OrthodromeError['code'], detail, d.location);
+  }
+  const E = d.name === 'RangeError' ? RangeError : Error;
+  return new E(d.message);
+}
+
+/** The outcome of {@link solveSets}. */
+export interface SolvedSets {
+  prepareMs: number;
+  prepareDetails: Record<string, number | boolean | string>;
+  results: DistanceResult[];
+}
+
+/**
+ * Solves every source set, in `jobs` worker threads when jobs > 1 and there
+ * is more than one set (else here, one after another). `atPoints` are the
+ * points whose values `at` must give (a worker's result answers only those).
+ */
+export async function solveSets(spec: SolverSpec, sets: SourceSet[], so: SolveOptions, atPoints: SurfacePoint[], jobs: number): Promise<SolvedSets> {
+  const t0 = performance.now();
+  if (jobs <= 1 || sets.length <= 1) {
+    const solver = prepareSolver(spec);
+    const prepareMs = performance.now() - t0;
+    return { prepareMs, prepareDetails: solver.prepareDetails, results: sets.map((s) => solver.solve(s, so)) };
+  }
+  const n = Math.min(jobs, sets.length);
+  const mesh = spec.mesh ?? meshOf(spec.topology, spec.positions);
+  const topology = sharedFields(spec.topology);
+  const edgeLength = toShared(mesh.edgeLength);
+  const opts: DistanceOptions = { ...spec.opts };
+  delete opts.exactGeometry;
+  if (opts.memoryBudget !== undefined) opts.memoryBudget = Math.floor(opts.memoryBudget / n);
+  let geometry: WorkerInit['geometry'] = null;
+  if (spec.method === 'exact' && spec.seams.length === 0) {
+    const { mesh: _m, ...rest } = prepareExactGeometry(mesh);
+    geometry = sharedFields(rest);
+  }
+  const init: WorkerInit = {
+    topology, positions: toShared(spec.positions), edgeLength, seams: spec.seams, groups: spec.groups, method: spec.method, opts, geometry,
+  };
+  const here = import.meta.url;
+  const url = new URL(here.endsWith('.ts') ? './solve-worker.ts' : './solve-worker.js', here);
+  // run from source (tsx): a worker does not inherit the TypeScript loader's hooks on Node 20, so it
+  // registers them itself before importing the worker module (built: plain JavaScript, no loader)
+  const boot = here.endsWith('.ts')
+    ? `import(${JSON.stringify(import.meta.resolve('tsx/esm/api'))}).then((m) => { m.register(); return import(${JSON.stringify(url.href)}); })`
+    : null;
+  const workers = Array.from({ length: n }, () => (boot ? new Worker(boot, { eval: true, workerData: init }) : new Worker(url, { workerData: init })));
+  const results: DistanceResult[] = new Array(sets.length);
+  let prepareMs = 0, prepareDetails: SolvedSets['prepareDetails'] = {};
+  const key = (p: SurfacePoint): string => JSON.stringify(p);
+  try {
+    await new Promise<void>((resolve, reject) => {
+      let next = 0, done = 0, failed = false;
+      const give = (w: Worker): void => {
+        if (next < sets.length) {
+          const id = next++;
+          const task: WorkerTask = { id, set: sets[id]!, solve: so, atPoints };
+          w.postMessage(task);
+        }
+      };
+      const fail = (e: Error): void => { if (!failed) { failed = true; reject(e); } };
+      for (const w of workers) {
+        w.on('error', (e) => fail(e instanceof Error ? e : new Error(String(e))));
+        w.on('exit', (code) => { if (code !== 0 && done < sets.length) fail(new Error(`a worker thread stopped with code ${code}`)); });
+        w.on('message', (m: WorkerReply) => {
+          if (m.kind === 'error') return fail(revive(m.error, n));
+          if (m.kind === 'ready') {
+            prepareMs = Math.max(prepareMs, performance.now() - t0);
+            prepareDetails = m.prepareDetails;
+            return give(w);
+          }
+          const values = new Map(atPoints.map((p, i) => [key(p), m.at[i]!]));
+          results[m.id] = {
+            field: { method: spec.method, distance: m.distance, sources: [...sets[m.id]!.points, ...sets[m.id]!.curves.flat()] },
+            at: (p) => {
+              const v = values.get(key(p));
+              if (v === undefined) throw new Error('internal: a point not sent to the worker');
+              return v;
+            },
+            solveMs: m.solveMs, complete: m.complete, stoppedBy: m.stoppedBy, details: m.details,
+          };
+          if (++done === sets.length) resolve();
+          else give(w);
+        });
+      }
+    });
+  } finally {
+    await Promise.all(workers.map((w) => w.terminate()));
+  }
+  return { prepareMs, prepareDetails, results };
+}
