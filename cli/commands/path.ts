@@ -2,7 +2,7 @@
  * `orthodrome path MESH --from POINT --to POINT [--via POINT...] [--closed]`:
  * the exact shortest path on the surface through waypoints.
  */
-import type { Command } from 'commander';
+import { Option, type Command } from 'commander';
 import { loadSurface, maxInputSizeOption } from '../load.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { checkOutput, outputFormat } from '../output.js';
@@ -11,7 +11,7 @@ import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import { PointResolver } from '../../src/query/resolve.js';
 import { formatSurfacePoint } from '../../src/query/surface-point.js';
-import { shortestPathThrough } from '../../src/geodesic/waypoints.js';
+import { shortestPathThrough, AUTO_FLIP_FACES, type PathMethod } from '../../src/geodesic/waypoints.js';
 import { pathPolyline } from '../../src/geodesic/path.js';
 import { coverPathThrough, orientationCover } from '../../src/geodesic/cover.js';
 import { writeObjPolyline } from '../../src/io/write-obj.js';
@@ -21,6 +21,11 @@ import { usageError } from '../../src/errors.js';
 
 const PATH_FORMATS = ['.obj', '.csv', '.geojson', '.json'];
 const collect = (v: string, prev: string[] = []) => [...prev, v];
+const METHOD_TEXT: Record<string, string> = {
+  windows: 'windows (window propagation: the shortest path)',
+  flip: 'flip (edge flips from the edge-graph shortest route: a geodesic, shortest in that route\'s class)',
+  mixed: 'mixed (see the legs)',
+};
 
 interface PathCliOptions {
   from: string;
@@ -32,6 +37,7 @@ interface PathCliOptions {
   splitNonmanifold?: boolean;
   maxInputSize?: string;
   memoryBudget?: string;
+  pathMethod?: PathMethod;
 }
 
 /** Registers the command. */
@@ -49,6 +55,7 @@ export function registerPath(program: Command): void {
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
     .addOption(maxInputSizeOption())
     .addOption(memoryBudgetOption())
+    .addOption(new Option('--path-method <method>', `windows (window propagation: the shortest path, proven), flip (edge flips from the edge-graph shortest route: a geodesic, much faster on large meshes; legs between vertices only, others use windows) or auto (flip from ${AUTO_FLIP_FACES} faces up)`).choices(['auto', 'flip', 'windows']).default('auto'))
     .addHelpText(
       'after',
       `\nLengths are in the mesh's own units. GeoJSON coordinates are the mesh's own coordinates (RFC 7946 expects\nWGS 84 longitude/latitude; use the file only where another system is agreed).\n${TERRAIN_CAUTION}\n${MACHINING_CAUTION}`,
@@ -73,8 +80,10 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
   if (stops.length < 2) throw usageError('a path needs at least two points');
 
   const t0 = performance.now();
-  const route = cover ? coverPathThrough(cover, stops, { memoryBudget }) : shortestPathThrough(intrinsicFromPositions(t, surface.positions), stops, { memoryBudget, pinches: resolver.splitGroups() });
+  const route = cover ? coverPathThrough(cover, stops, { memoryBudget }) : shortestPathThrough(intrinsicFromPositions(t, surface.positions), stops, { memoryBudget, pinches: resolver.splitGroups(), method: o.pathMethod ?? 'auto' });
   const solveMs = since(t0);
+  const legMethods = route.legs.map((l) => l.method ?? 'windows');
+  const method = legMethods.every((x) => x === legMethods[0]) ? legMethods[0]! : 'mixed';
   if (!Number.isFinite(route.length)) {
     const leg = route.legs.findIndex((l) => !Number.isFinite(l.length));
     throw usageError(`no path on the surface from ${specs[leg] ?? o.from} to ${specs[leg + 1] ?? o.from}: the points lie on different components`, mesh);
@@ -108,7 +117,8 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
       unit: 'mesh units',
       points,
       surfacePoints: route.path.points.map(formatSurfacePoint),
-      legs: route.legs.map((l, i) => ({ from: specs[i] ?? specs[0], to: specs[i + 1] ?? specs[0], length: l.length })),
+      method,
+      legs: route.legs.map((l, i) => ({ from: specs[i] ?? specs[0], to: specs[i + 1] ?? specs[0], length: l.length, method: legMethods[i] })),
       snapped: resolver.landings.map((l) => ({ point: l.spec, surfacePoint: formatSurfacePoint(l.point), position: l.position, moved: l.distance })),
       timings: { load: loadMs, solve: solveMs },
     };
@@ -116,9 +126,9 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
   if (o.json) {
     process.stdout.write(toJson({ mesh, ...resultJson(), output: o.output ?? null }) + '\n');
   } else {
-    const L = [`${mesh}: shortest path ${fmt(route.length, 9)} mesh units, ${n} points, ${route.legs.length} leg(s)`];
+    const L = [`${mesh}: shortest path ${fmt(route.length, 9)} mesh units, ${n} points, ${route.legs.length} leg(s), method ${METHOD_TEXT[method]}`];
     for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map((x) => fmt(x, 9)).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
-    route.legs.forEach((l, i) => L.push(`  leg ${i + 1}: ${specs[i] ?? specs[0]} → ${specs[i + 1] ?? specs[0]}: ${fmt(l.length, 9)}`));
+    route.legs.forEach((l, i) => L.push(`  leg ${i + 1}: ${specs[i] ?? specs[0]} → ${specs[i + 1] ?? specs[0]}: ${fmt(l.length, 9)} (${legMethods[i]})`));
     L.push(`  timings: load ${fmt(loadMs, 4)} ms, solve ${fmt(solveMs, 4)} ms`);
     if (o.output) L.push(`  wrote ${o.output}`);
     process.stdout.write(L.join('\n') + '\n');

@@ -1,7 +1,9 @@
 /**
  * Shortest paths through waypoints: each consecutive pair of stops is joined
- * by an exact shortest path (a two-point query that stops as soon as the
- * next stop is settled), and the legs are concatenated.
+ * by an exact shortest path, and the legs are concatenated. A leg is found
+ * by window propagation (a two-point query that stops as soon as the next
+ * stop is settled) or, between two vertices, by intrinsic edge flips from the
+ * edge-graph shortest route (flip/index.ts); `WaypointOptions.method` picks.
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { SurfacePoint } from '../query/surface-point.js';
@@ -13,6 +15,13 @@ import { exactDistance, type ExactResult } from './exact/index.js';
 import { DEFAULT_MAX_PINCH_SOLVES } from './pinch.js';
 import { prepareExactGeometry } from './exact/geometry.js';
 import { commonFaces, layoutFace, pointInLayout } from './exact/layout.js';
+import { flipGeodesicPath } from './flip/index.js';
+
+/** How the legs of a path are found: see {@link WaypointOptions.method}. */
+export type PathMethod = 'auto' | 'flip' | 'windows';
+
+/** Faces from which `method: 'auto'` uses edge flips (window propagation below). */
+export const AUTO_FLIP_FACES = 50_000;
 
 /** A path through waypoints with per-point bookkeeping. */
 export interface WaypointPath {
@@ -20,8 +29,8 @@ export interface WaypointPath {
   path: SurfacePath;
   /** Total length, mesh units (Infinity when some leg has no path). */
   length: number;
-  /** Each leg and its length. */
-  legs: { path: SurfacePath; length: number }[];
+  /** Each leg, its length and the method that found it (absent: windows). */
+  legs: { path: SurfacePath; length: number; method?: 'flip' | 'windows' }[];
   /** Cumulative intrinsic length at each point of `path`. */
   cumulative: Float64Array;
   /** A face containing the segment from each point to the next (the last point: from the previous). */
@@ -39,6 +48,15 @@ export interface WaypointOptions {
   pinches?: number[][];
   /** Most extra exact runs per leg for pinch points (default 256) before a `LIMIT` error. */
   maxPinchSolves?: number;
+  /**
+   * `windows`: window propagation for every leg (the shortest path, proven). `flip`: legs
+   * between two vertices by intrinsic edge flips from the edge-graph shortest route (a
+   * geodesic, the shortest in that route's homotopy class; much faster on large meshes);
+   * other legs, and legs where the flips do not converge, by windows. `auto` (default):
+   * `flip` on meshes of at least {@link AUTO_FLIP_FACES} faces, `windows` below.
+   * Paths through pinch points always use windows.
+   */
+  method?: PathMethod;
 }
 
 /**
@@ -95,16 +113,22 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint |
   checkEdgeLengths(mesh, 'path');
   const stops = stops0.map((p, i) => (Array.isArray(p) ? p : [p]).map((q) => checkSurfacePoint(q, mesh.topology, `stop ${i}`)));
   if (stops.some((s) => s.length === 0)) throw usageError('a stop needs at least one point', 'path');
-  const legs: { path: SurfacePath; length: number }[] = [];
+  const legs: { path: SurfacePath; length: number; method: 'flip' | 'windows' }[] = [];
   const points: SurfacePoint[] = [];
   let length = 0;
-  const geometry = stops.length > 1 ? prepareExactGeometry(mesh) : undefined;
+  const method = opts.method ?? 'auto';
+  if (method !== 'auto' && method !== 'flip' && method !== 'windows') throw usageError(`unknown path method '${String(method)}' (auto, flip or windows)`, 'path');
+  const flips = !opts.pinches?.length && (method === 'flip' || (method === 'auto' && mesh.topology.nf >= AUTO_FLIP_FACES));
+  let geometry: ReturnType<typeof prepareExactGeometry> | undefined; // made on the first window leg
   for (let i = 0; i + 1 < stops.length; i++) {
     const run = (from: SurfacePoint[], targets?: SurfacePoint[]) => exactDistance(mesh, { points: from, curves: [] }, {
-      geometry, ...(targets ? { targets } : {}), ...(opts.memoryBudget !== undefined ? { memoryBudget: opts.memoryBudget } : {}),
+      geometry: (geometry ??= prepareExactGeometry(mesh)), ...(targets ? { targets } : {}), ...(opts.memoryBudget !== undefined ? { memoryBudget: opts.memoryBudget } : {}),
     });
-    const p = legPath(run, stops[i]!, stops[i + 1]!, opts.pinches ?? [], opts.maxPinchSolves ?? DEFAULT_MAX_PINCH_SOLVES);
-    legs.push({ path: p, length: p.length });
+    const a = stops[i]!, b = stops[i + 1]!;
+    const f = flips && a.length === 1 && b.length === 1 && a[0]!.kind === 'vertex' && b[0]!.kind === 'vertex'
+      ? flipGeodesicPath(mesh, a[0]!.vertex, b[0]!.vertex) : null;
+    const p = f && f.status !== 'failed' ? f.path : legPath(run, a, b, opts.pinches ?? [], opts.maxPinchSolves ?? DEFAULT_MAX_PINCH_SOLVES);
+    legs.push({ path: p, length: p.length, method: f && f.status !== 'failed' ? 'flip' : 'windows' });
     length += p.length;
     if (!Number.isFinite(p.length)) continue;
     // legs share their stop; a leg may leave from another copy of it (same position), kept then
