@@ -26,6 +26,7 @@ import { orientationCover, prepareCoverDistance, type OrientationCover } from '.
 import { throughPinches } from '../src/geodesic/pinch.js';
 import { prepareExactGeometry, type ExactGeometry } from '../src/geodesic/exact/geometry.js';
 import type { DistanceMethod } from '../src/geodesic/field.js';
+import type { ProgressLine } from './progress.js';
 
 /** Everything needed to prepare the same solver in any thread. */
 export interface SolverSpec {
@@ -136,12 +137,19 @@ export interface SolvedSets {
  * is more than one set (else here, one after another). `atPoints` are the
  * points whose values `at` must give (a worker's result answers only those).
  */
-export async function solveSets(spec: SolverSpec, sets: SourceSet[], so: SolveOptions, atPoints: SurfacePoint[], jobs: number): Promise<SolvedSets> {
+export async function solveSets(
+  spec: SolverSpec, sets: SourceSet[], so: SolveOptions, atPoints: SurfacePoint[], jobs: number, line?: ProgressLine,
+): Promise<SolvedSets> {
   const t0 = performance.now();
+  const label = `${spec.method} distance`;
   if (jobs <= 1 || sets.length <= 1) {
     const solver = prepareSolver(spec);
     const prepareMs = performance.now() - t0;
-    return { prepareMs, prepareDetails: solver.prepareDetails, results: sets.map((s) => solver.solve(s, so)) };
+    const results = sets.map((s, i) => {
+      line?.update({ label, set: [i + 1, sets.length], share: undefined });
+      return solver.solve(s, so);
+    });
+    return { prepareMs, prepareDetails: solver.prepareDetails, results };
   }
   const n = Math.min(jobs, sets.length);
   const mesh = spec.mesh ?? meshOf(spec.topology, spec.positions);
@@ -149,6 +157,7 @@ export async function solveSets(spec: SolverSpec, sets: SourceSet[], so: SolveOp
   const edgeLength = toShared(mesh.edgeLength);
   const opts: DistanceOptions = { ...spec.opts };
   delete opts.exactGeometry;
+  delete opts.progress; // a function cannot cross to a worker; the line counts finished sets instead
   if (opts.memoryBudget !== undefined) opts.memoryBudget = Math.floor(opts.memoryBudget / n);
   let geometry: WorkerInit['geometry'] = null;
   if (spec.method === 'exact' && spec.seams.length === 0) {
@@ -169,9 +178,12 @@ export async function solveSets(spec: SolverSpec, sets: SourceSet[], so: SolveOp
   const results: DistanceResult[] = new Array(sets.length);
   let prepareMs = 0, prepareDetails: SolvedSets['prepareDetails'] = {};
   const key = (p: SurfacePoint): string => JSON.stringify(p);
+  let done = 0;
+  const tick = (): void => line?.update({ label: `${label}, ${done} of ${sets.length} sets done`, share: done / sets.length });
+  const timer = line?.enabled ? setInterval(tick, 200) : undefined;
   try {
     await new Promise<void>((resolve, reject) => {
-      let next = 0, done = 0, failed = false;
+      let next = 0, failed = false;
       const give = (w: Worker): void => {
         if (next < sets.length) {
           const id = next++;
@@ -200,12 +212,15 @@ export async function solveSets(spec: SolverSpec, sets: SourceSet[], so: SolveOp
             },
             solveMs: m.solveMs, complete: m.complete, stoppedBy: m.stoppedBy, details: m.details,
           };
-          if (++done === sets.length) resolve();
+          done++;
+          tick();
+          if (done === sets.length) resolve();
           else give(w);
         });
       }
     });
   } finally {
+    if (timer) clearInterval(timer);
     await Promise.all(workers.map((w) => w.terminate()));
   }
   return { prepareMs, prepareDetails, results };

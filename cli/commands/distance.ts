@@ -13,7 +13,8 @@ import { formatSurfacePoint, type SurfacePoint } from '../../src/query/surface-p
 import { boundaryCurves, type SourceSet } from '../../src/geodesic/sources.js';
 import type { DistanceOptions } from '../../src/geodesic/solver.js';
 import { orientationCover } from '../../src/geodesic/cover.js';
-import { solveSets } from '../jobs.js';
+import { solveSets, type SolvedSets } from '../jobs.js';
+import { ProgressLine } from '../progress.js';
 import type { DistanceMethod } from '../../src/geodesic/field.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { describeField, summarizeField } from '../field-summary.js';
@@ -140,13 +141,24 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
   // --each sets go to `jobs` worker threads sharing the mesh (jobs.ts), else are solved here in turn
   // only -o needs every vertex; --json reports what was computed (machine output never changes the work)
   const fieldNeeded = Boolean(o.output) || !o.to || o.to.length === 0;
-  const solved = await solveSets(
-    { topology: t, positions: surface.positions, seams, groups: resolver.splitGroups(), method: o.method, opts, cover },
-    sets.map((s) => s.set),
-    { targets, fieldNeeded },
-    targets.flatMap((p) => resolver.copies(p)),
-    jobs,
-  );
+  // a progress line on stderr for runs over a second, only on a terminal (progress.ts)
+  const line = new ProgressLine(process.stderr);
+  if (line.enabled) {
+    opts.progress = (p) => line.update(p.stage === 'prepare' ? { label: `${o.method}: preparing`, share: undefined } : { label: `${o.method} distance`, share: p.share });
+  }
+  let solved: SolvedSets;
+  try {
+    solved = await solveSets(
+      { topology: t, positions: surface.positions, seams, groups: resolver.splitGroups(), method: o.method, opts, cover },
+      sets.map((s) => s.set),
+      { targets, fieldNeeded },
+      targets.flatMap((p) => resolver.copies(p)),
+      jobs,
+      line,
+    );
+  } finally {
+    line.done();
+  }
   const prepareMs = Math.round(solved.prepareMs * 100) / 100;
   const solver = { prepareDetails: solved.prepareDetails };
   let solveMs = 0;

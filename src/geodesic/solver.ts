@@ -42,6 +42,20 @@ export interface DistanceOptions {
    * for this very mesh object (e.g. shared between worker threads); made afresh when absent.
    */
   exactGeometry?: ExactGeometry;
+  /**
+   * Called now and then during long work, on the solving thread (the solvers never print; a
+   * front end decides what to show): the stage, and the share done when known (exact: the share
+   * of the faces its windows have reached). Keep it cheap.
+   */
+  progress?: (p: SolveProgress) => void;
+}
+
+/** A progress report (see {@link DistanceOptions.progress}). */
+export interface SolveProgress {
+  /** The method's preparation, or a solve. */
+  stage: 'prepare' | 'solve';
+  /** Share done in [0, 1], when known. */
+  share?: number;
 }
 
 /** Options of one solve. */
@@ -151,6 +165,7 @@ export function checkEdgeLengths(mesh: IntrinsicMesh, label: string): void {
 function prepareMethod(mesh: IntrinsicMesh, method: DistanceMethod, opts: DistanceOptions): DistanceSolver {
   const t = mesh.topology;
   if (method === 'heat') {
+    opts.progress?.({ stage: 'prepare' });
     const heat = HeatSolver.prepare(mesh, opts.heat ?? {});
     const s = heat.stats;
     return {
@@ -166,6 +181,7 @@ function prepareMethod(mesh: IntrinsicMesh, method: DistanceMethod, opts: Distan
         analysisMs: s.analysisMs,
       },
       solve(sources) {
+        opts.progress?.({ stage: 'solve' });
         const field = heat.distance(sources);
         const d = field.distance;
         return {
@@ -184,6 +200,7 @@ function prepareMethod(mesh: IntrinsicMesh, method: DistanceMethod, opts: Distan
       prepareMs: 0,
       prepareDetails: {},
       solve(sources) {
+        opts.progress?.({ stage: 'solve' });
         const t0 = performance.now();
         const field = graphDistance(mesh, sources, opts.maxDistance !== undefined ? { maxDistance: opts.maxDistance } : {});
         const d = field.distance;
@@ -198,6 +215,7 @@ function prepareMethod(mesh: IntrinsicMesh, method: DistanceMethod, opts: Distan
     prepareMs: performance.now() - p0,
     prepareDetails: { saddles: geometry.saddles },
     solve(sources, so = {}) {
+      opts.progress?.({ stage: 'solve' });
       const t0 = performance.now();
       const early = so.fieldNeeded === false && so.targets && so.targets.length > 0;
       const r = exactDistance(mesh, sources, {
