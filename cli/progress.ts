@@ -77,7 +77,7 @@ export class ProgressLine {
     if (t - this.t0 < this.delayMs || t - this.last < this.intervalMs) return;
     this.last = t;
     this.shown = true;
-    const width = Math.max(20, (this.stream.columns ?? 80) - 1);
+    const width = Math.max(20, (this.stream.columns || 80) - 1); // 0 or unknown: 80
     this.stream.write(`\r${formatProgress({ ...this.state, elapsedMs: t - this.t0 }, width)}\x1b[K`);
   }
 
