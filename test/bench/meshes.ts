@@ -136,7 +136,7 @@ export function scanTerrain(faces: number, seed: number): Shape {
  * a Ø80 flange 20 mm tall with 3 mm fillets, a shoulder, a Ø50 shaft 90 mm long with a groove
  * (seeded position) and a 2 mm chamfer to the top face.
  */
-function partProfile(seed: number): [number, number][] {
+export function partProfile(seed: number): [number, number][] {
   const r = rng(seed);
   const p: [number, number][] = [[0, 0]];
   const fillet = (cr: number, cz: number, rad: number, a0: number, a1: number, n = 6) => {
