@@ -31,8 +31,18 @@ import type { FlipTriangulation } from './triangulation.js';
 export function tracePath(tri: FlipTriangulation, vertices: number[], edges: number[], out: SurfacePoint[]): boolean {
   out.push({ kind: 'vertex', vertex: vertices[0]! });
   for (let i = 0; i < edges.length; i++) {
-    const h = tri.leaving(edges[i]!, vertices[i]!);
-    if (h < 0 || !traceHalfedge(tri, h, vertices[i + 1]!, out)) return false;
+    const u = vertices[i]!, w = vertices[i + 1]!;
+    const h = tri.leaving(edges[i]!, u);
+    if (h >= 0) {
+      if (!traceHalfedge(tri, h, w, out)) return false;
+      continue;
+    }
+    // a boundary edge that only enters u: trace it from w and reverse the crossings
+    const back: SurfacePoint[] = [];
+    const g = tri.leaving(edges[i]!, w);
+    if (g < 0 || !traceHalfedge(tri, g, u, back)) return false;
+    back.pop();
+    out.push(...back.reverse(), { kind: 'vertex', vertex: w });
   }
   return true;
 }
@@ -42,7 +52,9 @@ const lay = new Float64Array(2);
 /** Traces intrinsic half-edge h, which must end at vertex w; appends the crossings and w. */
 function traceHalfedge(tri: FlipTriangulation, h: number, w: number, out: SurfacePoint[]): boolean {
   const m = tri.input, T = m.topology, L = m.edgeLength;
-  const u = tri.tri[h]!, phi = tri.dir[h]!, l = tri.len(h);
+  const u = tri.tri[h]!, l = tri.len(h);
+  tri.prepare(u);
+  const phi = tri.dir[h]!;
   // the input face of u's fan that holds the direction phi
   const start = T.vertexHalfedge[u]!;
   let g = start, acc = 0, c = 0;
