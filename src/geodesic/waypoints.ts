@@ -16,6 +16,7 @@ import { DEFAULT_MAX_PINCH_SOLVES } from './pinch.js';
 import { prepareExactGeometry } from './exact/geometry.js';
 import { commonFaces, layoutFace, pointInLayout } from './exact/layout.js';
 import { flipGeodesicPath } from './flip/index.js';
+import { verifyShortest } from './flip/verify.js';
 
 /** How the legs of a path are found: see {@link WaypointOptions.method}. */
 export type PathMethod = 'auto' | 'flip' | 'windows';
@@ -23,14 +24,20 @@ export type PathMethod = 'auto' | 'flip' | 'windows';
 /** Faces from which `method: 'auto'` uses edge flips (window propagation below). */
 export const AUTO_FLIP_FACES = 50_000;
 
+/** Default of `WaypointOptions.verifyFaces`: the largest region a flip leg is proven shortest on. */
+export const FLIP_VERIFY_FACES = 50_000;
+
 /** A path through waypoints with per-point bookkeeping. */
 export interface WaypointPath {
   /** The whole path (legs joined; the shared stop appears once); empty when some leg is unreachable. */
   path: SurfacePath;
   /** Total length, mesh units (Infinity when some leg has no path). */
   length: number;
-  /** Each leg, its length and the method that found it (absent: windows). */
-  legs: { path: SurfacePath; length: number; method?: 'flip' | 'windows' }[];
+  /**
+   * Each leg, its length, the method that found it (absent: windows) and whether it is
+   * proven shortest (absent: true; false for a flip leg that could not be checked).
+   */
+  legs: { path: SurfacePath; length: number; method?: 'flip' | 'windows'; proven?: boolean }[];
   /** Cumulative intrinsic length at each point of `path`. */
   cumulative: Float64Array;
   /** A face containing the segment from each point to the next (the last point: from the previous). */
@@ -57,6 +64,15 @@ export interface WaypointOptions {
    * Paths through pinch points always use windows.
    */
   method?: PathMethod;
+  /**
+   * x, y, z per vertex. With them every flip leg is checked (flip/verify.ts): window
+   * propagation on the faces within the ellipsoid |x − a| + |x − b| ≤ its length, which holds
+   * every shorter path, proves it shortest or finds the shorter one, when that region has at
+   * most `verifyFaces` faces. Without them, or beyond that, a flip leg is a geodesic only.
+   */
+  positions?: Float64Array;
+  /** Largest region (faces) a flip leg is checked on (default {@link FLIP_VERIFY_FACES}). */
+  verifyFaces?: number;
 }
 
 /**
@@ -113,7 +129,7 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint |
   checkEdgeLengths(mesh, 'path');
   const stops = stops0.map((p, i) => (Array.isArray(p) ? p : [p]).map((q) => checkSurfacePoint(q, mesh.topology, `stop ${i}`)));
   if (stops.some((s) => s.length === 0)) throw usageError('a stop needs at least one point', 'path');
-  const legs: { path: SurfacePath; length: number; method: 'flip' | 'windows' }[] = [];
+  const legs: { path: SurfacePath; length: number; method: 'flip' | 'windows'; proven: boolean }[] = [];
   const points: SurfacePoint[] = [];
   let length = 0;
   const method = opts.method ?? 'auto';
@@ -125,10 +141,23 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint |
       geometry: (geometry ??= prepareExactGeometry(mesh)), ...(targets ? { targets } : {}), ...(opts.memoryBudget !== undefined ? { memoryBudget: opts.memoryBudget } : {}),
     });
     const a = stops[i]!, b = stops[i + 1]!;
-    const f = flips && a.length === 1 && b.length === 1 && a[0]!.kind === 'vertex' && b[0]!.kind === 'vertex'
-      ? flipGeodesicPath(mesh, a[0]!.vertex, b[0]!.vertex) : null;
-    const p = f && f.status !== 'failed' ? f.path : legPath(run, a, b, opts.pinches ?? [], opts.maxPinchSolves ?? DEFAULT_MAX_PINCH_SOLVES);
-    legs.push({ path: p, length: p.length, method: f && f.status !== 'failed' ? 'flip' : 'windows' });
+    const va = a.length === 1 && a[0]!.kind === 'vertex' ? a[0]!.vertex : -1;
+    const vb = b.length === 1 && b[0]!.kind === 'vertex' ? b[0]!.vertex : -1;
+    const f = flips && va >= 0 && vb >= 0 ? flipGeodesicPath(mesh, va, vb) : null;
+    let p: SurfacePath, how: 'flip' | 'windows' = 'windows', proven = true;
+    if (f && f.status === 'ok') {
+      p = f.path; how = 'flip'; proven = false;
+      if (opts.positions && p.length > 0) {
+        const v = verifyShortest(mesh, opts.positions, va, vb, p.length, opts.verifyFaces ?? FLIP_VERIFY_FACES, opts.memoryBudget);
+        if (v.status !== 'skipped') proven = true;
+        if (v.status === 'shorter') { p = v.path!; how = 'windows'; }
+      }
+    } else if (f && f.status === 'unreachable') {
+      p = f.path;
+    } else {
+      p = legPath(run, a, b, opts.pinches ?? [], opts.maxPinchSolves ?? DEFAULT_MAX_PINCH_SOLVES);
+    }
+    legs.push({ path: p, length: p.length, method: how, proven });
     length += p.length;
     if (!Number.isFinite(p.length)) continue;
     // legs share their stop; a leg may leave from another copy of it (same position), kept then

@@ -1,0 +1,118 @@
+/**
+ * Proof that a path found by edge flips is the shortest one, by window
+ * propagation on the part of the surface where a shorter path could run.
+ *
+ * FlipOut returns a geodesic (locally shortest); another geodesic, in
+ * another homotopy class (round another side of a hole, a cube corner or a
+ * hill top), may be shorter. Every point x of a shortest path from a to b
+ * satisfies |x − a| + |x − b| ≤ d(a, x) + d(x, b) = d(a, b) ≤ L, where L is
+ * the flip path's length and |·| the straight 3D distance, which never
+ * exceeds the distance on the surface (the chord is a lower bound; common
+ * practice). So every shortest path lies in the ellipsoid
+ * E = {x : |x − a| + |x − b| ≤ L}, and window propagation (exact, global:
+ * src/geodesic/exact) on the faces that meet E finds it: a path on those
+ * faces is a path on the surface, and the shortest one is among them.
+ * A face meets E only if f(c) − 2r ≤ L at its centroid c, with r its largest
+ * centroid-to-corner distance (f = |x − a| + |x − b| is 2-Lipschitz), which
+ * is the test used. Coordinates serve this bound only; lengths still come
+ * from the mesh's metric.
+ */
+import type { IntrinsicMesh } from '../../metric/intrinsic.js';
+import type { SurfacePath } from '../field.js';
+import type { SurfacePoint } from '../../query/surface-point.js';
+import { buildTopology } from '../../mesh/build.js';
+import { next } from '../../mesh/topology.js';
+import { exactDistance } from '../exact/index.js';
+import { pointSources } from '../sources.js';
+
+/** Result of {@link verifyShortest}. */
+export interface VerifyResult {
+  /**
+   * `proven`: no path from a to b is shorter than L (beyond 1e-9 relative); `shorter`: window
+   * propagation found a shorter path (in `path`); `skipped`: the region has more than the
+   * allowed faces (nothing is known).
+   */
+  status: 'proven' | 'shorter' | 'skipped';
+  /** The shorter path, on the input mesh (status `shorter` only). */
+  path?: SurfacePath;
+  /** Faces of the region (counted up to the limit + 1 when skipped). */
+  faces: number;
+}
+
+/**
+ * Checks whether the path of length `L` from vertex a to vertex b is the
+ * shortest (see the module comment). `positions` holds x, y, z per vertex of
+ * `mesh`; `maxFaces` bounds the region's size; `memoryBudget` is passed to
+ * the window run.
+ */
+export function verifyShortest(mesh: IntrinsicMesh, positions: Float64Array, a: number, b: number, L: number, maxFaces: number, memoryBudget?: number): VerifyResult {
+  const t = mesh.topology, P = positions;
+  const ax = P[3 * a]!, ay = P[3 * a + 1]!, az = P[3 * a + 2]!, bx = P[3 * b]!, by = P[3 * b + 1]!, bz = P[3 * b + 2]!;
+  const bound = L * (1 + 1e-9);
+  const faces: number[] = [];
+  for (let f = 0; f < t.nf; f++) {
+    const i = 3 * t.tri[3 * f]!, j = 3 * t.tri[3 * f + 1]!, k = 3 * t.tri[3 * f + 2]!;
+    const cx = (P[i]! + P[j]! + P[k]!) / 3, cy = (P[i + 1]! + P[j + 1]! + P[k + 1]!) / 3, cz = (P[i + 2]! + P[j + 2]! + P[k + 2]!) / 3;
+    const r = Math.max(
+      Math.hypot(P[i]! - cx, P[i + 1]! - cy, P[i + 2]! - cz),
+      Math.hypot(P[j]! - cx, P[j + 1]! - cy, P[j + 2]! - cz),
+      Math.hypot(P[k]! - cx, P[k + 1]! - cy, P[k + 2]! - cz),
+    );
+    const fc = Math.hypot(cx - ax, cy - ay, cz - az) + Math.hypot(cx - bx, cy - by, cz - bz);
+    if (!(fc - 2 * r > bound)) {
+      faces.push(f);
+      if (faces.length > maxFaces) return { status: 'skipped', faces: faces.length };
+    }
+  }
+  // the region as a mesh of its own; sub vertex i is input vertex verts[i]
+  const subId = new Map<number, number>(), verts: number[] = [];
+  const tris = new Uint32Array(3 * faces.length);
+  faces.forEach((f, n) => {
+    for (let k = 0; k < 3; k++) {
+      const v = t.tri[3 * f + k]!;
+      let s = subId.get(v);
+      if (s === undefined) { s = verts.length; subId.set(v, s); verts.push(v); }
+      tris[3 * n + k] = s;
+    }
+  });
+  const st = buildTopology(tris, verts.length, { orient: false }).topology;
+  const orig = (sv: number): number => verts[st.vertexOrigin[sv]!]!;
+  // input half-edge of each sub half-edge (same face, same two ends)
+  const inputHalfedge = (h: number): number => {
+    const F = faces[st.faceOrigin[(h / 3) | 0]!]!, u = orig(st.tri[h]!), w = orig(st.tri[next(h)]!);
+    for (let k = 0; k < 3; k++) {
+      const H = 3 * F + k;
+      if (t.tri[H] === u && t.tri[next(H)] === w) return H;
+    }
+    return -1;
+  };
+  const len = new Float64Array(st.ne);
+  for (let e = 0; e < st.ne; e++) {
+    const H = inputHalfedge(st.edgeHalfedge[e]!);
+    if (H < 0) return { status: 'skipped', faces: faces.length }; // the build reoriented a face: no proof
+    len[e] = mesh.edgeLength[t.edgeOf[H]!]!;
+  }
+  const sub: IntrinsicMesh = { topology: st, edgeLength: len };
+  const copy = (v: number): number => {
+    for (let s = 0; s < st.nv; s++) if (orig(s) === v) return s;
+    return -1;
+  };
+  const sa = copy(a), sb = copy(b);
+  if (sa < 0 || sb < 0) return { status: 'skipped', faces: faces.length };
+  const target: SurfacePoint = { kind: 'vertex', vertex: sb };
+  const run = exactDistance(sub, pointSources([{ kind: 'vertex', vertex: sa }]), { targets: [target], ...(memoryBudget !== undefined ? { memoryBudget } : {}) });
+  const d = run.distanceAt(target);
+  if (!(d < L * (1 - 1e-9))) return { status: 'proven', faces: faces.length };
+  const p = run.pathTo(target);
+  const points = p.points.map((q): SurfacePoint => {
+    if (q.kind === 'vertex') return { kind: 'vertex', vertex: orig(q.vertex) };
+    if (q.kind === 'edge') {
+      const h = st.edgeHalfedge[q.edge]!, H = inputHalfedge(h), E = t.edgeOf[H]!;
+      return { kind: 'edge', edge: E, t: t.edgeHalfedge[E] === H ? q.t : 1 - q.t };
+    }
+    const F = faces[st.faceOrigin[q.face]!]!, bary: [number, number, number] = [0, 0, 0];
+    for (let k = 0; k < 3; k++) bary[[0, 1, 2].find((j) => t.tri[3 * F + j] === orig(st.tri[3 * q.face + k]!))!] = q.bary[k]!;
+    return { kind: 'face', face: F, bary };
+  });
+  return { status: 'shorter', path: { points, length: p.length }, faces: faces.length };
+}
