@@ -11,7 +11,7 @@ import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import { PointResolver } from '../../src/query/resolve.js';
 import { formatSurfacePoint } from '../../src/query/surface-point.js';
-import { shortestPathThrough, AUTO_FLIP_FACES, type PathMethod } from '../../src/geodesic/waypoints.js';
+import { shortestPathThrough, AUTO_FLIP_FACES, FLIP_VERIFY_FACES, type PathMethod } from '../../src/geodesic/waypoints.js';
 import { pathPolyline } from '../../src/geodesic/path.js';
 import { coverPathThrough, orientationCover } from '../../src/geodesic/cover.js';
 import { writeObjPolyline } from '../../src/io/write-obj.js';
@@ -23,7 +23,7 @@ const PATH_FORMATS = ['.obj', '.csv', '.geojson', '.json'];
 const collect = (v: string, prev: string[] = []) => [...prev, v];
 const METHOD_TEXT: Record<string, string> = {
   windows: 'windows (window propagation: the shortest path)',
-  flip: 'flip (edge flips from the edge-graph shortest route: a geodesic, shortest in that route\'s class)',
+  flip: 'flip (edge flips from the edge-graph shortest route)',
   mixed: 'mixed (see the legs)',
 };
 
@@ -38,6 +38,7 @@ interface PathCliOptions {
   maxInputSize?: string;
   memoryBudget?: string;
   pathMethod?: PathMethod;
+  proveLimit?: string;
 }
 
 /** Registers the command. */
@@ -56,6 +57,7 @@ export function registerPath(program: Command): void {
     .addOption(maxInputSizeOption())
     .addOption(memoryBudgetOption())
     .addOption(new Option('--path-method <method>', `windows (window propagation: the shortest path, proven), flip (edge flips from the edge-graph shortest route: a geodesic, much faster on large meshes; legs between vertices only, others use windows) or auto (flip from ${AUTO_FLIP_FACES} faces up)`).choices(['auto', 'flip', 'windows']).default('auto'))
+    .option('--prove-limit <faces>', `flip: largest region (faces within the ellipsoid that holds every shorter path) on which window propagation proves a flip leg shortest or finds the shorter one; 0 skips the proof`, String(FLIP_VERIFY_FACES))
     .addHelpText(
       'after',
       `\nLengths are in the mesh's own units. GeoJSON coordinates are the mesh's own coordinates (RFC 7946 expects\nWGS 84 longitude/latitude; use the file only where another system is agreed).\n${TERRAIN_CAUTION}\n${MACHINING_CAUTION}`,
@@ -79,11 +81,15 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
   if (o.closed) stops.push(stops[0]!);
   if (stops.length < 2) throw usageError('a path needs at least two points');
 
+  const proveLimit = Number(o.proveLimit ?? FLIP_VERIFY_FACES);
+  if (!(Number.isInteger(proveLimit) && proveLimit >= 0)) throw usageError(`--prove-limit must be a whole number of faces, got '${o.proveLimit}'`);
   const t0 = performance.now();
-  const route = cover ? coverPathThrough(cover, stops, { memoryBudget }) : shortestPathThrough(intrinsicFromPositions(t, surface.positions), stops, { memoryBudget, pinches: resolver.splitGroups(), method: o.pathMethod ?? 'auto' });
+  const route = cover ? coverPathThrough(cover, stops, { memoryBudget }) : shortestPathThrough(intrinsicFromPositions(t, surface.positions), stops, { memoryBudget, pinches: resolver.splitGroups(), method: o.pathMethod ?? 'auto', positions: surface.positions, verifyFaces: proveLimit });
   const solveMs = since(t0);
   const legMethods = route.legs.map((l) => l.method ?? 'windows');
   const method = legMethods.every((x) => x === legMethods[0]) ? legMethods[0]! : 'mixed';
+  const legProven = route.legs.map((l) => l.proven ?? true);
+  const proven = legProven.every(Boolean);
   if (!Number.isFinite(route.length)) {
     const leg = route.legs.findIndex((l) => !Number.isFinite(l.length));
     throw usageError(`no path on the surface from ${specs[leg] ?? o.from} to ${specs[leg + 1] ?? o.from}: the points lie on different components`, mesh);
@@ -118,7 +124,8 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
       points,
       surfacePoints: route.path.points.map(formatSurfacePoint),
       method,
-      legs: route.legs.map((l, i) => ({ from: specs[i] ?? specs[0], to: specs[i + 1] ?? specs[0], length: l.length, method: legMethods[i] })),
+      proven,
+      legs: route.legs.map((l, i) => ({ from: specs[i] ?? specs[0], to: specs[i + 1] ?? specs[0], length: l.length, method: legMethods[i], proven: legProven[i] })),
       snapped: resolver.landings.map((l) => ({ point: l.spec, surfacePoint: formatSurfacePoint(l.point), position: l.position, moved: l.distance })),
       timings: { load: loadMs, solve: solveMs },
     };
@@ -126,9 +133,10 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
   if (o.json) {
     process.stdout.write(toJson({ mesh, ...resultJson(), output: o.output ?? null }) + '\n');
   } else {
-    const L = [`${mesh}: shortest path ${fmt(route.length, 9)} mesh units, ${n} points, ${route.legs.length} leg(s), method ${METHOD_TEXT[method]}`];
+    const what = proven ? 'shortest path' : 'geodesic path (locally shortest, not proven shortest: see the legs)';
+    const L = [`${mesh}: ${what} ${fmt(route.length, 9)} mesh units, ${n} points, ${route.legs.length} leg(s), method ${METHOD_TEXT[method]}`];
     for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map((x) => fmt(x, 9)).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
-    route.legs.forEach((l, i) => L.push(`  leg ${i + 1}: ${specs[i] ?? specs[0]} → ${specs[i + 1] ?? specs[0]}: ${fmt(l.length, 9)} (${legMethods[i]})`));
+    route.legs.forEach((l, i) => L.push(`  leg ${i + 1}: ${specs[i] ?? specs[0]} → ${specs[i + 1] ?? specs[0]}: ${fmt(l.length, 9)} (${legMethods[i]}${legProven[i] ? '' : `; a shorter path could run through more than --prove-limit ${proveLimit} faces: not checked`})`));
     L.push(`  timings: load ${fmt(loadMs, 4)} ms, solve ${fmt(solveMs, 4)} ms`);
     if (o.output) L.push(`  wrote ${o.output}`);
     process.stdout.write(L.join('\n') + '\n');
