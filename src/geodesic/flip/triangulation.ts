@@ -138,7 +138,8 @@ export class FlipTriangulation {
    * Flips the edge of interior half-edge h in place. Returns false, changing
    * nothing, when the flip is not possible: a boundary edge, the twin in the
    * same face, a loop edge would result, an outer side is glued onto the
-   * quad, or a new face would have no area (the quad is not strictly convex).
+   * quad, or the quad is not strictly convex (the new edge would leave it,
+   * or a new face would have no area).
    */
   flip(h: number): boolean {
     const { tri, twin, edgeOf, edgeHalfedge: eh, anchor, dir, length: L } = this;
@@ -157,7 +158,12 @@ export class FlipTriangulation {
     const xc = (lab * lab + lca * lca - lbc * lbc) / (2 * lab), yc = (2 * A0) / lab;
     const xd = (lab * lab + lad * lad - ldb * ldb) / (2 * lab), yd = (2 * A1) / lab;
     const lcd = Math.hypot(xc - xd, yc + yd);
-    if (!(triangleArea(lcd, lca, lad) > 0 && triangleArea(lcd, ldb, lbc) > 0)) return false;
+    // the quad must be strictly convex: c–d crosses a–b strictly between a and b (a margin of
+    // 1e-12 relative refuses a or b on c–d up to rounding, e.g. a boundary vertex of angle π)
+    const xCross = xc + ((xd - xc) * yc) / (yc + yd);
+    if (!(xCross > 1e-12 * lab && xCross < (1 - 1e-12) * lab)) return false;
+    const A2 = triangleArea(lcd, lca, lad), A3 = triangleArea(lcd, ldb, lbc);
+    if (!(A2 > 1e-12 * lcd * lcd && A3 > 1e-12 * lcd * lcd)) return false;
     const eHn = edgeOf[hn]!, eHp = edgeOf[hp]!, eOn = edgeOf[on]!, eOp = edgeOf[op]!;
     const tHn = twin[hn]!, tHp = twin[hp]!, tOn = twin[on]!, tOp = twin[op]!;
     if (inQuad(tHn, f0, f1) || inQuad(tHp, f0, f1) || inQuad(tOn, f0, f1) || inQuad(tOp, f0, f1)) return false;
