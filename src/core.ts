@@ -57,7 +57,7 @@ export type { WindowUsage } from './geodesic/exact/usage.js';
 export { prepareExactGeometry, type ExactGeometry } from './geodesic/exact/geometry.js';
 export { pathPolyline, pathLength } from './geodesic/path.js';
 export {
-  prepareDistance, checkEdgeLengths, MAX_LENGTH, type DistanceSolver, type DistanceResult, type DistanceOptions, type SolveOptions,
+  prepareDistance, checkEdgeLengths, MAX_LENGTH, type DistanceSolver, type DistanceResult, type DistanceOptions, type SolveOptions, type SolveProgress,
 } from './geodesic/solver.js';
 
 // points on the surface
