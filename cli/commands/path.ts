@@ -56,7 +56,7 @@ export function registerPath(program: Command): void {
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
     .addOption(maxInputSizeOption())
     .addOption(memoryBudgetOption())
-    .addOption(new Option('--path-method <method>', `windows (window propagation: the shortest path, proven), flip (edge flips from the edge-graph shortest route: a geodesic, much faster on large meshes; legs between vertices only, others use windows) or auto (flip from ${AUTO_FLIP_FACES} faces up)`).choices(['auto', 'flip', 'windows']).default('auto'))
+    .addOption(new Option('--path-method <method>', `windows (window propagation: the shortest path, proven), flip (edge flips from the edge-graph shortest route: a geodesic, much faster on large meshes; two points off the vertices on one face, and split vertices, use windows) or auto (flip from ${AUTO_FLIP_FACES} faces up)`).choices(['auto', 'flip', 'windows']).default('auto'))
     .option('--prove-limit <faces>', `flip: largest region (faces within the ellipsoid that holds every shorter path) on which window propagation proves a flip leg shortest or finds the shorter one; 0 skips the proof`, String(FLIP_VERIFY_FACES))
     .addHelpText(
       'after',

@@ -2,8 +2,8 @@
  * Shortest paths through waypoints: each consecutive pair of stops is joined
  * by an exact shortest path, and the legs are concatenated. A leg is found
  * by window propagation (a two-point query that stops as soon as the next
- * stop is settled) or, between two vertices, by intrinsic edge flips from the
- * edge-graph shortest route (flip/index.ts); `WaypointOptions.method` picks.
+ * stop is settled) or by intrinsic edge flips from the edge-graph shortest
+ * route (flip/index.ts); `WaypointOptions.method` picks.
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { SurfacePoint } from '../query/surface-point.js';
@@ -57,9 +57,10 @@ export interface WaypointOptions {
   maxPinchSolves?: number;
   /**
    * `windows`: window propagation for every leg (the shortest path, proven). `flip`: legs
-   * between two vertices by intrinsic edge flips from the edge-graph shortest route (a
-   * geodesic, the shortest in that route's homotopy class; much faster on large meshes);
-   * other legs, and legs where the flips do not converge, by windows. `auto` (default):
+   * by intrinsic edge flips from the edge-graph shortest route (a geodesic, the shortest in
+   * that route's homotopy class; much faster on large meshes); points off the vertices are
+   * inserted as vertices first; legs between two such points on one face, legs whose stop
+   * has several copies (a split vertex), and legs where the flips do not converge use windows. `auto` (default):
    * `flip` on meshes of at least {@link AUTO_FLIP_FACES} faces, `windows` below.
    * Paths through pinch points always use windows.
    */
@@ -141,14 +142,12 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint |
       geometry: (geometry ??= prepareExactGeometry(mesh)), ...(targets ? { targets } : {}), ...(opts.memoryBudget !== undefined ? { memoryBudget: opts.memoryBudget } : {}),
     });
     const a = stops[i]!, b = stops[i + 1]!;
-    const va = a.length === 1 && a[0]!.kind === 'vertex' ? a[0]!.vertex : -1;
-    const vb = b.length === 1 && b[0]!.kind === 'vertex' ? b[0]!.vertex : -1;
-    const f = flips && va >= 0 && vb >= 0 ? flipGeodesicPath(mesh, va, vb) : null;
+    const f = flips && a.length === 1 && b.length === 1 ? flipGeodesicPath(mesh, a[0]!, b[0]!) : null;
     let p: SurfacePath, how: 'flip' | 'windows' = 'windows', proven = true;
     if (f && f.status === 'ok') {
       p = f.path; how = 'flip'; proven = false;
       if (opts.positions && p.length > 0) {
-        const v = verifyShortest(mesh, opts.positions, va, vb, p.length, opts.verifyFaces ?? FLIP_VERIFY_FACES, opts.memoryBudget);
+        const v = verifyShortest(mesh, opts.positions, a[0]!, b[0]!, p.length, opts.verifyFaces ?? FLIP_VERIFY_FACES, opts.memoryBudget);
         if (v.status !== 'skipped') proven = true;
         if (v.status === 'shorter') { p = v.path!; how = 'windows'; }
       }

@@ -149,11 +149,21 @@ describe('path entry with edge flips', () => {
     expect(r.path.points.filter((p) => p.kind === 'vertex' && p.vertex === b)).toHaveLength(1); // the shared stop once
   });
 
-  it('a leg with a face point uses windows; without positions a flip leg is not proven; same point: length 0', () => {
-    const f: SurfacePoint = { kind: 'face', face: 100, bary: [0.2, 0.3, 0.5] };
-    const r = shortestPathThrough(m, [V(5), f], { method: 'flip' });
-    expect(r.legs[0]!.method).toBe('windows');
-    expect(r.legs[0]!.proven).toBe(true);
+  it('edge and face points are inserted; two on one face use windows; without positions not proven; same point: length 0', () => {
+    const t = m.topology;
+    const f: SurfacePoint = { kind: 'face', face: 100, bary: [0.2, 0.3, 0.5] }, e: SurfacePoint = { kind: 'edge', edge: 500, t: 0.25 };
+    const at = (p: SurfacePoint) => pathPolyline({ points: [p], length: 0 }, t, P);
+    const r = shortestPathThrough(m, [f, V(5), e], { method: 'flip', positions: P });
+    expect(r.legs.map((l) => l.method)).toEqual(['flip', 'flip']);
+    const [x, y, z] = [at(f), at(V(5)), at(e)];
+    const want = Math.hypot(x[0]! - y[0]!, x[1]! - y[1]!) + Math.hypot(z[0]! - y[0]!, z[1]! - y[1]!); // flat: straight legs
+    expect(Math.abs(r.length - want)).toBeLessThanOrEqual(1e-9 * want);
+    expect(r.path.points[0]).toEqual(f);
+    expect(r.path.points[r.path.points.length - 1]).toEqual(e);
+    expect(isSurfacePath(t, r.path.points)).toBe(true);
+    const same = shortestPathThrough(m, [f, { kind: 'face', face: 100, bary: [0.5, 0.3, 0.2] }], { method: 'flip' });
+    expect(same.legs[0]!.method).toBe('windows');
+    expect(same.legs[0]!.proven).toBe(true);
     const q = shortestPathThrough(m, [V(5), V(300)], { method: 'flip' });
     expect(q.legs[0]!.method).toBe('flip');
     expect(q.legs[0]!.proven).toBe(false);

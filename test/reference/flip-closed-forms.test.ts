@@ -20,6 +20,7 @@ import { pathLength, isSurfacePath } from '../../src/geodesic/path.js';
 import { shortestPathThrough } from '../../src/geodesic/waypoints.js';
 import { flatGrid, cylinder, rng } from '../fixtures/shapes.js';
 import { delaunay } from '../fixtures/holed-plates.js';
+import { canonicalSurfacePoint, surfacePointPosition, type SurfacePoint } from '../../src/query/surface-point.js';
 
 const TOL = 1e-9;
 
@@ -40,16 +41,20 @@ let corrected = 0;
  * distance; with `classRight` (the edge-graph route is in the shortest path's class) equal to
  * it. The checked `path` entry always equals it. Returns the checked length.
  */
-function flipChecked(m: IntrinsicMesh, P: Float64Array, a: number, b: number, scale: number, classRight = false): number {
+function flipChecked(m: IntrinsicMesh, P: Float64Array, a0: number | SurfacePoint, b0: number | SurfacePoint, scale: number, classRight = false): number {
+  const pt = (p: number | SurfacePoint): SurfacePoint => (typeof p === 'number' ? { kind: 'vertex', vertex: p } : p);
+  const a = pt(a0), b = pt(b0);
   const r = flipGeodesicPath(m, a, b);
   expect(r.status).toBe('ok');
   expect(isSurfacePath(m.topology, r.path.points)).toBe(true);
   expectRel(pathLength(m, r.path.points), r.path.length, scale);
-  const w = exactDistance(m, pointSources([{ kind: 'vertex', vertex: a }]), { targets: [{ kind: 'vertex', vertex: b }] }).distanceAt({ kind: 'vertex', vertex: b });
+  const w = exactDistance(m, pointSources([a]), { targets: [b] }).distanceAt(b);
   expect(r.path.length).toBeLessThanOrEqual(r.startLength + TOL * scale); // never longer than the edge path it started from
   expect(r.path.length).toBeGreaterThanOrEqual(w - TOL * scale); // window propagation: the shortest, same metric
   if (classRight) expectRel(r.path.length, w, scale);
-  const v = shortestPathThrough(m, [{ kind: 'vertex', vertex: a }, { kind: 'vertex', vertex: b }], { method: 'flip', positions: P });
+  const v = shortestPathThrough(m, [a, b], { method: 'flip', positions: P });
+  expect(v.path.points[0]).toEqual(a);
+  expect(v.path.points[v.path.points.length - 1]).toEqual(b);
   expect(v.legs[0]!.proven).toBe(true);
   expectRel(v.length, w, scale);
   expect(isSurfacePath(m.topology, v.path.points)).toBe(true);
@@ -116,6 +121,22 @@ describe('flat convex domains: the path is the straight segment (elementary)', (
     // corner to corner along the boundary-free diagonal, and along the bottom boundary
     expectRel(flipChecked(m, P, 0, m.topology.nv - 1, 3, true), Math.hypot(3, 2), 3);
     expectRel(flipChecked(m, P, 0, 30, 3, true), 3, 3);
+  });
+
+  it('edge and face points (inserted as vertices first): path length = Euclidean distance', () => {
+    const s = flatGrid(30, 20, 3, 2, 0.35, 11);
+    const m = meshOf(s.positions, s.triangles), t = m.topology, P = s.positions;
+    const rand = rng(12);
+    const point = (k: number): SurfacePoint => {
+      if (k % 2) return canonicalSurfacePoint({ kind: 'edge', edge: Math.floor(rand() * t.ne), t: rand() }, t);
+      const b0 = rand(), b1 = rand() * (1 - b0);
+      return canonicalSurfacePoint({ kind: 'face', face: Math.floor(rand() * t.nf), bary: [b0, b1, 1 - b0 - b1] }, t);
+    };
+    for (let i = 0; i < 10; i++) {
+      const a = point(i), b = point(i + (i >> 1));
+      const x = surfacePointPosition(a, t, P), y = surfacePointPosition(b, t, P);
+      expectRel(flipChecked(m, P, a, b, 3, true), Math.hypot(x[0]! - y[0]!, x[1]! - y[1]!), 3);
+    }
   });
 
   it('random Delaunay triangulations of the unit square: path length = Euclidean distance', () => {
@@ -220,6 +241,11 @@ describe('boxes: corner to opposite corner by unfolding two faces (elementary)',
     const rand = rng(8), before = corrected;
     for (let i = 0; i < 60; i++) flipChecked(m, P, Math.floor(rand() * m.topology.nv), Math.floor(rand() * m.topology.nv), 1);
     expect(corrected).toBeGreaterThan(before);
+    // face points on two faces of the cube: far corner of the unfolding (checked against windows)
+    for (let i = 0; i < 8; i++) {
+      const f = () => { const b0 = rand(), b1 = rand() * (1 - b0); return canonicalSurfacePoint({ kind: 'face', face: Math.floor(rand() * m.topology.nf), bary: [b0, b1, 1 - b0 - b1] }, m.topology); };
+      flipChecked(m, P, f(), f(), 1);
+    }
   });
 
   it('room 1 × 2 × 3: opposite corners √((1 + 2)² + 3²), the shortest of the three unfoldings', () => {

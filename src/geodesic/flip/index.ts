@@ -27,6 +27,8 @@ import { FlipTriangulation } from './triangulation.js';
 import { shortestEdgePath } from './start-path.js';
 import { shortenPath } from './flipout.js';
 import { tracePath } from './trace.js';
+import { insertPoint } from './insert.js';
+import { commonFaces } from '../exact/layout.js';
 
 export { BEND_TOLERANCE } from './flipout.js';
 
@@ -51,22 +53,30 @@ export interface FlipPathResult {
 
 /**
  * A geodesic path (locally shortest, every bend ≥ π on both sides up to
- * {@link BEND_TOLERANCE}) from vertex `from` to vertex `to`, shortened by
- * intrinsic edge flips from the edge-graph shortest path. The path's length
- * is the sum of its intrinsic edge lengths; its points are the two vertices,
- * the input-edge crossings and the input vertices it passes through.
+ * {@link BEND_TOLERANCE}) from `from` to `to` (vertex ids, or canonical
+ * surface points: edge and face points are inserted as vertices first, see
+ * insert.ts), shortened by intrinsic edge flips from the edge-graph shortest
+ * path. The path's length is the sum of its intrinsic edge lengths; its
+ * points are the two ends, the input-edge crossings and the input vertices it
+ * passes through. Two points off the vertices that share a face are not
+ * handled (status `failed`: the caller's other method is quick there).
  * The mesh is not modified.
  */
-export function flipGeodesicPath(mesh: IntrinsicMesh, from: number, to: number): FlipPathResult {
+export function flipGeodesicPath(mesh: IntrinsicMesh, from: number | SurfacePoint, to: number | SurfacePoint): FlipPathResult {
   const none = (status: FlipPathResult['status'], startLength = Infinity): FlipPathResult => ({
     status, path: { points: [], length: Infinity }, startLength, flips: 0, sweeps: 0,
   });
-  if (from === to) {
-    return { status: 'ok', path: { points: [{ kind: 'vertex', vertex: from }], length: 0 }, startLength: 0, flips: 0, sweeps: 0 };
+  const A: SurfacePoint = typeof from === 'number' ? { kind: 'vertex', vertex: from } : from;
+  const B: SurfacePoint = typeof to === 'number' ? { kind: 'vertex', vertex: to } : to;
+  if (A.kind === 'vertex' && B.kind === 'vertex' && A.vertex === B.vertex) {
+    return { status: 'ok', path: { points: [A], length: 0 }, startLength: 0, flips: 0, sweeps: 0 };
   }
-  const start = shortestEdgePath(mesh, from, to);
+  const inserts = (A.kind === 'vertex' ? 0 : 1) + (B.kind === 'vertex' ? 0 : 1);
+  if (inserts === 2 && commonFaces(mesh.topology, A, B).length > 0) return none('failed');
+  const tri = new FlipTriangulation(mesh, inserts);
+  const a = insertPoint(tri, A), b = insertPoint(tri, B);
+  const start = shortestEdgePath(inserts ? tri.view() : mesh, a, b);
   if (!start) return none('unreachable');
-  const tri = new FlipTriangulation(mesh);
   const r = shortenPath(tri, start);
   if (!r.converged) return none('failed', start.length);
   const points: SurfacePoint[] = [];

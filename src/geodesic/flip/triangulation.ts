@@ -32,6 +32,7 @@ import type { IntrinsicMesh } from '../../metric/intrinsic.js';
 import type { Topology } from '../../mesh/topology.js';
 import { next, prev } from '../../mesh/topology.js';
 import { angleOpposite, triangleArea } from '../../metric/triangle.js';
+import type { SurfacePoint } from '../../query/surface-point.js';
 
 /** An input mesh under flips, with a direction per half-edge (see the module comment). */
 export class FlipTriangulation {
@@ -51,24 +52,62 @@ export class FlipTriangulation {
   readonly theta: Float64Array;
   /** 1 on boundary vertices (valid once set up). */
   readonly onBoundary: Uint8Array;
+  /** One half-edge leaving each vertex (the boundary one on the boundary); a vertex's reference direction until it is set up. */
+  readonly anchor: Int32Array;
   /** Number of flips made. */
   flips = 0;
+  /** Current numbers of vertices, faces and edges (input ones first; insert.ts adds more). */
+  nv: number;
+  nf: number;
+  ne: number;
+  /** The surface point of each inserted vertex (vertex id nv₀ + i, nv₀ the input's count). */
+  readonly inserted: SurfacePoint[] = [];
   private readonly ready: Uint8Array;
-  private readonly anchor: Int32Array;
 
-  /** Copies the connectivity and lengths of `input` (the input is never modified). */
-  constructor(readonly input: IntrinsicMesh) {
+  /**
+   * Copies the connectivity and lengths of `input` (the input is never modified), with room
+   * for `extra` inserted points (insert.ts: each adds a vertex, up to 2 faces and 3 edges).
+   */
+  constructor(readonly input: IntrinsicMesh, extra = 0) {
     const t = input.topology;
-    this.tri = t.tri.slice();
-    this.twin = t.twin.slice();
-    this.edgeOf = t.edgeOf.slice();
-    this.edgeHalfedge = t.edgeHalfedge.slice();
-    this.anchor = t.vertexHalfedge.slice();
-    this.length = input.edgeLength.slice();
-    this.dir = new Float64Array(t.tri.length);
-    this.theta = new Float64Array(t.nv);
-    this.onBoundary = new Uint8Array(t.nv);
-    this.ready = new Uint8Array(t.nv);
+    const grow = <T extends Uint32Array | Int32Array | Float64Array | Uint8Array>(a: T, n: number, make: (n: number) => T): T => {
+      const b = make(a.length + n);
+      b.set(a as never);
+      return b;
+    };
+    this.nv = t.nv; this.nf = t.nf; this.ne = t.ne;
+    this.tri = grow(t.tri, 6 * extra, (n) => new Uint32Array(n));
+    this.twin = grow(t.twin, 6 * extra, (n) => new Int32Array(n));
+    this.edgeOf = grow(t.edgeOf, 6 * extra, (n) => new Int32Array(n));
+    this.edgeHalfedge = grow(t.edgeHalfedge, 3 * extra, (n) => new Int32Array(n));
+    this.anchor = grow(t.vertexHalfedge, extra, (n) => new Int32Array(n));
+    this.length = grow(input.edgeLength, 3 * extra, (n) => new Float64Array(n));
+    this.dir = new Float64Array(t.tri.length + 6 * extra);
+    this.theta = new Float64Array(t.nv + extra);
+    this.onBoundary = new Uint8Array(t.nv + extra);
+    this.ready = new Uint8Array(t.nv + extra);
+  }
+
+  /** The current triangulation as an intrinsic mesh (a view: it changes with the flips). */
+  view(): IntrinsicMesh {
+    const t = this.input.topology;
+    const topology: Topology = {
+      nv: this.nv, nf: this.nf, ne: this.ne, tri: this.tri, twin: this.twin, edgeOf: this.edgeOf,
+      edgeHalfedge: this.edgeHalfedge, vertexHalfedge: this.anchor, vertexOrigin: t.vertexOrigin, faceOrigin: t.faceOrigin,
+    };
+    return { topology, edgeLength: this.length };
+  }
+
+  /** The surface point of vertex v on the input surface. */
+  pointOf(v: number): SurfacePoint {
+    return v < this.input.topology.nv ? { kind: 'vertex', vertex: v } : this.inserted[v - this.input.topology.nv]!;
+  }
+
+  /** Wraps an angle at v into [0, Θ(v)) (interior vertices; boundary ones never wrap). */
+  wrap(v: number, x: number): number {
+    if (this.onBoundary[v]) return x;
+    const T = this.theta[v]!;
+    return x >= T ? x - T : x;
   }
 
   /** The input topology (directions are measured in its fans). */
@@ -198,11 +237,6 @@ export class FlipTriangulation {
     return true;
   }
 
-  private wrap(v: number, x: number): number {
-    if (this.onBoundary[v]) return x;
-    const T = this.theta[v]!;
-    return x >= T ? x - T : x;
-  }
 }
 
 /** True when half-edge tw (≥ 0) belongs to face f0 or f1. */

@@ -24,6 +24,7 @@ import { buildTopology } from '../../mesh/build.js';
 import { next } from '../../mesh/topology.js';
 import { exactDistance } from '../exact/index.js';
 import { pointSources } from '../sources.js';
+import { surfacePointPosition } from '../../query/surface-point.js';
 
 /** Result of {@link verifyShortest}. */
 export interface VerifyResult {
@@ -40,14 +41,15 @@ export interface VerifyResult {
 }
 
 /**
- * Checks whether the path of length `L` from vertex a to vertex b is the
- * shortest (see the module comment). `positions` holds x, y, z per vertex of
- * `mesh`; `maxFaces` bounds the region's size; `memoryBudget` is passed to
- * the window run.
+ * Checks whether the path of length `L` from surface point A to surface point B
+ * (canonical) is the shortest (see the module comment). `positions` holds
+ * x, y, z per vertex of `mesh`; `maxFaces` bounds the region's size;
+ * `memoryBudget` is passed to the window run.
  */
-export function verifyShortest(mesh: IntrinsicMesh, positions: Float64Array, a: number, b: number, L: number, maxFaces: number, memoryBudget?: number): VerifyResult {
+export function verifyShortest(mesh: IntrinsicMesh, positions: Float64Array, A: SurfacePoint, B: SurfacePoint, L: number, maxFaces: number, memoryBudget?: number): VerifyResult {
   const t = mesh.topology, P = positions;
-  const ax = P[3 * a]!, ay = P[3 * a + 1]!, az = P[3 * a + 2]!, bx = P[3 * b]!, by = P[3 * b + 1]!, bz = P[3 * b + 2]!;
+  const pa = surfacePointPosition(A, t, P), pb = surfacePointPosition(B, t, P);
+  const ax = pa[0]!, ay = pa[1]!, az = pa[2]!, bx = pb[0]!, by = pb[1]!, bz = pb[2]!;
   const bound = L * (1 + 1e-9);
   const faces: number[] = [];
   for (let f = 0; f < t.nf; f++) {
@@ -93,14 +95,31 @@ export function verifyShortest(mesh: IntrinsicMesh, positions: Float64Array, a: 
     len[e] = mesh.edgeLength[t.edgeOf[H]!]!;
   }
   const sub: IntrinsicMesh = { topology: st, edgeLength: len };
-  const copy = (v: number): number => {
-    for (let s = 0; s < st.nv; s++) if (orig(s) === v) return s;
-    return -1;
+  // A and B on the region (their faces are in it: f ≤ L there, so f(c) − 2r ≤ L)
+  const subFace = new Map<number, number>();
+  for (let n = 0; n < st.nf; n++) subFace.set(faces[st.faceOrigin[n]!]!, n);
+  const toSub = (p: SurfacePoint): SurfacePoint | null => {
+    if (p.kind === 'vertex') {
+      for (let s = 0; s < st.nv; s++) if (orig(s) === p.vertex) return { kind: 'vertex', vertex: s };
+      return null;
+    }
+    if (p.kind === 'face') {
+      const n = subFace.get(p.face);
+      if (n === undefined) return null;
+      const bary: [number, number, number] = [0, 0, 0];
+      for (let k = 0; k < 3; k++) bary[k] = p.bary[[0, 1, 2].find((j) => t.tri[3 * p.face + j] === orig(st.tri[3 * n + k]!))!]!;
+      return { kind: 'face', face: n, bary };
+    }
+    const H = t.edgeHalfedge[p.edge]!, n = subFace.get((H / 3) | 0);
+    if (n === undefined) return null;
+    const k = [0, 1, 2].find((j) => inputHalfedge(3 * n + j) === H);
+    if (k === undefined) return null;
+    const e = st.edgeOf[3 * n + k]!;
+    return { kind: 'edge', edge: e, t: st.edgeHalfedge[e] === 3 * n + k ? p.t : 1 - p.t };
   };
-  const sa = copy(a), sb = copy(b);
-  if (sa < 0 || sb < 0) return { status: 'skipped', faces: faces.length };
-  const target: SurfacePoint = { kind: 'vertex', vertex: sb };
-  const run = exactDistance(sub, pointSources([{ kind: 'vertex', vertex: sa }]), { targets: [target], ...(memoryBudget !== undefined ? { memoryBudget } : {}) });
+  const sa = toSub(A), target = toSub(B);
+  if (!sa || !target) return { status: 'skipped', faces: faces.length };
+  const run = exactDistance(sub, pointSources([sa]), { targets: [target], ...(memoryBudget !== undefined ? { memoryBudget } : {}) });
   const d = run.distanceAt(target);
   if (!(d < L * (1 - 1e-9))) return { status: 'proven', faces: faces.length };
   const p = run.pathTo(target);
