@@ -10,15 +10,20 @@
  * bounds that a correct run cannot reach end such a run with a NUMERIC error
  * that suggests the heat or graph method, never a wrong number:
  *
- * - Windows on one half-edge: {@link MAX_PER_HALF_EDGE}. Correct runs make
- *   few, and not more on larger meshes: at most 10–65 on any half-edge over
+ * - Windows made on one half-edge: {@link maxPerHalfEdge}, the larger of
+ *   {@link MIN_PER_HALF_EDGE} and the number of vertices. Window propagation
+ *   puts O(n) windows on an edge in the worst case (Mitchell, Mount &
+ *   Papadimitriou 1987, from memory), so the cap grows with the mesh.
+ *   Measured maxima (every window made counts, trimmed ones too): 10–65 on
  *   jittered and rough terrains of 10k–100k faces and a bumpy sphere of 80k
- *   faces, 46–202 on terrain blocks with long thin sides from 900 to 206k
- *   faces (measured for this file; every window made counts, trimmed ones
- *   too). Window propagation allows O(n) windows per edge in the worst case
- *   (Mitchell, Mount & Papadimitriou 1987, from memory), so the cap is a
- *   practical bound, twenty times anything measured; reaching it costs a
- *   few seconds at most (the trimming scans are quadratic in it).
+ *   faces; 46–202 on terrain blocks with long thin sides from 900 to 206k
+ *   faces; 52–420 on smooth and fractal heightfields of 200k faces; 3,891 on
+ *   a scan-like Delaunay terrain of 200k faces (100k vertices); a CAD-like
+ *   part of 200k faces with thin triangles and fans passed 4,096 (after
+ *   46 million windows and ten minutes: a hard mesh, not known to diverge).
+ *   On small meshes the floor decides, and reaching it costs a few seconds
+ *   (the trimming scans are quadratic in it); on large meshes the cap only
+ *   bounds the run, and the memory budget usually ends a runaway first.
  * - Events against windows: every event pops a queue entry that a window
  *   creation, a merge or a strict decrease of a vertex bound pushed. There
  *   is one entry per window, at most two merges per propagated window plus
@@ -34,8 +39,13 @@ import type { OrthodromeError } from '../../errors.js';
 import { next } from '../../mesh/topology.js';
 import type { ExactState } from './state.js';
 
-/** Windows made on one half-edge beyond which a run is stopped as diverging (see the module comment). */
-export const MAX_PER_HALF_EDGE = 1 << 12;
+/** Floor of the per-half-edge window cap (see the module comment). */
+export const MIN_PER_HALF_EDGE = 1 << 12;
+
+/** Windows made on one half-edge beyond which a run on a mesh of `nv` vertices is stopped as diverging. */
+export function maxPerHalfEdge(nv: number): number {
+  return Math.max(MIN_PER_HALF_EDGE, nv);
+}
 
 /** Events a run may process with `windows` made (see the module comment); past it the run is looping. */
 export function eventBound(s: ExactState): number {
@@ -46,7 +56,7 @@ export function eventBound(s: ExactState): number {
 export function divergedError(s: ExactState, events: number): OrthodromeError {
   const t = s.t, h = s.divergedAt;
   const what = s.diverged === 'edge'
-    ? `${MAX_PER_HALF_EDGE} windows on the edge between vertices ${t.tri[h]} and ${t.tri[next(h)]}, where correct runs make at most a few hundred`
+    ? `${s.win.heCount[h]} windows on the edge between vertices ${t.tri[h]} and ${t.tri[next(h)]}, more than a correct run makes on one edge`
     : `${events} events for ${s.win.count} windows, more than a correct run can take`;
   return numericError(
     `exact geodesics: the window propagation does not converge on this mesh (${what}); ` +

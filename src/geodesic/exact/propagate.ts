@@ -42,7 +42,7 @@ import { trimBoth } from './trim.js';
 import { propagatePlanar } from './planar.js';
 import { emitPseudoSource } from './pseudo-wedge.js';
 import { windsAround } from './winding.js';
-import { MAX_PER_HALF_EDGE, eventBound } from './guard.js';
+import { eventBound } from './guard.js';
 
 /** √(x² + y²) without Math.hypot's overflow guard, which costs several times more in V8 (lengths here are far from 1e±154). Local to each hot module so it inlines. */
 function len2(x: number, y: number): number {
@@ -178,7 +178,7 @@ export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: 
     if (key < windowKey(W, o, o0, o1)) s.wq.push(windowKey(W, o, n0, n1), o); // the old entry pops later and is skipped
     return o;
   }
-  if (W.heCount[h]! >= MAX_PER_HALF_EDGE) {
+  if (W.heCount[h]! >= s.maxPerEdge) {
     s.diverged = 'edge'; // windows piling up on one edge: the run is not converging (guard.ts)
     s.divergedAt = h;
     return -1;

@@ -10,6 +10,7 @@ import { WindowStore } from './windows.js';
 import { EventQueue } from './queue.js';
 import { BucketQueue } from './bucket-queue.js';
 import { RunBudget } from './budget.js';
+import { maxPerHalfEdge } from './guard.js';
 
 /** How a vertex's distance bound was reached (`viaType`); see each constant. */
 export type Via = 0 | 1 | 2 | 3 | 4;
@@ -90,6 +91,8 @@ export interface ExactState {
   divergedAt: number;
   /** Events processed so far (guard.ts). */
   events: number;
+  /** Windows one half-edge may receive before the run is stopped as diverging (guard.ts). */
+  readonly maxPerEdge: number;
   /**
    * Pruning on (default): vertex filter, trimming and merging. Off, every
    * window propagates unpruned (plain window propagation, for reference
@@ -137,6 +140,7 @@ export function createState(
     diverged: '',
     divergedAt: -1,
     events: 0,
+    maxPerEdge: maxPerHalfEdge(t.nv),
     prune: true,
     wedge: true,
   };

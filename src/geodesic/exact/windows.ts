@@ -63,8 +63,8 @@ export class WindowStore {
   flat: Uint8Array;
   /** First window on each half-edge, −1 when none. */
   readonly heHead: Int32Array;
-  /** Windows made on each half-edge, dead ones included (addWindow stops a run at guard.ts's cap, far below 65535). */
-  readonly heCount: Uint16Array;
+  /** Windows made on each half-edge, dead ones included (guard.ts caps it). */
+  readonly heCount: Int32Array;
   /** 1 for each face that has held a window (up to date after {@link touchedFaces}). */
   readonly faceSeen: Uint8Array;
   private faces = 0;
@@ -93,7 +93,7 @@ export class WindowStore {
     this.state = new Uint8Array(c);
     this.flat = new Uint8Array(c);
     this.heHead = new Int32Array(3 * t.nf).fill(-1);
-    this.heCount = new Uint16Array(3 * t.nf);
+    this.heCount = new Int32Array(3 * t.nf);
     this.faceSeen = new Uint8Array(t.nf);
     this.room = 0; // the first add asks the budget (the state's fixed bytes are known by then)
   }
