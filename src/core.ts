@@ -72,4 +72,6 @@ export { PointResolver, type Landing } from './query/resolve.js';
 export { inspectSurface, inspectProblems, type InspectReport } from './report/inspect.js';
 export { curvatureSummary, type CurvatureResult } from './report/curvature.js';
 export { parseRequirement, checkRequirements, checkableKeys, type Requirement, type RequirementResult, type Comparison } from './report/require.js';
-export { shortestPathThrough, type WaypointPath, type WaypointOptions } from './geodesic/waypoints.js';
+export { shortestPathThrough, AUTO_FLIP_FACES, FLIP_VERIFY_FACES, type WaypointPath, type WaypointOptions, type PathMethod } from './geodesic/waypoints.js';
+export { flipGeodesicPath, BEND_TOLERANCE, type FlipPathResult } from './geodesic/flip/index.js';
+export { verifyShortest, type VerifyResult } from './geodesic/flip/verify.js';
