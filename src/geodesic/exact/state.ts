@@ -91,8 +91,8 @@ export interface ExactState {
   divergedAt: number;
   /** Events processed so far (guard.ts). */
   events: number;
-  /** Windows one half-edge may receive before the run is stopped as diverging (guard.ts). */
-  readonly maxPerEdge: number;
+  /** Windows one half-edge may receive before the run is stopped as diverging (guard.ts; tests lower it). */
+  maxPerEdge: number;
   /**
    * Pruning on (default): vertex filter, trimming and merging. Off, every
    * window propagates unpruned (plain window propagation, for reference
