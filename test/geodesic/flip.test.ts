@@ -13,6 +13,7 @@ import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/int
 import { FlipTriangulation } from '../../src/geodesic/flip/triangulation.js';
 import { shortestEdgePath } from '../../src/geodesic/flip/start-path.js';
 import { tracePath } from '../../src/geodesic/flip/trace.js';
+import { shortenPath, BEND_TOLERANCE } from '../../src/geodesic/flip/flipout.js';
 import { graphDistance } from '../../src/geodesic/graph.js';
 import { pointSources } from '../../src/geodesic/sources.js';
 import { shortestPathThrough } from '../../src/geodesic/waypoints.js';
@@ -125,6 +126,21 @@ describe('start path', () => {
       expect(Math.abs(sum - p.length)).toBeLessThanOrEqual(1e-12 * Math.max(1, sum));
     }
   });
+  it('FlipOut stops unconverged at its flip or sweep cap, and converged paths bend by at least π − tolerance', () => {
+    const m = meshOf(flatGrid(20, 20, 1, 1, 0.2, 4));
+    const start = shortestEdgePath(m, 0, 440)!;
+    expect(shortenPath(new FlipTriangulation(m), start, 1_000_000, 0).converged).toBe(false);
+    expect(shortenPath(new FlipTriangulation(m), start, 1).converged).toBe(false);
+    const tri = new FlipTriangulation(m);
+    const r = shortenPath(tri, start);
+    expect(r.converged).toBe(true);
+    for (let i = 1; i + 1 < r.vertices.length; i++) {
+      const b = r.vertices[i]!, da = tri.direction(r.edges[i - 1]!, b), dc = tri.direction(r.edges[i]!, b);
+      expect(Math.min(tri.sweep(b, da, dc), tri.sweep(b, dc, da))).toBeGreaterThanOrEqual(Math.PI - BEND_TOLERANCE);
+    }
+    expect(Math.abs(r.length - Math.SQRT2)).toBeLessThanOrEqual(1e-9); // the unit square's diagonal (elementary)
+  });
+
   it('two components: no path', () => {
     const m = meshOf({ positions: Float64Array.of(0, 0, 0, 1, 0, 0, 0, 1, 0, 5, 0, 0, 6, 0, 0, 5, 1, 0), triangles: Uint32Array.of(0, 1, 2, 3, 4, 5) });
     expect(shortestEdgePath(m, 0, 4)).toBeNull();

@@ -43,17 +43,19 @@ export interface ShortenResult extends EdgePath {
 }
 
 /**
- * Shortens `start` (an edge path of `tri`'s input) by FlipOut until it is a
+ * Shortens `start` (an edge path of `tri`) by FlipOut until it is a
  * geodesic, flipping `tri` in place. Stops unconverged after `maxSweeps`
- * sweeps or when a needed flip is degenerate.
+ * sweeps, after `maxFlips` flips (default 20 per edge + 100k: a guard
+ * against rounding loops, far above what a path needs, e.g. 7.5k flips for a
+ * 1M-face terrain corner to corner) or when a needed flip is degenerate.
  */
-export function shortenPath(tri: FlipTriangulation, start: EdgePath, maxSweeps = 1_000_000): ShortenResult {
+export function shortenPath(tri: FlipTriangulation, start: EdgePath, maxSweeps = 1_000_000, maxFlips = 20 * tri.ne + 100_000): ShortenResult {
   let V = start.vertices.slice(), E = start.edges.slice();
   const count = new Map<number, number>();
   for (const v of V) count.set(v, (count.get(v) ?? 0) + 1);
   let sweeps = 0, converged = false;
   const limit = Math.PI - BEND_TOLERANCE;
-  while (sweeps < maxSweeps) {
+  while (sweeps < maxSweeps && tri.flips <= maxFlips) {
     sweeps++;
     let changed = false, stuck = false;
     const outV = [V[0]!], outE: number[] = [];
