@@ -3,22 +3,27 @@
  * Paths in Triangle Meshes by Just Flipping Edges", ACM TOG 39(6), 2020).
  *
  * Design:
- * - start-path.ts: the edge-graph shortest path between the two vertices
- *   (Dijkstra with a target stop);
  * - triangulation.ts: a copy of the mesh's connectivity and lengths that can
  *   flip edges, with a direction per half-edge (signposts, Sharp, Soliman &
  *   Crane 2019) so every intrinsic edge can be found on the input surface;
+ * - insert.ts: an end on an edge or in a face becomes a vertex first;
+ * - start-path.ts: the edge-graph shortest path between the two ends
+ *   (Dijkstra with a target stop);
  * - flipout.ts: FlipOut until every bend is at least π on both sides;
- * - trace.ts: the final intrinsic edges traced across the input faces.
+ * - trace.ts: the final intrinsic edges traced across the input faces;
+ * - verify.ts: the proof (or correction) by window propagation in the
+ *   ellipsoid that holds every shorter path, used by waypoints.ts.
  *
  * Only the lengths are read (the metric is the interface); coordinates come
  * in later, when the caller turns surface points into a polyline.
  *
  * Which geodesic: FlipOut shortens within the homotopy class of the start
- * path, so the result is the shortest path in the class of the edge-graph
- * shortest route. Callers that need a guarantee of the global minimum on a
- * surface with holes or handles compare it with window propagation
- * (waypoints.ts does on small meshes, see `FLIP_CHECK_FACES` there).
+ * path (relative to the vertices), so the result is the shortest path in the
+ * class of the edge-graph shortest route, which need not be the shortest
+ * path: round a hole, a cube corner or a bump on rough terrain another class
+ * can be shorter (measured on a noisy 200k-face terrain: up to 3.6e-4
+ * relative). waypoints.ts proves each flip leg, or replaces it, with
+ * verify.ts when the region to search is small enough, and says when not.
  */
 import type { IntrinsicMesh } from '../../metric/intrinsic.js';
 import type { SurfacePath } from '../field.js';

@@ -15,6 +15,9 @@
  * its length, which must have the edge's far vertex as a corner; otherwise
  * (rounding on a degenerate mesh) the trace reports failure and the caller
  * falls back to another method, rather than return a path that is wrong.
+ * An inserted point (insert.ts) starts its ray inside its face, or on its
+ * edge in the face on the ray's side, from its reference direction; a ray
+ * ending there must end in a face that holds the point.
  */
 import type { SurfacePoint } from '../../query/surface-point.js';
 import { next, prev } from '../../mesh/topology.js';
