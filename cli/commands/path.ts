@@ -57,7 +57,7 @@ export function registerPath(program: Command): void {
     .addOption(maxInputSizeOption())
     .addOption(memoryBudgetOption())
     .addOption(new Option('--path-method <method>', `windows (window propagation: the shortest path, proven), flip (edge flips from the edge-graph shortest route: a geodesic, much faster on large meshes; two points off the vertices on one face, and split vertices, use windows) or auto (flip from ${AUTO_FLIP_FACES} faces up)`).choices(['auto', 'flip', 'windows']).default('auto'))
-    .option('--prove-limit <faces>', `flip: largest region (faces within the ellipsoid that holds every shorter path) on which window propagation proves a flip leg shortest or finds the shorter one; 0 skips the proof`, String(FLIP_VERIFY_FACES))
+    .option('--prove-limit <faces>', `largest region (faces within the ellipsoid that holds every shorter path) on which window propagation proves a flip leg shortest or finds the shorter one; 0 skips the proof (default: ${FLIP_VERIFY_FACES} with flip, none with auto)`)
     .addHelpText(
       'after',
       `\nLengths are in the mesh's own units. GeoJSON coordinates are the mesh's own coordinates (RFC 7946 expects\nWGS 84 longitude/latitude; use the file only where another system is agreed).\n${TERRAIN_CAUTION}\n${MACHINING_CAUTION}`,
@@ -81,10 +81,10 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
   if (o.closed) stops.push(stops[0]!);
   if (stops.length < 2) throw usageError('a path needs at least two points');
 
-  const proveLimit = Number(o.proveLimit ?? FLIP_VERIFY_FACES);
-  if (!(Number.isInteger(proveLimit) && proveLimit >= 0)) throw usageError(`--prove-limit must be a whole number of faces, got '${o.proveLimit}'`);
+  const proveLimit = o.proveLimit === undefined ? undefined : Number(o.proveLimit);
+  if (proveLimit !== undefined && !(Number.isInteger(proveLimit) && proveLimit >= 0)) throw usageError(`--prove-limit must be a whole number of faces, got '${o.proveLimit}'`);
   const t0 = performance.now();
-  const route = cover ? coverPathThrough(cover, stops, { memoryBudget }) : shortestPathThrough(intrinsicFromPositions(t, surface.positions), stops, { memoryBudget, pinches: resolver.splitGroups(), method: o.pathMethod ?? 'auto', positions: surface.positions, verifyFaces: proveLimit });
+  const route = cover ? coverPathThrough(cover, stops, { memoryBudget }) : shortestPathThrough(intrinsicFromPositions(t, surface.positions), stops, { memoryBudget, pinches: resolver.splitGroups(), method: o.pathMethod ?? 'auto', positions: surface.positions, ...(proveLimit !== undefined ? { verifyFaces: proveLimit } : {}) });
   const solveMs = since(t0);
   const legMethods = route.legs.map((l) => l.method ?? 'windows');
   const method = legMethods.every((x) => x === legMethods[0]) ? legMethods[0]! : 'mixed';
@@ -136,7 +136,7 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
     const what = proven ? 'shortest path' : 'geodesic path (locally shortest, not proven shortest: see the legs)';
     const L = [`${mesh}: ${what} ${fmt(route.length, 9)} mesh units, ${n} points, ${route.legs.length} leg(s), method ${METHOD_TEXT[method]}`];
     for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map((x) => fmt(x, 9)).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
-    route.legs.forEach((l, i) => L.push(`  leg ${i + 1}: ${specs[i] ?? specs[0]} → ${specs[i + 1] ?? specs[0]}: ${fmt(l.length, 9)} (${legMethods[i]}${legProven[i] ? '' : `; a shorter path could run through more than --prove-limit ${proveLimit} faces: not checked`})`));
+    route.legs.forEach((l, i) => L.push(`  leg ${i + 1}: ${specs[i] ?? specs[0]} → ${specs[i + 1] ?? specs[0]}: ${fmt(l.length, 9)} (${legMethods[i]}${legProven[i] ? '' : `; a shorter path could run through more than --prove-limit ${proveLimit ?? FLIP_VERIFY_FACES} faces: not checked`})`));
     L.push(`  timings: load ${fmt(loadMs, 4)} ms, solve ${fmt(solveMs, 4)} ms`);
     if (o.output) L.push(`  wrote ${o.output}`);
     process.stdout.write(L.join('\n') + '\n');

@@ -8,7 +8,7 @@
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { SurfacePoint } from '../query/surface-point.js';
 import { checkSurfacePoint, formatSurfacePoint } from '../query/surface-point.js';
-import { limitError, usageError } from '../errors.js';
+import { isOrthodromeError, limitError, usageError } from '../errors.js';
 import { checkEdgeLengths } from './solver.js';
 import type { SurfacePath } from './field.js';
 import { exactDistance, type ExactResult } from './exact/index.js';
@@ -24,7 +24,10 @@ export type PathMethod = 'auto' | 'flip' | 'windows';
 /** Faces from which `method: 'auto'` uses edge flips (window propagation below). */
 export const AUTO_FLIP_FACES = 50_000;
 
-/** Default of `WaypointOptions.verifyFaces`: the largest region a flip leg is proven shortest on. */
+/**
+ * Default of `WaypointOptions.verifyFaces` with `method: 'flip'`: the largest region a flip leg
+ * is proven shortest on (with `auto` there is no face limit; the memory budget bounds the proof).
+ */
 export const FLIP_VERIFY_FACES = 50_000;
 
 /** A path through waypoints with per-point bookkeeping. */
@@ -60,9 +63,11 @@ export interface WaypointOptions {
    * by intrinsic edge flips from the edge-graph shortest route (a geodesic, the shortest in
    * that route's homotopy class; much faster on large meshes); points off the vertices are
    * inserted as vertices first; legs between two such points on one face, legs whose stop
-   * has several copies (a split vertex), and legs where the flips do not converge use windows. `auto` (default):
-   * `flip` on meshes of at least {@link AUTO_FLIP_FACES} faces, `windows` below.
-   * Paths through pinch points always use windows.
+   * has several copies (a split vertex), and legs where the flips do not converge use windows.
+   * `auto` (default): `windows` below {@link AUTO_FLIP_FACES} faces; from there flips, each
+   * leg then proven shortest (or replaced) by the ellipsoid check with no face limit (needs
+   * `positions`; the memory budget bounds it): always the shortest path, found faster than by
+   * windows alone. Paths through pinch points always use windows.
    */
   method?: PathMethod;
   /**
@@ -72,7 +77,7 @@ export interface WaypointOptions {
    * most `verifyFaces` faces. Without them, or beyond that, a flip leg is a geodesic only.
    */
   positions?: Float64Array;
-  /** Largest region (faces) a flip leg is checked on (default {@link FLIP_VERIFY_FACES}). */
+  /** Largest region (faces) a flip leg is checked on (default: {@link FLIP_VERIFY_FACES} with `flip`, no limit with `auto`). */
   verifyFaces?: number;
 }
 
@@ -147,7 +152,14 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint |
     if (f && f.status === 'ok') {
       p = f.path; how = 'flip'; proven = false;
       if (opts.positions && p.length > 0) {
-        const v = verifyShortest(mesh, opts.positions, a[0]!, b[0]!, p.length, opts.verifyFaces ?? FLIP_VERIFY_FACES, opts.memoryBudget);
+        const limit = opts.verifyFaces ?? (method === 'auto' ? Infinity : FLIP_VERIFY_FACES);
+        let v: ReturnType<typeof verifyShortest>;
+        try {
+          v = verifyShortest(mesh, opts.positions, a[0]!, b[0]!, p.length, limit, opts.memoryBudget);
+        } catch (err) {
+          if (!isOrthodromeError(err) || err.code !== 'LIMIT') throw err;
+          throw limitError(`${err.detail}; this was the proof that a path found by edge flips is the shortest: method 'flip' (--path-method flip) with a face limit on the proof (--prove-limit) returns the geodesic unproven instead`, err.location);
+        }
         if (v.status !== 'skipped') proven = true;
         if (v.status === 'shorter') { p = v.path!; how = 'windows'; }
       }

@@ -16,7 +16,7 @@ import { tracePath } from '../../src/geodesic/flip/trace.js';
 import { shortenPath, BEND_TOLERANCE } from '../../src/geodesic/flip/flipout.js';
 import { graphDistance } from '../../src/geodesic/graph.js';
 import { pointSources } from '../../src/geodesic/sources.js';
-import { shortestPathThrough } from '../../src/geodesic/waypoints.js';
+import { shortestPathThrough, AUTO_FLIP_FACES } from '../../src/geodesic/waypoints.js';
 import { pathLength, isSurfacePath, pathPolyline } from '../../src/geodesic/path.js';
 import type { SurfacePoint } from '../../src/query/surface-point.js';
 import { flatGrid, icosphere, rng, type Shape } from '../fixtures/shapes.js';
@@ -185,6 +185,21 @@ describe('path entry with edge flips', () => {
     expect(q.legs[0]!.proven).toBe(false);
     expect(shortestPathThrough(m, [V(7), V(7)], { method: 'flip' }).length).toBe(0);
     expect(() => shortestPathThrough(m, [V(7), V(8)], { method: 'fast' as never })).toThrow(/unknown path method/);
+  });
+});
+
+describe('auto method', () => {
+  it(`from ${AUTO_FLIP_FACES} faces: flips, each leg proven without a face limit; below: windows`, () => {
+    const big = flatGrid(160, 160, 16, 16, 0.2, 2); // 51,200 faces
+    const m = meshOf(big), P = big.positions;
+    expect(m.topology.nf).toBeGreaterThanOrEqual(AUTO_FLIP_FACES);
+    const a = 0, b = m.topology.nv - 1;
+    const r = shortestPathThrough(m, [V(a), V(b)], { positions: P, verifyFaces: undefined });
+    expect(r.legs[0]!.method).toBe('flip');
+    expect(r.legs[0]!.proven).toBe(true);
+    expect(Math.abs(r.length - Math.hypot(16, 16))).toBeLessThanOrEqual(1e-9 * 16); // flat: the diagonal (elementary)
+    const small = meshOf(flatGrid(10, 10, 1, 1, 0.2, 2));
+    expect(shortestPathThrough(small, [V(0), V(120)], {}).legs[0]!.method).toBe('windows');
   });
 });
 
