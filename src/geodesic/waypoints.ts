@@ -64,7 +64,7 @@ export interface WaypointOptions {
    * that route's homotopy class; much faster on large meshes); points off the vertices are
    * inserted as vertices first; legs between two such points on one face, legs whose stop
    * has several copies (a split vertex), and legs where the flips do not converge use windows.
-   * `auto` (default): `windows` below {@link AUTO_FLIP_FACES} faces; from there flips, each
+   * `auto` (default): `windows` below {@link AUTO_FLIP_FACES} faces or without `positions`; else flips, each
    * leg then proven shortest (or replaced) by the ellipsoid check with no face limit (needs
    * `positions`; the memory budget bounds it): always the shortest path, found faster than by
    * windows alone. Paths through pinch points always use windows.
@@ -140,7 +140,8 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint |
   let length = 0;
   const method = opts.method ?? 'auto';
   if (method !== 'auto' && method !== 'flip' && method !== 'windows') throw usageError(`unknown path method '${String(method)}' (auto, flip or windows)`, 'path');
-  const flips = !opts.pinches?.length && (method === 'flip' || (method === 'auto' && mesh.topology.nf >= AUTO_FLIP_FACES));
+  // auto flips only where it can prove each leg (positions given); otherwise windows, as before
+  const flips = !opts.pinches?.length && (method === 'flip' || (method === 'auto' && mesh.topology.nf >= AUTO_FLIP_FACES && opts.positions !== undefined));
   let geometry: ReturnType<typeof prepareExactGeometry> | undefined; // made on the first window leg
   for (let i = 0; i + 1 < stops.length; i++) {
     const run = (from: SurfacePoint[], targets?: SurfacePoint[]) => exactDistance(mesh, { points: from, curves: [] }, {

@@ -198,6 +198,7 @@ describe('auto method', () => {
     expect(r.legs[0]!.method).toBe('flip');
     expect(r.legs[0]!.proven).toBe(true);
     expect(Math.abs(r.length - Math.hypot(16, 16))).toBeLessThanOrEqual(1e-9 * 16); // flat: the diagonal (elementary)
+    expect(shortestPathThrough(m, [V(a), V(b)], {}).legs[0]!.method).toBe('windows'); // no positions: no proof, so no flips
     const small = meshOf(flatGrid(10, 10, 1, 1, 0.2, 2));
     expect(shortestPathThrough(small, [V(0), V(120)], {}).legs[0]!.method).toBe('windows');
   });
