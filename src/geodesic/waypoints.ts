@@ -151,7 +151,7 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint |
     const f = flips && a.length === 1 && b.length === 1 ? flipGeodesicPath(mesh, a[0]!, b[0]!) : null;
     let p: SurfacePath, how: 'flip' | 'windows' = 'windows', proven = true;
     if (f && f.status === 'ok') {
-      p = f.path; how = 'flip'; proven = false;
+      p = f.path; how = 'flip'; proven = p.length === 0; // a point to itself: nothing is shorter
       if (opts.positions && p.length > 0) {
         const limit = opts.verifyFaces ?? (method === 'auto' ? Infinity : FLIP_VERIFY_FACES);
         let v: ReturnType<typeof verifyShortest>;

@@ -183,7 +183,9 @@ describe('path entry with edge flips', () => {
     const q = shortestPathThrough(m, [V(5), V(300)], { method: 'flip' });
     expect(q.legs[0]!.method).toBe('flip');
     expect(q.legs[0]!.proven).toBe(false);
-    expect(shortestPathThrough(m, [V(7), V(7)], { method: 'flip' }).length).toBe(0);
+    const zero = shortestPathThrough(m, [V(7), V(7)], { method: 'flip' });
+    expect(zero.length).toBe(0);
+    expect(zero.legs[0]!.proven).toBe(true);
     expect(() => shortestPathThrough(m, [V(7), V(8)], { method: 'fast' as never })).toThrow(/unknown path method/);
   });
 });
