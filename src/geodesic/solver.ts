@@ -223,6 +223,7 @@ function prepareMethod(mesh: IntrinsicMesh, method: DistanceMethod, opts: Distan
         ...(opts.maxDistance !== undefined ? { maxDistance: opts.maxDistance } : {}),
         ...(opts.memoryBudget !== undefined ? { memoryBudget: opts.memoryBudget } : {}),
         ...(early ? { targets: so.targets } : {}),
+        ...(opts.progress ? { progress: (share: number) => opts.progress!({ stage: 'solve', share }) } : {}),
       });
       return {
         field: r.field,

@@ -101,6 +101,11 @@ export interface ExactOptions {
    * the same mesh (it is most of a two-point query's cost); made afresh when absent.
    */
   geometry?: ExactGeometry;
+  /**
+   * Called about every 4096 events with the share of the faces the run's windows have reached
+   * so far, in [0, 1] (for a progress display: the solver never prints). Keep it cheap.
+   */
+  progress?: (share: number) => void;
 }
 
 /** Result of {@link exactDistance}. */
@@ -208,7 +213,7 @@ export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: Exa
   }
   let stopKey: number;
   try {
-    stopKey = runEvents(s, stop);
+    stopKey = runEvents(s, withProgress(s, stop, opts.progress));
   } catch (e) {
     // a queue that cannot grow (the window store reports its own refusals through s.overflow)
     if (!(e instanceof RangeError)) throw e;
@@ -290,4 +295,18 @@ function countTouched(s: ExactState): number {
   let n = 0;
   for (let f = 0; f < s.t.nf; f++) n += seen[f]!;
   return n;
+}
+
+/**
+ * `stop` (or no stop) that also reports the share of faces reached to `progress` on every 128th
+ * call (runEvents asks `stop` every 32 events); without `progress`, `stop` itself.
+ */
+function withProgress(s: ExactState, stop: ((key: number) => boolean) | undefined, progress: ((share: number) => void) | undefined): ((key: number) => boolean) | undefined {
+  if (!progress) return stop;
+  const nf = s.t.nf || 1;
+  let calls = 0;
+  return (key) => {
+    if ((++calls & 127) === 0) progress(Math.min(1, s.win.touchedFaces() / nf));
+    return stop ? stop(key) : false;
+  };
 }
