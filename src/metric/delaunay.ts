@@ -30,7 +30,7 @@
 import type { Topology } from '../mesh/topology.js';
 import type { IntrinsicMesh } from './intrinsic.js';
 import { next, prev } from '../mesh/topology.js';
-import { triangleArea } from './triangle.js';
+import { triangleArea, unfoldedDiagonal } from './triangle.js';
 
 /** Options of {@link intrinsicDelaunay}. */
 export interface DelaunayOptions {
@@ -133,12 +133,8 @@ function flip(t: Topology, L: Float64Array, h: number): boolean {
   if (c === d) return false;
   const lab = L[edgeOf[h]!]!, lbc = L[edgeOf[hn]!]!, lca = L[edgeOf[hp]!]!;
   const lad = L[edgeOf[on]!]!, ldb = L[edgeOf[op]!]!;
-  // unfold: a = (0, 0), b = (lab, 0), c above the axis, d below it
-  const A0 = triangleArea(lab, lbc, lca), A1 = triangleArea(lab, lad, ldb);
-  if (!(A0 > 0 && A1 > 0 && lab > 0)) return false;
-  const xc = (lab * lab + lca * lca - lbc * lbc) / (2 * lab), yc = (2 * A0) / lab;
-  const xd = (lab * lab + lad * lad - ldb * ldb) / (2 * lab), yd = (2 * A1) / lab;
-  const lcd = Math.hypot(xc - xd, yc + yd);
+  const lcd = unfoldedDiagonal(lab, lbc, lca, lad, ldb);
+  if (!(lcd > 0)) return false;
   if (!(triangleArea(lcd, lca, lad) > 0 && triangleArea(lcd, ldb, lbc) > 0)) return false;
 
   const eHn = edgeOf[hn]!, eHp = edgeOf[hp]!, eOn = edgeOf[on]!, eOp = edgeOf[op]!;

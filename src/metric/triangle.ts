@@ -39,6 +39,31 @@ export function triangleArea(a: number, b: number, c: number): number {
   return p > 0 ? 0.25 * Math.sqrt(p) : 0;
 }
 
+/**
+ * Unfolds the two triangles (a, b, c) and (b, a, d) that share side ab into the
+ * plane and returns the length of the other diagonal cd (the edge a flip of ab
+ * would make):
+ *
+ * ```
+ *        c
+ *       / \
+ *      a---b      a = (0, 0), b = (lab, 0), c above the axis, d below it
+ *       \ /
+ *        d
+ * ```
+ *
+ * Returns NaN, leaving `out` untouched, when either triangle has no area (or
+ * lab is not positive). `out`, when given, receives xc, yc, xd, yd.
+ */
+export function unfoldedDiagonal(lab: number, lbc: number, lca: number, lad: number, ldb: number, out?: Float64Array | number[]): number {
+  const A0 = triangleArea(lab, lbc, lca), A1 = triangleArea(lab, lad, ldb);
+  if (!(A0 > 0 && A1 > 0 && lab > 0)) return NaN;
+  const xc = (lab * lab + lca * lca - lbc * lbc) / (2 * lab), yc = (2 * A0) / lab;
+  const xd = (lab * lab + lad * lad - ldb * ldb) / (2 * lab), yd = (2 * A1) / lab;
+  if (out) { out[0] = xc; out[1] = yc; out[2] = xd; out[3] = yd; }
+  return Math.hypot(xc - xd, yc + yd);
+}
+
 /** Angle opposite side `a` in the triangle with sides a, b, c (radians, in [0, π]; see the module comment). */
 export function angleOpposite(a: number, b: number, c: number): number {
   anglesOfSides(a, b, c, scratch, 0);

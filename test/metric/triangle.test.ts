@@ -3,7 +3,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { fc, test } from '@fast-check/vitest';
-import { triangleArea, angleOpposite, cotOpposite, cornerAngles, faceAreas, mixedVoronoiVertexAreas, barycentricVertexAreas, anglesOfSides } from '../../src/metric/triangle.js';
+import { triangleArea, angleOpposite, cotOpposite, cornerAngles, faceAreas, mixedVoronoiVertexAreas, barycentricVertexAreas, anglesOfSides, unfoldedDiagonal } from '../../src/metric/triangle.js';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, intrinsicFromLengths } from '../../src/metric/intrinsic.js';
 import { flatGrid, icosphere } from '../fixtures/shapes.js';
@@ -109,5 +109,15 @@ describe('mesh arrays', () => {
     const { topology: t } = buildTopology(s.triangles, 12);
     expect(() => intrinsicFromLengths(t, new Float64Array(t.ne).fill(NaN))).toThrow(/invalid length/);
     expect(() => intrinsicFromLengths(t, new Float64Array(3))).toThrow(/expected 30 edge lengths/);
+  });
+  it('the unfolded other diagonal of two triangles sharing a side (elementary plane geometry)', () => {
+    // unit square cut along a diagonal: the other diagonal is also sqrt(2)
+    expect(unfoldedDiagonal(Math.SQRT2, 1, 1, 1, 1)).toBeCloseTo(Math.SQRT2, 14);
+    // two unit equilateral triangles (a rhombus of 60°): the long diagonal is sqrt(3)
+    const out = new Float64Array(4);
+    expect(unfoldedDiagonal(1, 1, 1, 1, 1, out)).toBeCloseTo(Math.sqrt(3), 14);
+    expect(Array.from(out)).toEqual([0.5, expect.closeTo(Math.sqrt(3) / 2, 14), 0.5, expect.closeTo(Math.sqrt(3) / 2, 14)]);
+    // a collinear (zero-area) triangle has no unfolding
+    expect(unfoldedDiagonal(2, 1, 1, 1, 1)).toBeNaN();
   });
 });

@@ -31,7 +31,7 @@
 import type { IntrinsicMesh } from '../../metric/intrinsic.js';
 import type { Topology } from '../../mesh/topology.js';
 import { next, prev } from '../../mesh/topology.js';
-import { angleOpposite, triangleArea } from '../../metric/triangle.js';
+import { angleOpposite, triangleArea, unfoldedDiagonal } from '../../metric/triangle.js';
 import type { SurfacePoint } from '../../query/surface-point.js';
 
 /** An input mesh under flips, with a direction per half-edge (see the module comment). */
@@ -54,6 +54,8 @@ export class FlipTriangulation {
   readonly onBoundary: Uint8Array;
   /** One half-edge leaving each vertex (the boundary one on the boundary); a vertex's reference direction until it is set up. */
   readonly anchor: Int32Array;
+  /** Scratch for the unfolded quad of a flip (xc, yc, xd, yd). */
+  private readonly unfold = new Float64Array(4);
   /** Number of flips made. */
   flips = 0;
   /** Current numbers of vertices, faces and edges (input ones first; insert.ts adds more). */
@@ -191,12 +193,10 @@ export class FlipTriangulation {
     if (c === d) return false;
     const lab = L[edgeOf[h]!]!, lbc = L[edgeOf[hn]!]!, lca = L[edgeOf[hp]!]!;
     const lad = L[edgeOf[on]!]!, ldb = L[edgeOf[op]!]!;
-    const A0 = triangleArea(lab, lbc, lca), A1 = triangleArea(lab, lad, ldb);
-    if (!(A0 > 0 && A1 > 0 && lab > 0)) return false;
-    // unfold: a = (0, 0), b = (lab, 0), c above the axis, d below it
-    const xc = (lab * lab + lca * lca - lbc * lbc) / (2 * lab), yc = (2 * A0) / lab;
-    const xd = (lab * lab + lad * lad - ldb * ldb) / (2 * lab), yd = (2 * A1) / lab;
-    const lcd = Math.hypot(xc - xd, yc + yd);
+    const u = this.unfold;
+    const lcd = unfoldedDiagonal(lab, lbc, lca, lad, ldb, u);
+    if (!(lcd > 0)) return false;
+    const xc = u[0]!, yc = u[1]!, xd = u[2]!, yd = u[3]!;
     // the quad must be strictly convex: c–d crosses a–b strictly between a and b (a margin of
     // 1e-12 relative refuses a or b on c–d up to rounding, e.g. a boundary vertex of angle π)
     const xCross = xc + ((xd - xc) * yc) / (yc + yd);
