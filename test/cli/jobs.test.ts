@@ -71,6 +71,33 @@ describe('distance --each --jobs', () => {
     expect(sansTimings(three.stdout)).toEqual(sansTimings(one.stdout));
   });
 
+  it('a Möbius strip (double cover) with a triangle pinched on at one vertex (split, relayed): workers as one job', () => {
+    // strip of 24 cells, width 0.4, around the unit circle; the half twist swaps the rows at the end
+    const L: string[] = [], n = 24, w = 0.4;
+    for (let i = 0; i < n; i++) {
+      const th = (2 * Math.PI * i) / n;
+      for (const s of [-1, 1]) {
+        const r = 1 + (s * w * Math.cos(th / 2)) / 2;
+        L.push(`v ${r * Math.cos(th)} ${r * Math.sin(th)} ${(s * w * Math.sin(th / 2)) / 2}`);
+      }
+    }
+    for (let i = 0; i < n; i++) {
+      const a = 2 * i + 1, b = a + 1, [c, d] = i < n - 1 ? [a + 2, a + 3] : [2, 1];
+      L.push(`f ${a} ${c} ${d}`, `f ${a} ${d} ${b}`);
+    }
+    L.push('v 0.5 -0.3 0.2', 'v 0.5 0.3 0.2', 'f 1 49 50'); // touches the strip at vertex 1 only
+    writeFileSync(join(dir, 'pinched-strip.obj'), L.join('\n') + '\n');
+    const args = (jobs: number) => ['distance', join(dir, 'pinched-strip.obj'), '--split-nonmanifold', '--from', 'v:48', '--from', 'v:25', '--from', 'v:10', '--each', '--jobs', String(jobs), '--json', '-o', join(dir, `strip${jobs}.csv`)];
+    const one = runCli(args(1)), two = runCli(args(2));
+    expect(one.code).toBe(0);
+    expect(two.code).toBe(0);
+    expect(readFileSync(join(dir, 'strip2.csv'), 'utf8')).toBe(readFileSync(join(dir, 'strip1.csv'), 'utf8'));
+    expect(sansTimings(two.stdout)).toEqual(sansTimings(one.stdout));
+    const j = JSON.parse(two.stdout) as { prepare: { doubleCover?: boolean }; sets: { field: { unreachableVertices: number } }[] };
+    expect(j.prepare.doubleCover).toBe(true);
+    for (const s of j.sets) expect(s.field.unreachableVertices).toBe(0); // the pinch joins the triangle to the strip
+  });
+
   it('refuses --jobs 0, a fraction, and --jobs without --each (exit 2, one line)', () => {
     for (const args of [['--each', '--jobs', '0'], ['--each', '--jobs', '1.5'], ['--jobs', '2']]) {
       const r = runCli(['distance', join(dir, 'square.obj'), '--from', 'v:0', '--from', 'v:5', ...args]);
