@@ -3,7 +3,8 @@
  * (meshes.ts) at ~200k faces (~20k with `--quick`): does
  * `orthodrome distance MESH --from v:CENTRE` finish within 2 GB, or stop in
  * under 5 s with exit code 3 (LIMIT) and a message suggesting the heat
- * method? Each run is its own process (the CLI from source through tsx),
+ * method? Each run is its own process (the CLI from source through tsx, or
+ * the built CLI named by ORTHODROME_CLI, e.g. dist/cli/orthodrome.js),
  * with the default memory budget; peak RSS comes from GNU time's %M when
  * /usr/bin/time exists. Records per case: `wall_ms` (the whole process:
  * start-up, load, solve), `exit_code`, `peak_rss` (MB), and `verdict`
@@ -44,7 +45,8 @@ function centreVertex(s: Shape): number {
 
 /** Runs the CLI; wall time, exit code, stdout, stderr and peak RSS (MB, NaN when unknown). */
 function cli(args: string[]): { ms: number; code: number; stdout: string; stderr: string; rssMB: number } {
-  const node = [process.execPath, '--import', 'tsx', join(root, 'cli/orthodrome.ts'), ...args];
+  const built = process.env.ORTHODROME_CLI; // e.g. dist/cli/orthodrome.js: what users run (no TypeScript loader)
+  const node = built ? [process.execPath, resolve(built), ...args] : [process.execPath, '--import', 'tsx', join(root, 'cli/orthodrome.ts'), ...args];
   const cmd = gnuTime ? ['/usr/bin/time', '-f', 'peak-rss-kB %M', ...node] : node;
   const t0 = performance.now();
   const r = spawnSync(cmd[0]!, cmd.slice(1), { cwd: root, encoding: 'utf8', env: { ...process.env, ORTHODROME_DEBUG: '' }, maxBuffer: 1 << 28 });
