@@ -12,6 +12,8 @@
  *   centroid theorem A = 2π Σ r̄ᵢ Lᵢ over the profile segments, with an error
  *   O((π/m)²) for m segments around (chord against arc);
  * - fractal noise stays within its bound Σ gainᵏ (each octave in [−1, 1]);
+ * - the benchmarks' Dijkstra yardstick (harness.ts) gives the same distances
+ *   as the library's edge-graph Dijkstra;
  * - every generator is deterministic for a seed and changes with it.
  */
 import { describe, expect, it } from 'vitest';
@@ -19,6 +21,8 @@ import { USER_MESHES, cadPart, fractalNoise, partProfile, scanTerrain } from '..
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import { faceAreas } from '../../src/metric/triangle.js';
+import { graphDistance } from '../../src/geodesic/graph.js';
+import { edgeDijkstra, meshEdgeList } from '../bench/harness.js';
 
 const FACES = 6000;
 
@@ -89,6 +93,17 @@ describe('benchmark meshes of the kinds users bring', () => {
       maxRatio = Math.max(maxRatio, Math.max(...l) / Math.min(...l));
     }
     expect(maxRatio).toBeGreaterThan(100);
+  });
+
+  it('the benchmarks\' one yardstick (edgeDijkstra) gives the edge-graph distances of graphDistance', () => {
+    // common practice: two implementations of Dijkstra's algorithm (Numer. Math. 1, 1959) agree exactly
+    const s = USER_MESHES.scan(FACES, 2);
+    const m = intrinsicFromPositions(buildTopology(s.triangles, s.positions.length / 3).topology, s.positions);
+    const { n, ea, eb, elen } = meshEdgeList(m);
+    const a = edgeDijkstra(n, ea, eb, elen, 77);
+    const b = graphDistance(m, { points: [{ kind: 'vertex', vertex: 77 }], curves: [] }).distance;
+    expect(Array.from(a)).toEqual(Array.from(b));
+    expect(a[77]).toBe(0);
   });
 
   it('fractal noise stays within Σ gain^k and is not flat', () => {
