@@ -18,7 +18,7 @@
 import { Worker } from 'node:worker_threads';
 import type { Topology } from '../src/mesh/topology.js';
 import { intrinsicFromPositions, type IntrinsicMesh } from '../src/metric/intrinsic.js';
-import { OrthodromeError, isOrthodromeError } from '../src/errors.js';
+import { OrthodromeError, isOrthodromeError, limitError } from '../src/errors.js';
 import type { SourceSet } from '../src/geodesic/sources.js';
 import type { SurfacePoint } from '../src/query/surface-point.js';
 import { prepareDistance, type DistanceOptions, type DistanceResult, type DistanceSolver, type SolveOptions } from '../src/geodesic/solver.js';
@@ -99,7 +99,7 @@ export interface WorkerTask { id: number; set: SourceSet; solve: SolveOptions; a
 export type WorkerReply =
   | { kind: 'ready'; prepareMs: number; prepareDetails: Record<string, number | boolean | string> }
   | { kind: 'done'; id: number; distance: Float64Array; at: number[]; solveMs: number; complete: boolean; stoppedBy: DistanceResult['stoppedBy']; details: DistanceResult['details'] }
-  | { kind: 'error'; id: number; error: { name: string; message: string; code?: string; detail?: string; location?: string } };
+  | { kind: 'error'; id: number; error: ErrorData };
 
 /** Rebuilds the solver spec in a worker from its init message (views of the shared buffers). */
 export function specFromInit(w: WorkerInit): SolverSpec {
@@ -110,19 +110,27 @@ export function specFromInit(w: WorkerInit): SolverSpec {
 }
 
 /** An error sent across threads, as plain data. */
-export function errorData(e: unknown): { name: string; message: string; code?: string; detail?: string; location?: string } {
+export function errorData(e: unknown): ErrorData {
   if (isOrthodromeError(e)) return { name: e.name, message: e.message, code: e.code, detail: e.detail, ...(e.location !== undefined ? { location: e.location } : {}) };
-  if (e instanceof Error) return { name: e.name, message: e.message };
+  if (e instanceof Error) {
+    const nodeCode = (e as { code?: unknown }).code;
+    return { name: e.name, message: e.message, ...(typeof nodeCode === 'string' ? { nodeCode } : {}) };
+  }
   return { name: 'Error', message: String(e) };
 }
 
-function revive(d: { name: string; message: string; code?: string; detail?: string; location?: string }, jobs: number): Error {
+/** An error as plain data: an OrthodromeError's code, detail and location, or a runtime error's name, message and Node code. */
+export interface ErrorData { name: string; message: string; code?: string; detail?: string; location?: string; nodeCode?: string }
+
+function revive(d: ErrorData, jobs: number): Error {
   if (d.code) {
     const detail = d.code === 'LIMIT' ? `${d.detail}; with --jobs ${jobs} each of the ${jobs} solves at once gets 1/${jobs} of the memory budget` : d.detail!;
     return new OrthodromeError(d.code as OrthodromeError['code'], detail, d.location);
   }
   const E = d.name === 'RangeError' ? RangeError : Error;
-  return new E(d.message);
+  const e = new E(d.message);
+  if (d.nodeCode) Object.assign(e, { code: d.nodeCode }); // run.ts maps Node's size errors by code
+  return e;
 }
 
 /** The outcome of {@link solveSets}. */
@@ -193,7 +201,10 @@ export async function solveSets(
       };
       const fail = (e: Error): void => { if (!failed) { failed = true; reject(e); } };
       for (const w of workers) {
-        w.on('error', (e) => fail(e instanceof Error ? e : new Error(String(e))));
+        w.on('error', (e) => {
+          const oom = (e as { code?: unknown }).code === 'ERR_WORKER_OUT_OF_MEMORY';
+          fail(oom ? limitError(`a worker thread ran out of memory (${n} at once); use fewer --jobs or --method heat`) : e instanceof Error ? e : new Error(String(e)));
+        });
         w.on('exit', (code) => { if (code !== 0 && done < sets.length) fail(new Error(`a worker thread stopped with code ${code}`)); });
         w.on('message', (m: WorkerReply) => {
           if (m.kind === 'error') return fail(revive(m.error, n));

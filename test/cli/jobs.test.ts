@@ -98,6 +98,14 @@ describe('distance --each --jobs', () => {
     for (const s of j.sets) expect(s.field.unreachableVertices).toBe(0); // the pinch joins the triangle to the strip
   });
 
+  it('a worker that hits the memory budget: exit 3, one line naming the budget and how --jobs shares it', () => {
+    const r = runCli(['distance', join(dir, 'square.obj'), '--from', 'v:0', '--from', 'v:5', '--each', '--jobs', '2', '--memory-budget', '16K']);
+    expect(r.code).toBe(3);
+    expect(r.stderr.trim().split('\n')).toHaveLength(1);
+    expect(r.stderr).toMatch(/memory budget/);
+    expect(r.stderr).toMatch(/--jobs 2/);
+  });
+
   it('refuses --jobs 0, a fraction, and --jobs without --each (exit 2, one line)', () => {
     for (const args of [['--each', '--jobs', '0'], ['--each', '--jobs', '1.5'], ['--jobs', '2']]) {
       const r = runCli(['distance', join(dir, 'square.obj'), '--from', 'v:0', '--from', 'v:5', ...args]);
