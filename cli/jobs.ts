@@ -133,6 +133,21 @@ function revive(d: ErrorData, jobs: number): Error {
   return e;
 }
 
+/** A result that holds only its field and its values at `points` (`at` answers only those). */
+function light(field: DistanceResult['field'], points: SurfacePoint[], values: number[], r: Pick<DistanceResult, 'solveMs' | 'complete' | 'stoppedBy' | 'details'>): DistanceResult {
+  const key = (p: SurfacePoint): string => JSON.stringify(p);
+  const byKey = new Map(points.map((p, i) => [key(p), values[i]!]));
+  return {
+    field,
+    at: (p) => {
+      const v = byKey.get(key(p));
+      if (v === undefined) throw new Error('internal: a point whose value was not kept');
+      return v;
+    },
+    solveMs: r.solveMs, complete: r.complete, stoppedBy: r.stoppedBy ?? null, details: r.details,
+  };
+}
+
 /** The outcome of {@link solveSets}. */
 export interface SolvedSets {
   prepareMs: number;
@@ -143,7 +158,8 @@ export interface SolvedSets {
 /**
  * Solves every source set, in `jobs` worker threads when jobs > 1 and there
  * is more than one set (else here, one after another). `atPoints` are the
- * points whose values `at` must give (a worker's result answers only those).
+ * points whose values `at` must give: every result answers only those, and
+ * keeps nothing else of its solve.
  */
 export async function solveSets(
   spec: SolverSpec, sets: SourceSet[], so: SolveOptions, atPoints: SurfacePoint[], jobs: number, line?: ProgressLine,
@@ -153,9 +169,12 @@ export async function solveSets(
   if (jobs <= 1 || sets.length <= 1) {
     const solver = prepareSolver(spec);
     const prepareMs = performance.now() - t0;
+    // keep only the field and the values at `atPoints` of each solve: a result's `at` holds the whole solver
+    // state (an exact run's windows), and keeping every set's would add a run's memory per set
     const results = sets.map((s, i) => {
       line?.update({ label, set: [i + 1, sets.length], share: undefined });
-      return solver.solve(s, so);
+      const r = solver.solve(s, so);
+      return light(r.field, atPoints, atPoints.map((p) => r.at(p)), r);
     });
     return { prepareMs, prepareDetails: solver.prepareDetails, results };
   }
@@ -185,7 +204,6 @@ export async function solveSets(
   const workers = Array.from({ length: n }, () => (boot ? new Worker(boot, { eval: true, workerData: init }) : new Worker(url, { workerData: init })));
   const results: DistanceResult[] = new Array(sets.length);
   let prepareMs = 0, prepareDetails: SolvedSets['prepareDetails'] = {};
-  const key = (p: SurfacePoint): string => JSON.stringify(p);
   let done = 0;
   const tick = (): void => line?.update({ label: `${label}, ${done} of ${sets.length} sets done`, share: done / sets.length });
   const timer = line?.enabled ? setInterval(tick, 200) : undefined;
@@ -213,16 +231,8 @@ export async function solveSets(
             prepareDetails = m.prepareDetails;
             return give(w);
           }
-          const values = new Map(atPoints.map((p, i) => [key(p), m.at[i]!]));
-          results[m.id] = {
-            field: { method: spec.method, distance: m.distance, sources: [...sets[m.id]!.points, ...sets[m.id]!.curves.flat()] },
-            at: (p) => {
-              const v = values.get(key(p));
-              if (v === undefined) throw new Error('internal: a point not sent to the worker');
-              return v;
-            },
-            solveMs: m.solveMs, complete: m.complete, stoppedBy: m.stoppedBy, details: m.details,
-          };
+          const field = { method: spec.method, distance: m.distance, sources: [...sets[m.id]!.points, ...sets[m.id]!.curves.flat()] };
+          results[m.id] = light(field, atPoints, m.at, m);
           done++;
           tick();
           if (done === sets.length) resolve();
