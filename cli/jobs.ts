@@ -223,7 +223,7 @@ export async function solveSets(
           const oom = (e as { code?: unknown }).code === 'ERR_WORKER_OUT_OF_MEMORY';
           fail(oom ? limitError(`a worker thread ran out of memory (${n} at once); use fewer --jobs or --method heat`) : e instanceof Error ? e : new Error(String(e)));
         });
-        w.on('exit', (code) => { if (code !== 0 && done < sets.length) fail(new Error(`a worker thread stopped with code ${code}`)); });
+        w.on('exit', (code) => { if (done < sets.length) fail(new Error(`a worker thread stopped early (exit code ${code})`)); });
         w.on('message', (m: WorkerReply) => {
           if (m.kind === 'error') return fail(revive(m.error, n));
           if (m.kind === 'ready') {
