@@ -11,45 +11,12 @@ import { pointSources } from '../../src/geodesic/sources.js';
 import { surfacePointPosition } from '../../src/query/surface-point.js';
 import type { SurfacePoint } from '../../src/query/surface-point.js';
 import { flatGrid, cylinder, rng } from '../fixtures/shapes.js';
+import { subdivide, type V3 } from '../fixtures/subdivide.js';
 
 const TOL = 1e-9;
 
 function meshOf(positions: Float64Array, triangles: Uint32Array): IntrinsicMesh {
   return intrinsicFromPositions(buildTopology(triangles, positions.length / 3).topology, positions);
-}
-
-type V3 = [number, number, number];
-/**
- * Splits each given flat triangle into m² triangles on a barycentric grid,
- * sharing vertices between triangles by position. `extra` carries a
- * per-corner payload (e.g. unrolled 2D coordinates) interpolated the same way.
- */
-function subdivide(tris: V3[][], m: number, extra?: number[][][]): { positions: Float64Array; triangles: Uint32Array; payload: number[][] } {
-  const pos: number[] = [], payload: number[][] = [], out: number[] = [];
-  const ids = new Map<string, number>();
-  tris.forEach(([a, b, c], ti) => {
-    const id = (i: number, j: number) => {
-      const w0 = (m - i - j) / m, w1 = i / m, w2 = j / m;
-      const p = [0, 1, 2].map((k) => w0 * a![k]! + w1 * b![k]! + w2 * c![k]!);
-      const key = p.map((x) => x.toFixed(9)).join(',');
-      let v = ids.get(key);
-      if (v === undefined) {
-        v = pos.length / 3;
-        ids.set(key, v);
-        pos.push(...p);
-        const e = extra?.[ti];
-        payload.push(e ? e[0]!.map((_, k) => w0 * e[0]![k]! + w1 * e[1]![k]! + w2 * e[2]![k]!) : []);
-      }
-      return v;
-    };
-    for (let i = 0; i < m; i++) {
-      for (let j = 0; i + j < m; j++) {
-        out.push(id(i, j), id(i + 1, j), id(i, j + 1));
-        if (i + j + 1 < m) out.push(id(i + 1, j), id(i + 1, j + 1), id(i, j + 1));
-      }
-    }
-  });
-  return { positions: Float64Array.from(pos), triangles: Uint32Array.from(out), payload };
 }
 
 function expectRel(actual: number, expected: number, scale: number): void {

@@ -21,6 +21,7 @@ import { shortestPathThrough } from '../../src/geodesic/waypoints.js';
 import { flatGrid, cylinder, rng } from '../fixtures/shapes.js';
 import { delaunay } from '../fixtures/holed-plates.js';
 import { canonicalSurfacePoint, surfacePointPosition, type SurfacePoint } from '../../src/query/surface-point.js';
+import { subdivide, type V3 } from '../fixtures/subdivide.js';
 
 const TOL = 1e-9;
 
@@ -63,35 +64,6 @@ function flipChecked(m: IntrinsicMesh, P: Float64Array, a0: number | SurfacePoin
   return v.length;
 }
 
-type V3 = [number, number, number];
-/** Splits flat triangles into m² on a barycentric grid, sharing vertices by position; `extra` is interpolated alike. */
-function subdivide(tris: V3[][], m: number, extra?: number[][][]): { positions: Float64Array; triangles: Uint32Array; payload: number[][] } {
-  const pos: number[] = [], payload: number[][] = [], out: number[] = [];
-  const ids = new Map<string, number>();
-  tris.forEach(([a, b, c], ti) => {
-    const id = (i: number, j: number) => {
-      const w0 = (m - i - j) / m, w1 = i / m, w2 = j / m;
-      const p = [0, 1, 2].map((k) => w0 * a![k]! + w1 * b![k]! + w2 * c![k]!);
-      const key = p.map((x) => x.toFixed(9)).join(',');
-      let v = ids.get(key);
-      if (v === undefined) {
-        v = pos.length / 3;
-        ids.set(key, v);
-        pos.push(...p);
-        const e = extra?.[ti];
-        payload.push(e ? e[0]!.map((_, k) => w0 * e[0]![k]! + w1 * e[1]![k]! + w2 * e[2]![k]!) : []);
-      }
-      return v;
-    };
-    for (let i = 0; i < m; i++) {
-      for (let j = 0; i + j < m; j++) {
-        out.push(id(i, j), id(i + 1, j), id(i, j + 1));
-        if (i + j + 1 < m) out.push(id(i + 1, j), id(i + 1, j + 1), id(i, j + 1));
-      }
-    }
-  });
-  return { positions: Float64Array.from(pos), triangles: Uint32Array.from(out), payload };
-}
 
 const quad = (p: V3, q: V3, r: V3, s: V3): V3[][] => [[p, q, r], [p, r, s]];
 /** The six faces of the box [0,a]×[0,b]×[0,c], outward normals. */
