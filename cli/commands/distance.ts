@@ -203,7 +203,7 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
     process.stdout.write(toJson({ ...body, timings, prepare: solver.prepareDetails }) + '\n');
   } else {
     const L: string[] = [`${mesh}: ${o.method} distances (mesh units), ${t.nv} vertices`];
-    for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map((x) => fmt(x, 9)).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
+    for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map((x) => fmt(x, 12)).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
     for (const r of results) {
       L.push(`  from ${r.sources.join(' ')}: ${describeField(r.summary, maxDistance)}`);
       for (const tg of r.targets) L.push(`    to ${tg.point}: ${Number.isFinite(tg.distance) ? fmt(tg.distance, 9) : 'unreachable'}`);
