@@ -21,7 +21,7 @@ import { createState } from '../../src/geodesic/exact/state.js';
 import { markPseudoSources } from '../../src/geodesic/exact/pseudo-sources.js';
 import { seedSources } from '../../src/geodesic/exact/seed.js';
 import { runEvents } from '../../src/geodesic/exact/propagate.js';
-import { RunBudget, BLOCK, WINDOW_BYTES } from '../../src/geodesic/exact/budget.js';
+import { RunBudget, BLOCK, SAMPLE, WINDOW_BYTES } from '../../src/geodesic/exact/budget.js';
 import { pointSources } from '../../src/geodesic/sources.js';
 import { isOrthodromeError, type OrthodromeError } from '../../src/errors.js';
 import { flatGrid, terrain } from '../fixtures/shapes.js';
@@ -137,6 +137,27 @@ describe('early refusal: projection of the run from its first part', () => {
     // projected 5% over: within the 10% margin, so the run goes on and stops at the budget itself
     const near = feed((total * WINDOW_BYTES) / 1.05, a, 0);
     expect(near.budget.tripped).toBe('budget');
+  });
+
+  it('early projections (before 4 blocks, sampled every SAMPLE windows) refuse only a run projected over twice the budget', () => {
+    // constant rate a per face: the projection is the closed form reach·a at every sample
+    const a = 60, total = reach * a;
+    const fine = (limit: number) => {
+      const budget = new RunBudget(limit, Infinity, true);
+      for (let count = 0; count < total; count += SAMPLE) {
+        if (budget.nextRoom(t, count, Math.round(count / a), seen) <= count) return { budget, count };
+      }
+      return { budget, count: total };
+    };
+    // the store asks every SAMPLE windows while projecting (not every BLOCK)
+    expect(new RunBudget(2 ** 40, Infinity, true).nextRoom(t, 0, 0, seen)).toBe(SAMPLE);
+    const far = fine((total * WINDOW_BYTES) / 2.5);
+    expect(far.budget.tripped).toBe('estimate');
+    expect(far.count).toBe(BLOCK); // the first projection (BLOCK windows, 5.5% of the faces)
+    expect(Math.abs(far.budget.projectedWindows - total) / total).toBeLessThan(0.01);
+    const over = fine((total * WINDOW_BYTES) / 1.5); // 1.5× over: not before 4 blocks, then with the 10% margin
+    expect(over.budget.tripped).toBe('estimate');
+    expect(over.count).toBe(4 * BLOCK);
   });
 
   it('rate growing linearly with the touched share: half the fitted trend, integrated in closed form', () => {

@@ -23,6 +23,18 @@
  * budget after most of the work; a run projected just above the budget goes
  * on and stops at the budget if it really gets there. The message says the
  * figure is an estimate.
+ *
+ * When. A projecting run samples its history every {@link SAMPLE} windows
+ * and projects from {@link FIRST} windows on, once 2% of the reachable faces
+ * are touched and each quarter of the history added faces. Before
+ * {@link SETTLED} windows the projection must exceed the budget twice over:
+ * measured from a centre vertex at 200k faces (test/bench/meshes.ts), the
+ * projections made before it were at most 1.26–1.29 of the final count on
+ * the smooth, fractal and scan generators (which finish: 21M, 4.1M and 17.7M
+ * windows), and 400–560 times the 1.2M windows seen on the CAD part (whose
+ * run needs about 100M). Windows there cost 3–4 µs each (trimming against
+ * long lists on the long wall edges), so the first sample at 1M windows came
+ * 3.5 s into the run; now the refusal comes at about 400k windows.
  */
 import type { Topology } from '../../mesh/topology.js';
 import { components } from '../../mesh/components.js';
@@ -31,6 +43,15 @@ import { components } from '../../mesh/components.js';
 export const WINDOW_BYTES = 54;
 /** The store asks the budget again after this many windows. */
 export const BLOCK = 1 << 18;
+/** A run that projects its size asks (and samples its history) every this many windows. */
+export const SAMPLE = BLOCK >> 3;
+/** Windows stored before the first projection. */
+const FIRST = BLOCK;
+/** Windows from which the projection is trusted with {@link MARGIN}; before, it must exceed the budget by {@link EARLY_MARGIN}. */
+const SETTLED = 4 * BLOCK;
+/** Faces each quarter of the history must add for a rate to be read: this share of the reachable faces, at least {@link MIN_SPREAD}. */
+const SPREAD = 0.002;
+const MIN_SPREAD = 256;
 /**
  * Share of the measured trend in the rate that the projection extrapolates. Measured on five runs
  * (terrains with 5 cm and 50 cm noise, centre and corner sources, a jittered terrain, a bumpy
@@ -41,6 +62,8 @@ export const BLOCK = 1 << 18;
 const TREND = 0.5;
 /** A projection refuses the run only when it exceeds the budget by this factor (the early projections overshot by up to 8%). */
 const MARGIN = 1.1;
+/** The factor before {@link SETTLED} windows (see the module comment). */
+const EARLY_MARGIN = 2;
 /** Default budget of the library, bytes (2 GiB); the CLI picks its own default from the machine. */
 export const DEFAULT_MEMORY_BUDGET = 2 ** 31;
 
@@ -98,7 +121,7 @@ export class RunBudget {
     const now = this.total(count);
     if (now > this.peakBytes) this.peakBytes = now;
     if (this.estimate && this.projectionTrips(t, count, faces, faceSeen)) return 0;
-    const want = Math.min(count + BLOCK, this.maxWindows);
+    const want = Math.min(count + (this.estimate ? SAMPLE : BLOCK), this.maxWindows);
     if (this.total(want) <= this.limit) return want;
     const fit = Math.floor((this.limit - this.total(0)) / WINDOW_BYTES);
     return fit > count ? fit : this.trip('budget', this.total(count + 1));
@@ -126,35 +149,46 @@ export class RunBudget {
   /** Projects the windows of the whole run from its second half so far (see the module comment). */
   private projectionTrips(t: Topology, count: number, faces: number, faceSeen: Uint8Array): boolean {
     const hc = this.histCount, hf = this.histFaces;
-    // samples about a block apart (the store also asks when it fills its reservation)
-    if (hc.length && count - hc[hc.length - 1]! < BLOCK / 2) return false;
+    // samples about SAMPLE windows apart (the store also asks when it fills its reservation)
+    if (hc.length && count - hc[hc.length - 1]! < SAMPLE / 2) return false;
     hc.push(count);
     hf.push(faces);
-    if (count < 4 * BLOCK) return false;
+    if (count < FIRST) return false;
     if (this.reach < 0) this.reach = reachableFaces(t, faceSeen);
-    const reach = this.reach;
-    if (faces < 0.02 * reach) return false;
-    const k = hc.length - 1, j = k >> 1, m = (j + k) >> 1;
-    if (hf[m]! - hf[j]! < 0.005 * reach || faces - hf[m]! < 0.005 * reach) return false; // not spreading: no rate to extrapolate
-    // windows per newly touched face over [j, m] and [m, k], at the mean touched shares of each
-    const r1 = (hc[m]! - hc[j]!) / (hf[m]! - hf[j]!), r2 = (count - hc[m]!) / (faces - hf[m]!);
-    const p1 = (hf[j]! + hf[m]!) / (2 * reach), p2 = (hf[m]! + faces) / (2 * reach);
-    const slope = TREND * ((r2 - r1) / (p2 - p1));
-    // remaining windows: reach · ∫ max(0, r2 + slope·(φ − p2)) dφ over the untouched share (midpoint rule)
-    const a = Math.min(1, faces / reach), steps = 16;
-    let rest = 0;
-    for (let i = 0; i < steps; i++) {
-      const phi = a + ((1 - a) * (i + 0.5)) / steps;
-      rest += Math.max(0, r2 + slope * (phi - p2));
-    }
-    const projected = count + (rest * (1 - a) * reach) / steps;
-    const bytes = this.total(projected);
-    if (!(bytes > MARGIN * this.limit)) return false;
+    const projected = projectWindows(hc, hf, this.reach);
+    if (!(this.total(projected) > (count < SETTLED ? EARLY_MARGIN : MARGIN) * this.limit)) return false;
     this.projectedWindows = Math.round(projected);
-    this.touchedShare = faces / reach;
-    this.trip('estimate', bytes);
+    this.touchedShare = faces / this.reach;
+    this.trip('estimate', this.total(projected));
     return true;
   }
+}
+
+/**
+ * The projected windows of a whole run from its history: `hc[i]` windows stored when `hf[i]`
+ * faces were touched (samples in order, the last one now), `reach` the faces the run can reach
+ * (see the module comment); NaN while no rate can be read yet (too few faces touched, or the
+ * front not spreading).
+ */
+export function projectWindows(hc: ArrayLike<number>, hf: ArrayLike<number>, reach: number): number {
+  const k = hc.length - 1, j = k >> 1, m = (j + k) >> 1;
+  if (k < 2) return NaN;
+  const count = hc[k]!, faces = hf[k]!;
+  if (faces < 0.02 * reach) return NaN;
+  const spread = Math.max(SPREAD * reach, MIN_SPREAD);
+  if (hf[m]! - hf[j]! < spread || faces - hf[m]! < spread) return NaN; // not spreading: no rate to extrapolate
+  // windows per newly touched face over [j, m] and [m, k], at the mean touched shares of each
+  const r1 = (hc[m]! - hc[j]!) / (hf[m]! - hf[j]!), r2 = (count - hc[m]!) / (faces - hf[m]!);
+  const p1 = (hf[j]! + hf[m]!) / (2 * reach), p2 = (hf[m]! + faces) / (2 * reach);
+  const slope = TREND * ((r2 - r1) / (p2 - p1));
+  // remaining windows: reach · ∫ max(0, r2 + slope·(φ − p2)) dφ over the untouched share (midpoint rule)
+  const a = Math.min(1, faces / reach), steps = 16;
+  let rest = 0;
+  for (let i = 0; i < steps; i++) {
+    const phi = a + ((1 - a) * (i + 0.5)) / steps;
+    rest += Math.max(0, r2 + slope * (phi - p2));
+  }
+  return count + (rest * (1 - a) * reach) / steps;
 }
 
 /** Faces of the components that hold a touched face (where the run can still go). */
