@@ -84,13 +84,20 @@ export function assembleDivergence(
   const { t, comp, wildcard, stage, compTau: tau, compHot: hot } = w;
   const nv = t.nv;
   hot.fill(0);
-  for (let v = 0; v < nv; v++) if (rhs[v]! > 0 && comp[v]! >= 0) hot[comp[v]!] = 1;
   stage.fill(-1);
   b.fill(0);
+  let sum = 0;
+  for (let v = 0; v < nv; v++) {
+    const r = rhs[v]!;
+    sum += r;
+    if (r > 0 && comp[v]! >= 0) hot[comp[v]!] = 1;
+  }
   let flat = 0, k = 0, unsettled = 0;
   for (;; k++) {
-    let sum = 0;
-    for (let v = 0; v < nv; v++) sum += rhs[v]!;
+    if (k > 0) {
+      sum = 0;
+      for (let v = 0; v < nv; v++) sum += rhs[v]!;
+    }
     if (sum > 0 && w.minMass > 0) {
       const scale = (w.heatCeiling * w.minMass) / sum;
       if (scale < Infinity) for (let v = 0; v < nv; v++) rhs[v]! *= scale;
@@ -144,11 +151,20 @@ function scatterStage(w: RelayWork, k: number, u: Float64Array, b: Float64Array,
     const o = 6 * f, u0 = u[i0]!, u1 = u[i1]!, u2 = u[i2]!;
     const gx = u0 * G[o]! + u1 * G[o + 2]! + u2 * G[o + 4]!;
     const gy = u0 * G[o + 1]! + u1 * G[o + 3]! + u2 * G[o + 5]!;
-    // normalise via the larger component: −A/|∇u| would overflow for subnormal gradients
-    const big = Math.max(Math.abs(gx), Math.abs(gy));
-    if (!(big > 0 && big < Infinity)) { flat++; continue; }
-    const sx = gx / big, sy = gy / big;
-    const s = -area[f]! / Math.sqrt(sx * sx + sy * sy), ax = s * sx, ay = s * sy;
+    // −A/|∇u| directly while |∇u|² is a normal number; else normalise via the larger
+    // component first (|∇u|² would underflow for subnormal gradients, overflow near the ceiling)
+    const n2 = gx * gx + gy * gy;
+    let ax: number, ay: number;
+    if (n2 > 1e-280 && n2 < 1e280) {
+      const s = -area[f]! / Math.sqrt(n2);
+      ax = s * gx; ay = s * gy;
+    } else {
+      const big = Math.max(Math.abs(gx), Math.abs(gy));
+      if (!(big > 0 && big < Infinity)) { flat++; continue; }
+      const sx = gx / big, sy = gy / big;
+      const s = -area[f]! / Math.sqrt(sx * sx + sy * sy);
+      ax = s * sx; ay = s * sy;
+    }
     b[i0]! += ax * G[o]! + ay * G[o + 1]!;
     b[i1]! += ax * G[o + 2]! + ay * G[o + 3]!;
     b[i2]! += ax * G[o + 4]! + ay * G[o + 5]!;

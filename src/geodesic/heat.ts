@@ -248,7 +248,9 @@ export class HeatSolver {
       for (const c of sources.curves) parts.push({ points: [], curves: [c] });
     }
     const stats: HeatSolveStats = { solveMs: 0, flatFaces: 0, relayStages: 0, sourceFactorMs: 0 };
-    const phi = new Float64Array(nv).fill(Infinity);
+    // one part writes every entry of phi (solvePart); several are combined by their minimum
+    const phi = new Float64Array(nv);
+    if (parts.length > 1) phi.fill(Infinity);
     const part = parts.length > 1 ? new Float64Array(nv) : phi;
     for (const src of parts) {
       this.solvePart(src, part, stats);

@@ -224,6 +224,15 @@ export function constrainRows(p: EdgePattern, values: Float64Array, fixed: Uint8
 export function liftDirichlet(
   p: EdgePattern, values: Float64Array, scale: number, fixed: Uint8Array, g: Float64Array, rhs: Float64Array,
 ): void {
+  // all-zero data move nothing (the common case of a heat step without a boundary source): skip the O(nnz) pass
+  let any = false;
+  for (let v = 0; v < p.n && !any; v++) any = fixed[v] !== 0 && g[v] !== 0;
+  if (any) liftPairs(p, values, scale, fixed, g, rhs);
+  for (let v = 0; v < p.n; v++) if (fixed[v]) rhs[v] = g[v]!;
+}
+
+/** The pass over stored pairs of {@link liftDirichlet}. */
+function liftPairs(p: EdgePattern, values: Float64Array, scale: number, fixed: Uint8Array, g: Float64Array, rhs: Float64Array): void {
   for (let j = 0; j < p.n; j++) {
     const fj = fixed[j]!;
     for (let s = p.colPtr[j]! + 1; s < p.colPtr[j + 1]!; s++) {
@@ -232,7 +241,6 @@ export function liftDirichlet(
       else if (fi && !fj) rhs[j]! -= scale * values[s]! * g[i]!;
     }
   }
-  for (let v = 0; v < p.n; v++) if (fixed[v]) rhs[v] = g[v]!;
 }
 
 /** Per-face gradient of a per-vertex function: out[2f], out[2f+1] in face f's frame. */
