@@ -29,12 +29,18 @@
  * are touched and each quarter of the history added faces. Before
  * {@link SETTLED} windows the projection must exceed the budget twice over:
  * measured from a centre vertex at 200k faces (test/bench/meshes.ts), the
- * projections made before it were at most 1.26–1.29 of the final count on
+ * projections made before it were at most 1.06–1.29 of the final count on
  * the smooth, fractal and scan generators (which finish: 21M, 4.1M and 17.7M
- * windows), and 400–560 times the 1.2M windows seen on the CAD part (whose
- * run needs about 100M). Windows there cost 3–4 µs each (trimming against
- * long lists on the long wall edges), so the first sample at 1M windows came
- * 3.5 s into the run; now the refusal comes at about 400k windows.
+ * windows; 1.22 on a jittered terrain and 1.24 on a bumpy sphere), and
+ * 480M–650M windows on the CAD part (whose run needs about 100M, see below).
+ * Windows there cost 3–4 µs each (each new window is trimmed against about 26
+ * overlapping ones on its edge, nearly all of them used in the final field),
+ * so the first sample at 1M windows came
+ * 3.5 s into the run; now the refusal comes at about 400k windows. The
+ * projection overshoots on that part, whose rate per new face climbs steeply
+ * at first: at 100k faces the run needs 27M windows (about 269 per face,
+ * 1.5 GB) but is projected at 107–147M and refused, at 1M windows as at
+ * 262k; at 200k it needs, extrapolated, about 100M, over the default budget.
  */
 import type { Topology } from '../../mesh/topology.js';
 import { components } from '../../mesh/components.js';
