@@ -32,8 +32,8 @@ import { next } from '../mesh/topology.js';
 export interface RelayWork {
   /** Working topology (the intrinsic triangulation). */
   readonly t: Topology;
-  /** Face areas and hat gradients of `t`. */
-  readonly geom: FaceGeometry;
+  /** Face areas and hat gradients of `t`, packed by {@link relayFaces}. */
+  readonly faces: Float64Array;
   /** Component of each vertex (-1 isolated). */
   readonly comp: Int32Array;
   /** Vertices that never block settling (Dirichlet-fixed boundary, inactive rows). */
@@ -56,6 +56,29 @@ export const MAX_RELAY_STAGES = 256;
 const RELATIVE_TAU = 1e-290;
 /** Lowest absolute settling threshold (keeps away from subnormal numbers). */
 const MIN_TAU = 1e-290;
+
+/** Doubles per face in {@link relayFaces}. */
+const FACE_STRIDE = 5;
+
+/**
+ * Packs what the sweep over faces reads, five doubles per face and one
+ * stream: in the face frame of laplacian.ts the hat gradients are
+ * ∇φ₀ = (−c, y₀), ∇φ₁ = (c, y₁), ∇φ₂ = (0, y₂) with c = 1/l₀, so face f
+ * stores [c, y₀, y₁, y₂, A_f] at 5f (7 doubles in two arrays before).
+ */
+export function relayFaces(geom: FaceGeometry): Float64Array {
+  const nf = geom.area.length, G = geom.grad;
+  const out = new Float64Array(FACE_STRIDE * nf);
+  for (let f = 0; f < nf; f++) {
+    const o = 6 * f, q = FACE_STRIDE * f;
+    out[q] = G[o + 2]!;
+    out[q + 1] = G[o + 1]!;
+    out[q + 2] = G[o + 3]!;
+    out[q + 3] = G[o + 5]!;
+    out[q + 4] = geom.area[f]!;
+  }
+  return out;
+}
 
 /**
  * The ceiling C of the module comment from the largest hat-gradient
@@ -137,8 +160,8 @@ export function assembleDivergence(
  * an unsettled corner in a hot component are counted as flat.
  */
 function scatterStage(w: RelayWork, k: number, u: Float64Array, b: Float64Array, last: boolean): number {
-  const { t, geom, comp, stage, compHot: hot } = w;
-  const G = geom.grad, area = geom.area, tri = t.tri;
+  const { t, faces: F, comp, stage, compHot: hot } = w;
+  const tri = t.tri;
   let flat = 0;
   for (let f = 0; f < t.nf; f++) {
     const i0 = tri[3 * f]!, i1 = tri[3 * f + 1]!, i2 = tri[3 * f + 2]!;
@@ -148,26 +171,27 @@ function scatterStage(w: RelayWork, k: number, u: Float64Array, b: Float64Array,
       continue;
     }
     if (Math.max(s0, s1, s2) !== k) continue;
-    const o = 6 * f, u0 = u[i0]!, u1 = u[i1]!, u2 = u[i2]!;
-    const gx = u0 * G[o]! + u1 * G[o + 2]! + u2 * G[o + 4]!;
-    const gy = u0 * G[o + 1]! + u1 * G[o + 3]! + u2 * G[o + 5]!;
+    const o = FACE_STRIDE * f, u0 = u[i0]!, u1 = u[i1]!, u2 = u[i2]!;
+    const c = F[o]!, y0 = F[o + 1]!, y1 = F[o + 2]!, y2 = F[o + 3]!, area = F[o + 4]!;
+    const gx = (u1 - u0) * c;
+    const gy = u0 * y0 + u1 * y1 + u2 * y2;
     // −A/|∇u| directly while |∇u|² is a normal number; else normalise via the larger
     // component first (|∇u|² would underflow for subnormal gradients, overflow near the ceiling)
     const n2 = gx * gx + gy * gy;
     let ax: number, ay: number;
     if (n2 > 1e-280 && n2 < 1e280) {
-      const s = -area[f]! / Math.sqrt(n2);
+      const s = -area / Math.sqrt(n2);
       ax = s * gx; ay = s * gy;
     } else {
       const big = Math.max(Math.abs(gx), Math.abs(gy));
       if (!(big > 0 && big < Infinity)) { flat++; continue; }
       const sx = gx / big, sy = gy / big;
-      const s = -area[f]! / Math.sqrt(sx * sx + sy * sy);
+      const s = -area / Math.sqrt(sx * sx + sy * sy);
       ax = s * sx; ay = s * sy;
     }
-    b[i0]! += ax * G[o]! + ay * G[o + 1]!;
-    b[i1]! += ax * G[o + 2]! + ay * G[o + 3]!;
-    b[i2]! += ax * G[o + 4]! + ay * G[o + 5]!;
+    b[i0]! += ay * y0 - ax * c;
+    b[i1]! += ax * c + ay * y1;
+    b[i2]! += ay * y2;
   }
   return flat;
 }

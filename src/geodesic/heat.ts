@@ -47,13 +47,12 @@ import { meanEdgeLength } from '../metric/intrinsic.js';
 import { heatTriangulation, MAX_SEPARATE_CURVES, type HeatOptions, type HeatStats, type HeatSolveStats } from './heat-setup.js';
 import {
   edgePattern, cotanLaplacian, lumpedMass, faceGeometry, combine, constrainRows, patternMatrix,
-  type FaceGeometry,
 } from '../metric/laplacian.js';
 import { components } from '../mesh/components.js';
 import { boundaryVertexMask } from '../mesh/boundary.js';
 import { addSourceHeat, sourceValue } from './heat-sources.js';
 import { factorPoisson } from './heat-poisson.js';
-import { assembleDivergence, heatCeiling, type RelayWork } from './heat-relay.js';
+import { assembleDivergence, heatCeiling, relayFaces, type RelayWork } from './heat-relay.js';
 import { usageError, numericError, isOrthodromeError } from '../errors.js';
 import { sourceDirichlet } from './heat-sources.js';
 import { SourcePoisson } from './heat-poisson.js';
@@ -66,7 +65,8 @@ export {
 /** Factors, geometry and masks a prepared solver keeps. */
 interface HeatParts {
   boundaryMode: 'average' | 'neumann' | 'dirichlet';
-  geom: FaceGeometry;
+  /** Face data of the relay sweep (heat-relay.ts, relayFaces). */
+  faces: Float64Array;
   /** Vertices without area (isolated, or only zero-area faces): identity rows. */
   inactive: Uint8Array;
   /** Smallest positive lumped mass. */
@@ -132,7 +132,7 @@ export class HeatSolver {
     const wildcard = parts.inactive.slice();
     if (parts.boundaryMode === 'dirichlet' && parts.heatD) for (let v = 0; v < nv; v++) wildcard[v]! |= parts.onBoundary[v]!;
     this.relay = {
-      t: triangulation.topology, geom: parts.geom, comp: parts.vertexComponent, wildcard, minMass: parts.minMass, heatCeiling: parts.heatCeiling,
+      t: triangulation.topology, faces: parts.faces, comp: parts.vertexComponent, wildcard, minMass: parts.minMass, heatCeiling: parts.heatCeiling,
       stage: new Int32Array(nv), compTau: new Float64Array(parts.componentCount), compHot: new Uint8Array(parts.componentCount),
     };
   }
@@ -214,7 +214,7 @@ export class HeatSolver {
       ordering: sym.ordering, meanEdgeLength: h, stepEdgeLength: hStep, timeStep: step, poissonShifted: shifted,
     };
     return new HeatSolver(mesh, work, stats, {
-      boundaryMode: boundary, geom, inactive, minMass, heatCeiling: heatCeiling(maxGrad, maxDiag), vertexComponent: comp.vertexComponent, componentCount: comp.count,
+      boundaryMode: boundary, faces: relayFaces(geom), inactive, minMass, heatCeiling: heatCeiling(maxGrad, maxDiag), vertexComponent: comp.vertexComponent, componentCount: comp.count,
       onBoundary, blocked, heatN, heatD, poisson, p, Lv, step, heatDiag, fixedD,
       sourcePoisson: new SourcePoisson(p, sym, Lv, inactive, comp.vertexComponent, comp.count),
     });
