@@ -88,6 +88,8 @@ interface HeatParts {
   heatDiag: Float64Array;
   /** Boundary rows of the Dirichlet heat step: boundary or inactive. */
   fixedD: Uint8Array;
+  /** The vertices of fixedD, ascending (the heat step touches only these rows). */
+  fixedList: Int32Array;
   sourcePoisson: SourcePoisson;
 }
 
@@ -146,9 +148,17 @@ export class HeatSolver {
     const { heatN, heatD, onBoundary, vertexComponent: comp, boundaryMode } = this.parts;
     heatN.solve(rhs, u);
     if (!heatD) return;
-    const nv = u.length, uD = this.uD, g = this.gD, { fixedD, heatDiag, p, Lv, step } = this.parts;
-    for (let v = 0; v < nv; v++) g[v] = onBoundary[v] && rhs[v]! > 0 && heatDiag[v]! > 0 ? rhs[v]! / heatDiag[v]! : 0;
-    liftDirichlet(p, Lv, step, fixedD, g, rhs);
+    const nv = u.length, uD = this.uD, g = this.gD, { fixedD, fixedList, heatDiag, p, Lv, step } = this.parts;
+    // data on the fixed rows only (liftDirichlet reads no other entry of g)
+    let heated = false;
+    for (let k = 0; k < fixedList.length; k++) {
+      const v = fixedList[k]!;
+      const gv = onBoundary[v] && rhs[v]! > 0 && heatDiag[v]! > 0 ? rhs[v]! / heatDiag[v]! : 0;
+      g[v] = gv;
+      if (gv !== 0) heated = true;
+    }
+    if (heated) liftDirichlet(p, Lv, step, fixedD, g, rhs);
+    else for (let k = 0; k < fixedList.length; k++) rhs[fixedList[k]!] = 0; // zero data move nothing
     heatD.solve(rhs, uD);
     const cmax = this.compMax.fill(0);
     for (let v = 0; v < nv; v++) if (comp[v]! >= 0 && uD[v]! > cmax[comp[v]!]!) cmax[comp[v]!] = uD[v]!;
@@ -215,7 +225,7 @@ export class HeatSolver {
     };
     return new HeatSolver(mesh, work, stats, {
       boundaryMode: boundary, faces: relayFaces(geom), inactive, minMass, heatCeiling: heatCeiling(maxGrad, maxDiag), vertexComponent: comp.vertexComponent, componentCount: comp.count,
-      onBoundary, blocked, heatN, heatD, poisson, p, Lv, step, heatDiag, fixedD,
+      onBoundary, blocked, heatN, heatD, poisson, p, Lv, step, heatDiag, fixedD, fixedList: maskIndices(fixedD),
       sourcePoisson: new SourcePoisson(p, sym, Lv, inactive, comp.vertexComponent, comp.count),
     });
   }
@@ -313,6 +323,15 @@ export class HeatSolver {
       phi[v] = d > 0 ? d : 0; // clamps tiny negatives
     }
   }
+}
+
+/** Indices where mask is set, ascending. */
+function maskIndices(mask: Uint8Array): Int32Array {
+  let n = 0;
+  for (let v = 0; v < mask.length; v++) if (mask[v]) n++;
+  const out = new Int32Array(n);
+  for (let v = 0, k = 0; v < mask.length; v++) if (mask[v]) out[k++] = v;
+  return out;
 }
 
 /** Tail vertex of edge e's stored half-edge. */
