@@ -36,7 +36,11 @@
  *
  * All matrices share one lower-triangle pattern and one symbolic analysis;
  * per-source work is two or three triangular solve pairs and two sweeps
- * over the faces, in preallocated buffers.
+ * over the faces, in preallocated buffers. The heat right-hand side of a
+ * point source has one nonzero per weighted vertex, so each heat step's
+ * forward pass reads only that vertex's path up the elimination tree
+ * (solve-supernodal.ts); only the backward passes and the Poisson pair read
+ * the whole factor.
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { DistanceField } from './field.js';
