@@ -10,15 +10,9 @@ import { mkdtempSync, writeFileSync, readFileSync, existsSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runCli } from './run-cli.js';
-import { flatGrid, cylinder } from '../fixtures/shapes.js';
+import { flatGrid, cylinder, objText } from '../fixtures/shapes.js';
 
 let dir = '';
-function objText(s: { positions: Float64Array; triangles: Uint32Array }, extra = ''): string {
-  const L: string[] = [];
-  for (let i = 0; i < s.positions.length; i += 3) L.push(`v ${s.positions[i]} ${s.positions[i + 1]} ${s.positions[i + 2]}`);
-  for (let f = 0; f < s.triangles.length; f += 3) L.push(`f ${s.triangles[f]! + 1} ${s.triangles[f + 1]! + 1} ${s.triangles[f + 2]! + 1}`);
-  return L.join('\n') + '\n' + extra;
-}
 
 beforeAll(() => {
   dir = mkdtempSync(join(tmpdir(), 'orthodrome-dist-'));

@@ -13,18 +13,11 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runCli } from './run-cli.js';
-import { flatGrid, icosphere, cylinder } from '../fixtures/shapes.js';
-import type { Shape } from '../fixtures/shapes.js';
+import { flatGrid, icosphere, cylinder, objText } from '../fixtures/shapes.js';
 import { parseRequirement, checkRequirements } from '../../src/report/require.js';
 import { isOrthodromeError } from '../../src/errors.js';
 
 let dir = '';
-function objText(s: Shape): string {
-  const L: string[] = [];
-  for (let i = 0; i < s.positions.length; i += 3) L.push(`v ${s.positions[i]} ${s.positions[i + 1]} ${s.positions[i + 2]}`);
-  for (let f = 0; f < s.triangles.length; f += 3) L.push(`f ${s.triangles[f]! + 1} ${s.triangles[f + 1]! + 1} ${s.triangles[f + 2]! + 1}`);
-  return L.join('\n') + '\n';
-}
 const codeOf = (fn: () => unknown): string | undefined => {
   try {
     fn();

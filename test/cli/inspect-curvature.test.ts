@@ -9,15 +9,9 @@ import { mkdtempSync, writeFileSync, readFileSync, readdirSync, existsSync } fro
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runCli, repoPath } from './run-cli.js';
-import { icosphere, cylinder } from '../fixtures/shapes.js';
+import { icosphere, cylinder, objText } from '../fixtures/shapes.js';
 
 let dir = '';
-function objText(s: { positions: Float64Array; triangles: Uint32Array }): string {
-  const L: string[] = [];
-  for (let i = 0; i < s.positions.length; i += 3) L.push(`v ${s.positions[i]} ${s.positions[i + 1]} ${s.positions[i + 2]}`);
-  for (let f = 0; f < s.triangles.length; f += 3) L.push(`f ${s.triangles[f]! + 1} ${s.triangles[f + 1]! + 1} ${s.triangles[f + 2]! + 1}`);
-  return L.join('\n') + '\n';
-}
 
 beforeAll(() => {
   dir = mkdtempSync(join(tmpdir(), 'orthodrome-cli-'));

@@ -18,16 +18,10 @@ import { mkdtempSync, writeFileSync, existsSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runCli, repoPath } from './run-cli.js';
-import { flatGrid, terrain, rng } from '../fixtures/shapes.js';
+import { flatGrid, terrain, rng, objText } from '../fixtures/shapes.js';
 import type { Shape } from '../fixtures/shapes.js';
 
 let dir = '';
-function objText(s: Shape): string {
-  const L: string[] = [];
-  for (let i = 0; i < s.positions.length; i += 3) L.push(`v ${s.positions[i]} ${s.positions[i + 1]} ${s.positions[i + 2]}`);
-  for (let f = 0; f < s.triangles.length; f += 3) L.push(`f ${s.triangles[f]! + 1} ${s.triangles[f + 1]! + 1} ${s.triangles[f + 2]! + 1}`);
-  return L.join('\n') + '\n';
-}
 /** Rolling terrain with 2 cm of height noise on 0.77 m cells: every vertex a saddle or a peak, many windows per face. */
 function roughTerrain(n: number): Shape {
   const s = terrain(n, n, 100, 100, (x, y) => 4 * Math.sin(x / 9) * Math.cos(y / 13));

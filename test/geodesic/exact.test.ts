@@ -19,24 +19,12 @@ import { isSurfacePath, pathLength, pathPolyline } from '../../src/geodesic/path
 import { surfacePointPosition } from '../../src/query/surface-point.js';
 import type { SurfacePoint } from '../../src/query/surface-point.js';
 import { isOrthodromeError } from '../../src/errors.js';
-import { flatGrid, icosphere, terrain, transform, rng } from '../fixtures/shapes.js';
+import { flatGrid, icosphere, terrain, transform, rng, randomFlat } from '../fixtures/shapes.js';
 import type { Shape } from '../fixtures/shapes.js';
 
 const meshOf = (s: Shape): IntrinsicMesh => intrinsicFromPositions(buildTopology(s.triangles, s.positions.length / 3).topology, s.positions);
 const V = (vertex: number): SurfacePoint => ({ kind: 'vertex', vertex });
 
-/** Jittered grid over [0,1]² with a random diagonal in each cell (jitter 0.2: no cell folds over). */
-function randomFlat(n: number, seed: number): Shape {
-  const r = rng(seed);
-  const s = flatGrid(n, n, 1, 1, 0.2, seed);
-  const tris: number[] = [];
-  for (let j = 0; j < n; j++) for (let i = 0; i < n; i++) {
-    const a = j * (n + 1) + i, b = a + 1, c = a + n + 1, d = c + 1;
-    if (r() < 0.5) tris.push(a, b, d, a, d, c);
-    else tris.push(a, b, c, b, d, c);
-  }
-  return { positions: s.positions, triangles: Uint32Array.from(tris) };
-}
 
 /** Icosphere with every vertex moved radially by up to ±amp. */
 function bumpySphere(level: number, amp: number, seed: number): Shape {
