@@ -195,40 +195,57 @@ export function graphValueAt(m: IntrinsicMesh, sources: SourceSet, dist: Float64
  */
 export function graphDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: GraphOptions = {}): DistanceField {
   const t = mesh.topology;
-  const L = mesh.edgeLength;
   const maxD = opts.maxDistance ?? Infinity;
   const dist = new Float64Array(t.nv).fill(Infinity);
   seedSourceDistances(mesh, sources, dist);
   const heap = new IndexedMinHeap(t.nv, dist);
   for (let v = 0; v < t.nv; v++) if (dist[v]! <= maxD) heap.push(v);
-  const done = new Uint8Array(t.nv);
-  const { twin, tri, vertexHalfedge, edgeOf } = t;
+  runEdgeDijkstra(mesh, dist, heap, new Uint8Array(t.nv), maxD);
+  for (let v = 0; v < t.nv; v++) if (dist[v]! > maxD) dist[v] = Infinity;
+  return { method: 'graph', distance: dist, sources: [...sources.points, ...sources.curves.flat()] };
+}
+
+/**
+ * Dijkstra's main loop over the edge graph (Dijkstra, Numer. Math. 1, 1959): pops vertices from
+ * `heap` (keyed by `dist`), marks them in `done` and relaxes every edge round each — the outgoing
+ * half-edges counter-clockwise and, at a boundary vertex, the last incoming boundary edge, so
+ * boundary fans are complete. Distances above `maxD` are not pushed. Stops when the heap is empty
+ * or when `stopAt` is popped (then final, not marked). When `via` is given, it receives the edge
+ * that last improved each vertex (the shortest-path tree). Allocates nothing.
+ */
+export function runEdgeDijkstra(
+  mesh: IntrinsicMesh,
+  dist: Float64Array,
+  heap: IndexedMinHeap,
+  done: Uint8Array,
+  maxD = Infinity,
+  stopAt = -1,
+  via?: Int32Array,
+): void {
+  const L = mesh.edgeLength;
+  const { twin, tri, vertexHalfedge, edgeOf } = mesh.topology;
   const maxSteps = tri.length;
   while (heap.size > 0) {
     const v = heap.pop();
+    if (v === stopAt) break;
     done[v] = 1;
     const dv = dist[v]!;
     const start = vertexHalfedge[v]!;
     if (start < 0) continue;
-    // rotate CCW over outgoing half-edges; also look at the last incoming
-    // boundary edge (prev of the final half-edge) so boundary fans are complete
     let h = start, steps = 0;
     for (;;) {
-      const w = tri[next(h)]!;
-      const nd = dv + L[edgeOf[h]!]!;
-      if (!done[w] && nd < dist[w]! && nd <= maxD) { dist[w] = nd; heap.push(w); }
+      const w = tri[next(h)]!, e = edgeOf[h]!;
+      const nd = dv + L[e]!;
+      if (!done[w] && nd < dist[w]! && nd <= maxD) { dist[w] = nd; if (via) via[w] = e; heap.push(w); }
       const hp = prev(h);
-      const o = twin[hp]!;
-      if (o < 0) {
-        const u = tri[hp]!;
-        const nu = dv + L[edgeOf[hp]!]!;
-        if (!done[u] && nu < dist[u]! && nu <= maxD) { dist[u] = nu; heap.push(u); }
+      if (twin[hp]! < 0) {
+        const u = tri[hp]!, eu = edgeOf[hp]!;
+        const nu = dv + L[eu]!;
+        if (!done[u] && nu < dist[u]! && nu <= maxD) { dist[u] = nu; if (via) via[u] = eu; heap.push(u); }
         break;
       }
-      h = o;
+      h = twin[hp]!;
       if (h === start || ++steps > maxSteps) break;
     }
   }
-  for (let v = 0; v < t.nv; v++) if (dist[v]! > maxD) dist[v] = Infinity;
-  return { method: 'graph', distance: dist, sources: [...sources.points, ...sources.curves.flat()] };
 }

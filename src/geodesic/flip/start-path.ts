@@ -9,8 +9,8 @@
  * ({@link IndexedMinHeap}); nothing is allocated per step.
  */
 import type { IntrinsicMesh } from '../../metric/intrinsic.js';
-import { next, prev } from '../../mesh/topology.js';
-import { IndexedMinHeap } from '../graph.js';
+import { next } from '../../mesh/topology.js';
+import { IndexedMinHeap, runEdgeDijkstra } from '../graph.js';
 
 /** An edge path: vertices in order and the edge id between each consecutive pair. */
 export interface EdgePath {
@@ -28,40 +28,14 @@ export interface EdgePath {
  */
 export function shortestEdgePath(mesh: IntrinsicMesh, from: number, to: number): EdgePath | null {
   const t = mesh.topology;
-  const L = mesh.edgeLength;
-  const { twin, tri, vertexHalfedge, edgeOf } = t;
+  const { tri } = t;
   const dist = new Float64Array(t.nv).fill(Infinity);
   const via = new Int32Array(t.nv).fill(-1); // edge id that settled each vertex
   const done = new Uint8Array(t.nv);
   const heap = new IndexedMinHeap(t.nv, dist);
   dist[from] = 0;
   heap.push(from);
-  const maxSteps = tri.length;
-  while (heap.size > 0) {
-    const v = heap.pop();
-    if (v === to) break;
-    done[v] = 1;
-    const dv = dist[v]!;
-    const start = vertexHalfedge[v]!;
-    if (start < 0) continue;
-    // rotate over the outgoing half-edges; on the boundary also the last incoming edge
-    let h = start, steps = 0;
-    for (;;) {
-      const w = tri[next(h)]!, e = edgeOf[h]!;
-      const nd = dv + L[e]!;
-      if (!done[w] && nd < dist[w]!) { dist[w] = nd; via[w] = e; heap.push(w); }
-      const hp = prev(h);
-      const o = twin[hp]!;
-      if (o < 0) {
-        const u = tri[hp]!, eu = edgeOf[hp]!;
-        const nu = dv + L[eu]!;
-        if (!done[u] && nu < dist[u]!) { dist[u] = nu; via[u] = eu; heap.push(u); }
-        break;
-      }
-      h = o;
-      if (h === start || ++steps > maxSteps) break;
-    }
-  }
+  runEdgeDijkstra(mesh, dist, heap, done, Infinity, to, via);
   if (!Number.isFinite(dist[to]!)) return null;
   const vertices = [to], edges: number[] = [];
   for (let v = to; v !== from;) {
