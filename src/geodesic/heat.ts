@@ -105,7 +105,10 @@ export class HeatSolver {
   readonly triangulation: IntrinsicMesh;
   /** Preparation figures. */
   readonly stats: HeatStats;
-  /** Figures of the last distance() call. */
+  /**
+   * Figures of the last distance() call.
+   * @deprecated Use {@link HeatSolver.solve}, which returns the figures of that very call.
+   */
   lastSolve: HeatSolveStats = { solveMs: 0, flatFaces: 0, relayStages: 0, sourceFactorMs: 0 };
 
   private readonly parts: HeatParts;
@@ -250,6 +253,11 @@ export class HeatSolver {
    * More curves are solved at once, all held at zero (one factorization).
    */
   distance(sources: SourceSet): DistanceField {
+    return this.solve(sources).field;
+  }
+
+  /** {@link HeatSolver.distance}, with the figures of this very call (`stats`). */
+  solve(sources: SourceSet): { field: DistanceField; stats: HeatSolveStats } {
     const t0 = performance.now();
     const nv = this.triangulation.topology.nv;
     this.rhs.fill(0);
@@ -273,7 +281,7 @@ export class HeatSolver {
     stats.solveMs = performance.now() - t0;
     this.lastSolve = stats;
     const nIn = this.mesh.topology.nv;
-    return { method: 'heat', distance: phi.length === nIn ? phi : phi.slice(0, nIn), sources: [...sources.points, ...sources.curves.flat()] };
+    return { field: { method: 'heat', distance: phi.length === nIn ? phi : phi.slice(0, nIn), sources: [...sources.points, ...sources.curves.flat()] }, stats };
   }
 
   /** One field: point sources shifted to zero, or curves held at zero. */

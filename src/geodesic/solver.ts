@@ -182,14 +182,14 @@ function prepareMethod(mesh: IntrinsicMesh, method: DistanceMethod, opts: Distan
       },
       solve(sources) {
         opts.progress?.({ stage: 'solve' });
-        const field = heat.distance(sources);
+        const { field, stats } = heat.solve(sources);
         const d = field.distance;
         return {
           field,
           at: (p) => valueAtPoint(t, p, d),
-          solveMs: heat.lastSolve.solveMs,
+          solveMs: stats.solveMs,
           complete: true,
-          details: { flatFaces: heat.lastSolve.flatFaces },
+          details: { flatFaces: stats.flatFaces },
         };
       },
     };
