@@ -19,6 +19,10 @@ export { writePly, type PlyMeshInput, type WritePlyOptions } from './io/write-pl
 export { writeObj, writeObjPolyline, type ObjMeshInput, type WriteObjOptions } from './io/write-obj.js';
 export { writeVertexCsv, toCsv, type CsvColumn, type CsvOptions } from './io/csv.js';
 export { colorize, rampColor, type ColorizeOptions } from './io/colormap.js';
+export {
+  writeCurves, curvesToObj, curvesToGeoJson, curvesToCsv, curvesToJson, curveFormatOf, curvePointCount, CURVE_FORMATS,
+  type Curve, type CurvePoints, type CurvePolygon, type CurveProperty, type CurveFormat, type CurveWriteOptions,
+} from './io/write-curves.js';
 
 // the half-edge mesh
 export type { Topology } from './mesh/topology.js';
