@@ -42,40 +42,114 @@ const GONE = 2;
 const DENSE = 3;
 
 /**
+ * The quotient graph and the bookkeeping of one elimination, shared by the
+ * phases below. Lists live in `pool`: a node's list is
+ * pool[begin .. begin + size); a variable's first nElems entries are elements.
+ */
+interface AmdState {
+  readonly n: number;
+  readonly state: Uint8Array;
+  /** Supervariable size; element: unused. */
+  readonly weight: Int32Array;
+  /** Variable: d̄; element: |L_e| (weighted). */
+  readonly degree: Int32Array;
+  readonly begin: Int32Array;
+  readonly size: Int32Array;
+  readonly nElems: Int32Array;
+  /** Degree buckets: doubly linked lists of variables by d̄. */
+  readonly bucket: Int32Array;
+  readonly after: Int32Array;
+  readonly before: Int32Array;
+  /** Members of a supervariable: a singly linked chain from its principal variable. */
+  readonly chainNext: Int32Array;
+  readonly chainLast: Int32Array;
+  /** Per element |L_e \ L_p|, valid when outsideStep[e] is the current step; a variable's slot holds its partial degree. */
+  readonly outside: Int32Array;
+  readonly outsideStep: Int32Array;
+  /** Membership stamps. */
+  readonly stamp: Int32Array;
+  stampNow: number;
+  /** hash · n + variable, sorted to group equal hashes. */
+  readonly keys: Float64Array;
+  pool: Int32Array;
+  top: number;
+  readonly order: Int32Array;
+  emitted: number;
+  /** Weighted count of variables not yet ordered (dense ones excluded). */
+  nLeft: number;
+  /** No degree bucket below this one is occupied. */
+  least: number;
+  // the current pivot step
+  /** Stamp of this step (marks L_p). */
+  sp: number;
+  /** L_p is pool[lpStart .. lpEnd). */
+  lpStart: number;
+  lpEnd: number;
+  /** |L_p|, weighted. */
+  lpWeight: number;
+  /** Variables of L_p left after pruning; their keys are keys[0 .. candidates). */
+  candidates: number;
+}
+
+/**
  * Returns perm with perm[k] = the vertex eliminated k-th. The graph must list
  * every edge in both directions, without self-loops or repeats (as
  * `adjacencyFromLower` builds it); a one-sided edge that breaks the
  * elimination is reported as a USAGE error.
  */
 export function approximateMinimumDegree(g: AdjacencyGraph): Int32Array {
+  const order = new Int32Array(g.n);
+  if (g.n === 0) return order;
+  const s = initialState(g, order);
+  while (s.nLeft > 0) {
+    const p = takePivot(s);
+    collectPivotList(s, p); // 1
+    externalDegrees(s); // 2
+    pruneLists(s, p); // 3
+    mergeIndistinguishable(s); // 4
+    finalDegrees(s, p); // 5
+  }
+  for (let v = 0; v < g.n; v++) if (s.state[v] === DENSE) order[s.emitted++] = v;
+  return order;
+}
+
+/** Sets dense rows aside, copies the other adjacency lists into the pool and fills the degree buckets. */
+function initialState(g: AdjacencyGraph, order: Int32Array): AmdState {
   const { n, xadj, adj } = g;
-  const order = new Int32Array(n);
-  if (n === 0) return order;
-  const state = new Uint8Array(n);
-  const weight = new Int32Array(n).fill(1); // supervariable size; element: unused
-  const degree = new Int32Array(n); // variable: d̄; element: |L_e| (weighted)
-  const begin = new Int32Array(n); // a node's list is pool[begin .. begin + size)
-  const size = new Int32Array(n);
-  const nElems = new Int32Array(n); // variable: the first nElems entries are elements
-  // degree buckets: doubly linked lists of variables
-  const bucket = new Int32Array(n).fill(-1);
-  const after = new Int32Array(n).fill(-1);
-  const before = new Int32Array(n).fill(-1);
-  // members of a supervariable: a singly linked chain from its principal variable
-  const chainNext = new Int32Array(n).fill(-1);
   const chainLast = new Int32Array(n);
   for (let v = 0; v < n; v++) chainLast[v] = v;
-  // scratch: per-element |L_e \ L_p| with the step that set it; membership stamps
-  const outside = new Int32Array(n);
-  const outsideStep = new Int32Array(n).fill(-1);
-  const stamp = new Int32Array(n).fill(-1);
-  let stampNow = 0;
-  const keys = new Float64Array(n); // hash · n + variable, sorted to group equal hashes
-
-  let pool: Int32Array = new Int32Array(Math.max(16, xadj[n]! + (xadj[n]! >> 2) + 2 * n));
-  let top = 0;
+  const s: AmdState = {
+    n,
+    state: new Uint8Array(n),
+    weight: new Int32Array(n).fill(1),
+    degree: new Int32Array(n),
+    begin: new Int32Array(n),
+    size: new Int32Array(n),
+    nElems: new Int32Array(n),
+    bucket: new Int32Array(n).fill(-1),
+    after: new Int32Array(n).fill(-1),
+    before: new Int32Array(n).fill(-1),
+    chainNext: new Int32Array(n).fill(-1),
+    chainLast,
+    outside: new Int32Array(n),
+    outsideStep: new Int32Array(n).fill(-1),
+    stamp: new Int32Array(n).fill(-1),
+    stampNow: 0,
+    keys: new Float64Array(n),
+    pool: new Int32Array(Math.max(16, xadj[n]! + (xadj[n]! >> 2) + 2 * n)),
+    top: 0,
+    order,
+    emitted: 0,
+    nLeft: 0,
+    least: 0,
+    sp: 0,
+    lpStart: 0,
+    lpEnd: 0,
+    lpWeight: 0,
+    candidates: 0,
+  };
+  const { state, pool, begin, size, degree } = s;
   const denseAbove = Math.max(64, Math.floor(8 * Math.sqrt(n)));
-  let emitted = 0;
   let denseCount = 0;
   for (let v = 0; v < n; v++) {
     const d = xadj[v + 1]! - xadj[v]!;
@@ -84,7 +158,8 @@ export function approximateMinimumDegree(g: AdjacencyGraph): Int32Array {
       denseCount++;
     }
   }
-  let nLeft = n - denseCount; // weighted count of variables not yet ordered (dense ones excluded)
+  s.nLeft = n - denseCount;
+  let top = 0;
   for (let v = 0; v < n; v++) {
     if (state[v] === DENSE) continue;
     begin[v] = top;
@@ -95,175 +170,216 @@ export function approximateMinimumDegree(g: AdjacencyGraph): Int32Array {
     size[v] = top - begin[v]!;
     degree[v] = size[v]!;
   }
+  s.top = top;
+  for (let v = 0; v < n; v++) if (state[v] === VARIABLE) link(s, v);
+  return s;
+}
 
-  const unlink = (v: number): void => {
-    const a = after[v]!, b = before[v]!;
-    if (b === -1) bucket[degree[v]!] = a;
-    else after[b] = a;
-    if (a !== -1) before[a] = b;
-  };
-  const link = (v: number): void => {
-    const d = degree[v]!;
-    const h = bucket[d]!;
-    after[v] = h;
-    before[v] = -1;
-    if (h !== -1) before[h] = v;
-    bucket[d] = v;
-  };
-  const emitChain = (v: number): void => {
-    for (let u = v; u !== -1; u = chainNext[u]!) order[emitted++] = u;
-  };
-  for (let v = 0; v < n; v++) if (state[v] === VARIABLE) link(v);
-  let least = 0;
+/** Takes variable v out of its degree bucket. */
+function unlink(s: AmdState, v: number): void {
+  const { after, before } = s;
+  const a = after[v]!, b = before[v]!;
+  if (b === -1) s.bucket[s.degree[v]!] = a;
+  else after[b] = a;
+  if (a !== -1) before[a] = b;
+}
 
-  while (nLeft > 0) {
-    while (least < n && bucket[least] === -1) least++;
-    if (least === n) throw new Error('approximateMinimumDegree: internal error, no variable left to eliminate');
-    const p = bucket[least]!;
-    unlink(p);
-    const pw = weight[p]!;
-    nLeft -= pw;
-    emitChain(p);
+/** Puts variable v at the head of the bucket of its degree. */
+function link(s: AmdState, v: number): void {
+  const { bucket, after, before } = s;
+  const d = s.degree[v]!;
+  const h = bucket[d]!;
+  after[v] = h;
+  before[v] = -1;
+  if (h !== -1) before[h] = v;
+  bucket[d] = v;
+}
 
-    // 1. build L_p at the end of the pool; its variables are stamped and taken out of the buckets
-    let need = size[p]! - nElems[p]!;
-    for (let q = begin[p]!; q < begin[p]! + nElems[p]!; q++) if (state[pool[q]!] === ELEMENT) need += size[pool[q]!]!;
-    if (top + need > pool.length) {
-      pool = compactPool(pool, begin, size, state, need);
-      top = 0;
-      for (let v = 0; v < n; v++) if (state[v] === VARIABLE || state[v] === ELEMENT) top += size[v]!;
+/** Appends supervariable v and the variables merged into it to the order. */
+function emitChain(s: AmdState, v: number): void {
+  const { order, chainNext } = s;
+  for (let u = v; u !== -1; u = chainNext[u]!) order[s.emitted++] = u;
+}
+
+/** The pivot: a variable of least d̄, taken out of its bucket and ordered. */
+function takePivot(s: AmdState): number {
+  const { bucket, n } = s;
+  let least = s.least;
+  while (least < n && bucket[least] === -1) least++;
+  s.least = least;
+  if (least === n) throw new Error('approximateMinimumDegree: internal error, no variable left to eliminate');
+  const p = bucket[least]!;
+  unlink(s, p);
+  s.nLeft -= s.weight[p]!;
+  emitChain(s, p);
+  return p;
+}
+
+/**
+ * Step 1: builds L_p at the end of the pool (compacting the pool first when
+ * it lacks room); its variables are stamped and taken out of the buckets, the
+ * elements of E_p are absorbed, and p becomes an element.
+ */
+function collectPivotList(s: AmdState, p: number): void {
+  const { state, size, nElems, begin, weight, stamp, n } = s;
+  let need = size[p]! - nElems[p]!;
+  for (let q = begin[p]!; q < begin[p]! + nElems[p]!; q++) if (state[s.pool[q]!] === ELEMENT) need += size[s.pool[q]!]!;
+  if (s.top + need > s.pool.length) {
+    s.pool = compactPool(s.pool, begin, size, state, need);
+    let top = 0;
+    for (let v = 0; v < n; v++) if (state[v] === VARIABLE || state[v] === ELEMENT) top += size[v]!;
+    s.top = top;
+  }
+  const pool = s.pool;
+  const sp = s.stampNow++; // stamp of this pivot step
+  s.sp = sp;
+  stamp[p] = sp; // keeps p out of L_p
+  let top = s.top;
+  const lpStart = top;
+  let lpWeight = 0;
+  // (a variable joins L_p once: live, not p, not yet stamped; it leaves its degree bucket)
+  for (let q = begin[p]!; q < begin[p]! + size[p]!; q++) {
+    const x = pool[q]!;
+    if (q < begin[p]! + nElems[p]!) {
+      if (state[x] !== ELEMENT) continue;
+      for (let r = begin[x]!; r < begin[x]! + size[x]!; r++) {
+        const u = pool[r]!;
+        if (state[u] !== VARIABLE || stamp[u] === sp) continue;
+        stamp[u] = sp;
+        pool[top++] = u;
+        lpWeight += weight[u]!;
+        unlink(s, u);
+      }
+      state[x] = GONE; // absorbed into p
+    } else if (state[x] === VARIABLE && stamp[x] !== sp) {
+      stamp[x] = sp;
+      pool[top++] = x;
+      lpWeight += weight[x]!;
+      unlink(s, x);
     }
-    const sp = stampNow++; // stamp of this pivot step
-    stamp[p] = sp; // keeps p out of L_p
-    const lpStart = top;
-    let lpWeight = 0; // |L_p|, weighted
-    // (a variable joins L_p once: live, not p, not yet stamped; it leaves its degree bucket)
-    for (let q = begin[p]!; q < begin[p]! + size[p]!; q++) {
-      const x = pool[q]!;
-      if (q < begin[p]! + nElems[p]!) {
-        if (state[x] !== ELEMENT) continue;
-        for (let r = begin[x]!; r < begin[x]! + size[x]!; r++) {
-          const u = pool[r]!;
-          if (state[u] !== VARIABLE || stamp[u] === sp) continue;
-          stamp[u] = sp;
-          pool[top++] = u;
-          lpWeight += weight[u]!;
-          unlink(u);
-        }
-        state[x] = GONE; // absorbed into p
-      } else if (state[x] === VARIABLE && stamp[x] !== sp) {
-        stamp[x] = sp;
-        pool[top++] = x;
-        lpWeight += weight[x]!;
-        unlink(x);
-      }
-    }
-    const lpEnd = top;
-    state[p] = ELEMENT;
-    begin[p] = lpStart;
-    nElems[p] = 0;
+  }
+  s.top = top;
+  s.lpStart = lpStart;
+  s.lpEnd = top;
+  s.lpWeight = lpWeight;
+  state[p] = ELEMENT;
+  begin[p] = lpStart;
+  nElems[p] = 0;
+}
 
-    // 2. |L_e \ L_p| for every other element e adjacent to a variable of L_p
-    for (let k = lpStart; k < lpEnd; k++) {
-      const v = pool[k]!;
-      for (let q = begin[v]!; q < begin[v]! + nElems[v]!; q++) {
-        const e = pool[q]!;
-        if (state[e] !== ELEMENT) continue;
-        if (outsideStep[e] !== sp) {
-          outsideStep[e] = sp;
-          outside[e] = degree[e]!;
-        }
-        outside[e] -= weight[v]!;
+/** Step 2: |L_e \ L_p| for every other element e adjacent to a variable of L_p. */
+function externalDegrees(s: AmdState): void {
+  const { pool, begin, nElems, state, outside, outsideStep, degree, weight, sp } = s;
+  for (let k = s.lpStart; k < s.lpEnd; k++) {
+    const v = pool[k]!;
+    for (let q = begin[v]!; q < begin[v]! + nElems[v]!; q++) {
+      const e = pool[q]!;
+      if (state[e] !== ELEMENT) continue;
+      if (outsideStep[e] !== sp) {
+        outsideStep[e] = sp;
+        outside[e] = degree[e]!;
       }
+      outside[e] -= weight[v]!;
     }
+  }
+}
 
-    // 3. prune each variable's lists, absorb covered elements, bound its degree
-    let candidates = 0;
-    for (let k = lpStart; k < lpEnd; k++) {
-      const v = pool[k]!;
-      const b = begin[v]!, ne = nElems[v]!, end = b + size[v]!;
-      let partial = 0, hash = p;
-      let we = b; // elements are kept in pool[b .. we)
-      for (let q = b; q < b + ne; q++) {
-        const e = pool[q]!;
-        if (state[e] !== ELEMENT) continue;
-        if (outside[e] === 0) {
-          state[e] = GONE; // aggressive absorption: L_e ⊆ L_p
-          continue;
-        }
-        partial += outside[e]!;
-        hash += e;
-        pool[we++] = e;
-      }
-      let wv = we; // then variables in pool[we .. wv)
-      for (let q = b + ne; q < end; q++) {
-        const u = pool[q]!;
-        if (state[u] !== VARIABLE || stamp[u] === sp) continue; // gone, or now reached through p
-        partial += weight[u]!;
-        hash += u;
-        pool[wv++] = u;
-      }
-      // v lost p from A_v or an element absorbed into p, so one slot is free for p
-      if (wv === end) throw usageError(`approximateMinimumDegree: the adjacency graph lists edge ${p}–${v} in one direction only`);
-      pool[wv] = pool[we]!;
-      pool[we] = p;
-      nElems[v] = we - b + 1;
-      size[v] = wv + 1 - b;
-      if (partial === 0) {
-        // mass elimination: every neighbour of v is in L_p
-        state[v] = GONE;
-        lpWeight -= weight[v]!;
-        nLeft -= weight[v]!;
-        emitChain(v);
+/**
+ * Step 3: prunes each variable's lists, absorbs covered elements, mass-
+ * eliminates variables adjacent to p only, and records the others' partial
+ * degrees (in `outside`) and hash keys for step 4.
+ */
+function pruneLists(s: AmdState, p: number): void {
+  const { pool, begin, nElems, size, state, outside, weight, stamp, keys, n, sp } = s;
+  let candidates = 0;
+  for (let k = s.lpStart; k < s.lpEnd; k++) {
+    const v = pool[k]!;
+    const b = begin[v]!, ne = nElems[v]!, end = b + size[v]!;
+    let partial = 0, hash = p;
+    let we = b; // elements are kept in pool[b .. we)
+    for (let q = b; q < b + ne; q++) {
+      const e = pool[q]!;
+      if (state[e] !== ELEMENT) continue;
+      if (outside[e] === 0) {
+        state[e] = GONE; // aggressive absorption: L_e ⊆ L_p
         continue;
       }
-      outside[v] = partial; // v is a variable: this slot is free for it this step
-      keys[candidates++] = (hash % n) * n + v;
+      partial += outside[e]!;
+      hash += e;
+      pool[we++] = e;
     }
-
-    // 4. supervariables: variables with equal hashes and equal lists are merged
-    const group = keys;
-    if (candidates > 1) keys.subarray(0, candidates).sort();
-    for (let a = 0; a < candidates - 1; a++) {
-      const va = group[a]! % n;
-      if (state[va] !== VARIABLE) continue;
-      const ha = Math.floor(group[a]! / n);
-      let mark = -1;
-      for (let c = a + 1; c < candidates && Math.floor(group[c]! / n) === ha; c++) {
-        const vc = group[c]! % n;
-        if (state[vc] !== VARIABLE || size[vc] !== size[va] || nElems[vc] !== nElems[va]) continue;
-        if (mark === -1) {
-          mark = stampNow++;
-          for (let q = begin[va]!; q < begin[va]! + size[va]!; q++) stamp[pool[q]!] = mark;
-        }
-        let same = true;
-        for (let q = begin[vc]!; same && q < begin[vc]! + size[vc]!; q++) same = stamp[pool[q]!] === mark;
-        if (!same) continue;
-        weight[va]! += weight[vc]!;
-        state[vc] = GONE;
-        chainNext[chainLast[va]!] = vc;
-        chainLast[va] = chainLast[vc]!;
-      }
+    let wv = we; // then variables in pool[we .. wv)
+    for (let q = b + ne; q < end; q++) {
+      const u = pool[q]!;
+      if (state[u] !== VARIABLE || stamp[u] === sp) continue; // gone, or now reached through p
+      partial += weight[u]!;
+      hash += u;
+      pool[wv++] = u;
     }
-
-    // 5. final degrees; L_p keeps its surviving principal variables
-    let w = lpStart;
-    for (let k = lpStart; k < lpEnd; k++) {
-      const v = pool[k]!;
-      if (state[v] !== VARIABLE) continue;
-      const rest = lpWeight - weight[v]!;
-      degree[v] = Math.min(nLeft - weight[v]!, degree[v]! + rest, outside[v]! + rest);
-      link(v);
-      if (degree[v]! < least) least = degree[v]!;
-      pool[w++] = v;
+    // v lost p from A_v or an element absorbed into p, so one slot is free for p
+    if (wv === end) throw usageError(`approximateMinimumDegree: the adjacency graph lists edge ${p}–${v} in one direction only`);
+    pool[wv] = pool[we]!;
+    pool[we] = p;
+    nElems[v] = we - b + 1;
+    size[v] = wv + 1 - b;
+    if (partial === 0) {
+      // mass elimination: every neighbour of v is in L_p
+      state[v] = GONE;
+      s.lpWeight -= weight[v]!;
+      s.nLeft -= weight[v]!;
+      emitChain(s, v);
+      continue;
     }
-    size[p] = w - lpStart;
-    degree[p] = lpWeight;
-    top = w;
-    if (size[p] === 0) state[p] = GONE;
+    outside[v] = partial; // v is a variable: this slot is free for it this step
+    keys[candidates++] = (hash % n) * n + v;
   }
-  for (let v = 0; v < n; v++) if (state[v] === DENSE) order[emitted++] = v;
-  return order;
+  s.candidates = candidates;
+}
+
+/** Step 4: variables of L_p with equal hashes and equal lists are merged into supervariables. */
+function mergeIndistinguishable(s: AmdState): void {
+  const { keys, candidates, state, size, nElems, begin, pool, stamp, weight, chainNext, chainLast, n } = s;
+  if (candidates > 1) keys.subarray(0, candidates).sort();
+  for (let a = 0; a < candidates - 1; a++) {
+    const va = keys[a]! % n;
+    if (state[va] !== VARIABLE) continue;
+    const ha = Math.floor(keys[a]! / n);
+    let mark = -1;
+    for (let c = a + 1; c < candidates && Math.floor(keys[c]! / n) === ha; c++) {
+      const vc = keys[c]! % n;
+      if (state[vc] !== VARIABLE || size[vc] !== size[va] || nElems[vc] !== nElems[va]) continue;
+      if (mark === -1) {
+        mark = s.stampNow++;
+        for (let q = begin[va]!; q < begin[va]! + size[va]!; q++) stamp[pool[q]!] = mark;
+      }
+      let same = true;
+      for (let q = begin[vc]!; same && q < begin[vc]! + size[vc]!; q++) same = stamp[pool[q]!] === mark;
+      if (!same) continue;
+      weight[va]! += weight[vc]!;
+      state[vc] = GONE;
+      chainNext[chainLast[va]!] = vc;
+      chainLast[va] = chainLast[vc]!;
+    }
+  }
+}
+
+/** Step 5: final degree bounds and buckets; L_p keeps its surviving principal variables. */
+function finalDegrees(s: AmdState, p: number): void {
+  const { pool, state, weight, degree, outside, size, lpStart, lpEnd, lpWeight, nLeft } = s;
+  let w = lpStart;
+  for (let k = lpStart; k < lpEnd; k++) {
+    const v = pool[k]!;
+    if (state[v] !== VARIABLE) continue;
+    const rest = lpWeight - weight[v]!;
+    degree[v] = Math.min(nLeft - weight[v]!, degree[v]! + rest, outside[v]! + rest);
+    link(s, v);
+    if (degree[v]! < s.least) s.least = degree[v]!;
+    pool[w++] = v;
+  }
+  size[p] = w - lpStart;
+  degree[p] = lpWeight;
+  s.top = w;
+  if (size[p] === 0) state[p] = GONE;
 }
 
 /**
