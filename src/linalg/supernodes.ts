@@ -66,7 +66,9 @@ const MAX_FRONT = 2 ** 28;
  * Supernodes of the factor of the matrix C whose lower triangle pattern is
  * (lowColPtr, lowRowIdx), with elimination tree `parent` in postorder (every
  * parent index greater than its child's, subtrees contiguous) and column
- * counts `colCount`.
+ * counts `colCount`. Four phases: the column partition, the supernodal tree,
+ * the row patterns, and the value layout with the update-stack peak. Throws
+ * `LIMIT` when a frontal matrix or the value storage would be too large.
  */
 export function findSupernodes(
   n: number,
@@ -76,12 +78,26 @@ export function findSupernodes(
   lowRowIdx: Int32Array,
   relax = true,
 ): SupernodalStructure {
+  const superStart = partitionColumns(n, parent, colCount, relax);
+  const nsuper = superStart.length - 1;
+  const tree = supernodalTree(n, parent, superStart);
+  const { rowPtr, rows, maxRows } = rowPatterns(superStart, tree, colCount, lowColPtr, lowRowIdx);
+  if (maxRows * maxRows > MAX_FRONT) {
+    throw limitError(`supernodal Cholesky would need a ${maxRows}×${maxRows} dense frontal matrix (too large; the ordering leaves a separator of that size); no option raises this heat-method limit: use --method exact or graph, or a coarser mesh`);
+  }
+  const { valPtr, stackSize } = valueLayout(superStart, rowPtr, tree);
+  return { nsuper, superStart, superParent: tree.superParent, childCount: tree.childCount, rowPtr, rows, valPtr, maxRows, stackSize };
+}
+
+/**
+ * Phase 1: superStart (length nsuper + 1). Fundamental supernodes merged
+ * greedily with their parent: scanning in order, the current block [a, b]
+ * can only merge with the next fundamental block, and only when that block
+ * is its parent (parent[b] = b + 1).
+ */
+function partitionColumns(n: number, parent: Int32Array, colCount: Int32Array, relax: boolean): Int32Array {
   const nchild = new Int32Array(n);
   for (let j = 0; j < n; j++) if (parent[j] !== -1) nchild[parent[j]!]!++;
-
-  // fundamental supernodes merged greedily with their parent (scan in order:
-  // the current block [a, b] can only merge with the next fundamental block,
-  // and only when that block is its parent, i.e. parent[b] = b + 1)
   const start: number[] = [];
   let a = 0; // current block's first column
   let j = 0;
@@ -89,31 +105,45 @@ export function findSupernodes(
     // fundamental block t = [j, e)
     let e = j + 1;
     while (e < n && parent[e - 1] === e && colCount[e - 1] === colCount[e]! + 1 && nchild[e] === 1) e++;
-    if (j === 0) {
-      a = 0;
-    } else {
-      let merge = false;
-      if (relax && parent[j - 1] === j) {
-        const nc = e - a;
-        const nr = j - a + colCount[j]!;
-        const entries = nc * nr - (nc * (nc - 1)) / 2;
-        let actual = 0;
-        for (let c = a; c < e; c++) actual += colCount[c]!;
-        const z = (entries - actual) / entries;
-        merge = z * nc <= 3;
-      }
-      if (!merge) {
-        start.push(a);
-        a = j;
-      }
+    if (j > 0 && !(relax && parent[j - 1] === j && amalgamate(colCount, a, j, e))) {
+      start.push(a);
+      a = j;
     }
     j = e;
   }
   if (n > 0) start.push(a);
-  const nsuper = start.length;
-  const superStart = new Int32Array(nsuper + 1);
+  const superStart = new Int32Array(start.length + 1);
   superStart.set(start);
-  superStart[nsuper] = n;
+  superStart[start.length] = n;
+  return superStart;
+}
+
+/**
+ * The relaxed-amalgamation rule (module comment): merging block [a, j) with
+ * its parent block [j, e) stores nc·nr − nc(nc−1)/2 values for nc = e − a
+ * columns; merge when the zero fraction z of that block satisfies z·nc ≤ 3.
+ */
+function amalgamate(colCount: Int32Array, a: number, j: number, e: number): boolean {
+  const nc = e - a;
+  const nr = j - a + colCount[j]!;
+  const entries = nc * nr - (nc * (nc - 1)) / 2;
+  let actual = 0;
+  for (let c = a; c < e; c++) actual += colCount[c]!;
+  return ((entries - actual) / entries) * nc <= 3;
+}
+
+/** The supernodal elimination tree with child lists in increasing order. */
+interface SuperTree {
+  readonly superParent: Int32Array;
+  readonly childCount: Int32Array;
+  /** First child of each supernode (−1: none); `childNext` links the siblings. */
+  readonly childHead: Int32Array;
+  readonly childNext: Int32Array;
+}
+
+/** Phase 2: parent, child count and child lists of every supernode. */
+function supernodalTree(n: number, parent: Int32Array, superStart: Int32Array): SuperTree {
+  const nsuper = superStart.length - 1;
   const superOf = new Int32Array(n);
   for (let s = 0; s < nsuper; s++) for (let c = superStart[s]!; c < superStart[s + 1]!; c++) superOf[c] = s;
   const superParent = new Int32Array(nsuper);
@@ -123,7 +153,6 @@ export function findSupernodes(
     superParent[s] = p === -1 ? -1 : superOf[p]!;
     if (p !== -1) childCount[superParent[s]!]!++;
   }
-  // child lists (in increasing order) for the pattern union
   const childHead = new Int32Array(nsuper).fill(-1);
   const childNext = new Int32Array(nsuper);
   for (let s = nsuper - 1; s >= 0; s--) {
@@ -132,12 +161,24 @@ export function findSupernodes(
     childNext[s] = childHead[p]!;
     childHead[p] = s;
   }
-  // capacity for the row patterns (exact counts come out of the union below)
+  return { superParent, childCount, childHead, childNext };
+}
+
+/**
+ * Phase 3: row patterns, own columns first, then the rows below in C's
+ * columns and in the children's patterns, sorted.
+ */
+function rowPatterns(
+  superStart: Int32Array, tree: SuperTree, colCount: Int32Array, lowColPtr: Int32Array, lowRowIdx: Int32Array,
+): { rowPtr: Int32Array; rows: Int32Array; maxRows: number } {
+  const nsuper = superStart.length - 1, n = superStart[nsuper]!;
+  const { childHead, childNext } = tree;
+  // capacity (exact counts come out of the union below): the first column's
+  // pattern contains every row of the block (relaxed: a superset of each column's)
   const rowPtr = new Int32Array(nsuper + 1);
   let rowsCap = 0;
   for (let s = 0; s < nsuper; s++) {
     const f = superStart[s]!, l = superStart[s + 1]! - 1;
-    // the first column's pattern contains every row of the block (relaxed: a superset of each column's)
     rowsCap += Math.max(colCount[f]!, l - f + colCount[l]!);
   }
   let rows: Int32Array = new Int32Array(rowsCap);
@@ -175,11 +216,16 @@ export function findSupernodes(
     rowPtr[s + 1] = top;
     maxRows = Math.max(maxRows, top - rowPtr[s]!);
   }
-  rows = rows.slice(0, top);
-  if (maxRows * maxRows > MAX_FRONT) {
-    throw limitError(`supernodal Cholesky would need a ${maxRows}×${maxRows} dense frontal matrix (too large; the ordering leaves a separator of that size); no option raises this heat-method limit: use --method exact or graph, or a coarser mesh`);
-  }
-  // value offsets and the peak of the update-matrix stack (postorder: children on top)
+  return { rowPtr, rows: rows.slice(0, top), maxRows };
+}
+
+/**
+ * Phase 4: value offsets and the peak of the update-matrix stack (postorder:
+ * children on top).
+ */
+function valueLayout(superStart: Int32Array, rowPtr: Int32Array, tree: SuperTree): { valPtr: Int32Array; stackSize: number } {
+  const nsuper = superStart.length - 1;
+  const { childHead, childNext } = tree;
   const valPtr = new Int32Array(nsuper + 1);
   let v = 0, stack = 0, peak = 0;
   for (let s = 0; s < nsuper; s++) {
@@ -197,7 +243,7 @@ export function findSupernodes(
     peak = Math.max(peak, stack);
   }
   valPtr[nsuper] = v;
-  return { nsuper, superStart, superParent, childCount, rowPtr, rows, valPtr, maxRows, stackSize: peak };
+  return { valPtr, stackSize: peak };
 }
 
 function growInt(a: Int32Array): Int32Array {

@@ -28,6 +28,33 @@ export interface SimdFront {
 }
 
 // --- a minimal assembler -----------------------------------------------------
+//
+// Byte values from the WebAssembly Core Specification, release 2.0, §5
+// "Binary Format" (5.3 types, 5.4 instructions incl. 5.4.8 vector
+// instructions, 5.5 modules and sections); LEB128 integers as in §5.2.2.
+
+/** Module preamble: magic "\0asm" and version 1 (§5.5.16). */
+const MAGIC = [0x00, 0x61, 0x73, 0x6d], VERSION = [0x01, 0x00, 0x00, 0x00];
+/** Section ids (§5.5.2). */
+const SEC_TYPE = 1, SEC_IMPORT = 2, SEC_FUNCTION = 3, SEC_EXPORT = 7, SEC_CODE = 10;
+/** Types (§5.3): value types, the function type tag, the empty block type. */
+const T_I32 = 0x7f, T_V128 = 0x7b, T_FUNC = 0x60, BLOCK_EMPTY = 0x40;
+/** Import / export descriptors (§5.5.5, §5.5.10) and memory limits flag "min only" (§5.3.7). */
+const DESC_FUNC = 0x00, DESC_MEM = 0x02, LIMITS_MIN = 0x00;
+/** Control instructions (§5.4.1). */
+const OP_BLOCK = 0x02, OP_LOOP = 0x03, OP_BR = 0x0c, OP_BR_IF = 0x0d, OP_END = 0x0b, OP_SELECT = 0x1b;
+/** Variable instructions (§5.4.4). */
+const OP_LOCAL_GET = 0x20, OP_LOCAL_SET = 0x21;
+/** Memory instructions (§5.4.6). */
+const OP_F64_LOAD = 0x2b, OP_F64_STORE = 0x39;
+/** Numeric instructions (§5.4.7). */
+const OP_I32_CONST = 0x41, OP_I32_LT_S = 0x48, OP_I32_GE_S = 0x4e, OP_I32_ADD = 0x6a, OP_I32_MUL = 0x6c;
+const OP_F64_ADD = 0xa0, OP_F64_SUB = 0xa1;
+/** Vector instructions (§5.4.8): prefix 0xFD, then a LEB128 sub-opcode. */
+const PREFIX_SIMD = 0xfd;
+const SIMD_V128_LOAD = 0x00, SIMD_V128_CONST = 0x0c, SIMD_F64X2_EXTRACT_LANE = 0x21, SIMD_F64X2_ADD = 0xf0, SIMD_F64X2_MUL = 0xf2;
+/** memarg alignment exponent 3: 8-byte aligned (§5.4.6). */
+const ALIGN_8 = 3;
 
 function uleb(n: number, out: number[]): void {
   do {
@@ -68,101 +95,100 @@ const NV128 = 8 + 6;
 function body(): number[] {
   const c: number[] = [];
   const op = (...b: number[]) => c.push(...b);
-  const get = (l: number) => (op(0x20), uleb(l, c));
-  const set = (l: number) => (op(0x21), uleb(l, c));
-  const i32 = (v: number) => (op(0x41), sleb(v, c));
-  const add = () => op(0x6a);
-  const mul = () => op(0x6c);
-  const simd = (code: number) => (op(0xfd), uleb(code, c));
-  const v128load = (offset: number) => (simd(0x00), op(3), uleb(offset, c));
-  const memarg = (offset: number) => (op(3), uleb(offset, c));
+  const get = (l: number) => (op(OP_LOCAL_GET), uleb(l, c));
+  const set = (l: number) => (op(OP_LOCAL_SET), uleb(l, c));
+  const i32 = (v: number) => (op(OP_I32_CONST), sleb(v, c));
+  const add = () => op(OP_I32_ADD);
+  const mul = () => op(OP_I32_MUL);
+  const geS = () => op(OP_I32_GE_S);
+  const simd = (code: number) => (op(PREFIX_SIMD), uleb(code, c));
+  const memarg = (offset: number) => (op(ALIGN_8), uleb(offset, c));
+  const v128load = (offset: number) => (simd(SIMD_V128_LOAD), memarg(offset));
+  const lane = (l: number) => (simd(SIMD_F64X2_EXTRACT_LANE), op(l));
+  const blockLoop = () => op(OP_BLOCK, BLOCK_EMPTY, OP_LOOP, BLOCK_EMPTY);
+  const breakIf = () => op(OP_BR_IF, 1); // leave the enclosing block
+  const continueLoop = () => op(OP_BR, 0, OP_END, OP_END); // back to the loop head; end loop, end block
 
   // RB = nr*8 ; K0B = k0*8 ; KEND = pairs*16
   get(P_NR), i32(8), mul(), set(RB);
   get(P_K0), i32(8), mul(), set(K0B);
   get(P_PAIRS), i32(16), mul(), set(KEND);
   get(P_C0), set(I);
-  op(0x02, 0x40); // block (exit i)
-  op(0x03, 0x40); // loop i
+  blockLoop(); // loop i
   //   if (i + 3 >= nr) break
-  get(I), i32(3), add(), get(P_NR), op(0x4e), op(0x0d, 1);
+  get(I), i32(3), add(), get(P_NR), geS(), breakIf();
   //   S0 = base + i*RB ; S1..S3 ; R_a = S_a + K0B
   get(P_BASE), get(I), get(RB), mul(), add(), set(S0);
   for (let a = 1; a < 4; a++) get(S0 + a - 1), get(RB), add(), set(S0 + a);
   for (let a = 0; a < 4; a++) get(S0 + a), get(K0B), add(), set(R0 + a);
   //   JL = min(i + 4, jend): the group's own 4×4 diagonal block is two full tiles
   get(I), i32(4), add(), set(JL);
-  get(JL), get(P_JEND), get(JL), get(P_JEND), op(0x48), op(0x1b), set(JL);
+  get(JL), get(P_JEND), get(JL), get(P_JEND), op(OP_I32_LT_S), op(OP_SELECT), set(JL);
   get(P_C0), set(J);
-  op(0x02, 0x40); // block (exit j)
-  op(0x03, 0x40); // loop j
+  blockLoop(); // loop j
   //     if (j >= JL) break
-  get(J), get(JL), op(0x4e), op(0x0d, 1);
+  get(J), get(JL), geS(), breakIf();
   //     J8 = j*8 ; Q0 = base + j*RB + K0B ; Q1 = Q0 + RB
   get(J), i32(8), mul(), set(J8);
   get(P_BASE), get(J), get(RB), mul(), add(), get(K0B), add(), set(Q0);
   get(Q0), get(RB), add(), set(Q1);
-  for (let t = 0; t < 8; t++) simd(0x0c), op(...new Array(16).fill(0)), set(ACC + t);
+  for (let t = 0; t < 8; t++) simd(SIMD_V128_CONST), op(...new Array(16).fill(0)), set(ACC + t);
   i32(0), set(OFF);
-  op(0x02, 0x40); // block (exit k)
-  op(0x03, 0x40); // loop k
-  get(OFF), get(KEND), op(0x4e), op(0x0d, 1);
+  blockLoop(); // loop k
+  get(OFF), get(KEND), geS(), breakIf();
   get(Q0), get(OFF), add(), v128load(0), set(VA + 4);
   get(Q1), get(OFF), add(), v128load(0), set(VA + 5);
   for (let a = 0; a < 4; a++) get(R0 + a), get(OFF), add(), v128load(0), set(VA + a);
   for (let a = 0; a < 4; a++) {
     for (let b = 0; b < 2; b++) {
       const acc = ACC + 2 * a + b;
-      get(acc), get(VA + a), get(VA + 4 + b), simd(0xf2), simd(0xf0), set(acc); // acc += a ⊙ b
+      get(acc), get(VA + a), get(VA + 4 + b), simd(SIMD_F64X2_MUL), simd(SIMD_F64X2_ADD), set(acc); // acc += a ⊙ b
     }
   }
   get(OFF), i32(16), add(), set(OFF);
-  op(0x0c, 0); // br loop k
-  op(0x0b, 0x0b); // end loop k, end block k
+  continueLoop(); // loop k
   //     F[i+a][j+b] −= lane0(acc) + lane1(acc)
   for (let a = 0; a < 4; a++) {
     for (let b = 0; b < 2; b++) {
       const acc = ACC + 2 * a + b;
       get(S0 + a), get(J8), add(), set(ADDR);
       get(ADDR);
-      get(ADDR), op(0x2b), memarg(8 * b); // f64.load
-      get(acc), simd(0x21), op(0), get(acc), simd(0x21), op(1), op(0xa0); // lane0 + lane1
-      op(0xa1); // f64.sub
-      op(0x39), memarg(8 * b); // f64.store
+      get(ADDR), op(OP_F64_LOAD), memarg(8 * b);
+      get(acc), lane(0), get(acc), lane(1), op(OP_F64_ADD);
+      op(OP_F64_SUB);
+      op(OP_F64_STORE), memarg(8 * b);
     }
   }
   get(J), i32(2), add(), set(J);
-  op(0x0c, 0); // br loop j
-  op(0x0b, 0x0b);
+  continueLoop(); // loop j
   get(I), i32(4), add(), set(I);
-  op(0x0c, 0); // br loop i
-  op(0x0b, 0x0b);
-  op(0x0b); // end function
+  continueLoop(); // loop i
+  op(OP_END); // end function
   return c;
 }
 
 function moduleBytes(): Uint8Array<ArrayBuffer> {
-  const out: number[] = [0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00];
-  section(1, [1, 0x60, 6, 0x7f, 0x7f, 0x7f, 0x7f, 0x7f, 0x7f, 0], out); // (i32 ×6) → ()
+  const out: number[] = [...MAGIC, ...VERSION];
+  section(SEC_TYPE, [1, T_FUNC, 6, T_I32, T_I32, T_I32, T_I32, T_I32, T_I32, 0], out); // one type: (i32 ×6) → ()
   const imp: number[] = [1];
   for (const s of ['env', 'mem']) {
     uleb(s.length, imp);
     for (const ch of s) imp.push(ch.charCodeAt(0));
   }
-  imp.push(0x02, 0x00, 0x01); // memory, min 1 page, no max
-  section(2, imp, out);
-  section(3, [1, 0], out);
-  const exp: number[] = [1, 5, ...Array.from('tiles', (ch) => ch.charCodeAt(0)), 0x00, 0];
-  section(7, exp, out);
+  imp.push(DESC_MEM, LIMITS_MIN, 1); // memory, min 1 page, no max
+  section(SEC_IMPORT, imp, out);
+  section(SEC_FUNCTION, [1, 0], out); // one function of type 0
+  const exp: number[] = [1, 5, ...Array.from('tiles', (ch) => ch.charCodeAt(0)), DESC_FUNC, 0];
+  section(SEC_EXPORT, exp, out);
   const fn: number[] = [];
   uleb(2, fn); // two local groups
-  uleb(NI32, fn), fn.push(0x7f);
-  uleb(NV128, fn), fn.push(0x7b);
+  uleb(NI32, fn), fn.push(T_I32);
+  uleb(NV128, fn), fn.push(T_V128);
   fn.push(...body());
   const code: number[] = [1];
   uleb(fn.length, code);
   code.push(...fn);
-  section(10, code, out);
+  section(SEC_CODE, code, out);
   return new Uint8Array(out);
 }
 
