@@ -60,15 +60,14 @@ import { assembleDivergence, heatCeiling, relayFaces, type RelayWork } from './h
 import { usageError, numericError, isOrthodromeError } from '../errors.js';
 import { sourceDirichlet } from './heat-sources.js';
 import { SourcePoisson } from './heat-poisson.js';
-import { liftDirichlet, type EdgePattern } from '../metric/laplacian.js';
+import { HeatStep, maskIndices, type HeatStepParts } from './heat-step.js';
 
 export {
   MAX_SEPARATE_CURVES, REFINE_FACTOR, TIME_SCALE_RANGE, type HeatOptions, type HeatStats, type HeatSolveStats,
 } from './heat-setup.js';
 
-/** Factors, geometry and masks a prepared solver keeps. */
-interface HeatParts {
-  boundaryMode: 'average' | 'neumann' | 'dirichlet';
+/** Factors, geometry and masks a prepared solver keeps (the heat step's among them). */
+interface HeatParts extends HeatStepParts {
   /** Face data of the relay sweep (heat-relay.ts, relayFaces). */
   faces: Float64Array;
   /** Vertices without area (isolated, or only zero-area faces): identity rows. */
@@ -77,23 +76,9 @@ interface HeatParts {
   minMass: number;
   /** Ceiling for the scaled heat (heat-relay.ts). */
   heatCeiling: number;
-  vertexComponent: Int32Array;
-  componentCount: number;
-  onBoundary: Uint8Array;
   /** Rows of the Poisson system fixed to 0: pinned or inactive vertices. */
   blocked: Uint8Array;
-  heatN: CholeskyFactor;
-  heatD: CholeskyFactor | null;
   poisson: CholeskyFactor;
-  /** Pattern, Laplacian values, time step and heat-matrix diagonal (Dirichlet data of the heat step). */
-  p: EdgePattern;
-  Lv: Float64Array;
-  step: number;
-  heatDiag: Float64Array;
-  /** Boundary rows of the Dirichlet heat step: boundary or inactive. */
-  fixedD: Uint8Array;
-  /** The vertices of fixedD, ascending (the heat step touches only these rows). */
-  fixedList: Int32Array;
   sourcePoisson: SourcePoisson;
 }
 
@@ -115,11 +100,10 @@ export class HeatSolver {
   private readonly relay: RelayWork;
   private readonly rhs: Float64Array;
   private readonly u: Float64Array;
-  private readonly uD: Float64Array;
   private readonly gD: Float64Array;
   private readonly fixed: Uint8Array;
   private readonly b: Float64Array;
-  private readonly compMax: Float64Array;
+  private readonly heatStep: HeatStep;
   private readonly compShift: Float64Array;
   private readonly lay = new Float64Array(6);
   private readonly xy = new Float64Array(2);
@@ -132,11 +116,10 @@ export class HeatSolver {
     const nv = triangulation.topology.nv;
     this.rhs = new Float64Array(nv);
     this.u = new Float64Array(nv);
-    this.uD = new Float64Array(nv);
     this.gD = new Float64Array(nv);
     this.fixed = new Uint8Array(nv);
     this.b = new Float64Array(nv);
-    this.compMax = new Float64Array(parts.componentCount);
+    this.heatStep = new HeatStep(parts, nv);
     this.compShift = new Float64Array(parts.componentCount);
     const wildcard = parts.inactive.slice();
     if (parts.boundaryMode === 'dirichlet' && parts.heatD) for (let v = 0; v < nv; v++) wildcard[v]! |= parts.onBoundary[v]!;
@@ -145,36 +128,6 @@ export class HeatSolver {
       stage: new Int32Array(nv), compTau: new Float64Array(parts.componentCount), compHot: new Uint8Array(parts.componentCount),
     };
   }
-
-  /**
-   * One heat step u = (M + tL)⁻¹ rhs under the boundary mode; may overwrite
-   * rhs. Dirichlet data: see the module comment. A component without heat
-   * keeps the (zero) Neumann solution.
-   */
-  private readonly heatStep = (rhs: Float64Array, u: Float64Array): void => {
-    const { heatN, heatD, onBoundary, vertexComponent: comp, boundaryMode } = this.parts;
-    heatN.solve(rhs, u);
-    if (!heatD) return;
-    const nv = u.length, uD = this.uD, g = this.gD, { fixedD, fixedList, heatDiag, p, Lv, step } = this.parts;
-    // data on the fixed rows only (liftDirichlet reads no other entry of g)
-    let heated = false;
-    for (let k = 0; k < fixedList.length; k++) {
-      const v = fixedList[k]!;
-      const gv = onBoundary[v] && rhs[v]! > 0 && heatDiag[v]! > 0 ? rhs[v]! / heatDiag[v]! : 0;
-      g[v] = gv;
-      if (gv !== 0) heated = true;
-    }
-    if (heated) liftDirichlet(p, Lv, step, fixedD, g, rhs);
-    else for (let k = 0; k < fixedList.length; k++) rhs[fixedList[k]!] = 0; // zero data move nothing
-    heatD.solve(rhs, uD);
-    const cmax = this.compMax.fill(0);
-    for (let v = 0; v < nv; v++) if (comp[v]! >= 0 && uD[v]! > cmax[comp[v]!]!) cmax[comp[v]!] = uD[v]!;
-    const avg = boundaryMode === 'average';
-    for (let v = 0; v < nv; v++) {
-      const c = comp[v]!;
-      if (c >= 0 && cmax[c]! > 0) u[v] = avg ? 0.5 * (u[v]! + uD[v]!) : uD[v]!;
-    }
-  };
 
   /**
    * Builds the intrinsic triangulation, the matrices, one symbolic analysis
@@ -291,7 +244,7 @@ export class HeatSolver {
     const nv = phi.length;
     rhs.fill(0);
     addSourceHeat(this.mesh, sources, this.stats.meanEdgeLength, rhs);
-    const { flatFaces, stages, unsettled } = assembleDivergence(this.relay, this.heatStep, rhs, this.u, b);
+    const { flatFaces, stages, unsettled } = assembleDivergence(this.relay, this.heatStep.run, rhs, this.u, b);
     if (unsettled > 0) {
       throw numericError(`the heat underflowed before reaching ${unsettled} vertices (t = ${this.stats.timeStep}); raise timeScale`, 'heat');
     }
@@ -335,15 +288,6 @@ export class HeatSolver {
       phi[v] = d > 0 ? d : 0; // clamps tiny negatives
     }
   }
-}
-
-/** Indices where mask is set, ascending. */
-function maskIndices(mask: Uint8Array): Int32Array {
-  let n = 0;
-  for (let v = 0; v < mask.length; v++) if (mask[v]) n++;
-  const out = new Int32Array(n);
-  for (let v = 0, k = 0; v < mask.length; v++) if (mask[v]) out[k++] = v;
-  return out;
 }
 
 /** Tail vertex of edge e's stored half-edge. */
