@@ -30,7 +30,7 @@ export { next, prev, faceOf, tail, tip, isBoundaryVertex, isBoundaryEdge, forEac
 export { buildTopology, type BuildReport, type BuildOptions, type BuiltMesh, type NonManifoldEdge, type DuplicateFace } from './mesh/build.js';
 export { glueSeams, type GluedVertices } from './mesh/seams.js';
 export { triangulate, type Triangulation } from './mesh/triangulate.js';
-export { boundaryLoops, boundaryVertexMask } from './mesh/boundary.js';
+export { boundaryLoops, boundaryVertexMask, namedBoundaryLoops, LOOP_LENGTH_TIE, type NamedLoop } from './mesh/boundary.js';
 export { components, type Components, type ComponentInfo } from './mesh/components.js';
 export { surfaceFromMeshData, isManifold, type Surface } from './mesh/surface.js';
 
@@ -71,6 +71,7 @@ export {
 } from './query/surface-point.js';
 export { SurfaceLocator, closestOnTriangle, type SnapResult } from './query/snap.js';
 export { PointResolver, type Landing } from './query/resolve.js';
+export { isLoopSpec, parseLoopSpec, selectLoop, loopCurves, resolveLoopSpec, type LoopSpec, type LoopSurface } from './query/loop-spec.js';
 
 // reports
 export { inspectSurface, inspectProblems, type InspectReport } from './report/inspect.js';
