@@ -1,18 +1,29 @@
 /**
- * Decimal number scanning on bytes, shared by the OBJ and ASCII PLY readers:
- * no string per token, correctly rounded doubles (Clinger's fast path for
- * short mantissas, `Number()` on the token otherwise).
+ * Decimal number scanning on bytes, the one home for reading numbers from
+ * text (the OBJ and ASCII PLY readers): no string per token, correctly
+ * rounded doubles (Clinger's fast path, W. D. Clinger, "How to read floating
+ * point numbers accurately", PLDI 1990, for mantissas below 2^53 and powers of
+ * ten up to 10^22; `Number()` on the token otherwise).
  */
 
 /**
  * Where {@link scanReal} stopped (`pos`) and whether the token was malformed
- * (`bad`). One shared cursor, so scanning a number allocates nothing.
+ * (`bad`). Each parse owns one (no module state), so scanning is re-entrant and
+ * allocates nothing per number.
  */
-export const scanCursor = { pos: 0, bad: false };
+export class ScanCursor {
+  /** First byte after the token. */
+  pos = 0;
+  /** True when no number starts at the scanned offset or it is not followed by a delimiter. */
+  bad = false;
+}
+
+/** 2^53: an integer below it is exact, and so is every partial sum of its digits. */
+const EXACT_INT = 9007199254740992;
 
 // 10^0 .. 10^22 are exact doubles: m·10^k or m/10^k with m < 2^53 and
 // |k| <= 22 is then one correctly rounded operation (Clinger's fast path).
-export const POW10 = new Float64Array(23);
+const POW10 = new Float64Array(23);
 for (let i = 0, p = 1; i < 23; i++, p *= 10) POW10[i] = p;
 
 /** True for bytes that end a token: space, tab, CR, LF, `\`, `#`, `/`. */
@@ -27,13 +38,13 @@ function lower(c: number): number {
 /**
  * Reads a decimal real (`-12`, `3.25`, `.5`, `6.02e23`, `nan`, `inf`,
  * `infinity`) from `b` at `p`; the token ends at a delimiter or the end of
- * `b` (reads past the end give `undefined`, which no test matches). Sets `scanCursor.pos` to the
- * first byte after the token and `scanCursor.bad` when no number starts at `p`
+ * `b` (reads past the end give `undefined`, which no test matches). Sets `cur.pos` to the
+ * first byte after the token and `cur.bad` when no number starts at `p`
  * or it is not followed by a delimiter. The result is the correctly rounded
- * double: short mantissas take the exact fast path, longer ones go through
- * `Number()` on the token.
+ * double: a mantissa below 2^53 with a power of ten up to 10^22 takes the exact
+ * fast path, anything else goes through `Number()` on the token.
  */
-export function scanReal(b: Uint8Array, p: number): number {
+export function scanReal(b: Uint8Array, p: number, cur: ScanCursor): number {
   const end = b.length;
   const start = p;
   let neg = false;
@@ -42,13 +53,14 @@ export function scanReal(b: Uint8Array, p: number): number {
     neg = c === 45;
     c = b[++p]!;
   }
-  // m: the digits as an integer (exact while nd <= 15); nd: digits from the
-  // first non-zero one on; frac: digits after the point.
-  let m = 0, nd = 0;
+  // m: the digits as an integer, exact while it stays below 2^53 (rounding is
+  // monotone, so a computed m < 2^53 means no partial sum was rounded: the
+  // digits 9007199254740993 round to 2^53 and fail the test); frac: digits
+  // after the point.
+  let m = 0;
   const intStart = p;
   while (c >= 48 && c <= 57) {
     m = m * 10 + (c - 48);
-    if (m !== 0) nd++;
     c = b[++p]!;
   }
   let digits = p - intStart, frac = 0;
@@ -57,50 +69,49 @@ export function scanReal(b: Uint8Array, p: number): number {
     c = b[p]!;
     while (c >= 48 && c <= 57) {
       m = m * 10 + (c - 48);
-      if (m !== 0) nd++;
       c = b[++p]!;
     }
     frac = p - fracStart;
     digits += frac;
   }
   if (digits === 0) {
-    if (p > start + (neg || b[start] === 43 ? 1 : 0)) { scanCursor.pos = p; scanCursor.bad = true; return 0; }
-    return scanWord(b, p, neg);
+    if (p > start + (neg || b[start] === 43 ? 1 : 0)) { cur.pos = p; cur.bad = true; return 0; }
+    return scanWord(b, p, neg, cur);
   }
   let e = 0;
   if (c === 101 || c === 69) {
     c = b[++p]!;
     let eneg = false;
     if (c === 45 || c === 43) { eneg = c === 45; c = b[++p]!; }
-    if (!(c >= 48 && c <= 57)) { scanCursor.pos = p; scanCursor.bad = true; return 0; }
+    if (!(c >= 48 && c <= 57)) { cur.pos = p; cur.bad = true; return 0; }
     while (c >= 48 && c <= 57) {
       if (e < 100000) e = e * 10 + (c - 48);
       c = b[++p]!;
     }
     if (eneg) e = -e;
   }
-  scanCursor.pos = p;
-  scanCursor.bad = p < end && !isDelimiter(c);
+  cur.pos = p;
+  cur.bad = p < end && !isDelimiter(c);
   const k = e - frac;
   let v: number;
-  if (nd <= 15 && k >= -22 && k <= 22) v = k >= 0 ? m * POW10[k]! : m / POW10[-k]!;
+  if (m < EXACT_INT && k >= -22 && k <= 22) v = k >= 0 ? m * POW10[k]! : m / POW10[-k]!;
   else if (m === 0) v = 0;
   else v = Number(latin1(b, neg ? start + 1 : start, p));
   return neg ? -v : v;
 }
 
 /** `nan`, `inf`, `infinity` (any case) after an optional sign; otherwise bad. */
-function scanWord(b: Uint8Array, p: number, neg: boolean): number {
+function scanWord(b: Uint8Array, p: number, neg: boolean, cur: ScanCursor): number {
   const end = b.length;
   let q = p;
   while (q < end && !isDelimiter(b[q]!)) q++;
   const n = q - p;
-  scanCursor.pos = q;
-  scanCursor.bad = false;
+  cur.pos = q;
+  cur.bad = false;
   if (n === 3 && lower(b[p]!) === 110 && lower(b[p + 1]!) === 97 && lower(b[p + 2]!) === 110) return NaN;
   const w = n === 3 || n === 8 ? latin1(b, p, q).toLowerCase() : '';
   if (w === 'inf' || w === 'infinity') return neg ? -Infinity : Infinity;
-  scanCursor.bad = true;
+  cur.bad = true;
   return 0;
 }
 

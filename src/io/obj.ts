@@ -7,14 +7,15 @@
  * statement (vt, vn, vp, o, g, s, usemtl, mtllib, l, p, ...) is skipped.
  *
  * The scan works on the bytes directly: no string per line, numbers are
- * assembled digit by digit (see {@link scanReal}), growable typed buffers.
+ * read by {@link scanReal} (decimal.ts, the one number scanner), growable
+ * typed buffers.
  * Vertex indices are those of the file (1-based there, 0-based here). A
  * leading UTF-8 byte-order mark is ignored; LF, CRLF and CR-only line ends
  * are all read.
  */
 import { inputError } from '../errors.js';
 import type { MeshData, PropertyColumn } from './mesh-data.js';
-import { scanCursor, scanReal, latin1, POW10, stripBom } from './decimal.js';
+import { ScanCursor, scanReal, latin1, stripBom } from './decimal.js';
 
 /**
  * A larger copy of a typed buffer keeping its first `used` entries. The new
@@ -58,6 +59,8 @@ class ObjScan {
   ni = 0;
   nf = 0;
   colored = 0;
+  /** Where the last number scanned ended (decimal.ts). */
+  readonly cursor = new ScanCursor();
   /** Largest positive 0-based index seen, and the byte offset of its token. */
   maxIdx = -1;
   maxAt = 0;
@@ -138,7 +141,7 @@ function scanStatements(s: ObjScan): void {
  * offset where the last statement ends.
  */
 function vertexRun(s: ObjScan, p: number): number {
-  const b = s.b, n = b.length;
+  const b = s.b, n = b.length, cur = s.cursor;
   let nv = s.nv, pos = s.pos;
   for (;;) {
     if (3 * nv + 3 > pos.length) pos = s.pos = grow(pos, 3 * nv, p, n);
@@ -147,31 +150,10 @@ function vertexRun(s: ObjScan, p: number): number {
       if (b[p] === 32) p++;
       if (b[p]! < 33 || b[p] === 92) p = skipBlank(b, p);
       if (p >= n || b[p] === 10 || b[p] === 35 || b[p] === 13) break;
-      // Common form `[-]digits[.digits]` then a blank or newline, read inline
-      // (exact: m <= 2^53 and at most 22 decimals); anything else via scanReal.
-      let q = p, c = b[p]!, m = 0, v: number;
-      const neg = c === 45;
-      if (neg) c = b[++q]!;
-      const d0 = q;
-      while (c >= 48 && c <= 57) { m = m * 10 + (c - 48); c = b[++q]!; }
-      const id = q - d0;
-      let fd = 0;
-      if (c === 46) {
-        const f0 = ++q;
-        c = b[q]!;
-        while (c >= 48 && c <= 57) { m = m * 10 + (c - 48); c = b[++q]!; }
-        fd = q - f0;
-      }
-      if (id + fd > 0 && m <= 9007199254740992 && fd <= 22 && (c === 32 || c === 10 || c === 13 || c === 9 || q >= n)) {
-        v = fd === 0 ? m : m / POW10[fd]!;
-        if (neg) v = -v;
-        p = q;
-      } else {
-        v = scanReal(b, p);
-        if (scanCursor.bad) fail(b, p, s.name, `malformed number ${tokenAt(b, p)}`);
-        if (!Number.isFinite(v)) fail(b, p, s.name, `non-finite coordinate ${tokenAt(b, p)}`);
-        p = scanCursor.pos;
-      }
+      const v = scanReal(b, p, cur);
+      if (cur.bad) fail(b, p, s.name, `malformed number ${tokenAt(b, p)}`);
+      if (!Number.isFinite(v)) fail(b, p, s.name, `non-finite coordinate ${tokenAt(b, p)}`);
+      p = cur.pos;
       if (k < 3) pos[3 * nv + k] = v;
       else if (k === 3) r = v;
       else if (k === 4) g = v;

@@ -24,7 +24,7 @@
  */
 import { inputError } from '../errors.js';
 import type { MeshData, PropertyColumn } from './mesh-data.js';
-import { latin1, scanCursor, scanReal, stripBom } from './decimal.js';
+import { latin1, ScanCursor, scanReal, stripBom } from './decimal.js';
 import { parsePlyHeader, SCALAR_TYPES, TYPE_SIZES } from './ply-header.js';
 import { rd, readColumn, readFaceLists, type FaceLists } from './ply-binary.js';
 import type { PlyElement } from './ply-header.js';
@@ -52,6 +52,8 @@ class ItemReader {
   readonly dv: DataView;
   elName = '';
   item = 0;
+  /** Where the last ascii number ended (decimal.ts). */
+  readonly cursor = new ScanCursor();
   constructor(
     readonly b: Uint8Array,
     public p: number,
@@ -73,9 +75,9 @@ class ItemReader {
     if (this.ascii) {
       while (p < n && (b[p] === 32 || b[p] === 9 || b[p] === 13 || b[p] === 10)) p++;
       if (p >= n) this.fail('file ends early');
-      const v = scanReal(b, p);
-      if (scanCursor.bad) this.fail(`malformed number ${excerpt(b, p)}`);
-      this.p = scanCursor.pos;
+      const v = scanReal(b, p, this.cursor);
+      if (this.cursor.bad) this.fail(`malformed number ${excerpt(b, p)}`);
+      this.p = this.cursor.pos;
       if (t < 6 && !(Number.isInteger(v) && v >= LO[t]! && v <= HI[t]!)) this.fail(`value ${v} does not fit its type ${SCALAR_TYPES[t]}`);
       return v;
     }

@@ -8,7 +8,7 @@
 import { describe, expect, it } from 'vitest';
 import { fc, test as fcTest } from '@fast-check/vitest';
 import { parseObj } from '../../src/io/obj.js';
-import { scanCursor, scanReal } from '../../src/io/decimal.js';
+import { ScanCursor, scanReal } from '../../src/io/decimal.js';
 import { OrthodromeError } from '../../src/errors.js';
 
 const enc = new TextEncoder();
@@ -78,8 +78,9 @@ describe('parseObj statements', () => {
 describe('scanReal against Number() (ECMAScript StringToNumber, correctly rounded)', () => {
   const scan = (s: string) => {
     const b = enc.encode(s);
-    const v = scanReal(b, 0);
-    return { v, bad: scanCursor.bad, pos: scanCursor.pos };
+    const cur = new ScanCursor();
+    const v = scanReal(b, 0, cur);
+    return { v, bad: cur.bad, pos: cur.pos };
   };
 
   fcTest.prop([fc.double({ noNaN: true, noDefaultInfinity: true })], { numRuns: 500 })('shortest repr of any double reads back bit-exactly', (x) => {
