@@ -1,16 +1,18 @@
 /**
  * orthodrome — intrinsic distances, shortest paths and curvature on
- * triangulated surfaces. This module is the public API and nothing else.
+ * triangulated surfaces. This module is the public entry (`orthodrome`):
+ * the facade of `./core.js` (which also runs in a browser) and its two Node
+ * adapters, {@link loadSurface} (a mesh file → a surface) and
+ * {@link writeFileAtomic} (store a result file).
  *
  * Data flows one way: bytes → MeshData → Surface (half-edge topology) →
  * IntrinsicMesh (edge lengths: the metric, the interface every solver
- * consumes) → distance fields, paths and reports.
- *
- * Everything comes from `./core.js`, which also runs in a browser, except the
- * Node adapters {@link readMeshFile} and {@link writeFileAtomic}.
+ * consumes) → distance fields, paths and reports. The parts of that flow
+ * are in the subpaths `orthodrome/io`, `/mesh`, `/metric`, `/linalg`,
+ * `/geodesic`, `/points`, `/report`, `/errors` and `/node` (src/api/*.ts).
  *
  * @packageDocumentation
  */
 export * from './core.js';
-export { readMeshFile, readMeshFileSync, DEFAULT_MAX_INPUT_BYTES, type ReadMeshOptions } from './io/read-mesh.js';
-export { writeFileAtomic, writeFileAtomicSync, type AtomicData, type AtomicOptions } from './io/atomic.js';
+export { loadSurface, type LoadOptions } from './api/load.js';
+export { writeFileAtomic } from './io/atomic.js';

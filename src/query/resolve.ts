@@ -12,6 +12,7 @@
 import type { Topology } from '../mesh/topology.js';
 import { checkSurfacePoint, parsePointSpec, type SurfacePoint } from './surface-point.js';
 import { SurfaceLocator, type SnapResult } from './snap.js';
+import { vertexCopies } from './copies.js';
 
 /** Where a `p:` spec landed: the surface point, its position and how far it moved. */
 export interface Landing extends SnapResult {
@@ -91,15 +92,6 @@ export class PointResolver {
 
   /** File vertex → its topology copies, for split vertices only. */
   private copyMap(): Map<number, number[]> {
-    if (this.copyList) return this.copyList;
-    const t = this.topology, o = t.vertexOrigin, map = new Map<number, number[]>();
-    for (let v = 0; v < t.nv; v++) {
-      if (o[v] === v) continue;
-      const list = map.get(o[v]!) ?? [o[v]!];
-      list.push(v);
-      map.set(o[v]!, list);
-    }
-    this.copyList = map;
-    return map;
+    return (this.copyList ??= vertexCopies(this.topology));
   }
 }

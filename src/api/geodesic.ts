@@ -1,0 +1,25 @@
+/**
+ * `orthodrome/geodesic`: the distance and path solvers on an intrinsic mesh:
+ * the one front for every method (`prepareDistance`), the heat method, exact
+ * window propagation, the edge graph, the orientation double cover, pinch
+ * points, waypoint paths and paths by edge flips.
+ *
+ * @packageDocumentation
+ */
+export type { DistanceField, DistanceMethod, SurfacePath } from '../geodesic/field.js';
+export { fieldStats } from '../geodesic/field.js';
+export { pointSources, boundaryCurves, type SourceSet } from '../geodesic/sources.js';
+export { HeatSolver, TIME_SCALE_RANGE, type HeatOptions, type HeatStats, type HeatSolveStats } from '../geodesic/heat.js';
+export { graphDistance, graphValueAt, type GraphOptions } from '../geodesic/graph.js';
+export { orientationCover, prepareCoverDistance, coverPathThrough, type OrientationCover } from '../geodesic/cover.js';
+export { throughPinches, DEFAULT_MAX_PINCH_SOLVES, type PinchOptions } from '../geodesic/pinch.js';
+export { exactDistance, DEFAULT_MEMORY_BUDGET, type ExactOptions, type ExactResult } from '../geodesic/exact/index.js';
+export type { WindowUsage } from '../geodesic/exact/usage.js';
+export { prepareExactGeometry, type ExactGeometry } from '../geodesic/exact/geometry.js';
+export { pathPolyline, pathLength } from '../geodesic/path.js';
+export {
+  prepareDistance, checkEdgeLengths, MAX_LENGTH, type DistanceSolver, type DistanceResult, type DistanceOptions, type SolveOptions, type SolveProgress,
+} from '../geodesic/solver.js';
+export { shortestPathThrough, AUTO_FLIP_FACES, FLIP_VERIFY_FACES, type WaypointPath, type WaypointOptions, type PathMethod } from '../geodesic/waypoints.js';
+export { flipGeodesicPath, BEND_TOLERANCE, type FlipPathResult } from '../geodesic/flip/index.js';
+export { verifyShortest, type VerifyResult } from '../geodesic/flip/verify.js';

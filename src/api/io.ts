@@ -1,0 +1,22 @@
+/**
+ * `orthodrome/io`: bytes ⇄ mesh data and result files, browser-safe.
+ * Readers (OBJ, PLY, format sniffing), writers (PLY, OBJ, CSV, curves),
+ * the colour ramp and the JSON writer of results. Files on disk: `orthodrome/node`.
+ *
+ * @packageDocumentation
+ */
+export type { MeshData, PropertyColumn, ScalarType } from '../io/mesh-data.js';
+export { meshFromTriangles, vertexCount, faceCount } from '../io/mesh-data.js';
+export { parseObj } from '../io/obj.js';
+export { parsePly } from '../io/ply.js';
+export { parseMesh, sniffMesh, isGzip, type Sniffed } from '../io/sniff.js';
+export { writePly, type PlyMeshInput, type WritePlyOptions } from '../io/write-ply.js';
+export { writeObj, writeObjPolyline, type ObjMeshInput, type WriteObjOptions } from '../io/write-obj.js';
+export { writeVertexCsv, toCsv, type CsvColumn, type CsvOptions } from '../io/csv.js';
+export { colorize, rampColor, type ColorizeOptions } from '../io/colormap.js';
+export { toJson } from '../io/json.js';
+export {
+  writeCurves, curvesToObj, curvesToGeoJson, curvesToCsv, curvesToJson, curveFormatOf, curvePointCount, CURVE_FORMATS,
+  type Curve, type CurvePoints, type CurvePolygon, type CurveProperty, type CurveFormat, type CurveWriteOptions,
+} from '../io/write-curves.js';
+export { toInputVertices } from './write.js';

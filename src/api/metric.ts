@@ -1,0 +1,16 @@
+/**
+ * `orthodrome/metric`: the intrinsic metric (one length per edge) and what
+ * is computed from lengths alone: triangle angles, areas and cotangents,
+ * curvature, the intrinsic Delaunay triangulation, mollification.
+ *
+ * @packageDocumentation
+ */
+export type { IntrinsicMesh } from '../metric/intrinsic.js';
+export { intrinsicFromPositions, intrinsicFromLengths, edgeLengthsFromPositions, meanEdgeLength, triangleInequalityViolations } from '../metric/intrinsic.js';
+export {
+  triangleArea, angleOpposite, cotOpposite, faceAreas, cornerAngles, halfedgeCotans, edgeCotanWeights,
+  barycentricVertexAreas, mixedVoronoiVertexAreas, COT_LIMIT, anglesOfSides,
+} from '../metric/triangle.js';
+export { gaussianCurvature, meanCurvature, gaussBonnetResidual, type Curvature } from '../metric/curvature.js';
+export { intrinsicDelaunay, type DelaunayOptions, type DelaunayResult } from '../metric/delaunay.js';
+export { mollify, type Mollified } from '../metric/mollify.js';

@@ -1,0 +1,10 @@
+/**
+ * `orthodrome/node`: the Node adapters: reading mesh files (gzip unpacked,
+ * size bounded) and writing files atomically (temporary file and rename,
+ * gzip for `.gz`, temporary files removed on signals). Not for browsers.
+ *
+ * @packageDocumentation
+ */
+export { readMeshFile, readMeshFileSync, gunzipIfNeeded, DEFAULT_MAX_INPUT_BYTES, type ReadMeshOptions } from '../io/read-mesh.js';
+export { writeFileAtomic, writeFileAtomicSync, pendingTempFiles, type AtomicData, type AtomicOptions } from '../io/atomic.js';
+export { loadSurface, type LoadOptions } from './load.js';

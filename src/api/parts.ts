@@ -1,0 +1,58 @@
+/**
+ * What the facade derives from a surface once and reuses: the intrinsic
+ * mesh (edge lengths), the orientation double cover of a non-orientable
+ * surface, and the groups of topology copies of split vertices. Kept in a
+ * WeakMap beside the surface object, so a surface stays plain data and the
+ * derived parts go away with it.
+ */
+import type { Topology } from '../mesh/topology.js';
+import { intrinsicFromPositions, type IntrinsicMesh } from '../metric/intrinsic.js';
+import { orientationCover, type OrientationCover } from '../geodesic/cover.js';
+import { splitGroups } from '../query/copies.js';
+
+/** What the solvers need of a surface (a whole `Surface` will do). */
+export interface SolvableSurface {
+  /** Half-edge connectivity. */
+  topology: Topology;
+  /** x, y, z per topology vertex. */
+  positions: Float64Array;
+  /** The build report's seams: edges cut to orient the surface (empty: orientable). */
+  report: { orientationSeams: Int32Array };
+}
+
+interface Parts {
+  mesh?: IntrinsicMesh;
+  cover?: OrientationCover | null;
+  groups?: number[][];
+}
+
+const cache = new WeakMap<SolvableSurface, Parts>();
+
+function partsOf(s: SolvableSurface): Parts {
+  let p = cache.get(s);
+  if (!p) cache.set(s, (p = {}));
+  return p;
+}
+
+/** The intrinsic mesh of `s` (edge lengths from its positions), made once; `given` is adopted when it is for this topology. */
+export function intrinsicOf(s: SolvableSurface, given?: IntrinsicMesh): IntrinsicMesh {
+  const p = partsOf(s);
+  if (given && given.topology === s.topology) p.mesh ??= given;
+  return (p.mesh ??= intrinsicFromPositions(s.topology, s.positions));
+}
+
+/** The orientation double cover of `s`, or null when `s` is orientable (no seams); made once. */
+export function coverOf(s: SolvableSurface): OrientationCover | null {
+  const p = partsOf(s);
+  if (p.cover === undefined) {
+    const seams = s.report.orientationSeams;
+    p.cover = seams.length ? orientationCover(s.topology, s.positions, seams) : null;
+  }
+  return p.cover;
+}
+
+/** {@link splitGroups} of `s`, made once. */
+export function groupsOf(s: SolvableSurface): number[][] {
+  const p = partsOf(s);
+  return (p.groups ??= splitGroups(s.topology));
+}
