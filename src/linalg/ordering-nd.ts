@@ -28,8 +28,8 @@
  */
 import type { AdjacencyGraph } from './graph.js';
 import { approximateMinimumDegree } from './ordering-amd.js';
-import { bestCuts, cutWork, refineSeparator, splitByCut, thinSeparator } from './separator.js';
-import type { Cut } from './separator.js';
+import { bestCuts, keyedCut, refineSeparator, separatorContext, splitByCut, thinSeparator } from './separator.js';
+import type { KeyedCut, SeparatorContext } from './separator.js';
 
 /**
  * Each part keeps at least this share of the vertices outside the separator
@@ -56,203 +56,256 @@ export interface NestedDissectionOptions {
   leafOrder?: 'amd' | 'bfs';
 }
 
+/**
+ * Slots of the four bisection keys in NdState.keys, in the order they are
+ * preferred on ties: the level d(v, x); d(u, x) − d(v, x); d(u, x) − d(w, x);
+ * d(v, x) − d(w, x) (the differences shifted to ≥ 0).
+ */
+const KEY_LEVEL = 0;
+const KEY_UV = 1;
+const KEY_UW = 2;
+const KEY_VW = 3;
+
+/** Everything one nested dissection works in: n-length typed arrays, reused by every subgraph. */
+interface NdState {
+  readonly xadj: Int32Array;
+  readonly adj: Int32Array;
+  /** The permutation being built: ranges of it are rearranged in place. */
+  readonly verts: Int32Array;
+  /** label[v] = id of the subgraph being split that holds v, else −1. */
+  readonly label: Int32Array;
+  /** BFS: level of each reached vertex, the queue in level order, level offsets into it. */
+  readonly level: Int32Array;
+  readonly queue: Int32Array;
+  readonly levelPtr: Int32Array;
+  /** BFS visit stamps; `bfsStamp` is the next free one. */
+  readonly visit: Int32Array;
+  bfsStamp: number;
+  readonly tmp: Int32Array;
+  /** Leaf-local vertex numbers. */
+  readonly local: Int32Array;
+  /** One record per bisection key (slots KEY_LEVEL … KEY_VW). */
+  readonly keys: readonly [KeyedCut, KeyedCut, KeyedCut, KeyedCut];
+  readonly sep: SeparatorContext;
+  /** Pending subgraphs as lo, hi pairs of `verts` ranges. */
+  readonly ranges: number[];
+}
+
 /** Returns perm with perm[k] = the vertex eliminated k-th. */
 export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOptions = {}): Int32Array {
   const { n, xadj, adj } = g;
   const leafSize = Math.max(2, opts.leafSize ?? 512);
+  const leafAmd = (opts.leafOrder ?? 'amd') === 'amd';
   const verts = new Int32Array(n);
   for (let v = 0; v < n; v++) verts[v] = v;
   const label = new Int32Array(n).fill(-1);
-  const level = new Int32Array(n);
-  const queue = new Int32Array(n);
   const tmp = new Int32Array(n);
-  const levelPtr = new Int32Array(n + 2);
-  const ranges: number[] = [0, n];
-  const leafAmd = (opts.leafOrder ?? 'amd') === 'amd';
-  const local = new Int32Array(n);
-
-  /** Orders verts[lo..hi) (all labelled `lab`) by AMD on their induced subgraph. */
-  const orderLeaf = (lo: number, hi: number, lab: number): void => {
-    const m = hi - lo;
-    for (let k = lo; k < hi; k++) local[verts[k]!] = k - lo;
-    const lx = new Int32Array(m + 1);
-    for (let k = lo; k < hi; k++) {
-      const v = verts[k]!;
-      let d = 0;
-      for (let p = xadj[v]!; p < xadj[v + 1]!; p++) if (label[adj[p]!] === lab) d++;
-      lx[k - lo + 1] = lx[k - lo]! + d;
-    }
-    const la = new Int32Array(lx[m]!);
-    for (let k = lo, q = 0; k < hi; k++) {
-      const v = verts[k]!;
-      for (let p = xadj[v]!; p < xadj[v + 1]!; p++) if (label[adj[p]!] === lab) la[q++] = local[adj[p]!]!;
-    }
-    const lp = approximateMinimumDegree({ n: m, xadj: lx, adj: la });
-    for (let k = 0; k < m; k++) tmp[k] = verts[lo + lp[k]!]!;
-    verts.set(tmp.subarray(0, m), lo);
+  const s: NdState = {
+    xadj,
+    adj,
+    verts,
+    label,
+    level: new Int32Array(n),
+    queue: new Int32Array(n),
+    levelPtr: new Int32Array(n + 2),
+    visit: new Int32Array(n).fill(-1),
+    bfsStamp: 0,
+    tmp,
+    local: new Int32Array(n),
+    keys: [keyedCut(n), keyedCut(n), keyedCut(n), keyedCut(n)],
+    sep: separatorContext(xadj, adj, label, tmp),
+    ranges: [0, n],
   };
   let id = 0;
-
-  const visit = new Int32Array(n).fill(-1);
-  const keyA = new Int32Array(n);
-  const keyB = new Int32Array(n);
-  const workA = cutWork(n);
-  const workB = cutWork(n);
-  const cutBufA: Cut = { size: 0, t: 0, down: false };
-  const cutBufB: Cut = { size: 0, t: 0, down: false };
-  const keyC = new Int32Array(n);
-  const keyD = new Int32Array(n);
-  const workC = cutWork(n);
-  const workD = cutWork(n);
-  const cutBufC: Cut = { size: 0, t: 0, down: false };
-  const cutBufD: Cut = { size: 0, t: 0, down: false };
-  let stamp = 0;
-  const side = new Uint8Array(n);
-  const moved = new Int32Array(n);
-  const refineOut = new Int32Array(3);
-  let moveStamp = 0;
-
-  /**
-   * BFS from `root` over vertices labelled `lab`; fills queue[0..count) in
-   * level order, level[], levelPtr[0..nlev]; returns the number of levels
-   * (the count reached is levelPtr[nlev]).
-   */
-  const bfs = (root: number, lab: number): number => {
-    const st = stamp++;
-    let head = 0, tail = 0, nlev = 0;
-    queue[tail++] = root;
-    visit[root] = st;
-    while (head < tail) {
-      const levelEnd = tail;
-      levelPtr[nlev] = head;
-      for (; head < levelEnd; head++) {
-        const v = queue[head]!;
-        level[v] = nlev;
-        for (let p = xadj[v]!; p < xadj[v + 1]!; p++) {
-          const w = adj[p]!;
-          if (label[w] !== lab || visit[w] === st) continue;
-          visit[w] = st;
-          queue[tail++] = w;
-        }
-      }
-      nlev++;
-    }
-    levelPtr[nlev] = tail;
-    return nlev;
-  };
-
-  while (ranges.length > 0) {
-    const hi = ranges.pop()!;
-    const lo = ranges.pop()!;
-    const m = hi - lo;
+  while (s.ranges.length > 0) {
+    const hi = s.ranges.pop()!;
+    const lo = s.ranges.pop()!;
     const lab = id++;
     for (let k = lo; k < hi; k++) label[verts[k]!] = lab;
-    if (m <= leafSize) {
-      if (leafAmd && m > 2) orderLeaf(lo, hi, lab);
+    if (hi - lo <= leafSize) {
+      if (leafAmd && hi - lo > 2) orderLeaf(s, lo, hi, lab);
       continue;
     }
-
-    let root = verts[lo]!;
-    let nlev = bfs(root, lab);
-    if (levelPtr[nlev]! < m) {
-      // disconnected: reached component first, the rest after, no separator
-      let a = lo, b = 0;
-      for (let k = lo; k < hi; k++) {
-        const v = verts[k]!;
-        if (visit[v] === stamp - 1) verts[a++] = v;
-        else tmp[b++] = v;
-      }
-      verts.set(tmp.subarray(0, b), a);
-      for (let k = lo; k < hi; k++) label[verts[k]!] = -1;
-      ranges.push(lo, a, a, hi);
-      continue;
-    }
-    // pseudo-peripheral pair: restart from a minimum-degree vertex of the
-    // last level while that deepens the structure; keyB keeps d(u, ·) of the
-    // previous root u, `level` ends as d(v, ·) of the final root v
-    let nlevU = 0;
-    for (let it = 0; it < PERIPHERAL_ROUNDS; it++) {
-      let best = -1, bestDeg = Infinity;
-      for (let k = levelPtr[nlev - 1]!; k < levelPtr[nlev]!; k++) {
-        const v = queue[k]!;
-        const d = xadj[v + 1]! - xadj[v]!;
-        if (d < bestDeg) {
-          bestDeg = d;
-          best = v;
-        }
-      }
-      for (let k = 0; k < m; k++) keyB[queue[k]!] = level[queue[k]!]!;
-      nlevU = nlev;
-      const nl = bfs(best, lab);
-      const deeper = nl > nlev;
-      nlev = nl;
-      if (!deeper) break;
-    }
-    if (nlev < 3) continue; // too shallow to split (nearly complete graph): keep as a leaf
-    // key A: d(v, x); key B: d(u, x) − d(v, x) shifted to ≥ 0; keyC keeps d(u, x)
-    for (let k = 0; k < m; k++) {
-      const x = queue[k]!;
-      keyA[x] = level[x]!;
-      keyC[x] = keyB[x]!;
-      keyB[x] = keyB[x]! - level[x]! + nlev;
-    }
-    const nlevA = nlev, nlevB = nlevU;
-    bestCuts(queue, m, keyA, nlevA, keyB, nlevA + nlevB + 1, xadj, adj, label, lab, BALANCE, workA, workB, cutBufA, cutBufB);
-    // no balanced cut (e.g. a star): the "up" separator at the median level of key A
-    let fallbackT = 1;
-    while (fallbackT < nlevA - 2 && levelPtr[fallbackT + 1]! < m / 2) fallbackT++;
-    let key = keyB, cut = cutBufB, work = workB;
-    if (cutBufA.size <= cutBufB.size) {
-      key = keyA;
-      cut = cutBufA;
-      work = workA;
-    }
-    {
-      // u and v are far apart, and so is the pair (u, w) and (v, w) for w
-      // far from both: on a grid-like patch u, v are opposite corners, whose
-      // bisector is diagonal, and w is a third corner; the bisectors
-      // d(u,·) − d(w,·) and d(v,·) − d(w,·) cut straight across, shorter
-      let w = queue[0]!, far = -1;
-      for (let k = 0; k < m; k++) {
-        const x = queue[k]!, d = keyA[x]! + keyC[x]!;
-        if (d > far) {
-          far = d;
-          w = x;
-        }
-      }
-      const nlevW = bfs(w, lab);
-      for (let k = 0; k < m; k++) {
-        const x = queue[k]!;
-        keyC[x] = keyC[x]! - level[x]! + nlevW;
-        keyD[x] = keyA[x]! - level[x]! + nlevW;
-      }
-      bestCuts(queue, m, keyC, nlevB + nlevW + 1, keyD, nlevA + nlevW + 1, xadj, adj, label, lab, BALANCE, workC, workD, cutBufC, cutBufD);
-      if (cutBufC.size < cut.size) {
-        key = keyC;
-        cut = cutBufC;
-        work = workC;
-      }
-      if (cutBufD.size < cut.size) {
-        key = keyD;
-        cut = cutBufD;
-        work = workD;
-      }
-    }
-    if (cut.size === Infinity) {
-      key = keyA;
-      cut = cutBufA;
-      work = workA;
-      cut.t = fallbackT;
-      cut.down = false;
-    }
-    const [na0, nb0] = splitByCut(queue, m, key, cut, work, tmp);
-    let [na, nb] = thinSeparator(tmp, m, na0, nb0, xadj, adj, label, lab, side, verts.subarray(lo, hi));
-    refineSeparator(verts.subarray(lo, hi), m, na, nb, xadj, adj, label, lab, side, tmp, moved, moveStamp, REFINE_PASSES, REFINE_SHARE, refineOut);
-    na = refineOut[0]!;
-    nb = refineOut[1]!;
-    moveStamp = refineOut[2]!;
-    for (let k = lo; k < hi; k++) label[verts[k]!] = -1;
-    ranges.push(lo, lo + na, lo + na, lo + na + nb);
+    splitRange(s, lo, hi, lab);
   }
   return verts;
+}
+
+/** Orders verts[lo..hi) (all labelled `lab`) by AMD on their induced subgraph. */
+function orderLeaf(s: NdState, lo: number, hi: number, lab: number): void {
+  const { verts, local, xadj, adj, label, tmp } = s;
+  const m = hi - lo;
+  for (let k = lo; k < hi; k++) local[verts[k]!] = k - lo;
+  const lx = new Int32Array(m + 1);
+  for (let k = lo; k < hi; k++) {
+    const v = verts[k]!;
+    let d = 0;
+    for (let p = xadj[v]!; p < xadj[v + 1]!; p++) if (label[adj[p]!] === lab) d++;
+    lx[k - lo + 1] = lx[k - lo]! + d;
+  }
+  const la = new Int32Array(lx[m]!);
+  for (let k = lo, q = 0; k < hi; k++) {
+    const v = verts[k]!;
+    for (let p = xadj[v]!; p < xadj[v + 1]!; p++) if (label[adj[p]!] === lab) la[q++] = local[adj[p]!]!;
+  }
+  const lp = approximateMinimumDegree({ n: m, xadj: lx, adj: la });
+  for (let k = 0; k < m; k++) tmp[k] = verts[lo + lp[k]!]!;
+  verts.set(tmp.subarray(0, m), lo);
+}
+
+/**
+ * BFS from `root` over vertices labelled `lab`; fills queue[0..count) in
+ * level order, level[], levelPtr[0..nlev]; returns the number of levels
+ * (the count reached is levelPtr[nlev]).
+ */
+function bfs(s: NdState, root: number, lab: number): number {
+  const { queue, visit, levelPtr, level, xadj, adj, label } = s;
+  const st = s.bfsStamp++;
+  let head = 0, tail = 0, nlev = 0;
+  queue[tail++] = root;
+  visit[root] = st;
+  while (head < tail) {
+    const levelEnd = tail;
+    levelPtr[nlev] = head;
+    for (; head < levelEnd; head++) {
+      const v = queue[head]!;
+      level[v] = nlev;
+      for (let p = xadj[v]!; p < xadj[v + 1]!; p++) {
+        const w = adj[p]!;
+        if (label[w] !== lab || visit[w] === st) continue;
+        visit[w] = st;
+        queue[tail++] = w;
+      }
+    }
+    nlev++;
+  }
+  levelPtr[nlev] = tail;
+  return nlev;
+}
+
+/**
+ * Splits the subgraph verts[lo..hi) (labelled `lab`) and queues its parts:
+ * by component when it is disconnected, else by a vertex separator (A, B
+ * queued, S kept last). A subgraph too shallow to split stays as it is.
+ */
+function splitRange(s: NdState, lo: number, hi: number, lab: number): void {
+  const { verts, label, levelPtr } = s;
+  const m = hi - lo;
+  const sep = s.sep;
+  sep.lab = lab;
+  let nlev = bfs(s, verts[lo]!, lab);
+  if (levelPtr[nlev]! < m) {
+    splitByComponent(s, lo, hi);
+    return;
+  }
+  const peripheral = pseudoPeripheral(s, lab, m, nlev);
+  nlev = peripheral.nlev;
+  if (nlev < 3) return; // too shallow to split (nearly complete graph): keep as a leaf
+  const cut = chooseCut(s, lab, m, nlev, peripheral.nlevU);
+  const part = verts.subarray(lo, hi);
+  const [na0, nb0] = splitByCut(s.queue, m, cut, s.tmp);
+  const [na1, nb1] = thinSeparator(sep, s.tmp, m, na0, nb0, part);
+  const [na, nb] = refineSeparator(sep, part, m, na1, nb1, REFINE_PASSES, REFINE_SHARE);
+  for (let k = lo; k < hi; k++) label[verts[k]!] = -1;
+  s.ranges.push(lo, lo + na, lo + na, lo + na + nb);
+}
+
+/** Disconnected subgraph: the component the last BFS reached first, the rest after, no separator. */
+function splitByComponent(s: NdState, lo: number, hi: number): void {
+  const { verts, visit, tmp, label } = s;
+  const reached = s.bfsStamp - 1;
+  let a = lo, b = 0;
+  for (let k = lo; k < hi; k++) {
+    const v = verts[k]!;
+    if (visit[v] === reached) verts[a++] = v;
+    else tmp[b++] = v;
+  }
+  verts.set(tmp.subarray(0, b), a);
+  for (let k = lo; k < hi; k++) label[verts[k]!] = -1;
+  s.ranges.push(lo, a, a, hi);
+}
+
+/**
+ * Pseudo-peripheral pair: restarts the BFS from a minimum-degree vertex of the
+ * last level while that deepens the structure. On return the UV key holds
+ * d(u, ·) of the previous root u (nlevU levels) and `level` holds d(v, ·) of
+ * the final root v (nlev levels).
+ */
+function pseudoPeripheral(s: NdState, lab: number, m: number, nlev: number): { nlev: number; nlevU: number } {
+  const { queue, levelPtr, level, xadj } = s;
+  const du = s.keys[KEY_UV].key;
+  let nlevU = 0;
+  for (let it = 0; it < PERIPHERAL_ROUNDS; it++) {
+    let best = -1, bestDeg = Infinity;
+    for (let k = levelPtr[nlev - 1]!; k < levelPtr[nlev]!; k++) {
+      const v = queue[k]!;
+      const d = xadj[v + 1]! - xadj[v]!;
+      if (d < bestDeg) {
+        bestDeg = d;
+        best = v;
+      }
+    }
+    for (let k = 0; k < m; k++) du[queue[k]!] = level[queue[k]!]!;
+    nlevU = nlev;
+    const nl = bfs(s, best, lab);
+    const deeper = nl > nlev;
+    nlev = nl;
+    if (!deeper) break;
+  }
+  return { nlev, nlevU };
+}
+
+/**
+ * Fills the four keys and returns the one whose best balanced cut has the
+ * smallest separator (ties to the earlier key); without any balanced cut (e.g.
+ * a star), the "up" separator of the level key at its median level. Leaves
+ * `queue` in the order of the last BFS (from w), which splitByCut follows.
+ */
+function chooseCut(s: NdState, lab: number, m: number, nlevV: number, nlevU: number): KeyedCut {
+  const { queue, level, levelPtr } = s;
+  const keys = s.keys;
+  const lv = keys[KEY_LEVEL], uv = keys[KEY_UV], uw = keys[KEY_UW], vw = keys[KEY_VW];
+  const dv = lv.key, duv = uv.key, duw = uw.key, dvw = vw.key;
+  // level: d(v, x); UV: d(u, x) − d(v, x) shifted to ≥ 0; UW keeps d(u, x) for now
+  for (let k = 0; k < m; k++) {
+    const x = queue[k]!;
+    dv[x] = level[x]!;
+    duw[x] = duv[x]!;
+    duv[x] = duv[x]! - level[x]! + nlevV;
+  }
+  lv.range = nlevV;
+  uv.range = nlevV + nlevU + 1;
+  bestCuts(s.sep, queue, m, lv, uv, BALANCE);
+  let fallbackT = 1;
+  while (fallbackT < nlevV - 2 && levelPtr[fallbackT + 1]! < m / 2) fallbackT++;
+  let best = lv.cut.size <= uv.cut.size ? lv : uv;
+  // u and v are far apart, and so is the pair (u, w) and (v, w) for w
+  // far from both: on a grid-like patch u, v are opposite corners, whose
+  // bisector is diagonal, and w is a third corner; the bisectors
+  // d(u,·) − d(w,·) and d(v,·) − d(w,·) cut straight across, shorter
+  let w = queue[0]!, far = -1;
+  for (let k = 0; k < m; k++) {
+    const x = queue[k]!, d = dv[x]! + duw[x]!;
+    if (d > far) {
+      far = d;
+      w = x;
+    }
+  }
+  const nlevW = bfs(s, w, lab);
+  for (let k = 0; k < m; k++) {
+    const x = queue[k]!;
+    duw[x] = duw[x]! - level[x]! + nlevW;
+    dvw[x] = dv[x]! - level[x]! + nlevW;
+  }
+  uw.range = nlevU + nlevW + 1;
+  vw.range = nlevV + nlevW + 1;
+  bestCuts(s.sep, queue, m, uw, vw, BALANCE);
+  if (uw.cut.size < best.cut.size) best = uw;
+  if (vw.cut.size < best.cut.size) best = vw;
+  if (best.cut.size === Infinity) {
+    best = lv;
+    best.cut.t = fallbackT;
+    best.cut.down = false;
+  }
+  return best;
 }

@@ -17,6 +17,33 @@
  * "middle" between u and v, which are straighter on grid-like meshes.
  */
 
+/**
+ * The subgraph being split and the scratch the separator routines share: the
+ * graph (xadj, adj), the vertices labelled `lab` in `label`, and n-length
+ * scratch arrays. One context serves a whole nested dissection.
+ */
+export interface SeparatorContext {
+  readonly xadj: Int32Array;
+  readonly adj: Int32Array;
+  /** label[v] === lab marks the vertices of the current subgraph. */
+  readonly label: Int32Array;
+  lab: number;
+  /** Part of each listed vertex: 0 = A, 1 = B, 2 = S (set by {@link thinSeparator}). */
+  readonly side: Uint8Array;
+  /** Scratch list for {@link refineSeparator}. */
+  readonly list: Int32Array;
+  /** Pass stamps of {@link refineSeparator}: moved[x] === a pass's stamp when x moved in it. */
+  readonly moved: Int32Array;
+  /** Next free stamp for `moved` (every entry of `moved` is below it). */
+  moveStamp: number;
+}
+
+/** Allocates a {@link SeparatorContext} for a graph, its label array and a scratch list (all n-length). */
+export function separatorContext(xadj: Int32Array, adj: Int32Array, label: Int32Array, list: Int32Array): SeparatorContext {
+  const n = label.length;
+  return { xadj, adj, label, lab: -1, side: new Uint8Array(n), list, moved: new Int32Array(n), moveStamp: 0 };
+}
+
 /** Scratch arrays for {@link bestCuts}; n = graph size, R = key range bound. */
 export interface CutWork {
   /** Largest neighbour key per vertex. */
@@ -31,12 +58,6 @@ export interface CutWork {
   readonly count: Int32Array;
 }
 
-/** Allocates {@link CutWork} for a graph of n vertices (keys < 2n + 2). */
-export function cutWork(n: number): CutWork {
-  const r = 2 * n + 4;
-  return { maxKey: new Int32Array(n), minKey: new Int32Array(n), up: new Int32Array(r), down: new Int32Array(r), count: new Int32Array(r) };
-}
-
 /** The chosen cut: separator size, threshold t and side; size = Infinity if none is balanced. */
 export interface Cut {
   size: number;
@@ -44,33 +65,34 @@ export interface Cut {
   down: boolean;
 }
 
+/** One vertex key (values in [0, range)), its scratch, and the best cut {@link bestCuts} found for it. */
+export interface KeyedCut {
+  readonly key: Int32Array;
+  range: number;
+  readonly work: CutWork;
+  readonly cut: Cut;
+}
+
+/** Allocates a {@link KeyedCut} for a graph of n vertices (keys < 2n + 2). */
+export function keyedCut(n: number): KeyedCut {
+  const r = 2 * n + 4;
+  const work = { maxKey: new Int32Array(n), minKey: new Int32Array(n), up: new Int32Array(r), down: new Int32Array(r), count: new Int32Array(r) };
+  return { key: new Int32Array(n), range: 0, work, cut: { size: 0, t: 0, down: false } };
+}
+
 /**
  * For two keys at once (one pass over the edges), finds the smallest
  * one-sided separator among the cuts that leave both parts non-empty and at
- * least `balance` × (m − |S|) vertices each. Vertices are verts[0..m), all
- * labelled `lab`; keyA < RA, keyB < RB. Fills the min/max neighbour keys of
- * wA and wB (used by {@link splitByCut}); a result has size Infinity when no
- * cut is balanced.
+ * least `balance` × (m − |S|) vertices each, into a.cut and b.cut. Vertices
+ * are verts[0..m), all labelled ctx.lab. Fills the min/max neighbour keys of
+ * each work (used by {@link splitByCut}); a cut has size Infinity when none
+ * is balanced.
  */
-export function bestCuts(
-  verts: Int32Array,
-  m: number,
-  keyA: Int32Array,
-  RA: number,
-  keyB: Int32Array,
-  RB: number,
-  xadj: Int32Array,
-  adj: Int32Array,
-  label: Int32Array,
-  lab: number,
-  balance: number,
-  wA: CutWork,
-  wB: CutWork,
-  outA: Cut,
-  outB: Cut,
-): void {
-  clear(wA, RA);
-  clear(wB, RB);
+export function bestCuts(ctx: SeparatorContext, verts: Int32Array, m: number, a: KeyedCut, b: KeyedCut, balance: number): void {
+  const { xadj, adj, label, lab } = ctx;
+  const keyA = a.key, keyB = b.key, wA = a.work, wB = b.work;
+  clear(wA, a.range);
+  clear(wB, b.range);
   for (let q = 0; q < m; q++) {
     const x = verts[q]!, ka = keyA[x]!, kb = keyB[x]!;
     let mxa = ka, mna = ka, mxb = kb, mnb = kb;
@@ -86,8 +108,8 @@ export function bestCuts(
     record(wA, x, ka, mxa, mna);
     record(wB, x, kb, mxb, mnb);
   }
-  scan(wA, RA, m, balance, outA);
-  scan(wB, RB, m, balance, outB);
+  scan(wA, a.range, m, balance, a.cut);
+  scan(wB, b.range, m, balance, b.cut);
 }
 
 function clear(w: CutWork, R: number): void {
@@ -136,11 +158,12 @@ function scan(w: CutWork, R: number, m: number, balance: number, out: Cut): void
 }
 
 /**
- * Writes A, then B, then S of the cut (as found by the last {@link bestCuts}
- * call with the same key) into out[0..m); returns [|A|, |B|].
+ * Writes A, then B, then S of kc.cut (as found by the last {@link bestCuts}
+ * call with kc) into out[0..m); returns [|A|, |B|].
  */
-export function splitByCut(verts: Int32Array, m: number, key: Int32Array, cut: Cut, w: CutWork, out: Int32Array): [number, number] {
-  const { maxKey, minKey } = w;
+export function splitByCut(verts: Int32Array, m: number, kc: KeyedCut, out: Int32Array): [number, number] {
+  const { key, cut } = kc;
+  const { maxKey, minKey } = kc.work;
   const t = cut.t;
   let na = 0;
   for (let q = 0; q < m; q++) {
@@ -167,14 +190,12 @@ export function splitByCut(verts: Int32Array, m: number, key: Int32Array, cut: C
  * neighbour in B moves to A, one with no neighbour in A moves to B (to the
  * smaller part when it has neither), one at a time, so A and B never become
  * adjacent. Level-set separators on irregular meshes are jagged, and such
- * vertices are common there. `side` is an n-length scratch array (0 = A,
- * 1 = B, 2 = S on exit for the listed vertices). Writes the new A, B, S
+ * vertices are common there. Leaves ctx.side as 0 = A, 1 = B, 2 = S for the
+ * listed vertices (subgraph: vertices labelled ctx.lab). Writes the new A, B, S
  * into dest[0..m) and returns [|A|, |B|].
  */
-export function thinSeparator(
-  out: Int32Array, m: number, na: number, nb: number, xadj: Int32Array, adj: Int32Array,
-  label: Int32Array, lab: number, side: Uint8Array, dest: Int32Array,
-): [number, number] {
+export function thinSeparator(ctx: SeparatorContext, out: Int32Array, m: number, na: number, nb: number, dest: Int32Array): [number, number] {
+  const { xadj, adj, label, lab, side } = ctx;
   for (let q = 0; q < m; q++) side[out[q]!] = q < na ? 0 : q < na + nb ? 1 : 2;
   let a = na, b = nb;
   for (let q = na + nb; q < m; q++) {
@@ -211,18 +232,16 @@ export function thinSeparator(
  * only improve the balance); each vertex moves at most once per pass and a
  * move never pulls a vertex that already moved in that pass, so a pass
  * ends. Parts keep at least `minShare` of the vertices outside S. Input: dest[0..m) as
- * A, B, S with sizes na, nb (e.g. from {@link thinSeparator}); `side` as left
- * by it. Rewrites dest and returns [|A|, |B|]. `list` and `moved` are
- * n-length scratch arrays (`moved` all ≤ `stamp0` on entry). Writes |A|,
- * |B| and the next free stamp to out[0..2].
+ * A, B, S with sizes na, nb (e.g. from {@link thinSeparator}); ctx.side as left
+ * by it. Uses ctx.list and ctx.moved as scratch and advances ctx.moveStamp.
+ * Rewrites dest and returns [|A|, |B|].
  */
 export function refineSeparator(
-  dest: Int32Array, m: number, na: number, nb: number, xadj: Int32Array, adj: Int32Array,
-  label: Int32Array, lab: number, side: Uint8Array, list: Int32Array, moved: Int32Array, stamp0: number,
-  passes: number, minShare: number, out: Int32Array,
-): void {
+  ctx: SeparatorContext, dest: Int32Array, m: number, na: number, nb: number, passes: number, minShare: number,
+): [number, number] {
+  const { xadj, adj, label, lab, side, list, moved } = ctx;
   const size = [na, nb];
-  let stamp = stamp0;
+  let stamp = ctx.moveStamp;
   for (let pass = 0; pass < passes; pass++) {
     const st = ++stamp;
     let top = 0;
@@ -285,7 +304,6 @@ export function refineSeparator(
     list[sx === 0 ? ia++ : sx === 1 ? ib++ : is++] = x;
   }
   dest.set(list.subarray(0, m));
-  out[0] = size[0]!;
-  out[1] = size[1]!;
-  out[2] = stamp + 1;
+  ctx.moveStamp = stamp + 1;
+  return [size[0]!, size[1]!];
 }

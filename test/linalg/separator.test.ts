@@ -9,7 +9,7 @@
  */
 import { describe, expect } from 'vitest';
 import { test as fcTest, fc } from '@fast-check/vitest';
-import { refineSeparator, thinSeparator } from '../../src/linalg/separator.js';
+import { refineSeparator, separatorContext, thinSeparator } from '../../src/linalg/separator.js';
 
 function graphFrom(n: number, edges: [number, number][]): { xadj: Int32Array; adj: Int32Array } {
   const deg = new Int32Array(n + 1);
@@ -46,9 +46,10 @@ describe('thinSeparator', () => {
   ], { numRuns: 200 })('keeps a valid separator, never larger, with both sides adjacent to every S vertex', ([n, edges, inA]) => {
     const { xadj, adj } = graphFrom(n, edges);
     const { order, na0, nb0 } = upSeparator(n, xadj, adj, inA);
-    const label = new Int32Array(n).fill(7);
+    const ctx = separatorContext(xadj, adj, new Int32Array(n).fill(7), new Int32Array(n));
+    ctx.lab = 7;
     const dest = new Int32Array(n);
-    const [na, nb] = thinSeparator(Int32Array.from(order), n, na0, nb0, xadj, adj, label, 7, new Uint8Array(n), dest);
+    const [na, nb] = thinSeparator(ctx, Int32Array.from(order), n, na0, nb0, dest);
     expect([...dest].sort((a, b) => a - b)).toEqual([...Array(n).keys()]);
     expect(na).toBeGreaterThanOrEqual(na0);
     expect(nb).toBeGreaterThanOrEqual(nb0);
@@ -75,13 +76,11 @@ describe('thinSeparator', () => {
   ], { numRuns: 200 })('refinement keeps a valid separator and never grows it', ([n, edges, inA]) => {
     const { xadj, adj } = graphFrom(n, edges);
     const { order, na0, nb0 } = upSeparator(n, xadj, adj, inA);
-    const label = new Int32Array(n).fill(3);
-    const side = new Uint8Array(n);
+    const ctx = separatorContext(xadj, adj, new Int32Array(n).fill(3), new Int32Array(n));
+    ctx.lab = 3;
     const dest = new Int32Array(n);
-    const [na1, nb1] = thinSeparator(Int32Array.from(order), n, na0, nb0, xadj, adj, label, 3, side, dest);
-    const out = new Int32Array(3);
-    refineSeparator(dest, n, na1, nb1, xadj, adj, label, 3, side, new Int32Array(n), new Int32Array(n), 0, 4, 0.2, out);
-    const [na, nb] = [out[0]!, out[1]!];
+    const [na1, nb1] = thinSeparator(ctx, Int32Array.from(order), n, na0, nb0, dest);
+    const [na, nb] = refineSeparator(ctx, dest, n, na1, nb1, 4, 0.2);
     expect([...dest].sort((a, b) => a - b)).toEqual([...Array(n).keys()]);
     expect(n - na - nb).toBeLessThanOrEqual(n - na1 - nb1);
     const part = new Uint8Array(n);
