@@ -118,6 +118,15 @@ export function fmt(x: number, digits = 6): string {
   return x.toExponential(digits - 1);
 }
 
+/**
+ * Formats a coordinate exactly: the shortest decimal that reads back to the
+ * same double (ECMAScript Number-to-String), so map coordinates keep their
+ * millimetres (`fmt` would print a northing of 5413398.123 as 5413400).
+ */
+export function fmtCoord(x: number): string {
+  return String(x);
+}
+
 /** JSON.stringify that writes non-finite numbers as null (never NaN in output). */
 export function toJson(value: unknown, indent = 2): string {
   return JSON.stringify(

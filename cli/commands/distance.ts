@@ -6,7 +6,7 @@
 import { Command, Option } from 'commander';
 import { loadSurface, maxInputSizeOption } from '../load.js';
 import { checkFieldOutput, writeVertexColumns } from '../output.js';
-import { action, fmt, toJson } from '../run.js';
+import { action, fmt, fmtCoord, toJson } from '../run.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
 import { PointResolver } from '../../src/query/resolve.js';
 import { formatSurfacePoint, type SurfacePoint } from '../../src/query/surface-point.js';
@@ -21,6 +21,7 @@ import { describeField, summarizeField } from '../field-summary.js';
 import { usageError } from '../../src/errors.js';
 import { commonFaces } from '../../src/geodesic/exact/layout.js';
 import { TIME_SCALE_RANGE } from '../../src/geodesic/heat.js';
+import { isLoopSpec, resolveLoopSpec } from '../../src/api/points.js';
 
 interface DistanceCliOptions {
   from?: string[];
@@ -59,7 +60,7 @@ export function registerDistance(program: Command): void {
     .command('distance')
     .description('geodesic distance on the surface from sources to every vertex and to target points')
     .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
-    .option('--from <point>', "source: v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2, p:X,Y,Z (nearest surface point in 3D), p:X,Y (the surface point straight below or above, along +z) or 'boundary' (all boundary loops); repeat for several", collect)
+    .option('--from <point>', "source: v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2, p:X,Y,Z (nearest surface point in 3D), p:X,Y (the surface point straight below or above, along +z), 'boundary' (all boundary loops), loop:ID (one boundary loop, ids as 'inspect' lists them), loop@X,Y,Z or loop@X,Y (the boundary loop nearest the point, in 3D or in plan); repeat for several", collect)
     .option('--from-curve <points>', "a curve source: point specs separated by ';', each consecutive pair on a common face (e.g. 'v:3;e:17:0.5;v:9'); repeat for several", collect)
     .option('--to <point>', 'target point whose distance is printed; repeat for several', collect)
     .option('--each', 'treat each --from as its own source set (one field per source, one prepared solver)')
@@ -120,6 +121,8 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
         const loops = cover ? cover.boundaryCurves() : boundaryCurves(t);
         if (loops.length === 0) throw usageError('--from boundary: the mesh has no boundary', mesh);
         set.curves.push(...loops);
+      } else if (isLoopSpec(s)) {
+        set.curves.push(...resolveLoopSpec(s, { topology: t, positions: surface.positions, seams }, '--from', mesh).curves); // one boundary loop
       } else set.points.push(...resolver.resolveAll(s, '--from')); // every copy of a split vertex
     }
     return set;
@@ -203,7 +206,7 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
     process.stdout.write(toJson({ ...body, timings, prepare: solver.prepareDetails }) + '\n');
   } else {
     const L: string[] = [`${mesh}: ${o.method} distances (mesh units), ${t.nv} vertices`];
-    for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map((x) => fmt(x, 12)).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
+    for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map(fmtCoord).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
     for (const r of results) {
       L.push(`  from ${r.sources.join(' ')}: ${describeField(r.summary, maxDistance)}`);
       for (const tg of r.targets) L.push(`    to ${tg.point}: ${Number.isFinite(tg.distance) ? fmt(tg.distance, 9) : 'unreachable'}`);

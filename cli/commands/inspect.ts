@@ -2,7 +2,7 @@
 import type { Command } from 'commander';
 import { loadSurface, maxInputSizeOption } from '../load.js';
 import { inspectSurface, inspectProblems, type InspectReport } from '../../src/report/inspect.js';
-import { action, fmt, toJson } from '../run.js';
+import { action, fmt, fmtCoord, toJson } from '../run.js';
 import { requireOption, parseRequirements, runGates, formatGates, failOnGates } from '../gates.js';
 
 /** Human-readable lines of an inspect report. */
@@ -14,15 +14,29 @@ export function formatInspect(r: InspectReport): string {
   L.push(
     `  components ${r.components}, boundary loops ${r.boundaryLoops}, Euler characteristic ${r.eulerCharacteristic}, genus ${r.genus ?? 'n/a (not orientable)'}`,
   );
+  L.push(...formatLoops(r));
   const probs = inspectProblems(r);
   L.push(`  problems: ${probs.length ? probs.join('; ') : 'none'}`);
-  L.push(`  area ${fmt(r.area)} units², bounding box [${r.boundingBox.min.map((x) => fmt(x)).join(', ')}] – [${r.boundingBox.max.map((x) => fmt(x)).join(', ')}]`);
+  L.push(`  area ${fmt(r.area)} units², bounding box [${r.boundingBox.min.map(fmtCoord).join(', ')}] – [${r.boundingBox.max.map(fmtCoord).join(', ')}]`);
   L.push(`  edge length min ${fmt(r.edgeLength.min)} / mean ${fmt(r.edgeLength.mean)} / max ${fmt(r.edgeLength.max)} units`);
   L.push(`  angles min ${deg(r.minAngleDeg)}, max ${deg(r.maxAngleDeg)}; obtuse triangles ${fmt(100 * r.obtuseFraction, 3)}%`);
   L.push(
     `  total angle defect ${fmt(r.totalAngleDefect)} rad, boundary turning ${fmt(r.totalBoundaryTurning)} rad, Gauss–Bonnet residual ${fmt(r.gaussBonnetResidual, 3)} rad`,
   );
   return L.join('\n');
+}
+
+/** How many boundary loops the text report lists (--json lists more, with their vertices). */
+const LOOPS_IN_TEXT = 20;
+
+/** One line per boundary loop, as `loop:ID` source specs name them; coordinates exact. */
+function formatLoops(r: InspectReport): string[] {
+  const xyz = (p: number[]) => `(${p.map(fmtCoord).join(', ')})`;
+  const L = r.boundaryLoopList.slice(0, LOOPS_IN_TEXT).map(
+    (l) => `  loop:${l.id}: ${l.vertices} vertices, length ${fmt(l.length, 9)} units, box ${xyz(l.boundingBox.min)} – ${xyz(l.boundingBox.max)}, through v:${l.point.vertex} at ${xyz(l.point.position)}`,
+  );
+  if (r.boundaryLoops > L.length && L.length) L.push(`  … ${r.boundaryLoops - L.length} more boundary loop(s) (--json lists ${r.boundaryLoopList.length}, with their vertices)`);
+  return L;
 }
 
 /** Registers the command. */

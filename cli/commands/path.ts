@@ -6,7 +6,7 @@ import { Option, type Command } from 'commander';
 import { loadSurface, maxInputSizeOption } from '../load.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { checkOutput, outputFormat } from '../output.js';
-import { action, fmt, since, toJson } from '../run.js';
+import { action, fmt, fmtCoord, since, toJson } from '../run.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import { PointResolver } from '../../src/query/resolve.js';
@@ -135,7 +135,7 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
   } else {
     const what = proven ? 'shortest path' : 'geodesic path (locally shortest, not proven shortest: see the legs)';
     const L = [`${mesh}: ${what} ${fmt(route.length, 9)} mesh units, ${n} points, ${route.legs.length} leg(s), method ${METHOD_TEXT[method]}`];
-    for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map((x) => fmt(x, 12)).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
+    for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map(fmtCoord).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
     route.legs.forEach((l, i) => L.push(`  leg ${i + 1}: ${specs[i] ?? specs[0]} → ${specs[i + 1] ?? specs[0]}: ${fmt(l.length, 9)} (${legMethods[i]}${legProven[i] ? '' : `; a shorter path could run through more than --prove-limit ${proveLimit ?? FLIP_VERIFY_FACES} faces: not checked`})`));
     L.push(`  timings: load ${fmt(loadMs, 4)} ms, solve ${fmt(solveMs, 4)} ms`);
     if (o.output) L.push(`  wrote ${o.output}`);

@@ -10,6 +10,6 @@ export { next, prev, faceOf, tail, tip, isBoundaryVertex, isBoundaryEdge, forEac
 export { buildTopology, type BuildReport, type BuildOptions, type BuiltMesh, type NonManifoldEdge, type DuplicateFace } from '../mesh/build.js';
 export { glueSeams, type GluedVertices } from '../mesh/seams.js';
 export { triangulate, type Triangulation } from '../mesh/triangulate.js';
-export { boundaryLoops, boundaryVertexMask } from '../mesh/boundary.js';
+export { boundaryLoops, boundaryVertexMask, namedBoundaryLoops, LOOP_LENGTH_TIE, type NamedLoop } from '../mesh/boundary.js';
 export { components, type Components, type ComponentInfo } from '../mesh/components.js';
 export { surfaceFromMeshData, isManifold, MAX_COORDINATE, type Surface } from '../mesh/surface.js';

@@ -4,6 +4,6 @@
  *
  * @packageDocumentation
  */
-export { inspectSurface, inspectProblems, ZERO_THICKNESS, CAP_ANGLE_DEG, NEEDLE_ANGLE_DEG, type InspectReport } from '../report/inspect.js';
+export { inspectSurface, inspectProblems, ZERO_THICKNESS, CAP_ANGLE_DEG, NEEDLE_ANGLE_DEG, LISTED_LOOPS, type InspectReport, type BoundaryLoopInfo } from '../report/inspect.js';
 export { curvatureSummary, type CurvatureResult, type Stat } from '../report/curvature.js';
 export { parseRequirement, checkRequirements, checkableKeys, type Requirement, type RequirementResult, type Comparison } from '../report/require.js';

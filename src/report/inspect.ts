@@ -15,10 +15,15 @@
  * - cap: not zero-area, largest angle at least {@link CAP_ANGLE_DEG}°;
  * - needle: not zero-area nor a cap, smallest angle at most {@link NEEDLE_ANGLE_DEG}°.
  * Angle thresholds are scale-free; the zero-area one scales with h.
+ *
+ * Boundary loops are listed with the ids that source specs use (`loop:ID`,
+ * `query/loop-spec.ts`): longest first, equally long loops (within
+ * `LOOP_LENGTH_TIE`) by smallest file vertex index; seams of a
+ * non-orientable surface are glued back, not boundary.
  */
 import type { Surface } from '../mesh/surface.js';
 import { components } from '../mesh/components.js';
-import { boundaryLoops } from '../mesh/boundary.js';
+import { boundaryLoops, namedBoundaryLoops } from '../mesh/boundary.js';
 import { intrinsicFromPositions } from '../metric/intrinsic.js';
 import { cornerAngles, faceAreas } from '../metric/triangle.js';
 import { gaussianCurvature, gaussBonnetResidual } from '../metric/curvature.js';
@@ -32,6 +37,24 @@ export const CAP_ANGLE_DEG = 160;
 export const NEEDLE_ANGLE_DEG = 5;
 /** How many locations each list carries. */
 const LISTED = 1000;
+/** How many boundary loops the report lists (longest first). */
+export const LISTED_LOOPS = 1000;
+
+/** One boundary loop as `inspect` lists it (ids as `loop:ID` specs use them). */
+export interface BoundaryLoopInfo {
+  /** The loop's id: 0 is the longest loop. */
+  id: number;
+  /** Number of vertices on the loop (= its number of edges). */
+  vertices: number;
+  /** Sum of its edge lengths, in mesh units. */
+  length: number;
+  /** Bounding box of its vertices. */
+  boundingBox: { min: [number, number, number]; max: [number, number, number] };
+  /** One point on the loop: its vertex of smallest file index, and where it is. */
+  point: { vertex: number; position: [number, number, number] };
+  /** File vertex indices (from 0) along the loop, the surface on the left; the loop closes from the last to the first. */
+  vertexList: number[];
+}
 
 /** The `inspect` report (see README for each key). */
 export interface InspectReport {
@@ -77,6 +100,8 @@ export interface InspectReport {
   gaussBonnetResidual: number;
   /** The problems found, one short phrase each, as `inspect` prints them (empty for a healthy mesh). */
   problems: string[];
+  /** The boundary loops by id (the first {@link LISTED_LOOPS}; `boundaryLoops` counts them all). */
+  boundaryLoopList: BoundaryLoopInfo[];
   componentList: {
     faces: number;
     vertices: number;
@@ -206,6 +231,7 @@ export function inspectSurface(s: Surface): InspectReport {
     totalBoundaryTurning: curv.totalBoundaryTurning,
     gaussBonnetResidual: gaussBonnetResidual(curv, chi),
     problems: [],
+    boundaryLoopList: loopList(s),
     componentList: comps.info.map((c) => ({ ...c, genus: genusOf(c.genus) })),
     locations: {
       nonManifoldEdges: s.report.nonManifoldEdges,
@@ -219,6 +245,24 @@ export function inspectSurface(s: Surface): InspectReport {
   };
   report.problems = inspectProblems(report);
   return report;
+}
+
+/** The first {@link LISTED_LOOPS} boundary loops by id, with file vertex indices. */
+function loopList(s: Surface): BoundaryLoopInfo[] {
+  const origin = s.topology.vertexOrigin, P = s.positions;
+  return namedBoundaryLoops(s.topology, P, s.report.orientationSeams)
+    .slice(0, LISTED_LOOPS)
+    .map((l) => {
+      const r = l.representative;
+      return {
+        id: l.id,
+        vertices: l.vertices.length,
+        length: l.length,
+        boundingBox: { min: l.min, max: l.max },
+        point: { vertex: origin[r]!, position: [P[3 * r]!, P[3 * r + 1]!, P[3 * r + 2]!] },
+        vertexList: Array.from(l.vertices, (v) => origin[v]!),
+      };
+    });
 }
 
 /** Zero-area, cap and needle triangles as file faces (see the module comment); lists hold every hit. */
