@@ -24,21 +24,19 @@
 import type { CholeskySymbolic } from '../linalg/index.js';
 import { CholeskyFactor } from '../linalg/index.js';
 import { combine, constrainRows, liftDirichlet, patternMatrix, type EdgePattern } from '../metric/laplacian.js';
-import { isOrthodromeError } from '../errors.js';
 
 /**
- * Factors the Poisson matrix: L with one pinned vertex per component (the
- * vertex of largest mass), falling back to L + εM when that is singular.
- * Returns the factor, the rows whose right-hand side must be zeroed
- * (`blocked`: pinned and inactive vertices) and whether the fallback was used.
+ * The Poisson matrix: L with one pinned vertex per component (the vertex of
+ * largest mass, the best-conditioned row). Returns its values on the shared
+ * pattern and the rows whose right-hand side must be zeroed (`blocked`:
+ * pinned and inactive vertices). When its factorization fails (singular),
+ * use {@link factorShiftedPoisson}.
  */
-export function factorPoisson(
-  p: EdgePattern, sym: CholeskySymbolic, Lv: Float64Array, Mv: Float64Array, inactive: Uint8Array,
-  vertexComponent: Int32Array, count: number, h: number,
-): { factor: CholeskyFactor; blocked: Uint8Array; shifted: boolean } {
+export function pinnedPoisson(
+  p: EdgePattern, Lv: Float64Array, Mv: Float64Array, inactive: Uint8Array, vertexComponent: Int32Array, count: number,
+): { values: Float64Array; blocked: Uint8Array } {
   const nv = p.n;
   const blocked = inactive.slice();
-  // pin the vertex of largest mass in each component (best-conditioned row)
   const best = new Int32Array(count).fill(-1);
   for (let v = 0; v < nv; v++) {
     const c = vertexComponent[v]!;
@@ -46,16 +44,21 @@ export function factorPoisson(
     if (best[c]! < 0 || Mv[v]! > Mv[best[c]!]!) best[c] = v;
   }
   for (let c = 0; c < count; c++) if (best[c]! >= 0) blocked[best[c]!] = 1;
-  const P = Lv.slice();
-  constrainRows(p, P, blocked);
-  try {
-    return { factor: CholeskyFactor.factor(patternMatrix(p, P), sym), blocked, shifted: false };
-  } catch (e) {
-    if (!isOrthodromeError(e) || e.code !== 'NUMERIC') throw e;
-  }
+  const values = Lv.slice();
+  constrainRows(p, values, blocked);
+  return { values, blocked };
+}
+
+/**
+ * The fallback of {@link pinnedPoisson}: factors L + εM (ε = 1e-8/h²) with
+ * the inactive rows fixed; its blocked rows are the inactive ones.
+ */
+export function factorShiftedPoisson(
+  p: EdgePattern, sym: CholeskySymbolic, Lv: Float64Array, Mv: Float64Array, inactive: Uint8Array, h: number,
+): { factor: CholeskyFactor; blocked: Uint8Array } {
   const S = combine(p, 1, Lv, 1e-8 / (h * h), Mv);
   constrainRows(p, S, inactive);
-  return { factor: CholeskyFactor.factor(patternMatrix(p, S), sym), blocked: inactive.slice(), shifted: true };
+  return { factor: CholeskyFactor.factor(patternMatrix(p, S), sym), blocked: inactive.slice() };
 }
 
 /**

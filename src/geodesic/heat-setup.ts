@@ -9,6 +9,7 @@ import { mollify, DEFAULT_MOLLIFY_DELTA } from '../metric/mollify.js';
 import { intrinsicDelaunay } from '../metric/delaunay.js';
 import { refineLongEdges, equilateralEdge } from '../metric/refine.js';
 import { usageError, inputError } from '../errors.js';
+import type { FactorExecutor } from '../linalg/executor.js';
 
 /** Source curves solved one by one (see `HeatSolver.distance` in heat.ts); more are solved together. */
 export const MAX_SEPARATE_CURVES = 8;
@@ -43,6 +44,14 @@ export interface HeatOptions {
   mollifyDelta?: number;
   /** Fill-reducing ordering of the Cholesky factorizations; default the linalg default. */
   ordering?: 'amd' | 'nd' | 'natural';
+  /**
+   * Runs some of the two or three numeric factorizations on other threads
+   * (linalg/executor.ts; on Node `NodeFactorExecutor` from the package's
+   * Node entry). The factors are bit-identical to the serial ones; without
+   * it everything runs on the calling thread. Not cloneable: leave it out of
+   * options sent to a worker.
+   */
+  factorExecutor?: FactorExecutor | null;
 }
 
 /** What `HeatSolver.prepare` did and how long it took. */

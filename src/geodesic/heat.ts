@@ -55,9 +55,9 @@ import {
 import { components } from '../mesh/components.js';
 import { boundaryVertexMask } from '../mesh/boundary.js';
 import { addSourceHeat, sourceValue } from './heat-sources.js';
-import { factorPoisson } from './heat-poisson.js';
+import { pinnedPoisson, factorShiftedPoisson } from './heat-poisson.js';
 import { assembleDivergence, heatCeiling, relayFaces, type RelayWork } from './heat-relay.js';
-import { usageError, numericError, isOrthodromeError } from '../errors.js';
+import { usageError, numericError, isOrthodromeError, type OrthodromeError } from '../errors.js';
 import { sourceDirichlet } from './heat-sources.js';
 import { SourcePoisson } from './heat-poisson.js';
 import { HeatStep, maskIndices, type HeatStepParts } from './heat-step.js';
@@ -165,17 +165,24 @@ export class HeatSolver {
     let maxDiag = 0, maxGrad = 0;
     for (let v = 0; v < tw.nv; v++) maxDiag = Math.max(maxDiag, A[p.diagSlot[v]!]!);
     for (let i = 0; i < geom.grad.length; i++) maxGrad = Math.max(maxGrad, Math.abs(geom.grad[i]!));
-    const heatN = CholeskyFactor.factor(patternMatrix(p, A), sym);
-    let heatD: CholeskyFactor | null = null;
+    // the two or three matrices, then their factorizations (independent: an executor runs them at once)
+    const mats = [patternMatrix(p, A)];
     const fixedD = new Uint8Array(tw.nv);
     let hasBoundary = false;
     for (let v = 0; v < tw.nv && !hasBoundary; v++) hasBoundary = onBoundary[v] === 1 && !inactive[v];
     if (boundary !== 'neumann' && hasBoundary) {
       for (let v = 0; v < tw.nv; v++) fixedD[v] = inactive[v]! | onBoundary[v]!;
-      constrainRows(p, A, fixedD);
-      heatD = CholeskyFactor.factor(patternMatrix(p, A), sym);
+      const AD = A.slice();
+      constrainRows(p, AD, fixedD);
+      mats.push(patternMatrix(p, AD));
     }
-    const { factor: poisson, blocked, shifted } = factorPoisson(p, sym, Lv, Mv, inactive, comp.vertexComponent, comp.count, h);
+    const pinned = pinnedPoisson(p, Lv, Mv, inactive, comp.vertexComponent, comp.count);
+    mats.push(patternMatrix(p, pinned.values));
+    const fs = CholeskyFactor.factorMany(mats, sym, { executor: opts.factorExecutor ?? null });
+    const heatN = factorOrThrow(fs[0]!), heatD = mats.length === 3 ? factorOrThrow(fs[1]!) : null;
+    // a singular pinned Poisson matrix (a component held together by faces without area): L + εM instead
+    const pf = fs[mats.length - 1]!, shifted = !(pf instanceof CholeskyFactor);
+    const { factor: poisson, blocked } = pf instanceof CholeskyFactor ? { factor: pf, blocked: pinned.blocked } : factorShiftedPoisson(p, sym, Lv, Mv, inactive, h);
     const t3 = performance.now();
 
     const stats: HeatStats = {
@@ -288,6 +295,11 @@ export class HeatSolver {
       phi[v] = d > 0 ? d : 0; // clamps tiny negatives
     }
   }
+}
+
+function factorOrThrow(f: CholeskyFactor | OrthodromeError): CholeskyFactor {
+  if (f instanceof CholeskyFactor) return f;
+  throw f;
 }
 
 /** Tail vertex of edge e's stored half-edge. */

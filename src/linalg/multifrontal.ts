@@ -51,7 +51,9 @@ export function multifrontalWork(n: number, sn: SupernodalStructure, useSimd = t
  * Factors C (lower triangle in CSC: cp, ci, cx; rows ≥ column) into the
  * row-major supernode blocks Lx. Returns −1 on success or the (permuted)
  * column whose pivot is not finite and above its floor (0, or minPivot[k]);
- * `pivotOut[0]` receives that pivot value. Never throws, never allocates.
+ * `pivotOut[0]` receives that pivot value. `progress[0]`, when given, is set
+ * to s + 1 as supernode s starts (a heartbeat another thread can watch).
+ * Never throws, never allocates.
  */
 export function multifrontalFactor(
   sn: SupernodalStructure,
@@ -62,6 +64,7 @@ export function multifrontalFactor(
   work: MultifrontalWork,
   pivotOut: Float64Array,
   minPivot: Float64Array | null = null,
+  progress: Int32Array | null = null,
 ): number {
   const { nsuper, superStart, childCount, rowPtr, rows, valPtr } = sn;
   const { front: F, stack, pos, stackIds, rel, simd } = work;
@@ -71,6 +74,7 @@ export function multifrontalFactor(
     const f = superStart[s]!, l = superStart[s + 1]!;
     const nc = l - f;
     const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
+    if (progress !== null) progress[0] = s + 1;
     for (let r = 0; r < nr; r++) pos[rows[r0 + r]!] = r;
     // zero the lower triangle (short rows by hand: fill() costs a call per row)
     if (nr <= 32) {

@@ -11,7 +11,8 @@ import { multifrontalFactor, multifrontalWork } from './multifrontal.js';
 import { supernodalLowerSolve, supernodalLowerTransposeSolve } from './solve-supernodal.js';
 import type { MultifrontalWork } from './multifrontal.js';
 import { lowerSolve, lowerTransposeSolve } from './solve.js';
-import { numericError, usageError } from '../errors.js';
+import { numericError, usageError, type OrthodromeError } from '../errors.js';
+import type { FactorExecutor } from './executor.js';
 
 /** Options of {@link CholeskyFactor.factor}. */
 export interface FactorOptions {
@@ -29,6 +30,17 @@ export interface FactorOptions {
    * close to singular.
    */
   pivotTolerance?: number;
+}
+
+/** Options of {@link CholeskyFactor.factorMany}. */
+export interface FactorManyOptions extends FactorOptions {
+  /**
+   * Factors some of the matrices on other threads (executor.ts); results
+   * are bit-identical to the serial ones. Without it (or below the
+   * executor's size threshold, or for the simplicial method) everything is
+   * factored here, one after the other.
+   */
+  executor?: FactorExecutor | null;
 }
 
 /**
@@ -71,7 +83,7 @@ export class CholeskyFactor {
   private readonly pivotTolerance: number;
   private readonly minPivot: Float64Array | null;
 
-  private constructor(sym: CholeskySymbolic, opts: FactorOptions) {
+  private constructor(sym: CholeskySymbolic, opts: FactorOptions, Lx: Float64Array | null = null) {
     const n = sym.n;
     const tol = opts.pivotTolerance ?? 0;
     if (!(tol >= 0 && tol < Infinity)) throw usageError(`pivotTolerance must be a finite number ≥ 0, got ${tol}`);
@@ -88,7 +100,7 @@ export class CholeskyFactor {
     this.Cx = scratch.Cx;
     this.x = new Float64Array(n);
     if (sym.supernodal) {
-      this.Lx = new Float64Array(sym.supernodal.valPtr[sym.supernodal.nsuper]!);
+      this.Lx = Lx ?? new Float64Array(sym.supernodal.valPtr[sym.supernodal.nsuper]!);
       this.Li = new Int32Array(0);
       this.intWork = [new Int32Array(0), new Int32Array(0), new Int32Array(0)];
       if (opts.simd ?? true) this.mf = scratch.simd ??= multifrontalWork(n, sym.supernodal, true);
@@ -113,12 +125,51 @@ export class CholeskyFactor {
   }
 
   /**
-   * Factors new values with the same pattern, reusing all memory. Throws
-   * `USAGE` when the pattern differs from the analysed one, `NUMERIC` on a
-   * non-positive or non-finite pivot (the factor is then unusable until a
-   * successful refactorization).
+   * Factors several matrices of one analysis (LOWER triangles with the
+   * analysed pattern). Entry k is the factor of `mats[k]`, or the `NUMERIC`
+   * error its factorization raised (a `USAGE` error for a wrong pattern is
+   * thrown). With an executor, `mats[0]` is factored on this thread while
+   * the others run on the executor's threads.
    */
-  refactor(Alower: CscMatrix): void {
+  static factorMany(mats: CscMatrix[], sym: CholeskySymbolic, opts: FactorManyOptions = {}): (CholeskyFactor | OrthodromeError)[] {
+    const ex = opts.executor;
+    const one = (A: CscMatrix): CholeskyFactor | OrthodromeError => {
+      try {
+        return CholeskyFactor.factor(A, sym, opts);
+      } catch (e) {
+        if (e instanceof Error && (e as OrthodromeError).code === 'NUMERIC') return e as OrthodromeError;
+        throw e;
+      }
+    };
+    if (!ex || mats.length < 2 || !sym.supernodal || sym.n < ex.minSize) return mats.map(one);
+    const simd = opts.simd ?? true; // the thread decides as multifrontalWork does here: same kernels, same bits
+    const remote = mats.slice(1).map((A) => {
+      const f = new CholeskyFactor(sym, opts, ex.shared(sym.supernodal!.valPtr[sym.supernodal!.nsuper]!));
+      const cx = ex.shared(sym.cRowIdx.length);
+      const minPivot = f.minPivot ? ex.shared(sym.n) : null;
+      f.load(A, cx, minPivot);
+      return { f, wait: ex.start({ sym, cx, lx: f.Lx, minPivot, simd }) };
+    });
+    const out: (CholeskyFactor | OrthodromeError)[] = [one(mats[0]!)];
+    for (const { f, wait } of remote) {
+      const r = wait();
+      if (r.bad === -2) {
+        // the thread failed (or stalled): factor here instead
+        out.push(one(mats[out.length]!));
+        continue;
+      }
+      f.pivot[0] = r.pivot;
+      out.push(r.bad >= 0 ? f.failure(r.bad) : f);
+    }
+    return out;
+  }
+
+  /**
+   * Checks the pattern of `Alower`, scatters its values into C's order (cx)
+   * and fills the pivot floors; throws `USAGE` for a pattern other than the
+   * analysed one.
+   */
+  private load(Alower: CscMatrix, Cx: Float64Array, minPivot: Float64Array | null): void {
     const sym = this.symbolic;
     const { n, inputColPtr, inputRowIdx, valueMap } = sym;
     if (Alower.n !== n) throw usageError(`refactor: matrix is ${Alower.n}×${Alower.n}, analysis was for ${n}×${n}`);
@@ -131,9 +182,8 @@ export class CholeskyFactor {
         if (Alower.rowIdx[p] !== inputRowIdx[p]) throw usageError(`refactor: pattern differs from the analysed one at entry ${p}`);
       }
     }
-    const Cx = this.Cx, Ax = Alower.values;
+    const Ax = Alower.values;
     for (let p = 0; p < nz; p++) Cx[valueMap[p]!] = Ax[p]!;
-    const minPivot = this.minPivot;
     if (minPivot !== null) {
       // floor_k = τ·|A_kk| in the permuted numbering (missing diagonal: 0)
       minPivot.fill(0);
@@ -144,19 +194,34 @@ export class CholeskyFactor {
         }
       }
     }
+  }
+
+  /** The `NUMERIC` error for a failed pivot at (permuted) column `bad`; leaves L zeroed. */
+  private failure(bad: number): OrthodromeError {
+    this.Lx.fill(0);
+    return numericError(`matrix is not positive definite (pivot ${this.pivot[0]} at column ${this.symbolic.perm[bad]})`);
+  }
+
+  /**
+   * Factors new values with the same pattern, reusing all memory. Throws
+   * `USAGE` when the pattern differs from the analysed one, `NUMERIC` on a
+   * non-positive or non-finite pivot (the factor is then unusable until a
+   * successful refactorization).
+   */
+  refactor(Alower: CscMatrix): void {
+    const sym = this.symbolic;
+    const minPivot = this.minPivot;
+    this.load(Alower, this.Cx, minPivot);
     let bad: number;
     if (sym.supernodal) {
-      bad = multifrontalFactor(sym.supernodal, sym.cColPtr, sym.cRowIdx, Cx, this.Lx, this.mf!, this.pivot, minPivot);
+      bad = multifrontalFactor(sym.supernodal, sym.cColPtr, sym.cRowIdx, this.Cx, this.Lx, this.mf!, this.pivot, minPivot);
     } else {
       const [next, stack, mark] = this.intWork;
-      for (let k = 0; k < n; k++) next[k] = sym.lColPtr[k]!;
-      bad = upLookingFactor(sym, Cx, this.Li, this.Lx, this.x, next, stack, mark, minPivot);
+      for (let k = 0; k < sym.n; k++) next[k] = sym.lColPtr[k]!;
+      bad = upLookingFactor(sym, this.Cx, this.Li, this.Lx, this.x, next, stack, mark, minPivot);
       if (bad >= 0) this.pivot[0] = this.Lx[sym.lColPtr[bad]!]!;
     }
-    if (bad >= 0) {
-      this.Lx.fill(0);
-      throw numericError(`matrix is not positive definite (pivot ${this.pivot[0]} at column ${sym.perm[bad]})`);
-    }
+    if (bad >= 0) throw this.failure(bad);
   }
 
   /**

@@ -1,0 +1,46 @@
+/**
+ * Numeric factorizations on other threads: the interface the solver sees.
+ * It stays free of any platform API (src/ runs in a browser); the Node
+ * implementation with worker threads is parallel-node.ts, which only the
+ * Node entry (src/index.ts) reaches.
+ *
+ * Matrices that share one symbolic analysis are independent factorizations,
+ * so they can run at the same time (the heat method's two or three). The
+ * other thread runs the same multifrontal kernel on the same structure and
+ * values, so its factor is bit-identical to the serial one.
+ */
+import type { CholeskySymbolic } from './symbolic.js';
+
+/** One factorization handed to an executor; `cx`, `lx` and `minPivot` come from {@link FactorExecutor.shared}. */
+export interface FactorJob {
+  /** The analysis (supernodal). */
+  readonly sym: CholeskySymbolic;
+  /** C's values in the analysed order (symbolic.ts, valueMap). */
+  readonly cx: Float64Array;
+  /** Receives L's supernode blocks (length valPtr[nsuper]). */
+  readonly lx: Float64Array;
+  /** Pivot floors in the permuted numbering, or null (floor 0). */
+  readonly minPivot: Float64Array | null;
+  /** Use the WebAssembly SIMD kernel where the platform has it (as FactorOptions.simd). */
+  readonly simd: boolean;
+}
+
+/**
+ * Outcome of a job: bad = −1 (done), the permuted column of a failed pivot
+ * (with its value), or −2 when the thread failed or stalled (the caller then
+ * factors the matrix itself).
+ */
+export interface FactorJobResult {
+  readonly bad: number;
+  readonly pivot: number;
+}
+
+/** Runs factorizations on other threads (parallel-node.ts). */
+export interface FactorExecutor {
+  /** Smallest matrix order worth a thread (smaller ones are factored in place). */
+  readonly minSize: number;
+  /** A Float64Array of `length` zeros that the executor's threads can write. */
+  shared(length: number): Float64Array;
+  /** Starts a job; the returned function blocks until it is done. */
+  start(job: FactorJob): () => FactorJobResult;
+}

@@ -1,0 +1,212 @@
+/**
+ * A {@link FactorExecutor} on Node worker threads (Node only: src/index.ts
+ * exports it, src/core.ts never reaches it). The symbolic structure is
+ * copied once per analysis into SharedArrayBuffers, C's values and L's
+ * blocks live in shared memory too, so a job message carries views only.
+ *
+ * The caller waits synchronously (Atomics.wait; allowed on Node's main
+ * thread), so `CholeskyFactor.factorMany` keeps a synchronous API. Each
+ * job has four status words: state, failed column, heartbeat (the
+ * supernode being factored + 1, multifrontal.ts) and a spare. A job still
+ * PENDING when the caller is free is taken back and factored by the caller
+ * (work stealing), so three factorizations on two threads cost about two.
+ * A worker that fails, or whose heartbeat stops for `stallMs`, is given up
+ * (result bad = −2): the caller then factors that matrix itself.
+ *
+ * Workers start on the first job and stay (unref'd, so they never keep the
+ * process alive) until {@link NodeFactorExecutor.close}.
+ */
+import { Worker } from 'node:worker_threads';
+import { availableParallelism } from 'node:os';
+import type { CholeskySymbolic } from './symbolic.js';
+import type { SupernodalStructure } from './supernodes.js';
+import type { FactorExecutor, FactorJob, FactorJobResult } from './executor.js';
+
+/** Status word indices and states of a job (shared by the worker). */
+export const S_STATE = 0, S_BAD = 1, S_HEARTBEAT = 2;
+export const PENDING = 0, RUNNING = 1, DONE = 2, FAILED = 3, CLAIMED_HERE = 4;
+
+/** What a worker receives: views on shared memory only. */
+export interface JobMessage {
+  n: number;
+  sn: SupernodalStructure;
+  cColPtr: Int32Array;
+  cRowIdx: Int32Array;
+  cx: Float64Array;
+  lx: Float64Array;
+  minPivot: Float64Array | null;
+  simd: boolean;
+  status: Int32Array;
+  pivot: Float64Array;
+}
+
+/** Options of {@link NodeFactorExecutor}. */
+export interface NodeFactorExecutorOptions {
+  /** Smallest matrix order sent to a thread; default {@link DEFAULT_MIN_SIZE}. */
+  minSize?: number;
+  /** Most worker threads; default the machine's available parallelism. */
+  threads?: number;
+  /** A worker whose job shows no progress for this long is given up; default 120 000 ms. */
+  stallMs?: number;
+  /** Take back jobs no worker has started when the caller is free (default true; false for tests). */
+  steal?: boolean;
+}
+
+/** How the jobs of an executor went. */
+export interface ExecutorCounts {
+  /** Jobs a worker factored. */
+  remote: number;
+  /** Jobs taken back by the caller before a worker started them. */
+  takenBack: number;
+  /** Jobs given up (worker failed or stalled) and factored by the caller. */
+  failed: number;
+}
+
+/**
+ * Default size threshold: below ~200k unknowns one factorization takes a
+ * few hundred ms or less, and a worker's start-up (module load, plus the
+ * TypeScript loader when run from source) eats most of the gain.
+ */
+export const DEFAULT_MIN_SIZE = 200_000;
+
+type SharedStructure = Pick<JobMessage, 'n' | 'sn' | 'cColPtr' | 'cRowIdx'>;
+
+/** Factorizations on worker threads; see the module comment. */
+export class NodeFactorExecutor implements FactorExecutor {
+  readonly minSize: number;
+  readonly #threads: number;
+  readonly #stallMs: number;
+  readonly #steal: boolean;
+  readonly #ready: Promise<void>[] = [];
+  /** Running totals. */
+  readonly counts: ExecutorCounts = { remote: 0, takenBack: 0, failed: 0 };
+  readonly #workers: Worker[] = [];
+  readonly #structures = new WeakMap<CholeskySymbolic, SharedStructure>();
+  #next = 0;
+
+  constructor(opts: NodeFactorExecutorOptions = {}) {
+    this.minSize = opts.minSize ?? DEFAULT_MIN_SIZE;
+    this.#threads = Math.max(1, opts.threads ?? availableParallelism());
+    this.#stallMs = opts.stallMs ?? 120_000;
+    this.#steal = opts.steal ?? true;
+  }
+
+  /**
+   * Starts the workers now (they load their modules while the caller does
+   * other work, such as the ordering); returns at once.
+   */
+  warm(): void {
+    while (this.#workers.length < this.#threads) this.#spawn();
+  }
+
+  /** Resolves when every started worker has loaded its module. */
+  async ready(): Promise<void> {
+    await Promise.all(this.#ready);
+  }
+
+  shared(length: number): Float64Array {
+    return new Float64Array(new SharedArrayBuffer(8 * Math.max(1, length)), 0, length);
+  }
+
+  start(job: FactorJob): () => FactorJobResult {
+    const status = new Int32Array(new SharedArrayBuffer(16));
+    const pivot = this.shared(1);
+    const msg: JobMessage = { ...this.#structure(job.sym), cx: job.cx, lx: job.lx, minPivot: job.minPivot, simd: job.simd, status, pivot };
+    const worker = this.#worker();
+    worker.postMessage(msg);
+    return () => this.#wait(worker, msg);
+  }
+
+  /** Stops the workers (they are unref'd, so a process may also just exit). */
+  async close(): Promise<void> {
+    const ws = this.#workers.splice(0);
+    await Promise.all(ws.map((w) => w.terminate()));
+  }
+
+  #worker(): Worker {
+    if (this.#workers.length < this.#threads) return this.#spawn();
+    return this.#workers[this.#next++ % this.#workers.length]!;
+  }
+
+  #spawn(): Worker {
+    const here = import.meta.url;
+    const url = new URL(here.endsWith('.ts') ? './factor-worker.ts' : './factor-worker.js', here);
+    // run from source (tsx): a Node 20 worker does not inherit the TypeScript loader, so it
+    // registers it before importing the worker module (built: plain JavaScript)
+    const w = here.endsWith('.ts')
+      ? new Worker(`import(${JSON.stringify(import.meta.resolve('tsx/esm/api'))}).then((m) => { m.register(); return import(${JSON.stringify(url.href)}); })`, { eval: true })
+      : new Worker(url);
+    w.unref();
+    w.on('error', () => this.#drop(w));
+    w.on('exit', () => this.#drop(w));
+    // the worker posts one message once its module has loaded
+    this.#ready.push(new Promise<void>((resolve) => {
+      w.once('message', () => resolve());
+      w.once('exit', () => resolve());
+    }));
+    this.#workers.push(w);
+    return w;
+  }
+
+  #drop(w: Worker): void {
+    const i = this.#workers.indexOf(w);
+    if (i >= 0) this.#workers.splice(i, 1);
+  }
+
+  #wait(worker: Worker, msg: JobMessage): FactorJobResult {
+    const { status, pivot } = msg;
+    // not started yet: take it back (the worker skips a job it cannot claim)
+    if (this.#steal && Atomics.compareExchange(status, S_STATE, PENDING, CLAIMED_HERE) === PENDING) {
+      this.counts.takenBack++;
+      return { bad: -2, pivot: 0 };
+    }
+    let beat = Atomics.load(status, S_HEARTBEAT), since = performance.now();
+    for (;;) {
+      const state = Atomics.load(status, S_STATE);
+      if (state === DONE) {
+        this.counts.remote++;
+        return { bad: Atomics.load(status, S_BAD), pivot: pivot[0]! };
+      }
+      if (state === FAILED) {
+        this.counts.failed++;
+        return { bad: -2, pivot: 0 };
+      }
+      Atomics.wait(status, S_STATE, state, 250);
+      const b = Atomics.load(status, S_HEARTBEAT);
+      if (b !== beat) {
+        beat = b;
+        since = performance.now();
+      } else if (performance.now() - since > this.#stallMs) {
+        this.#drop(worker);
+        void worker.terminate();
+        this.counts.failed++;
+        return { bad: -2, pivot: 0 };
+      }
+    }
+  }
+
+  /** The analysis' structure in shared memory, copied once. */
+  #structure(sym: CholeskySymbolic): SharedStructure {
+    let s = this.#structures.get(sym);
+    if (!s) {
+      const sn = sym.supernodal!;
+      s = {
+        n: sym.n,
+        sn: {
+          nsuper: sn.nsuper, superStart: sharedInt(sn.superStart), superParent: sharedInt(sn.superParent), childCount: sharedInt(sn.childCount),
+          rowPtr: sharedInt(sn.rowPtr), rows: sharedInt(sn.rows), valPtr: sharedInt(sn.valPtr), maxRows: sn.maxRows, stackSize: sn.stackSize,
+        },
+        cColPtr: sharedInt(sym.cColPtr),
+        cRowIdx: sharedInt(sym.cRowIdx),
+      };
+      this.#structures.set(sym, s);
+    }
+    return s;
+  }
+}
+
+function sharedInt(a: Int32Array): Int32Array {
+  const b = new Int32Array(new SharedArrayBuffer(4 * Math.max(1, a.length)), 0, a.length);
+  b.set(a);
+  return b;
+}

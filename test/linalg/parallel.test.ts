@@ -1,0 +1,79 @@
+/**
+ * Factorizations on worker threads (parallel-node.ts) against the same
+ * factorizations on this thread: the worker runs the same multifrontal
+ * kernel on the same values, so every entry of L must be bit-identical
+ * (IEEE 754 arithmetic is deterministic for the same operations in the same
+ * order: common practice), and a matrix that is not positive definite must
+ * give the same NUMERIC error naming the same column.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { analyzeCholesky, CholeskyFactor } from '../../src/linalg/index.js';
+import type { CscMatrix } from '../../src/linalg/index.js';
+import { NodeFactorExecutor } from '../../src/linalg/parallel-node.js';
+import { gridLaplacianLower } from './helpers.js';
+
+// no taking back: every job other than the first runs on a worker, whatever the machine's load
+const executor = new NodeFactorExecutor({ minSize: 0, threads: 2, steal: false });
+beforeAll(async () => {
+  executor.warm();
+  await executor.ready();
+});
+afterAll(() => executor.close());
+
+/** The same pattern with other values: the diagonal scaled by `k`. */
+function scaledDiagonal(A: CscMatrix, k: number): CscMatrix {
+  const values = A.values.slice();
+  for (let j = 0; j < A.n; j++) {
+    for (let p = A.colPtr[j]!; p < A.colPtr[j + 1]!; p++) if (A.rowIdx[p] === j) values[p]! *= k;
+  }
+  return { ...A, values };
+}
+
+function sameBits(a: Float64Array, b: Float64Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) return false;
+  return true;
+}
+
+describe('factorizations on worker threads', () => {
+  it('give factors bit-identical to the serial ones, whichever thread ran them', () => {
+    // a triangulated 70×70 grid (4900 unknowns, separators large enough for the SIMD kernel)
+    const A = gridLaplacianLower(70, 70, 0.01, true, 7);
+    const mats = [A, scaledDiagonal(A, 1.5), scaledDiagonal(A, 3)];
+    const sym = analyzeCholesky(A);
+    const before = executor.counts.remote;
+    for (let round = 0; round < 2; round++) {
+      const par = CholeskyFactor.factorMany(mats, sym, { executor });
+      const ser = CholeskyFactor.factorMany(mats, sym);
+      for (let k = 0; k < mats.length; k++) {
+        const fp = par[k]!, fs = ser[k]!;
+        expect(fp).toBeInstanceOf(CholeskyFactor);
+        expect(fs).toBeInstanceOf(CholeskyFactor);
+        expect(sameBits((fp as CholeskyFactor).lowerFactor().values, (fs as CholeskyFactor).lowerFactor().values)).toBe(true);
+      }
+    }
+    expect(executor.counts.remote - before).toBe(4); // two jobs per round on the workers
+    expect(executor.counts.failed).toBe(0);
+  });
+
+  it('report a matrix that is not positive definite like the serial factorization', () => {
+    const A = gridLaplacianLower(60, 60, 0.01, true, 3);
+    // a negative diagonal entry at one vertex: the pivot fails at that column
+    const bad = A.values.slice();
+    for (let p = A.colPtr[1234]!; p < A.colPtr[1235]!; p++) if (A.rowIdx[p] === 1234) bad[p] = -1;
+    const mats = [A, { ...A, values: bad }, scaledDiagonal(A, 2)];
+    const sym = analyzeCholesky(A);
+    const par = CholeskyFactor.factorMany(mats, sym, { executor });
+    const ser = CholeskyFactor.factorMany(mats, sym);
+    expect(par[1]).not.toBeInstanceOf(CholeskyFactor);
+    expect((par[1] as Error).message).toBe((ser[1] as Error).message);
+    expect((par[1] as { code?: string }).code).toBe('NUMERIC');
+    expect(par[2]).toBeInstanceOf(CholeskyFactor);
+    // the solution of A x = b from the worker's factor equals the serial one bit for bit
+    const b = Float64Array.from({ length: A.n }, (_, i) => Math.sin(i));
+    const xp = new Float64Array(A.n), xs = new Float64Array(A.n);
+    (par[2] as CholeskyFactor).solve(b, xp);
+    (ser[2] as CholeskyFactor).solve(b, xs);
+    expect(sameBits(xp, xs)).toBe(true);
+  });
+});
