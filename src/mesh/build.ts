@@ -110,7 +110,6 @@ export function buildTopology(
   // 1. drop degenerate triangles, then duplicates
   const { tri, faceOrigin, degenerateFaces, duplicateFaces, duplicateFaceCount } = distinctFaces(triangles, nv, maxListed);
   const nf = faceOrigin.length;
-  const nh = 3 * nf;
 
   // 2. group half-edges by undirected edge (linear radix sort on the vertex pair)
   let groups = groupHalfedges(tri, nv);
@@ -126,116 +125,16 @@ export function buildTopology(
   }
 
   // 4. twins from groups; cut non-manifold and mis-oriented edges
-  const twin = new Int32Array(nh).fill(-1);
-  const nonManifoldEdges: NonManifoldEdge[] = [];
-  let nonManifoldEdgeCount = 0;
-  let orientationCuts = 0;
-  const seams: number[] = [];
-  const cutVertex = new Uint8Array(nv); // ends of non-manifold edges
-  const { start, order } = groups;
-  for (let gi = 0; gi + 1 < start.length; gi++) {
-    const s = start[gi]!, e = start[gi + 1]!;
-    const size = e - s;
-    if (size === 2) {
-      const h0 = order[s]!, h1 = order[s + 1]!;
-      if (tri[h0] === tri[next(h1)] && tri[h1] === tri[next(h0)]) {
-        twin[h0] = h1;
-        twin[h1] = h0;
-      } else {
-        orientationCuts++;
-        seams.push(h0, h1); // same direction: tri[h0] === tri[h1]
-      }
-    } else if (size > 2) {
-      nonManifoldEdgeCount++;
-      const h0 = order[s]!;
-      const a = tri[h0]!, b = tri[next(h0)]!;
-      cutVertex[a] = 1;
-      cutVertex[b] = 1;
-      if (nonManifoldEdges.length < maxListed) {
-        const faces: number[] = [];
-        for (let k = s; k < e; k++) faces.push(faceOrigin[(order[k]! / 3) | 0]!);
-        nonManifoldEdges.push({ a: Math.min(a, b), b: Math.max(a, b), faces });
-      }
-    }
-  }
+  const paired = pairTwins(tri, groups, faceOrigin, nv, maxListed);
+  const { twin, seams } = paired;
 
-  // 5. split vertices with several fans. Corner h (at tri[h]) is joined with the
-  // corner twin[prev(h)] (same vertex, next face counter-clockwise).
-  const parent = new Int32Array(nh);
-  for (let h = 0; h < nh; h++) parent[h] = h;
-  const find = (x: number): number => findRoot(parent, x);
-  for (let h = 0; h < nh; h++) {
-    const o = twin[prev(h)]!;
-    if (o >= 0) union(parent, h, o);
-  }
-  // Non-manifold vertices are judged on the surface as given: corners are
-  // also joined across orientation seams (both sides run the same way, so
-  // h0 ~ h1 at the tail and next(h0) ~ next(h1) at the tip).
-  const given = parent.slice();
-  for (let i = 0; i < seams.length; i += 2) {
-    union(given, seams[i]!, seams[i + 1]!);
-    union(given, next(seams[i]!), next(seams[i + 1]!));
-  }
-  const nonManifoldVertices: number[] = [];
-  let nonManifoldVertexCount = 0;
-  {
-    const owner = new Int32Array(nv).fill(-1);
-    const flagged = new Uint8Array(nv);
-    for (let h = 0; h < nh; h++) {
-      const v = tri[h]!, r = findRoot(given, h);
-      if (owner[v]! < 0) owner[v] = r;
-      else if (owner[v] !== r && !cutVertex[v] && !flagged[v]) {
-        flagged[v] = 1;
-        nonManifoldVertexCount++;
-        if (nonManifoldVertices.length < maxListed) nonManifoldVertices.push(v);
-      }
-    }
-  }
-  // the first fan seen at each vertex keeps the vertex; the others get new ids
-  const fanOwner = new Int32Array(nv).fill(-1);
-  const rootVertex = new Int32Array(nh).fill(-1);
-  const extraOrigin: number[] = [];
-  for (let h = 0; h < nh; h++) {
-    const v = tri[h]!;
-    const r = find(h);
-    if (rootVertex[r]! >= 0) {
-      tri[h] = rootVertex[r]!;
-      continue;
-    }
-    if (fanOwner[v]! < 0) {
-      fanOwner[v] = r;
-      rootVertex[r] = v;
-    } else {
-      const nvNew = nv + extraOrigin.length;
-      extraOrigin.push(v);
-      rootVertex[r] = nvNew;
-      tri[h] = nvNew;
-    }
-  }
-  const nvOut = nv + extraOrigin.length;
-  const vertexOrigin = new Int32Array(nvOut);
-  for (let v = 0; v < nv; v++) vertexOrigin[v] = v;
-  for (let i = 0; i < extraOrigin.length; i++) vertexOrigin[nv + i] = extraOrigin[i]!;
-
-  // vertexHalfedge: the boundary outgoing half-edge if there is one
-  const vertexHalfedge = new Int32Array(nvOut).fill(-1);
-  for (let h = 0; h < nh; h++) {
-    const v = tri[h]!;
-    if (vertexHalfedge[v]! < 0 || twin[h] === -1) vertexHalfedge[v] = h;
-  }
-  let isolatedVertices = 0;
-  for (let v = 0; v < nv; v++) if (vertexHalfedge[v]! < 0) isolatedVertices++;
-
-  // edges
-  const edgeOf = new Int32Array(nh);
-  let ne = 0;
-  for (let h = 0; h < nh; h++) {
-    const t = twin[h]!;
-    if (t < 0 || h < t) edgeOf[h] = ne++;
-    else edgeOf[h] = edgeOf[t]!;
-  }
-  const edgeHalfedge = new Int32Array(ne);
-  for (let h = nh - 1; h >= 0; h--) edgeHalfedge[edgeOf[h]!] = h;
+  // 5. split vertices with several fans
+  const parent = fanForest(tri, twin);
+  const nonManifold = nonManifoldVerticesOf(tri, parent, seams, paired.cutVertex, nv, maxListed);
+  const { vertexOrigin, splitVertices } = splitFans(tri, parent, nv);
+  const nvOut = vertexOrigin.length;
+  const { vertexHalfedge, isolatedVertices } = vertexHalfedges(tri, twin, nvOut, nv);
+  const { edgeOf, edgeHalfedge, ne } = edgeIndex(twin);
 
   const topology: Topology = {
     nv: nvOut,
@@ -253,18 +152,178 @@ export function buildTopology(
     degenerateFaces,
     duplicateFaces,
     duplicateFaceCount,
-    nonManifoldEdges,
-    nonManifoldEdgeCount,
-    nonManifoldVertices: nonManifoldVertices.sort((x, y) => x - y),
-    nonManifoldVertexCount,
+    nonManifoldEdges: paired.nonManifoldEdges,
+    nonManifoldEdgeCount: paired.nonManifoldEdgeCount,
+    nonManifoldVertices: nonManifold.list.sort((x, y) => x - y),
+    nonManifoldVertexCount: nonManifold.count,
     flippedFaces,
     nonOrientableComponents,
-    orientationCuts,
+    orientationCuts: seams.length / 2,
     orientationSeams: Int32Array.from(seams),
     isolatedVertices,
-    splitVertices: extraOrigin.length,
+    splitVertices,
   };
   return { topology, report };
+}
+
+/** Twins of the half-edges, and the edges cut instead of paired (step 4). */
+interface PairedEdges {
+  /** twin[h], −1 on the boundary and on cut edges. */
+  twin: Int32Array;
+  nonManifoldEdges: NonManifoldEdge[];
+  nonManifoldEdgeCount: number;
+  /** Orientation seams as half-edge pairs [h0, h1, …], both running the same way. */
+  seams: number[];
+  /** 1 at the ends of non-manifold edges. */
+  cutVertex: Uint8Array;
+}
+
+/**
+ * Step 4: pairs the two half-edges of each edge with two faces that run
+ * opposite ways; an edge whose two half-edges run the same way becomes an
+ * orientation seam, an edge with more than two faces is non-manifold; both
+ * are cut (left as boundary).
+ */
+function pairTwins(
+  tri: Uint32Array, groups: ReturnType<typeof groupHalfedges>, faceOrigin: ArrayLike<number>, nv: number, maxListed: number,
+): PairedEdges {
+  const twin = new Int32Array(tri.length).fill(-1);
+  const nonManifoldEdges: NonManifoldEdge[] = [];
+  let nonManifoldEdgeCount = 0;
+  const seams: number[] = [];
+  const cutVertex = new Uint8Array(nv); // ends of non-manifold edges
+  const { start, order } = groups;
+  for (let gi = 0; gi + 1 < start.length; gi++) {
+    const s = start[gi]!, e = start[gi + 1]!;
+    const size = e - s;
+    if (size === 2) {
+      const h0 = order[s]!, h1 = order[s + 1]!;
+      if (tri[h0] === tri[next(h1)] && tri[h1] === tri[next(h0)]) {
+        twin[h0] = h1;
+        twin[h1] = h0;
+      } else {
+        seams.push(h0, h1); // same direction: tri[h0] === tri[h1]
+      }
+    } else if (size > 2) {
+      nonManifoldEdgeCount++;
+      const h0 = order[s]!;
+      const a = tri[h0]!, b = tri[next(h0)]!;
+      cutVertex[a] = 1;
+      cutVertex[b] = 1;
+      if (nonManifoldEdges.length < maxListed) {
+        const faces: number[] = [];
+        for (let k = s; k < e; k++) faces.push(faceOrigin[(order[k]! / 3) | 0]!);
+        nonManifoldEdges.push({ a: Math.min(a, b), b: Math.max(a, b), faces });
+      }
+    }
+  }
+  return { twin, nonManifoldEdges, nonManifoldEdgeCount, seams, cutVertex };
+}
+
+/**
+ * Union–find forest of corners: corner h (at tri[h]) is joined with the
+ * corner twin[prev(h)] (same vertex, next face counter-clockwise), so each
+ * set is one fan of faces about a vertex.
+ */
+function fanForest(tri: Uint32Array, twin: Int32Array): Int32Array {
+  const nh = tri.length;
+  const parent = new Int32Array(nh);
+  for (let h = 0; h < nh; h++) parent[h] = h;
+  for (let h = 0; h < nh; h++) {
+    const o = twin[prev(h)]!;
+    if (o >= 0) union(parent, h, o);
+  }
+  return parent;
+}
+
+/**
+ * Input vertices with several fans, judged on the surface as given: corners
+ * are also joined across orientation seams (both sides run the same way, so
+ * h0 ~ h1 at the tail and next(h0) ~ next(h1) at the tip), and the ends of
+ * non-manifold edges are not counted. Lists up to `maxListed`.
+ */
+function nonManifoldVerticesOf(
+  tri: Uint32Array, parent: Int32Array, seams: number[], cutVertex: Uint8Array, nv: number, maxListed: number,
+): { list: number[]; count: number } {
+  const given = parent.slice();
+  for (let i = 0; i < seams.length; i += 2) {
+    union(given, seams[i]!, seams[i + 1]!);
+    union(given, next(seams[i]!), next(seams[i + 1]!));
+  }
+  const list: number[] = [];
+  let count = 0;
+  const owner = new Int32Array(nv).fill(-1);
+  const flagged = new Uint8Array(nv);
+  for (let h = 0; h < tri.length; h++) {
+    const v = tri[h]!, r = findRoot(given, h);
+    if (owner[v]! < 0) owner[v] = r;
+    else if (owner[v] !== r && !cutVertex[v] && !flagged[v]) {
+      flagged[v] = 1;
+      count++;
+      if (list.length < maxListed) list.push(v);
+    }
+  }
+  return { list, count };
+}
+
+/**
+ * Renumbers corners in place so that each fan is its own vertex: the first
+ * fan seen at each vertex keeps the index, the others get new vertices
+ * appended after the input ones. Returns vertexOrigin (new → input vertex).
+ */
+function splitFans(tri: Uint32Array, parent: Int32Array, nv: number): { vertexOrigin: Int32Array; splitVertices: number } {
+  const nh = tri.length;
+  const fanOwner = new Int32Array(nv).fill(-1);
+  const rootVertex = new Int32Array(nh).fill(-1);
+  const extraOrigin: number[] = [];
+  for (let h = 0; h < nh; h++) {
+    const v = tri[h]!;
+    const r = findRoot(parent, h);
+    if (rootVertex[r]! >= 0) {
+      tri[h] = rootVertex[r]!;
+      continue;
+    }
+    if (fanOwner[v]! < 0) {
+      fanOwner[v] = r;
+      rootVertex[r] = v;
+    } else {
+      const nvNew = nv + extraOrigin.length;
+      extraOrigin.push(v);
+      rootVertex[r] = nvNew;
+      tri[h] = nvNew;
+    }
+  }
+  const vertexOrigin = new Int32Array(nv + extraOrigin.length);
+  for (let v = 0; v < nv; v++) vertexOrigin[v] = v;
+  for (let i = 0; i < extraOrigin.length; i++) vertexOrigin[nv + i] = extraOrigin[i]!;
+  return { vertexOrigin, splitVertices: extraOrigin.length };
+}
+
+/** vertexHalfedge (the boundary outgoing half-edge if there is one), and the input vertices with no face. */
+function vertexHalfedges(tri: Uint32Array, twin: Int32Array, nvOut: number, nv: number): { vertexHalfedge: Int32Array; isolatedVertices: number } {
+  const vertexHalfedge = new Int32Array(nvOut).fill(-1);
+  for (let h = 0; h < tri.length; h++) {
+    const v = tri[h]!;
+    if (vertexHalfedge[v]! < 0 || twin[h] === -1) vertexHalfedge[v] = h;
+  }
+  let isolatedVertices = 0;
+  for (let v = 0; v < nv; v++) if (vertexHalfedge[v]! < 0) isolatedVertices++;
+  return { vertexHalfedge, isolatedVertices };
+}
+
+/** Edge numbering: an edge per twin pair or boundary half-edge, in half-edge order; edgeHalfedge is its first half-edge. */
+function edgeIndex(twin: Int32Array): { edgeOf: Int32Array; edgeHalfedge: Int32Array; ne: number } {
+  const nh = twin.length;
+  const edgeOf = new Int32Array(nh);
+  let ne = 0;
+  for (let h = 0; h < nh; h++) {
+    const t = twin[h]!;
+    if (t < 0 || h < t) edgeOf[h] = ne++;
+    else edgeOf[h] = edgeOf[t]!;
+  }
+  const edgeHalfedge = new Int32Array(ne);
+  for (let h = nh - 1; h >= 0; h--) edgeHalfedge[edgeOf[h]!] = h;
+  return { edgeOf, edgeHalfedge, ne };
 }
 
 /** Root of `x` in the union–find forest `parent` (path halving). */
