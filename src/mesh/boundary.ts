@@ -57,10 +57,16 @@ export interface NamedLoop {
    * (outer boundaries run counter-clockwise, holes clockwise, seen from the
    * normal side). On a non-orientable surface cut along seams, the seam
    * half-edges are not boundary and are left out: consecutive half-edges
-   * then meet at two copies of one vertex.
+   * then meet at two copies of one vertex, and since crossing a seam
+   * reverses the orientation, the loop runs along some half-edges from tip
+   * to tail.
    */
   halfedges: Int32Array;
-  /** The tail vertex (topology index) of each half-edge: the loop's vertices in order. */
+  /**
+   * The loop's vertices in order (topology indices): where it enters each
+   * half-edge (its tail, unless the loop runs along it backwards). The loop
+   * closes from the last back to the first.
+   */
   vertices: Int32Array;
   /** Sum of the 3D lengths of its edges, in mesh units. */
   length: number;
@@ -86,17 +92,19 @@ export const LOOP_LENGTH_TIE = 1e-9;
  * only on the mesh, so ids are the same on every run.
  */
 export function namedBoundaryLoops(t: Topology, positions: Float64Array, seams: Int32Array = new Int32Array(0)): NamedLoop[] {
-  const raw = seams.length ? gluedLoops(t, seams) : boundaryLoops(t);
+  const starts: Int32Array[] = [];
+  const raw = seams.length ? gluedLoops(t, seams, starts) : boundaryLoops(t);
   const origin = t.vertexOrigin;
-  const loops: NamedLoop[] = raw.map((halfedges) => {
+  const loops: NamedLoop[] = raw.map((halfedges, k) => {
     const n = halfedges.length;
-    const vertices = new Int32Array(n);
+    const vertices = starts[k] ?? new Int32Array(n);
     const min: [number, number, number] = [Infinity, Infinity, Infinity];
     const max: [number, number, number] = [-Infinity, -Infinity, -Infinity];
     let length = 0, representative = -1;
     for (let i = 0; i < n; i++) {
-      const h = halfedges[i]!, a = t.tri[h]!, b = t.tri[next(h)]!;
-      vertices[i] = a;
+      const h = halfedges[i]!;
+      if (!starts[k]) vertices[i] = t.tri[h]!;
+      const a = vertices[i]!, b = t.tri[h] === a ? t.tri[next(h)]! : t.tri[h]!;
       if (representative < 0 || origin[a]! < origin[representative]!) representative = a;
       length += Math.hypot(positions[3 * b]! - positions[3 * a]!, positions[3 * b + 1]! - positions[3 * a + 1]!, positions[3 * b + 2]! - positions[3 * a + 2]!);
       for (let d = 0; d < 3; d++) {
@@ -124,27 +132,43 @@ export function namedBoundaryLoops(t: Topology, positions: Float64Array, seams: 
 
 /**
  * Boundary loops of a surface cut along `seams`, glued back: chains of
- * non-seam boundary half-edges, each continued at the glued class of its
- * tip (every glued boundary vertex of a manifold surface has one outgoing
- * boundary half-edge).
+ * non-seam boundary half-edges through the glued vertex classes (a glued
+ * boundary vertex of a manifold surface has two of them). Crossing a seam
+ * reverses the orientation, so a chain may run along a half-edge from tip
+ * to tail: `starts` receives the vertex where the walk enters each one.
  */
-function gluedLoops(t: Topology, seams: Int32Array): Int32Array[] {
+function gluedLoops(t: Topology, seams: Int32Array, starts: Int32Array[]): Int32Array[] {
   const nh = t.twin.length;
   const { rep, seamHalfedge: seam } = glueSeams(t, seams);
-  const find = (v: number): number => rep[v]!;
-  const out = new Int32Array(t.nv).fill(-1); // glued class → its outgoing boundary half-edge
-  for (let h = 0; h < nh; h++) if (t.twin[h] === -1 && !seam[h]) { const c = find(t.tri[h]!); if (out[c]! < 0) out[c] = h; }
+  const first = new Int32Array(t.nv).fill(-1), second = new Int32Array(t.nv).fill(-1); // glued class → its boundary half-edges
+  const attach = (c: number, h: number) => { if (first[c]! < 0) first[c] = h; else if (second[c]! < 0) second[c] = h; };
+  for (let h = 0; h < nh; h++) {
+    if (t.twin[h] !== -1 || seam[h]) continue;
+    const a = rep[t.tri[h]!]!, b = rep[t.tri[next(h)]!]!;
+    attach(a, h);
+    if (b !== a) attach(b, h);
+  }
   const seen = new Uint8Array(nh);
   const loops: Int32Array[] = [];
-  const buf: number[] = [];
+  const buf: number[] = [], vbuf: number[] = [];
   for (let h0 = 0; h0 < nh; h0++) {
     if (t.twin[h0] !== -1 || seam[h0] || seen[h0]) continue;
     buf.length = 0;
-    for (let h = h0; h >= 0 && !seen[h]; h = out[find(t.tri[next(h)]!)]!) {
+    vbuf.length = 0;
+    let h = h0, a = t.tri[h0]!;
+    for (;;) {
       seen[h] = 1;
       buf.push(h);
+      vbuf.push(a);
+      const b = t.tri[h] === a ? t.tri[next(h)]! : t.tri[h]!; // the other end
+      const c = rep[b]!, f = first[c]!, g = second[c]!;
+      const h2 = f >= 0 && !seen[f] ? f : g >= 0 && !seen[g] ? g : -1;
+      if (h2 < 0) break;
+      a = rep[t.tri[h2]!] === c ? t.tri[h2]! : t.tri[next(h2)]!;
+      h = h2;
     }
     loops.push(Int32Array.from(buf));
+    starts.push(Int32Array.from(vbuf));
   }
   return loops;
 }

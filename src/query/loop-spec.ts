@@ -125,19 +125,20 @@ export function selectLoop(
  * between seam copies (together the whole loop).
  */
 export function loopCurves(t: Topology, loop: NamedLoop): SurfacePoint[][] {
-  const H = loop.halfedges, n = H.length;
+  const H = loop.halfedges, V = loop.vertices, n = H.length;
   if (n === 0) return [];
-  const tipOf = (h: number) => t.tri[next(h)]!;
-  // start right after a break (tip of one half-edge ≠ tail of the next) when there is one
+  // edge i runs from V[i] to the other end of H[i] (the loop may run along a half-edge backwards)
+  const endOf = (i: number) => (t.tri[H[i]!] === V[i] ? t.tri[next(H[i]!)]! : t.tri[H[i]!]!);
+  // start right after a break (the end of one edge is not the start of the next) when there is one
   let s = 0;
-  for (let i = 0; i < n; i++) if (tipOf(H[(i + n - 1) % n]!) !== t.tri[H[i]!]) { s = i; break; }
+  for (let i = 0; i < n; i++) if (endOf((i + n - 1) % n) !== V[i]) { s = i; break; }
   const out: SurfacePoint[][] = [];
   let run: SurfacePoint[] = [];
   for (let k = 0; k < n; k++) {
-    const h = H[(s + k) % n]!;
-    if (run.length && (run[run.length - 1] as { vertex: number }).vertex !== t.tri[h]) { out.push(run); run = []; }
-    if (run.length === 0) run.push({ kind: 'vertex', vertex: t.tri[h]! });
-    run.push({ kind: 'vertex', vertex: tipOf(h) });
+    const i = (s + k) % n;
+    if (run.length && (run[run.length - 1] as { vertex: number }).vertex !== V[i]) { out.push(run); run = []; }
+    if (run.length === 0) run.push({ kind: 'vertex', vertex: V[i]! });
+    run.push({ kind: 'vertex', vertex: endOf(i) });
   }
   out.push(run);
   return out;
