@@ -37,7 +37,7 @@ import { DEFAULT_MAX_LEVELS, finiteRange } from './isolines.js';
 
 type P3 = [number, number, number];
 
-/** One polygon of a band: an outer ring and its holes (rings are closed implicitly: the first point is not repeated). */
+/** One polygon of a band: an outer ring and its holes; each ring repeats its first point as its last (as GeoJSON does). */
 export interface BandPolygon {
   /** Outer ring, counter-clockwise in plan view. */
   outer: P3[];
@@ -237,7 +237,8 @@ function assemble(edges: Map<number, number[]>, at: Map<number, P3>, sgn: number
     if (best) best.holes.push(h);
     else outers.push({ ring: h.slice().reverse(), area: -sgn * planArea(h), holes: [] });
   }
-  return outers.map((o) => ({ outer: o.ring, holes: o.holes }));
+  const close = (r: P3[]): P3[] => [...r, r[0]!];
+  return outers.map((o) => ({ outer: close(o.ring), holes: o.holes.map(close) }));
 }
 
 /** True when ring `h` lies inside ring `o` in plan view (tested at h's first point off o's boundary; crossing-number rule). */

@@ -40,9 +40,9 @@ export type { ScalarField } from './crossings.js';
 export interface SurfaceCurve {
   /** The field's value along the curve (the offset distance for offsets). */
   level: number;
-  /** True when the curve closes on itself (the last point joins the first; it is not repeated). */
+  /** True when the curve closes on itself: then its last point repeats its first (as a GeoJSON ring does). */
   closed: boolean;
-  /** Length in mesh units (the closing segment included when closed). */
+  /** Length in mesh units. */
   length: number;
   /** Positions [x, y, z] in mesh units, in order. */
   points: [number, number, number][];
@@ -171,7 +171,7 @@ function levelCurves(c: EdgeCrossings, positions: Float64Array, i: number): Surf
   return curves;
 }
 
-/** The curve through the crossings of level index i on `edges` (closed: the last joins the first), or null when of zero length. */
+/** The curve through the crossings of level index i on `edges` (closed: the last joins the first), or null when of zero length (or a closed curve of fewer than three distinct points). */
 function makeCurve(c: EdgeCrossings, positions: Float64Array, edges: number[], i: number, level: number, closed: boolean): SurfaceCurve | null {
   const points: [number, number, number][] = [];
   const surfacePoints: SurfacePoint[] = [];
@@ -186,18 +186,19 @@ function makeCurve(c: EdgeCrossings, positions: Float64Array, edges: number[], i
   if (closed && points.length > 1) {
     const a = points[0]!, b = points[points.length - 1]!;
     if (a[0] === b[0] && a[1] === b[1] && a[2] === b[2]) { points.pop(); surfacePoints.pop(); }
+    points.push([a[0], a[1], a[2]]); // the closing point
+    surfacePoints.push(surfacePoints[0]!);
   }
-  const length = polylineLength(points, closed);
-  if (!(length > 0)) return null;
+  const length = polylineLength(points);
+  if (!(length > 0) || (closed && points.length < 4)) return null;
   return { level, closed, length, points, surfacePoints };
 }
 
-/** Length of a polyline of 3D points (with the closing segment when `closed`). */
-export function polylineLength(points: readonly (readonly number[])[], closed: boolean): number {
+/** Length of a polyline of 3D points. */
+export function polylineLength(points: readonly (readonly number[])[]): number {
   let L = 0;
-  const n = points.length;
-  for (let k = 1; k < n + (closed ? 1 : 0); k++) {
-    const a = points[k - 1]!, b = points[k % n]!;
+  for (let k = 1; k < points.length; k++) {
+    const a = points[k - 1]!, b = points[k]!;
     L += Math.hypot(b[0]! - a[0]!, b[1]! - a[1]!, b[2]! - a[2]!);
   }
   return L;

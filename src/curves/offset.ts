@@ -17,26 +17,23 @@
  * face's edges), so vertices beyond read Infinity and no face the curve
  * crosses is skipped.
  */
-import type { IntrinsicMesh } from '../metric/intrinsic.js';
-import type { DistanceMethod } from '../geodesic/field.js';
 import type { SourceSet } from '../geodesic/sources.js';
-import { prepareDistance, type DistanceOptions, type DistanceResult } from '../geodesic/solver.js';
+import type { DistanceResult } from '../geodesic/solver.js';
+import { measureDistances, type MeasureOptions, type Measurement, type SolvableSurface } from '../api/distance.js';
+import { intrinsicOf } from '../api/parts.js';
 import { usageError } from '../errors.js';
 import { isolines, type ScalarField, type SurfaceCurve } from './isolines.js';
 
-/** Options of {@link surfaceOffset}. */
-export interface OffsetOptions extends Omit<DistanceOptions, 'maxDistance'> {
-  /** Distance method (default `exact`). */
-  method?: DistanceMethod;
-}
+/** Options of {@link surfaceOffset}: those of a distance measurement (method, default `exact`; heat options; memory budget), without a distance cap. */
+export type OffsetOptions = Omit<MeasureOptions, 'maxDistance' | 'targets' | 'fieldNeeded'>;
 
 /** Result of {@link surfaceOffset}. */
 export interface OffsetResult {
   /** The offset curves (each with `level` = the distance). */
   curves: SurfaceCurve[];
-  /** The distance solve they came from. */
-  distance: DistanceResult;
-  /** Preparation and solve wall times, ms. */
+  /** The distance measurement they came from. */
+  measurement: Measurement;
+  /** Wall times, ms: the solver's preparation, its solve, and the curve extraction. */
   timings: { prepare: number; solve: number; curves: number };
 }
 
@@ -53,23 +50,21 @@ export function distanceScalarField(r: DistanceResult): ScalarField {
 
 /**
  * The curves at on-surface distance `distance` (mesh units, > 0) from
- * `sources`. `positions` are x, y, z per topology vertex of `mesh`. Throws
- * `USAGE` for a distance that is not a positive finite number, and whatever
- * the solver throws (`USAGE` for bad sources, `LIMIT` past the memory
+ * `sources` on surface `s` (a non-orientable surface is measured on its
+ * double cover and through split vertices, as `measureDistances` does; the
+ * curves end where the build cut the surface). Throws `USAGE` for a
+ * distance that is not a positive finite number, and whatever the
+ * measurement throws (`USAGE` for bad sources, `LIMIT` past the memory
  * budget).
  */
-export function surfaceOffset(mesh: IntrinsicMesh, positions: Float64Array, sources: SourceSet, distance: number, opts: OffsetOptions = {}): OffsetResult {
+export function surfaceOffset(s: SolvableSurface, sources: SourceSet, distance: number, opts: OffsetOptions = {}): OffsetResult {
   if (!(distance > 0 && distance < Infinity)) throw usageError(`the offset distance must be a positive number, got ${distance}`);
   const method = opts.method ?? 'exact';
+  const mesh = intrinsicOf(s, opts.mesh);
   let longest = 0;
   for (let e = 0; e < mesh.edgeLength.length; e++) if (mesh.edgeLength[e]! > longest) longest = mesh.edgeLength[e]!;
-  const { method: _m, ...rest } = opts;
-  void _m;
-  const dopts: DistanceOptions = { ...rest };
-  if (method !== 'heat') dopts.maxDistance = (distance + longest) * (1 + 1e-9);
-  const solver = prepareDistance(mesh, method, dopts);
-  const r = solver.solve(sources);
+  const m = measureDistances(s, sources, { ...opts, mesh, method, ...(method !== 'heat' ? { maxDistance: (distance + longest) * (1 + 1e-9) } : {}) });
   const c0 = performance.now();
-  const curves = isolines(mesh.topology, positions, distanceScalarField(r), [distance]);
-  return { curves, distance: r, timings: { prepare: solver.prepareMs, solve: r.solveMs, curves: performance.now() - c0 } };
+  const curves = isolines(s.topology, s.positions, distanceScalarField(m), [distance]);
+  return { curves, measurement: m, timings: { prepare: m.prepareMs, solve: m.solveMs, curves: performance.now() - c0 } };
 }

@@ -6,8 +6,6 @@
 import { describe, it, expect } from 'vitest';
 import { buildTopology } from '../../src/mesh/build.js';
 import { boundaryLoops } from '../../src/mesh/boundary.js';
-import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
-import type { IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import type { Topology } from '../../src/mesh/topology.js';
 import type { SurfacePoint } from '../../src/query/surface-point.js';
 import type { SourceSet } from '../../src/geodesic/sources.js';
@@ -16,7 +14,8 @@ import { isOrthodromeError } from '../../src/errors.js';
 import { cylinder, icosphere, gridTriangles, type Shape } from '../fixtures/shapes.js';
 import { holedPlate } from '../fixtures/holed-plates.js';
 
-const meshOf = (s: Shape): IntrinsicMesh => intrinsicFromPositions(buildTopology(s.triangles, s.positions.length / 3).topology, s.positions);
+/** A solvable surface from a generated shape (orientable: no seams). */
+const surfaceOf = (s: Shape) => ({ topology: buildTopology(s.triangles, s.positions.length / 3).topology, positions: s.positions, report: { orientationSeams: new Int32Array(0) } });
 
 /** The boundary loop whose vertices all pass `keep`, as a closed curve source. */
 function loopWhere(t: Topology, P: Float64Array, keep: (x: number, y: number, z: number) => boolean): SourceSet {
@@ -55,9 +54,9 @@ describe('offsets: closed forms', () => {
     const R = 1, D = 0.3;
     const errs = [0.1, 0.05].map((h) => {
       const s = holedPlate(R, [], h);
-      const m = meshOf(s);
+      const m = surfaceOf(s);
       const src = loopWhere(m.topology, s.positions, () => true);
-      const { curves } = surfaceOffset(m, s.positions, src, D);
+      const { curves } = surfaceOffset(m, src, D);
       expect(curves.length).toBe(1);
       expect(curves[0]!.closed).toBe(true);
       for (const p of curves[0]!.points) expect(Math.abs(Math.hypot(p[0], p[1]) - (R - D))).toBeLessThan(h * h);
@@ -75,9 +74,9 @@ describe('offsets: closed forms', () => {
     const R = 1, H = 2, D = 0.73;
     const errs = [24, 48].map((n) => {
       const s = cylinder(n, 10, R, H);
-      const m = meshOf(s);
+      const m = surfaceOf(s);
       const src = loopWhere(m.topology, s.positions, (_x, _y, z) => z === 0);
-      const { curves } = surfaceOffset(m, s.positions, src, D);
+      const { curves } = surfaceOffset(m, src, D);
       expect(curves.length).toBe(1);
       expect(curves[0]!.closed).toBe(true);
       for (const p of curves[0]!.points) expect(Math.abs(p[2] - D)).toBeLessThan(1e-9 * H);
@@ -95,8 +94,8 @@ describe('offsets: closed forms', () => {
     const want = 2 * Math.PI * R * Math.sin(D / R);
     const errs = [3, 4].map((level) => {
       const s = icosphere(level, R);
-      const m = meshOf(s);
-      const { curves } = surfaceOffset(m, s.positions, { points: [{ kind: 'vertex', vertex: 0 }], curves: [] }, D);
+      const m = surfaceOf(s);
+      const { curves } = surfaceOffset(m, { points: [{ kind: 'vertex', vertex: 0 }], curves: [] }, D);
       expect(curves.length).toBe(1);
       expect(curves[0]!.closed).toBe(true);
       return Math.abs(curves[0]!.length - want);
@@ -113,9 +112,9 @@ describe('offsets: closed forms', () => {
     const want = 4 * a + 2 * Math.PI * D;
     const errs = [24, 48].map((n) => { // the hole's sides on grid lines
       const s = plateWithSquareHole(n, W, a);
-      const m = meshOf(s);
+      const m = surfaceOf(s);
       const src = loopWhere(m.topology, s.positions, (x, y) => Math.max(Math.abs(x), Math.abs(y)) <= a / 2 + 1e-9);
-      const { curves } = surfaceOffset(m, s.positions, src, D);
+      const { curves } = surfaceOffset(m, src, D);
       expect(curves.length).toBe(1);
       expect(curves[0]!.closed).toBe(true);
       // every point at distance D from the square (plane geometry: distance to a convex set)
@@ -131,10 +130,10 @@ describe('offsets: closed forms', () => {
 
   it('refuses a distance that is not a positive number (USAGE)', () => {
     const s = cylinder(8, 2);
-    const m = meshOf(s);
+    const m = surfaceOf(s);
     for (const D of [0, -1, NaN, Infinity]) {
       let err: unknown;
-      try { surfaceOffset(m, s.positions, { points: [{ kind: 'vertex', vertex: 0 }], curves: [] }, D); } catch (e) { err = e; }
+      try { surfaceOffset(m, { points: [{ kind: 'vertex', vertex: 0 }], curves: [] }, D); } catch (e) { err = e; }
       expect(isOrthodromeError(err) && err.code === 'USAGE').toBe(true);
     }
   });
