@@ -25,8 +25,7 @@ import type { SourceSet } from './sources.js';
 import type { DistanceMethod, SurfacePath } from './field.js';
 import { shortestPathThrough, type WaypointPath } from './waypoints.js';
 import { prepareDistance, type DistanceOptions, type DistanceSolver } from './solver.js';
-import { baryInFace } from './exact/evaluate.js';
-import { commonFaces } from './exact/layout.js';
+import { baryInFace, commonFaces } from '../metric/face-points.js';
 import { boundaryLoops } from '../mesh/boundary.js';
 import { usageError } from '../errors.js';
 

@@ -28,7 +28,8 @@ import type { SurfacePoint } from '../query/surface-point.js';
 import { checkSurfacePoint } from '../query/surface-point.js';
 import { next, prev } from '../mesh/topology.js';
 import { usageError } from '../errors.js';
-import { layoutFace, pointInLayout, facesOfPoint, commonFaces, pointSegmentDistance } from './exact/layout.js';
+import { layoutFace, pointSegmentDistance } from '../metric/layout.js';
+import { pointInLayout, facesOfPoint, commonFaces } from '../metric/face-points.js';
 
 /** Options of {@link graphDistance}. */
 export interface GraphOptions {

@@ -27,7 +27,8 @@ import type { SurfacePoint } from '../query/surface-point.js';
 import { checkSurfacePoint } from '../query/surface-point.js';
 import { next } from '../mesh/topology.js';
 import { usageError } from '../errors.js';
-import { layoutFace, pointInLayout, commonFaces, pointSegmentDistance } from './exact/layout.js';
+import { layoutFace, pointSegmentDistance } from '../metric/layout.js';
+import { pointInLayout, commonFaces } from '../metric/face-points.js';
 
 /**
  * Calls visit(v, λ_v) for every original vertex carrying weight in p

@@ -6,7 +6,7 @@ import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { SurfacePath } from './field.js';
 import type { SurfacePoint } from '../query/surface-point.js';
 import { surfacePointPosition } from '../query/surface-point.js';
-import { commonFaces, layoutFace, pointInLayout } from './exact/layout.js';
+import { commonFaces, inFaceDistance } from '../metric/face-points.js';
 
 /** The 3D polyline of a path: x, y, z per point, from positions per topology vertex. */
 export function pathPolyline(path: SurfacePath, t: Topology, positions: Float64Array): Float64Array {
@@ -26,19 +26,8 @@ export function pathPolyline(path: SurfacePath, t: Topology, positions: Float64A
  * Infinity when a consecutive pair shares no face (not a surface path).
  */
 export function pathLength(mesh: IntrinsicMesh, points: SurfacePoint[]): number {
-  const t = mesh.topology;
-  const lay = new Float64Array(6), a = new Float64Array(2), b = new Float64Array(2);
   let sum = 0;
-  for (let i = 1; i < points.length; i++) {
-    let best = Infinity;
-    for (const f of commonFaces(t, points[i - 1]!, points[i]!)) {
-      layoutFace(mesh, f, lay);
-      pointInLayout(t, f, points[i - 1]!, lay, a);
-      pointInLayout(t, f, points[i]!, lay, b);
-      best = Math.min(best, Math.hypot(a[0]! - b[0]!, a[1]! - b[1]!));
-    }
-    sum += best;
-  }
+  for (let i = 1; i < points.length; i++) sum += inFaceDistance(mesh, points[i - 1]!, points[i]!).distance;
   return sum;
 }
 

@@ -14,7 +14,7 @@ import type { SurfacePath } from './field.js';
 import { exactDistance, type ExactResult } from './exact/index.js';
 import { DEFAULT_MAX_PINCH_SOLVES } from './pinch.js';
 import { prepareExactGeometry } from './exact/geometry.js';
-import { commonFaces, layoutFace, pointInLayout } from './exact/layout.js';
+import { commonFaces, inFaceDistance } from '../metric/face-points.js';
 import { flipGeodesicPath } from './flip/index.js';
 import { verifyShortest } from './flip/verify.js';
 
@@ -183,19 +183,10 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint |
   const n = points.length;
   const cumulative = new Float64Array(n);
   const faces = new Int32Array(n).fill(-1);
-  const lay = new Float64Array(6), pa = new Float64Array(2), pb = new Float64Array(2);
   for (let i = 1; i < n; i++) {
-    const fs = commonFaces(t, points[i - 1]!, points[i]!);
-    let best = Infinity, bestFace = -1;
-    for (const f of fs) {
-      layoutFace(mesh, f, lay);
-      pointInLayout(t, f, points[i - 1]!, lay, pa);
-      pointInLayout(t, f, points[i]!, lay, pb);
-      const d = Math.hypot(pa[0]! - pb[0]!, pa[1]! - pb[1]!);
-      if (d < best) { best = d; bestFace = f; }
-    }
-    cumulative[i] = cumulative[i - 1]! + (Number.isFinite(best) ? best : 0);
-    faces[i - 1] = bestFace;
+    const { distance, face } = inFaceDistance(mesh, points[i - 1]!, points[i]!);
+    cumulative[i] = cumulative[i - 1]! + (Number.isFinite(distance) ? distance : 0);
+    faces[i - 1] = face;
   }
   if (n > 1) faces[n - 1] = faces[n - 2]!;
   else if (n === 1) faces[0] = commonFaces(t, points[0]!, points[0]!)[0] ?? -1;

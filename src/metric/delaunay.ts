@@ -30,7 +30,7 @@
 import type { Topology } from '../mesh/topology.js';
 import type { IntrinsicMesh } from './intrinsic.js';
 import { next, prev } from '../mesh/topology.js';
-import { triangleArea, unfoldedDiagonal } from './triangle.js';
+import { triangleArea, unfoldedDiagonal, cotOpposite } from './triangle.js';
 
 /** Options of {@link intrinsicDelaunay}. */
 export interface DelaunayOptions {
@@ -52,20 +52,21 @@ export interface DelaunayResult {
   capped: boolean;
 }
 
-/** cot α + cot β of the angles opposite interior half-edge h and its twin (Infinity on the boundary). */
+/**
+ * cot α + cot β of the angles opposite interior half-edge h and its twin
+ * (Infinity on the boundary). Cotangents follow the library's one rule
+ * (triangle.ts's {@link cotOpposite}: 0 for a face without area, unbounded
+ * otherwise, so the test is exact on needles too).
+ */
 export function edgeCotanSum(t: Topology, L: Float64Array, h: number): number {
   const o = t.twin[h]!;
   if (o < 0) return Infinity;
   return oppositeCot(t, L, h) + oppositeCot(t, L, o);
 }
 
-/** cot of the angle opposite half-edge h in its face; NaN-free, −Infinity for a face without area and a long side h. */
+/** cot of the angle opposite half-edge h in its face. */
 function oppositeCot(t: Topology, L: Float64Array, h: number): number {
-  const a = L[t.edgeOf[h]!]!, b = L[t.edgeOf[next(h)]!]!, c = L[t.edgeOf[prev(h)]!]!;
-  const A4 = 4 * triangleArea(a, b, c);
-  const d = b * b + c * c - a * a;
-  if (A4 > 0) return d / A4;
-  return d > 0 ? Infinity : d < 0 ? -Infinity : 0;
+  return cotOpposite(L[t.edgeOf[h]!]!, L[t.edgeOf[next(h)]!]!, L[t.edgeOf[prev(h)]!]!);
 }
 
 /**

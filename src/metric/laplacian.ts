@@ -23,15 +23,17 @@
  *   p0 = (0,0)──── p1 = (l0, 0)
  *             l0
  * ```
+ * (p2 from triangle.ts's `placeThirdCorner`, the one layout from lengths).
  * Hat-function gradients: ∇φ_k = rot90(p_{k+2} − p_{k+1}) / (2A), with
- * rot90(x, y) = (−y, x). Degenerate faces (A = 0) get zero gradients and
- * contribute nothing to L, so L stays the Gram matrix Σ A_f ∇φ∇φᵀ (PSD).
+ * rot90(x, y) = (−y, x). Degenerate faces (A = 0) follow the library's rule
+ * (triangle.ts): cotangents 0, zero gradients, no mass, so they contribute
+ * nothing to L, which stays the Gram matrix Σ A_f ∇φ∇φᵀ (PSD).
  */
 import type { Topology } from '../mesh/topology.js';
 import type { IntrinsicMesh } from './intrinsic.js';
 import type { CscMatrix } from '../linalg/csc.js';
 import { next } from '../mesh/topology.js';
-import { triangleArea, COT_LIMIT } from './triangle.js';
+import { triangleArea, faceCotans, boundedCot, placeThirdCorner, barycentricVertexAreas } from './triangle.js';
 
 /**
  * Lower-triangle CSC pattern over the vertices of a topology: in column j the
@@ -122,12 +124,14 @@ export function faceGeometry(m: IntrinsicMesh): FaceGeometry {
   const { topology: t, edgeLength: L } = m;
   const area = new Float64Array(t.nf);
   const grad = new Float64Array(6 * t.nf);
+  const p2 = [0, 0];
   for (let f = 0; f < t.nf; f++) {
     const l0 = L[t.edgeOf[3 * f]!]!, l1 = L[t.edgeOf[3 * f + 1]!]!, l2 = L[t.edgeOf[3 * f + 2]!]!;
     const A = triangleArea(l0, l1, l2);
     area[f] = A;
     if (!(A > 0) || !(l0 > 0)) continue;
-    const x2 = (l0 * l0 + l2 * l2 - l1 * l1) / (2 * l0), y2 = (2 * A) / l0;
+    placeThirdCorner(l0, l1, l2, A, p2, 0);
+    const x2 = p2[0]!, y2 = p2[1]!;
     const s = 1 / (2 * A), o = 6 * f;
     // corner 0: rot90(p2 − p1) = (−y2, x2 − l0)
     grad[o] = -y2 * s; grad[o + 1] = (x2 - l0) * s;
@@ -141,25 +145,20 @@ export function faceGeometry(m: IntrinsicMesh): FaceGeometry {
 
 /**
  * Cotangent Laplacian values on `p` (PSD convention). A face contributes
- * ½ cot θ to the weight of the edge opposite each corner θ; cotangents are
- * (b² + c² − a²) / (4A), clamped to ±{@link COT_LIMIT}; zero-area faces add 0.
+ * ½ cot θ to the weight of the edge opposite each corner θ; cotangents come
+ * from triangle.ts ({@link faceCotans}: 0 for a face without area) bounded
+ * to ±COT_LIMIT.
  */
 export function cotanLaplacian(m: IntrinsicMesh, p: EdgePattern, out = new Float64Array(p.colPtr[p.n]!)): Float64Array {
   const { topology: t, edgeLength: L } = m;
+  const cot = [0, 0, 0];
   out.fill(0);
   for (let f = 0; f < t.nf; f++) {
     const h0 = 3 * f;
-    const l0 = L[t.edgeOf[h0]!]!, l1 = L[t.edgeOf[h0 + 1]!]!, l2 = L[t.edgeOf[h0 + 2]!]!;
-    const A4 = 4 * triangleArea(l0, l1, l2);
-    if (!(A4 > 0)) continue;
+    faceCotans(L[t.edgeOf[h0]!]!, L[t.edgeOf[h0 + 1]!]!, L[t.edgeOf[h0 + 2]!]!, cot, 0);
     for (let k = 0; k < 3; k++) {
       const h = h0 + k;
-      const a = k === 0 ? l0 : k === 1 ? l1 : l2;
-      const b = k === 0 ? l1 : k === 1 ? l2 : l0;
-      const c = k === 0 ? l2 : k === 1 ? l0 : l1;
-      let cot = (b * b + c * c - a * a) / A4;
-      cot = cot > COT_LIMIT ? COT_LIMIT : cot < -COT_LIMIT ? -COT_LIMIT : cot;
-      const w = 0.5 * cot;
+      const w = 0.5 * boundedCot(cot[k]!);
       const s = p.edgeSlot[t.edgeOf[h]!]!;
       if (s < 0) continue;
       out[s]! -= w;
@@ -170,18 +169,12 @@ export function cotanLaplacian(m: IntrinsicMesh, p: EdgePattern, out = new Float
   return out;
 }
 
-/** Lumped (barycentric) mass: one third of each incident face's area per vertex. */
-export function lumpedMass(m: IntrinsicMesh, out = new Float64Array(m.topology.nv)): Float64Array {
-  const { topology: t, edgeLength: L } = m;
-  out.fill(0);
-  for (let f = 0; f < t.nf; f++) {
-    const a3 = triangleArea(L[t.edgeOf[3 * f]!]!, L[t.edgeOf[3 * f + 1]!]!, L[t.edgeOf[3 * f + 2]!]!) / 3;
-    out[t.tri[3 * f]!]! += a3;
-    out[t.tri[3 * f + 1]!]! += a3;
-    out[t.tri[3 * f + 2]!]! += a3;
-  }
-  return out;
-}
+/**
+ * Lumped (barycentric) mass: one third of each incident face's area per
+ * vertex. The same function as triangle.ts's `barycentricVertexAreas` (one
+ * home), under the name the heat method uses.
+ */
+export const lumpedMass: typeof barycentricVertexAreas = barycentricVertexAreas;
 
 /** out = α·L + β·diag(mass) on the shared pattern (L given by its values). */
 export function combine(

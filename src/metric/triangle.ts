@@ -23,6 +23,26 @@
  * Side lengths far from 1 (beyond 2^±300) are scaled by an exact power of two
  * first, so products neither overflow nor underflow.
  *
+ * Cotangents, one rule for the whole library (every cotangent, cotangent
+ * weight, Laplacian entry and Delaunay test is computed by {@link cotOpposite}
+ * or {@link faceCotans}):
+ *   cot = (b² + c² − a²) / (4A), A by Kahan's formula above;
+ *   a triangle whose area A is 0 (collinear, a spike, coincident corners,
+ *   lengths that break the triangle inequality) has cotangent 0 at all three
+ *   corners: it adds nothing to any cotangent weight, and it is never the
+ *   reason an edge is flipped (a flip next to it is impossible anyway: the
+ *   unfolding below needs area on both sides).
+ * So no cotangent is ever NaN. Operators that assemble weights into a matrix
+ * ({@link halfedgeCotans}, the cotangent Laplacian) also bound each one to
+ * ±{@link COT_LIMIT}, which only angles within 1e-8 rad of 0 or π reach; the
+ * Delaunay test reads the unbounded value. Mass is one third of the area per
+ * corner ({@link barycentricVertexAreas}), so a zero-area face adds no mass.
+ *
+ * Laying a triangle out from its lengths, one home ({@link placeThirdCorner}):
+ * side AB of length l on the +x axis from the origin, C above it at
+ *   cx = (l² + |CA|² − |BC|²) / (2l),  cy = 2A / l,
+ * so a needle keeps its small height; a zero-length AB puts C at (0, |CA|).
+ *
  * Conventions for half-edge arrays: `angle[h]` is the interior angle at the
  * tail of half-edge h, so the angle opposite h is `angle[prev(h)]`.
  */
@@ -37,6 +57,23 @@ export function triangleArea(a: number, b: number, c: number): number {
   if (a < b) { const t = a; a = b; b = t; }
   const p = (a + (b + c)) * (c - (a - b)) * (c + (a - b)) * (a + (b - c));
   return p > 0 ? 0.25 * Math.sqrt(p) : 0;
+}
+
+/**
+ * Third corner C of a triangle laid out with side AB (length `l`) on the +x
+ * axis from the origin and C above it (see the module comment), given
+ * |BC| = `ln`, |CA| = `lp` and the triangle's `area` (Kahan's, from
+ * {@link triangleArea}); writes (cx, cy) to out[o], out[o+1]. A zero-length
+ * AB puts C at (0, |CA|); a zero area puts C on the axis.
+ */
+export function placeThirdCorner(l: number, ln: number, lp: number, area: number, out: Float64Array | number[], o: number): void {
+  if (l > 0) {
+    out[o] = (l * l + lp * lp - ln * ln) / (2 * l);
+    out[o + 1] = (2 * area) / l;
+  } else {
+    out[o] = 0;
+    out[o + 1] = lp;
+  }
 }
 
 /**
@@ -58,10 +95,10 @@ export function triangleArea(a: number, b: number, c: number): number {
 export function unfoldedDiagonal(lab: number, lbc: number, lca: number, lad: number, ldb: number, out?: Float64Array | number[]): number {
   const A0 = triangleArea(lab, lbc, lca), A1 = triangleArea(lab, lad, ldb);
   if (!(A0 > 0 && A1 > 0 && lab > 0)) return NaN;
-  const xc = (lab * lab + lca * lca - lbc * lbc) / (2 * lab), yc = (2 * A0) / lab;
-  const xd = (lab * lab + lad * lad - ldb * ldb) / (2 * lab), yd = (2 * A1) / lab;
-  if (out) { out[0] = xc; out[1] = yc; out[2] = xd; out[3] = yd; }
-  return Math.hypot(xc - xd, yc + yd);
+  const q = out ?? [0, 0, 0, 0];
+  placeThirdCorner(lab, lbc, lca, A0, q, 0);
+  placeThirdCorner(lab, ldb, lad, A1, q, 2); // d mirrored: laid out above, then read below the axis
+  return Math.hypot(q[0]! - q[2]!, q[1]! + q[3]!);
 }
 
 /** Angle opposite side `a` in the triangle with sides a, b, c (radians, in [0, π]; see the module comment). */
@@ -70,6 +107,7 @@ export function angleOpposite(a: number, b: number, c: number): number {
   return scratch[0]!;
 }
 
+/** Written and read within one call of {@link angleOpposite} (no callback in between, so re-entrant). */
 const scratch = new Float64Array(3);
 const HUGE = 2 ** 300, TINY = 2 ** -300;
 
@@ -90,7 +128,7 @@ function kahanAngle(a: number, b: number, c: number): number {
  * Writes the angles opposite sides l0, l1, l2 to `out[o]`, `out[o+1]`,
  * `out[o+2]`. They sum to π for every input (see the module comment).
  */
-export function anglesOfSides(l0: number, l1: number, l2: number, out: Float64Array, o: number): void {
+export function anglesOfSides(l0: number, l1: number, l2: number, out: Float64Array | number[], o: number): void {
   let x = l0, y = l1, z = l2; // sort a copy: x ≥ y ≥ z
   if (x < y) { const t = x; x = y; y = t; }
   if (y < z) { const t = y; y = z; z = t; }
@@ -123,24 +161,44 @@ export function anglesOfSides(l0: number, l1: number, l2: number, out: Float64Ar
 }
 
 /**
- * Cotangent of the angle opposite side `a`. Finite always: a triangle of zero
- * area gets cot clamped to ±`COT_LIMIT` (or 0 when the numerator vanishes).
+ * Cotangent of the angle opposite side `a` in the triangle with sides a, b, c:
+ * (b² + c² − a²) / (4A), and 0 when the area A is 0 (the library's one rule
+ * for degenerate triangles: see the module comment). Never NaN; not bounded
+ * (see {@link COT_LIMIT}).
  */
 export function cotOpposite(a: number, b: number, c: number): number {
-  const d = b * b + c * c - a * a;
-  const s = 4 * triangleArea(a, b, c);
-  return safeCot(d, s);
+  return cotOf(b * b + c * c - a * a, 4 * triangleArea(a, b, c));
 }
 
-/** Bound on |cot θ| for zero-area triangles, so nothing downstream sees Infinity. */
+/**
+ * Writes the cotangents of the angles opposite sides l0, l1, l2 to `out[o]`,
+ * `out[o+1]`, `out[o+2]` (one area for the three; same rule and values as
+ * {@link cotOpposite}); returns the triangle's area.
+ */
+export function faceCotans(l0: number, l1: number, l2: number, out: Float64Array | number[], o: number): number {
+  const A = triangleArea(l0, l1, l2), A4 = 4 * A;
+  out[o] = cotOf(l1 * l1 + l2 * l2 - l0 * l0, A4);
+  out[o + 1] = cotOf(l2 * l2 + l0 * l0 - l1 * l1, A4);
+  out[o + 2] = cotOf(l0 * l0 + l1 * l1 - l2 * l2, A4);
+  return A;
+}
+
+/** The rule itself: numerator b² + c² − a² over 4A, 0 without area. */
+function cotOf(num: number, area4: number): number {
+  return area4 > 0 ? num / area4 : 0;
+}
+
+/**
+ * Bound on |cot θ| in assembled weights ({@link halfedgeCotans}, the
+ * cotangent Laplacian): reached only by angles within 1e-8 rad of 0 or π,
+ * it keeps the weights of a needle finite and within a range the Cholesky
+ * factorization handles.
+ */
 export const COT_LIMIT = 1e8;
 
-function safeCot(d: number, s: number): number {
-  if (s > 0) {
-    const c = d / s;
-    return c > COT_LIMIT ? COT_LIMIT : c < -COT_LIMIT ? -COT_LIMIT : c;
-  }
-  return d > 0 ? COT_LIMIT : d < 0 ? -COT_LIMIT : 0;
+/** cot clamped to ±{@link COT_LIMIT}. */
+export function boundedCot(cot: number): number {
+  return cot > COT_LIMIT ? COT_LIMIT : cot < -COT_LIMIT ? -COT_LIMIT : cot;
 }
 
 /** Side lengths of face f in half-edge order: l[k] = length of half-edge 3f+k. */
@@ -172,15 +230,14 @@ export function cornerAngles(m: IntrinsicMesh, out = new Float64Array(3 * m.topo
   return out;
 }
 
-/** Cotangent of the angle opposite every half-edge (finite; see {@link COT_LIMIT}). */
+/** Cotangent of the angle opposite every half-edge ({@link faceCotans}, bounded by {@link COT_LIMIT}). */
 export function halfedgeCotans(m: IntrinsicMesh, out = new Float64Array(3 * m.topology.nf)): Float64Array {
+  const { edgeOf } = m.topology;
+  const L = m.edgeLength;
   for (let f = 0; f < m.topology.nf; f++) {
-    const l = sides(m, f);
-    const s = 4 * triangleArea(l[0], l[1], l[2]);
-    for (let k = 0; k < 3; k++) {
-      const a = l[k]!, b = l[(k + 1) % 3]!, c = l[(k + 2) % 3]!;
-      out[3 * f + k] = safeCot(b * b + c * c - a * a, s);
-    }
+    const h = 3 * f;
+    faceCotans(L[edgeOf[h]!]!, L[edgeOf[h + 1]!]!, L[edgeOf[h + 2]!]!, out, h);
+    for (let k = h; k < h + 3; k++) out[k] = boundedCot(out[k]!);
   }
   return out;
 }
@@ -194,7 +251,11 @@ export function edgeCotanWeights(m: IntrinsicMesh, out = new Float64Array(m.topo
   return out;
 }
 
-/** Vertex area: one third of the area of each incident face. */
+/**
+ * Vertex area: one third of the area of each incident face (the lumped,
+ * barycentric mass matrix of the P1 finite elements; the library's one
+ * lumped mass, also exported as `lumpedMass` from laplacian.ts).
+ */
 export function barycentricVertexAreas(m: IntrinsicMesh, out = new Float64Array(m.topology.nv)): Float64Array {
   const t = m.topology;
   const A = faceAreas(m);

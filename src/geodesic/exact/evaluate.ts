@@ -10,10 +10,8 @@
  * - every point source on f: |S − P|, and every segment of a curve source
  *   on f: the distance from P to the segment.
  */
-import type { Topology } from '../../mesh/topology.js';
-import type { SurfacePoint } from '../../query/surface-point.js';
 import type { ExactState } from './state.js';
-import { pointSegmentDistance } from './layout.js';
+import { pointSegmentDistance } from '../../metric/layout.js';
 
 /** √(x² + y²) without Math.hypot's overflow guard, which costs several times more in V8 (lengths here are far from 1e±154). Local to each hot module so it inlines. */
 function len2(x: number, y: number): number {
@@ -31,29 +29,6 @@ export interface Evaluation {
   id: number;
   /** For a window: the crossing on its half-edge, as a distance from the half-edge's tail. */
   x: number;
-}
-
-/** Barycentric coordinates of p in face f (false when p is not on f's closure). */
-export function baryInFace(t: Topology, f: number, p: SurfacePoint, out: number[]): boolean {
-  out[0] = out[1] = out[2] = 0;
-  if (p.kind === 'face') {
-    if (p.face !== f) return false;
-    out[0] = p.bary[0]; out[1] = p.bary[1]; out[2] = p.bary[2];
-    return true;
-  }
-  for (let k = 0; k < 3; k++) {
-    const h = 3 * f + k;
-    if (p.kind === 'vertex') {
-      if (t.tri[h] === p.vertex) { out[k] = 1; return true; }
-    } else if (t.edgeOf[h] === p.edge) {
-      const k1 = (k + 1) % 3;
-      const fwd = t.edgeHalfedge[p.edge] === h; // edgeHalfedge runs corner k → k+1
-      out[fwd ? k : k1] = 1 - p.t;
-      out[fwd ? k1 : k] = p.t;
-      return true;
-    }
-  }
-  return false;
 }
 
 /** Position (x, y) of the barycentric point b of face f in the frame of half-edge 3f+k. */

@@ -13,7 +13,7 @@
  */
 import type { IntrinsicMesh } from '../../metric/intrinsic.js';
 import { cornerAngles } from '../../metric/triangle.js';
-import { layoutAlong } from './layout.js';
+import { layoutAlong } from '../../metric/layout.js';
 import { saddleFlags } from './pseudo-sources.js';
 import { sharpFlags } from './winding.js';
 

@@ -15,12 +15,13 @@ import type { SurfacePoint } from '../../query/surface-point.js';
 import { canonicalSurfacePoint } from '../../query/surface-point.js';
 import { usageError } from '../../errors.js';
 import type { SourceSet } from '../sources.js';
-import { commonFaces, facesOfPoint, pointSegmentDistance } from './layout.js';
+import { pointSegmentDistance } from '../../metric/layout.js';
+import { baryInFace, commonFaces, facesOfPoint } from '../../metric/face-points.js';
 import type { ExactState } from './state.js';
 import { addRoot, relaxVertex, VIA_ROOT, VIA_SOURCE } from './state.js';
 import { emitFromPoint } from './propagate.js';
 import { emitFromSegment } from './planar.js';
-import { baryInFace, pointInFrame } from './evaluate.js';
+import { pointInFrame } from './evaluate.js';
 
 const PA = [0, 0], PB = [0, 0];
 

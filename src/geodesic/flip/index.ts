@@ -33,7 +33,7 @@ import { shortestEdgePath } from './start-path.js';
 import { shortenPath } from './flipout.js';
 import { tracePath } from './trace.js';
 import { insertPoint } from './insert.js';
-import { commonFaces } from '../exact/layout.js';
+import { commonFaces } from '../../metric/face-points.js';
 
 export { BEND_TOLERANCE } from './flipout.js';
 

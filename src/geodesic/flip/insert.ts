@@ -26,7 +26,7 @@
 import type { SurfacePoint } from '../../query/surface-point.js';
 import { next, prev } from '../../mesh/topology.js';
 import { angleOpposite } from '../../metric/triangle.js';
-import { layoutAlong } from '../exact/layout.js';
+import { layoutAlong } from '../../metric/layout.js';
 import type { FlipTriangulation } from './triangulation.js';
 
 const lay = new Float64Array(2);

@@ -22,7 +22,7 @@
 import type { SurfacePoint } from '../../query/surface-point.js';
 import { next, prev } from '../../mesh/topology.js';
 import { angleOpposite } from '../../metric/triangle.js';
-import { layoutAlong, layoutFace } from '../exact/layout.js';
+import { layoutAlong, layoutFace } from '../../metric/layout.js';
 import type { FlipTriangulation } from './triangulation.js';
 
 /**
