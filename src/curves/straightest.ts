@@ -1,0 +1,184 @@
+/**
+ * Straightest lines: walk straight on the surface from a point, for a given
+ * length, on a bearing or toward a point in space. Written from K. Polthier
+ * & M. Schmies, "Straightest geodesics on polyhedral surfaces", in
+ * Mathematical Visualization (H.-C. Hege, K. Polthier, eds.), Springer 1998,
+ * pp. 135–150: at every point of the line the surface angle on its left
+ * equals the angle on its right (half the total angle θ there), so the line
+ * is straight in every face, crosses every edge at equal angles, and leaves
+ * a vertex of total angle θ with θ/2 on each side
+ * (`straightest-walk.ts`). Unlike a shortest path, a straightest line is
+ * fixed by its start and direction alone, like a bearing walked on the
+ * ground.
+ *
+ * The initial direction (`straightest-start.ts` has the tangent planes):
+ * - `heading`: a bearing in degrees, clockwise from the reference direction
+ *   as seen from the side the tangent plane's normal points to (with +y as
+ *   north and normals up, 90° is +x, east: a compass bearing). The
+ *   reference is the projection of `reference` (default +y) onto the
+ *   tangent plane; a reference within {@link REFERENCE_TOLERANCE} of the
+ *   normal has no usable projection and is refused (`USAGE`): give another.
+ * - `toward`: a 3D point; the direction is the chord from the start to it,
+ *   projected onto the tangent plane (the line then walks toward the point's
+ *   foot on the plane; it reaches the point itself only on a flat surface).
+ *
+ * The walk stops after `length` or on reaching the boundary
+ * (`stoppedAtBoundary`); a start on the boundary facing off the surface
+ * returns a line of length 0. The number of faces crossed is bounded
+ * ({@link defaultMaxSteps}); beyond the bound the walk is refused with a
+ * `LIMIT` error naming `maxSteps`.
+ */
+import type { IntrinsicMesh } from '../metric/intrinsic.js';
+import { checkSurfacePoint, canonicalSurfacePoint, surfacePointPosition, type SurfacePoint } from '../query/surface-point.js';
+import { usageError, limitError, numericError } from '../errors.js';
+import { walkStraightest } from './straightest-walk.js';
+import { tangentNormal, walkStartOf, unit, projectOut, cross, type Vec3 } from './straightest-start.js';
+
+/** The default reference direction of a heading: +y (north on a map grid). */
+export const DEFAULT_REFERENCE: Readonly<Vec3> = [0, 1, 0];
+
+/** A reference whose projection on the tangent plane is shorter than this (times its length) is refused: it is normal to the surface. */
+export const REFERENCE_TOLERANCE = 1e-6;
+
+/** Upper end of the default step bound (faces crossed). */
+export const MAX_DEFAULT_STEPS = 10_000_000;
+
+/** How to walk. Give exactly one of `heading` and `toward`. */
+export interface StraightestOptions {
+  /** Length to walk, in mesh units (> 0). */
+  length: number;
+  /** Bearing in degrees, clockwise from the reference direction seen from the normal's side. */
+  heading?: number;
+  /** A 3D point: the direction is the chord to it projected onto the tangent plane. */
+  toward?: ArrayLike<number>;
+  /** The direction of heading 0, projected onto the tangent plane (default +y). */
+  reference?: ArrayLike<number>;
+  /** Most faces the walk may cross (default {@link defaultMaxSteps}); more is a `LIMIT` error. */
+  maxSteps?: number;
+}
+
+/** A straightest line on the surface. */
+export interface StraightestLine {
+  /** x, y, z of every point: the start, each edge crossing and vertex passed, the end. */
+  points: Float64Array;
+  /** Length walked on the surface, mesh units (the requested length unless the boundary came first). */
+  length: number;
+  /** The length asked for. */
+  requestedLength: number;
+  /** True when the walk ended on the boundary before the requested length. */
+  stoppedAtBoundary: boolean;
+  /** The start, canonical. */
+  start: SurfacePoint;
+  /** Where the walk ended. */
+  end: SurfacePoint;
+  /** Unit normal of the tangent plane at the start. */
+  normal: Vec3;
+  /** Unit initial direction, in the tangent plane at the start. */
+  direction: Vec3;
+  /** Bearing of `direction` in degrees in [0, 360), clockwise from the reference; undefined when the reference is normal to the surface (a `toward` walk). */
+  heading: number | undefined;
+  /** Faces crossed. */
+  steps: number;
+  /** Vertices the line passed through (where the θ/2 rule chose the way on). */
+  vertexPassages: number;
+}
+
+/**
+ * The default bound on faces crossed: 64 + 8 × length / (shortest edge), at
+ * most {@link MAX_DEFAULT_STEPS}. A straight segment crosses more faces than
+ * length / (shortest edge) only near vertices of high valence and through
+ * slivers; 8× leaves room for both.
+ */
+export function defaultMaxSteps(m: IntrinsicMesh, length: number): number {
+  let lmin = Infinity;
+  for (const l of m.edgeLength) if (l > 0 && l < lmin) lmin = l;
+  const n = 64 + Math.ceil((8 * length) / lmin);
+  return Number.isFinite(n) ? Math.min(n, MAX_DEFAULT_STEPS) : MAX_DEFAULT_STEPS;
+}
+
+const vec3 = (a: ArrayLike<number> | undefined, what: string): Vec3 | undefined => {
+  if (a === undefined) return undefined;
+  if (a.length !== 3 || ![a[0], a[1], a[2]].every((x) => typeof x === 'number' && Number.isFinite(x))) {
+    throw usageError(`${what} must be three finite numbers x, y, z`);
+  }
+  return [a[0]!, a[1]!, a[2]!];
+};
+
+/**
+ * Walks the straightest line from `start` (see the module comment).
+ * `positions` (x, y, z per topology vertex) give the tangent planes and the
+ * 3D points; the walk itself uses the edge lengths of `mesh`.
+ *
+ * Throws `USAGE` for a bad start point or options, a reference normal to the
+ * surface, a `toward` point on the start's normal line; `LIMIT` when the
+ * walk would cross more than `maxSteps` faces; `NUMERIC` when a degenerate
+ * face stops it.
+ */
+export function straightestLine(mesh: IntrinsicMesh, positions: Float64Array, start: SurfacePoint, options: StraightestOptions): StraightestLine {
+  const t = mesh.topology;
+  if (positions.length !== 3 * t.nv) throw usageError(`expected ${3 * t.nv} coordinates (x, y, z per vertex), got ${positions.length}`, 'positions');
+  const p = checkSurfacePoint(start, t, 'start');
+  const length = options.length;
+  if (!(typeof length === 'number' && Number.isFinite(length) && length > 0)) throw usageError(`length must be a positive number of mesh units, got ${length}`);
+  const toward = vec3(options.toward, 'toward');
+  if ((options.heading === undefined) === (toward === undefined)) throw usageError('give exactly one of heading and toward');
+  if (options.heading !== undefined && !(typeof options.heading === 'number' && Number.isFinite(options.heading))) {
+    throw usageError(`heading must be a finite number of degrees, got ${options.heading}`);
+  }
+  const refIn = vec3(options.reference, 'reference') ?? ([...DEFAULT_REFERENCE] as Vec3);
+  const maxSteps = options.maxSteps ?? defaultMaxSteps(mesh, length);
+  if (!(Number.isInteger(maxSteps) && maxSteps >= 1)) throw usageError(`maxSteps must be a whole number ≥ 1, got ${maxSteps}`);
+
+  const n = tangentNormal(mesh, positions, p);
+  if (!n) throw usageError('the start lies on faces without area: no tangent plane there; start from a nearby point', 'start');
+  const refLen = Math.hypot(...refIn);
+  const refProj = projectOut(refIn, n);
+  const ref = refLen > 0 && Math.hypot(...refProj) > REFERENCE_TOLERANCE * refLen ? unit(refProj) : null;
+  const left = ref ? cross(n, ref) : null; // n × ref: 90° counter-clockwise of the reference
+  let d: Vec3;
+  if (options.heading !== undefined) {
+    if (!ref || !left) {
+      throw usageError(`the reference direction (${refIn.join(', ')}) is normal to the surface at the start (its projection on the tangent plane is below ${REFERENCE_TOLERANCE} of its length); give another reference`, 'reference');
+    }
+    const a = (options.heading * Math.PI) / 180, c = Math.cos(a), s = Math.sin(a);
+    // clockwise seen from the normal's side: d = cos α · ref − sin α · (n × ref)
+    d = unit([c * ref[0] - s * left[0], c * ref[1] - s * left[1], c * ref[2] - s * left[2]])!;
+  } else {
+    const from = surfacePointPosition(p, t, positions, [0, 0, 0]) as number[];
+    const chord: Vec3 = [toward![0] - from[0]!, toward![1] - from[1]!, toward![2] - from[2]!];
+    const cl = Math.hypot(...chord), cp = projectOut(chord, n);
+    const u = cl > 0 && Math.hypot(...cp) > 1e-9 * cl ? unit(cp) : null;
+    if (!u) throw usageError(`the point (${toward!.join(', ')}) lies on the surface normal at the start (or is the start): it gives no direction along the surface`, 'toward');
+    d = u;
+  }
+  const heading = ref && left ? bearing(d, ref, left) : undefined;
+  const ws = walkStartOf(mesh, positions, p, n, d);
+  const base = { requestedLength: length, start: p, normal: n, direction: d, heading };
+  if (!ws) {
+    const q = surfacePointPosition(p, t, positions) as Float64Array;
+    return { ...base, points: Float64Array.from(q), length: 0, stoppedAtBoundary: true, end: p, steps: 0, vertexPassages: 0 };
+  }
+  const r = walkStraightest(mesh, positions, ws, length, maxSteps);
+  if (r.status === 'steps') {
+    throw limitError(`the straightest line crossed ${maxSteps} faces after ${r.length} of ${length} mesh units, the step limit; raise maxSteps (--max-steps)`);
+  }
+  if (r.status === 'stuck') throw numericError(`the straightest line cannot go on through face ${r.face} (a triangle without area) after ${r.length} mesh units`);
+  return {
+    ...base,
+    points: r.points,
+    length: r.status === 'complete' ? length : r.length,
+    stoppedAtBoundary: r.status === 'boundary',
+    end: canonicalSurfacePoint(r.end, t),
+    steps: r.steps,
+    vertexPassages: r.vertexPassages,
+  };
+}
+
+/** Bearing of d in degrees [0, 360), clockwise from ref (n × ref, to the left, is 270°). */
+function bearing(d: Vec3, ref: Vec3, left: Vec3): number {
+  const c = d[0] * ref[0] + d[1] * ref[1] + d[2] * ref[2];
+  const s = -(d[0] * left[0] + d[1] * left[1] + d[2] * left[2]);
+  const deg = (Math.atan2(s, c) * 180) / Math.PI;
+  const b = deg < 0 ? deg + 360 : deg;
+  return b >= 360 ? 0 : b;
+}
