@@ -137,14 +137,62 @@ function readItems(r: ItemReader, el: PlyElement, sinks: Sink[], fi: number, nv:
   st.idx = idx;
 }
 
+/** The elements a mesh needs: vertex, face, and the face's index list property. */
+interface MeshElements {
+  vEl: PlyElement;
+  fEl: PlyElement;
+  /** Index of the face's vertex index list among its properties. */
+  fi: number;
+}
+
+/** What the body is read into; `positions` and `faceIndices` may be replaced (fast path, growth). */
+interface PlyBody {
+  positions: Float64Array;
+  vertexProps: PropertyColumn[];
+  faceProps: PropertyColumn[];
+  faceOffsets: Uint32Array;
+  faceIndices: Uint32Array;
+  /** Face indices used so far. */
+  ni: number;
+}
+
 /** Parses a PLY file (any of the three encodings; a UTF-8 byte-order mark before `ply` is ignored) into {@link MeshData}. */
 export function parsePly(bytes: Uint8Array, name: string): MeshData {
   const b = stripBom(bytes);
   const h = parsePlyHeader(b, name);
   const ascii = h.format === 'ascii';
   const le = h.format === 'binary_little_endian';
-  const vEl = h.elements.find((e) => e.name === 'vertex');
-  const fEl = h.elements.find((e) => e.name === 'face');
+  const els = meshElements(h.elements, name);
+  checkCountsFit(h.elements, els, b.length - h.bodyStart, ascii, name);
+  const nv = els.vEl.count;
+  const body: PlyBody = {
+    positions: new Float64Array(3 * nv),
+    vertexProps: [],
+    faceProps: [],
+    faceOffsets: new Uint32Array(els.fEl.count + 1),
+    faceIndices: new Uint32Array(3 * els.fEl.count),
+    ni: 0,
+  };
+  const r = new ItemReader(b, h.bodyStart, le, ascii, name);
+  for (const el of h.elements) readElement(r, el, els, body);
+  const { positions, ni, faceIndices } = body;
+  for (let k = 0; k < 3 * nv; k++) {
+    if (!Number.isFinite(positions[k]!)) throw inputError('non-finite coordinate', `${name}: vertex ${Math.floor(k / 3)}`);
+  }
+  return {
+    positions,
+    faceOffsets: body.faceOffsets,
+    faceIndices: ni === faceIndices.length ? faceIndices : faceIndices.slice(0, ni),
+    vertexProps: body.vertexProps,
+    faceProps: body.faceProps,
+    name,
+  };
+}
+
+/** Finds the vertex element (with scalar x, y, z) and the face element (with its index list), or throws INPUT. */
+function meshElements(elements: PlyElement[], name: string): MeshElements {
+  const vEl = elements.find((e) => e.name === 'vertex');
+  const fEl = elements.find((e) => e.name === 'face');
   if (vEl === undefined || vEl.count === 0) throw inputError('no vertices', name);
   if (fEl === undefined || fEl.count === 0) throw inputError('no faces', name);
   for (const axis of ['x', 'y', 'z']) {
@@ -153,12 +201,18 @@ export function parsePly(bytes: Uint8Array, name: string): MeshData {
   }
   const fi = fEl.props.findIndex((q) => q.countType >= 0 && (q.name === 'vertex_indices' || q.name === 'vertex_index'));
   if (fi < 0) throw inputError('face element has no vertex_indices list', `${name}: header line ${fEl.line}`);
+  return { vEl, fEl, fi };
+}
 
-  // Smallest body an element can have: its scalars and list counts (binary), or
-  // one digit and one separator per value (ascii). A binary face list needs 3
-  // items (fewer is an error anyway).
-  let budget = b.length - h.bodyStart + (ascii ? 1 : 0);
-  for (const el of h.elements) {
+/**
+ * Checks every declared count against the `bodyBytes` left after the header,
+ * before anything is sized by a count. Smallest body an element can have: its
+ * scalars and list counts (binary), or one digit and one separator per value
+ * (ascii). A binary face list needs 3 items (fewer is an error anyway).
+ */
+function checkCountsFit(elements: PlyElement[], { fEl, fi }: MeshElements, bodyBytes: number, ascii: boolean, name: string): void {
+  let budget = bodyBytes + (ascii ? 1 : 0);
+  for (const el of elements) {
     let min = 0;
     el.props.forEach((q, j) => {
       if (ascii) min += 2;
@@ -172,79 +226,75 @@ export function parsePly(bytes: Uint8Array, name: string): MeshData {
     }
     budget -= el.count * min;
   }
+}
 
-  const nv = vEl.count;
-  let positions = new Float64Array(3 * nv);
-  const vertexProps: PropertyColumn[] = [];
-  const faceProps: PropertyColumn[] = [];
-  const faceOffsets = new Uint32Array(fEl.count + 1);
-  let faceIndices: Uint32Array = new Uint32Array(3 * fEl.count);
-  let ni = 0;
-  const dv = new DataView(b.buffer, b.byteOffset, b.byteLength);
-  const r = new ItemReader(b, h.bodyStart, le, ascii, name);
-
-  for (const el of h.elements) {
-    r.elName = el.name;
-    let p = r.p;
-    const sinks: Sink[] = el.props.map((q) => {
-      if (q.countType >= 0) return { dst: null, stride: 0, base: 0 };
-      if (el === vEl && (q.name === 'x' || q.name === 'y' || q.name === 'z')) {
-        return { dst: positions, stride: 3, base: q.name.charCodeAt(0) - 120 };
-      }
-      if (el !== vEl && el !== fEl) return { dst: null, stride: 0, base: 0 };
-      const col: PropertyColumn = { name: q.name, type: SCALAR_TYPES[q.type]!, values: new Float64Array(el.count) };
-      (el === vEl ? vertexProps : faceProps).push(col);
-      return { dst: col.values, stride: 1, base: 0 };
-    });
-    const np = el.props.length;
-    let stride = 0;
-    for (const q of el.props) stride += q.countType < 0 ? TYPE_SIZES[q.type]! : 0;
-    const fixed = !ascii && el !== fEl && el.props.every((q) => q.countType < 0);
-    if (np === 0) {
-      // items without properties occupy no bytes
-    } else if (fixed && el !== vEl && sinks.every((s) => s.dst === null)) {
-      p += stride * el.count;
-    } else if (fixed && el === vEl && le === HOST_LE && stride === 24 && el.props.every((q, j) => q.type === 7 && q.name === 'xyz'[j])) {
-      // Exactly `double x, y, z` in host byte order: the block is the array.
-      // Copied into an array of its own: `b` may be a view into a larger
-      // (pooled) buffer at any byte offset, so its `.buffer` is not the file.
-      positions = new Float64Array(3 * el.count);
-      new Uint8Array(positions.buffer).set(b.subarray(p, p + 24 * el.count));
-      p += 24 * el.count;
-    } else if (fixed) {
-      // Fixed-size items: bounds were checked above, read column by column.
-      let o = p;
-      for (let j = 0; j < np; j++) {
-        const q = el.props[j]!, s = sinks[j]!;
-        if (s.dst !== null) readColumn(dv, o, stride, el.count, q.type, le, s.dst, s.stride, s.base);
-        o += TYPE_SIZES[q.type]!;
-      }
-      p += stride * el.count;
-    } else if (!ascii && el === fEl && np === 1) {
-      // Faces with only their index list: the common case, its own tight loop.
-      const st: FaceLists = { p, ni, idx: faceIndices };
-      readFaceLists(dv, b, st, el.count, el.props[0]!, le, nv, faceOffsets, name);
-      p = st.p;
-      ni = st.ni;
-      faceIndices = st.idx;
-    } else {
-      const st: FaceLists = { p, ni, idx: faceIndices };
-      readItems(r, el, sinks, el === fEl ? fi : -1, nv, faceOffsets, st);
-      p = r.p;
-      ni = st.ni;
-      faceIndices = st.idx;
+/**
+ * Where each property of `el` goes: positions for the vertex's x, y, z, a new
+ * column for other scalars of vertex and face, nowhere for lists and for
+ * other elements.
+ */
+function elementSinks(el: PlyElement, { vEl, fEl }: MeshElements, body: PlyBody): Sink[] {
+  return el.props.map((q) => {
+    if (q.countType >= 0) return { dst: null, stride: 0, base: 0 };
+    if (el === vEl && (q.name === 'x' || q.name === 'y' || q.name === 'z')) {
+      return { dst: body.positions, stride: 3, base: q.name.charCodeAt(0) - 120 };
     }
-    r.p = p;
+    if (el !== vEl && el !== fEl) return { dst: null, stride: 0, base: 0 };
+    const col: PropertyColumn = { name: q.name, type: SCALAR_TYPES[q.type]!, values: new Float64Array(el.count) };
+    (el === vEl ? body.vertexProps : body.faceProps).push(col);
+    return { dst: col.values, stride: 1, base: 0 };
+  });
+}
+
+/**
+ * Reads the items of one element from r.p on and advances r.p past them,
+ * by the fastest path its layout allows: skipped, one block copy (host-order
+ * double x, y, z), column by column (fixed-size binary items), a tight loop
+ * (binary faces with only their index list), or value by value.
+ */
+function readElement(r: ItemReader, el: PlyElement, els: MeshElements, body: PlyBody): void {
+  const { vEl, fEl, fi } = els;
+  const { b, ascii, le, dv } = r;
+  r.elName = el.name;
+  let p = r.p;
+  const sinks = elementSinks(el, els, body);
+  const np = el.props.length;
+  let stride = 0;
+  for (const q of el.props) stride += q.countType < 0 ? TYPE_SIZES[q.type]! : 0;
+  const fixed = !ascii && el !== fEl && el.props.every((q) => q.countType < 0);
+  if (np === 0) {
+    // items without properties occupy no bytes
+  } else if (fixed && el !== vEl && sinks.every((s) => s.dst === null)) {
+    p += stride * el.count;
+  } else if (fixed && el === vEl && le === HOST_LE && stride === 24 && el.props.every((q, j) => q.type === 7 && q.name === 'xyz'[j])) {
+    // Exactly `double x, y, z` in host byte order: the block is the array.
+    // Copied into an array of its own: `b` may be a view into a larger
+    // (pooled) buffer at any byte offset, so its `.buffer` is not the file.
+    body.positions = new Float64Array(3 * el.count);
+    new Uint8Array(body.positions.buffer).set(b.subarray(p, p + 24 * el.count));
+    p += 24 * el.count;
+  } else if (fixed) {
+    // Fixed-size items: bounds were checked above, read column by column.
+    let o = p;
+    for (let j = 0; j < np; j++) {
+      const q = el.props[j]!, s = sinks[j]!;
+      if (s.dst !== null) readColumn(dv, o, stride, el.count, q.type, le, s.dst, s.stride, s.base);
+      o += TYPE_SIZES[q.type]!;
+    }
+    p += stride * el.count;
+  } else if (!ascii && el === fEl && np === 1) {
+    // Faces with only their index list: the common case, its own tight loop.
+    const st: FaceLists = { p, ni: body.ni, idx: body.faceIndices };
+    readFaceLists(dv, b, st, el.count, el.props[0]!, le, vEl.count, body.faceOffsets, r.name);
+    p = st.p;
+    body.ni = st.ni;
+    body.faceIndices = st.idx;
+  } else {
+    const st: FaceLists = { p, ni: body.ni, idx: body.faceIndices };
+    readItems(r, el, sinks, el === fEl ? fi : -1, vEl.count, body.faceOffsets, st);
+    p = r.p;
+    body.ni = st.ni;
+    body.faceIndices = st.idx;
   }
-  for (let k = 0; k < 3 * nv; k++) {
-    if (!Number.isFinite(positions[k]!)) throw inputError('non-finite coordinate', `${name}: vertex ${Math.floor(k / 3)}`);
-  }
-  return {
-    positions,
-    faceOffsets,
-    faceIndices: ni === faceIndices.length ? faceIndices : faceIndices.slice(0, ni),
-    vertexProps,
-    faceProps,
-    name,
-  };
+  r.p = p;
 }
