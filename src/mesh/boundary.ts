@@ -74,7 +74,7 @@ export interface NamedLoop {
   min: [number, number, number];
   /** Bounding box of its vertices. */
   max: [number, number, number];
-  /** Its vertex of smallest file index (topology index; `vertexOrigin` gives the file's). */
+  /** Its vertex of smallest file index (topology index; `vertexOrigin` gives the file's); the loop starts there. */
   representative: number;
 }
 
@@ -113,7 +113,10 @@ export function namedBoundaryLoops(t: Topology, positions: Float64Array, seams: 
         if (x > max[d]!) max[d] = x;
       }
     }
-    return { id: -1, halfedges, vertices, length, min, max, representative };
+    // start the loop at its representative vertex, so the order does not depend on the face order in the file
+    const r0 = vertices.indexOf(representative);
+    const rot = (a: Int32Array) => (r0 > 0 ? Int32Array.from({ length: n }, (_, i) => a[(i + r0) % n]!) : a);
+    return { id: -1, halfedges: rot(halfedges), vertices: rot(vertices), length, min, max, representative };
   });
   loops.sort((p, q) => q.length - p.length || origin[p.representative]! - origin[q.representative]!);
   // runs of equal length (within the tie tolerance of the run's longest) are ordered by smallest file vertex

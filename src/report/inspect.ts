@@ -52,7 +52,10 @@ export interface BoundaryLoopInfo {
   boundingBox: { min: [number, number, number]; max: [number, number, number] };
   /** One point on the loop: its vertex of smallest file index, and where it is. */
   point: { vertex: number; position: [number, number, number] };
-  /** File vertex indices (from 0) along the loop, the surface on the left; the loop closes from the last to the first. */
+  /**
+   * File vertex indices (from 0) along the loop, starting at `point.vertex`; on an orientable surface the
+   * surface lies on the left (seen from the normal side). The loop closes from the last back to the first.
+   */
   vertexList: number[];
 }
 

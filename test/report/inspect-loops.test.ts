@@ -51,6 +51,7 @@ describe('inspect: boundary loops', () => {
       const v = l.point.vertex;
       expect(l.vertexList).toContain(v);
       expect(v).toBe(Math.min(...l.vertexList));
+      expect(l.vertexList[0]).toBe(v); // the list starts at the point
       expect(l.point.position).toEqual([P[3 * v], P[3 * v + 1], P[3 * v + 2]]);
       for (let d = 0; d < 3; d++) {
         const xs = l.vertexList.map((u) => P[3 * u + d]!);
