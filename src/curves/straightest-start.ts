@@ -26,7 +26,7 @@
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import { next, prev, faceOf } from '../mesh/topology.js';
 import type { SurfacePoint } from '../query/surface-point.js';
-import { layoutAlong } from '../geodesic/exact/layout.js';
+import { layoutAlong } from '../metric/layout.js';
 import { cornerAngleAt, type WalkStart } from './straightest-walk.js';
 
 /** A 3D vector. */

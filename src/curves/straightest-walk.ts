@@ -38,7 +38,7 @@
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import { next, prev, faceOf, isBoundaryVertex, type Topology } from '../mesh/topology.js';
 import { anglesOfSides } from '../metric/triangle.js';
-import { layoutAlong } from '../geodesic/exact/layout.js';
+import { layoutAlong } from '../metric/layout.js';
 
 /** How close (relative to an edge's length) a crossing must come to a corner to pass through the vertex. */
 export const VERTEX_SNAP = 1e-9;

@@ -28,7 +28,8 @@
  * ({@link defaultMaxSteps}); beyond the bound the walk is refused with a
  * `LIMIT` error naming `maxSteps`.
  */
-import type { IntrinsicMesh } from '../metric/intrinsic.js';
+import { intrinsicFromPositions, type IntrinsicMesh } from '../metric/intrinsic.js';
+import type { Topology } from '../mesh/topology.js';
 import { checkSurfacePoint, canonicalSurfacePoint, surfacePointPosition, type SurfacePoint } from '../query/surface-point.js';
 import { usageError, limitError, numericError } from '../errors.js';
 import { walkStraightest } from './straightest-walk.js';
@@ -43,6 +44,14 @@ export const REFERENCE_TOLERANCE = 1e-6;
 /** Upper end of the default step bound (faces crossed). */
 export const MAX_DEFAULT_STEPS = 10_000_000;
 
+/** The surface to walk on: its half-edge topology and x, y, z per topology vertex (a `Surface` will do). */
+export interface StraightSurface {
+  /** Half-edge connectivity. */
+  topology: Topology;
+  /** x, y, z per topology vertex. */
+  positions: Float64Array;
+}
+
 /** How to walk. Give exactly one of `heading` and `toward`. */
 export interface StraightestOptions {
   /** Length to walk, in mesh units (> 0). */
@@ -55,6 +64,13 @@ export interface StraightestOptions {
   reference?: ArrayLike<number>;
   /** Most faces the walk may cross (default {@link defaultMaxSteps}); more is a `LIMIT` error. */
   maxSteps?: number;
+  /**
+   * The edge lengths to walk by, for this topology (default: from the
+   * positions, made on every call; pass one to reuse it, or a metric of
+   * your own: the walk then follows it while the tangent planes and the 3D
+   * points still come from the positions).
+   */
+  mesh?: IntrinsicMesh;
 }
 
 /** A straightest line on the surface. */
@@ -105,18 +121,21 @@ const vec3 = (a: ArrayLike<number> | undefined, what: string): Vec3 | undefined 
 };
 
 /**
- * Walks the straightest line from `start` (see the module comment).
- * `positions` (x, y, z per topology vertex) give the tangent planes and the
- * 3D points; the walk itself uses the edge lengths of `mesh`.
+ * Walks the straightest line on `surface` from `start` (see the module
+ * comment). The positions give the tangent planes and the 3D points; the
+ * walk itself uses the edge lengths (`options.mesh`, default from the
+ * positions).
  *
  * Throws `USAGE` for a bad start point or options, a reference normal to the
  * surface, a `toward` point on the start's normal line; `LIMIT` when the
  * walk would cross more than `maxSteps` faces; `NUMERIC` when a degenerate
  * face stops it.
  */
-export function straightestLine(mesh: IntrinsicMesh, positions: Float64Array, start: SurfacePoint, options: StraightestOptions): StraightestLine {
-  const t = mesh.topology;
+export function straightestLine(surface: StraightSurface, start: SurfacePoint, options: StraightestOptions): StraightestLine {
+  const { topology: t, positions } = surface;
   if (positions.length !== 3 * t.nv) throw usageError(`expected ${3 * t.nv} coordinates (x, y, z per vertex), got ${positions.length}`, 'positions');
+  if (options.mesh && options.mesh.topology !== t) throw usageError('the edge lengths given (mesh) are for another topology', 'mesh');
+  const mesh = options.mesh ?? intrinsicFromPositions(t, positions);
   const p = checkSurfacePoint(start, t, 'start');
   const length = options.length;
   if (!(typeof length === 'number' && Number.isFinite(length) && length > 0)) throw usageError(`length must be a positive number of mesh units, got ${length}`);

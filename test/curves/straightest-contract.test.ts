@@ -12,7 +12,8 @@ import type { SurfacePoint } from '../../src/query/surface-point.js';
 import { flatGrid, cylinder, type Shape } from '../fixtures/shapes.js';
 
 function build(s: Shape) {
-  return { m: intrinsicFromPositions(buildTopology(s.triangles, s.positions.length / 3).topology, s.positions), P: s.positions };
+  const m = intrinsicFromPositions(buildTopology(s.triangles, s.positions.length / 3).topology, s.positions);
+  return { m, P: s.positions, S: { topology: m.topology, positions: s.positions } };
 }
 function codeOf(fn: () => unknown): string | undefined {
   try {
@@ -24,7 +25,7 @@ function codeOf(fn: () => unknown): string | undefined {
 }
 
 describe('bad options are USAGE errors', () => {
-  const { m, P } = build(flatGrid(4, 4));
+  const { m, P, S } = build(flatGrid(4, 4));
   const p: SurfacePoint = { kind: 'face', face: 9, bary: [0.2, 0.3, 0.5] };
   const cases: [string, StraightestOptions][] = [
     ['neither heading nor toward', { length: 1 }],
@@ -41,22 +42,27 @@ describe('bad options are USAGE errors', () => {
   for (const [what, o] of cases) {
     it(what, () => {
       const start: SurfacePoint = what.startsWith('toward') ? { kind: 'vertex', vertex: 6 } : p; // vertex 6 is (0.25, 0.25, 0)
-      expect(codeOf(() => straightestLine(m, P, start, o))).toBe('USAGE');
+      expect(codeOf(() => straightestLine(S, start, o))).toBe('USAGE');
     });
   }
   it('a start that is not on the mesh', () => {
-    expect(codeOf(() => straightestLine(m, P, { kind: 'face', face: 999, bary: [1, 0, 0] }, { length: 1, heading: 0 }))).toBe('USAGE');
-    expect(codeOf(() => straightestLine(m, P.subarray(3), p, { length: 1, heading: 0 }))).toBe('USAGE');
+    expect(codeOf(() => straightestLine(S, { kind: 'face', face: 999, bary: [1, 0, 0] }, { length: 1, heading: 0 }))).toBe('USAGE');
+    expect(codeOf(() => straightestLine({ topology: m.topology, positions: P.subarray(3) }, p, { length: 1, heading: 0 }))).toBe('USAGE');
+  });
+  it('edge lengths for another topology', () => {
+    const other = build(flatGrid(4, 4)).m;
+    expect(codeOf(() => straightestLine(S, p, { length: 0.1, heading: 0, mesh: other }))).toBe('USAGE');
+    expect(straightestLine(S, p, { length: 0.1, heading: 0, mesh: m }).length).toBe(0.1);
   });
 });
 
 describe('the step bound', () => {
-  const { m, P } = build(cylinder(24, 10, 1, 10));
+  const { S } = build(cylinder(24, 10, 1, 10));
   const start: SurfacePoint = { kind: 'face', face: 100, bary: [0.3, 0.3, 0.4] };
   it('more faces than maxSteps is a LIMIT error naming the option', () => {
     let err: unknown;
     try {
-      straightestLine(m, P, start, { heading: 80, reference: [0, 0, 1], length: 20, maxSteps: 10 });
+      straightestLine(S, start, { heading: 80, reference: [0, 0, 1], length: 20, maxSteps: 10 });
     } catch (e) {
       err = e;
     }
@@ -65,7 +71,7 @@ describe('the step bound', () => {
     expect((err as OrthodromeError).message).toMatch(/--max-steps/);
   });
   it('the default bound lets a long helix (many turns round the cylinder) through', () => {
-    const r = straightestLine(m, P, start, { heading: 85, reference: [0, 0, 1], length: 40 });
+    const r = straightestLine(S, start, { heading: 85, reference: [0, 0, 1], length: 40 });
     expect(r.length).toBe(40);
     expect(r.steps).toBeGreaterThan(300);
   });
@@ -77,10 +83,10 @@ describe('a triangle without area inside a flat square (collinear corners 0, 4, 
     positions: Float64Array.from([0, 0, 0, 1, 0, 0, 1, 1, 0, 0, 1, 0, 0.5, 0.5, 0]),
     triangles: Uint32Array.from([0, 1, 4, 1, 2, 4, 4, 2, 0, 0, 2, 3]),
   };
-  const { m, P } = build(s);
+  const { S } = build(s);
   it('a line across it goes on straight (elementary), every number finite', () => {
     const start: SurfacePoint = { kind: 'face', face: 0, bary: [0.5, 0.3, 0.2] }; // (0.4, 0.1)
-    const r = straightestLine(m, P, start, { toward: [0.2, 0.9, 0], length: Math.hypot(0.2, 0.8) });
+    const r = straightestLine(S, start, { toward: [0.2, 0.9, 0], length: Math.hypot(0.2, 0.8) });
     expect(r.points.every(Number.isFinite)).toBe(true);
     const n = r.points.length / 3;
     expect(Math.hypot(r.points[3 * n - 3]! - 0.2, r.points[3 * n - 2]! - 0.9)).toBeLessThan(1e-12);
@@ -88,7 +94,7 @@ describe('a triangle without area inside a flat square (collinear corners 0, 4, 
   });
   it('a line through the vertex on its long side goes on straight (θ = 2π, elementary)', () => {
     const start: SurfacePoint = { kind: 'face', face: 1, bary: [0.5, 0.25, 0.25] }; // (0.875, 0.375)
-    const r = straightestLine(m, P, start, { toward: [0.5, 0.5, 0], length: 2 * Math.hypot(0.375, 0.125) });
+    const r = straightestLine(S, start, { toward: [0.5, 0.5, 0], length: 2 * Math.hypot(0.375, 0.125) });
     expect(r.vertexPassages).toBe(1);
     const n = r.points.length / 3;
     expect(r.points.every(Number.isFinite)).toBe(true);

@@ -14,9 +14,10 @@ import { flatGrid, icosphere, cylinder, randomFlat, type Shape } from '../fixtur
 
 const TOL = 1e-9;
 
-interface Built { m: IntrinsicMesh; P: Float64Array }
+interface Built { m: IntrinsicMesh; P: Float64Array; S: { topology: IntrinsicMesh['topology']; positions: Float64Array } }
 function build(s: Shape): Built {
-  return { m: intrinsicFromPositions(buildTopology(s.triangles, s.positions.length / 3).topology, s.positions), P: s.positions };
+  const m = intrinsicFromPositions(buildTopology(s.triangles, s.positions.length / 3).topology, s.positions);
+  return { m, P: s.positions, S: { topology: m.topology, positions: s.positions } };
 }
 const pt = (r: StraightestLine, i: number): [number, number, number] => [r.points[3 * i]!, r.points[3 * i + 1]!, r.points[3 * i + 2]!];
 const count = (r: StraightestLine) => r.points.length / 3;
@@ -38,11 +39,11 @@ function expectStraight(r: StraightestLine, dir: [number, number, number], scale
 }
 
 describe('flat meshes: a straight segment of exactly the length asked (elementary)', () => {
-  const { m, P } = build(randomFlat(10, 3)); // jittered, random diagonals, on [0,1]²
+  const { m, P, S } = build(randomFlat(10, 3)); // jittered, random diagonals, on [0,1]²
   const t = m.topology;
 
   it('from a face point on a bearing: heading 30° clockwise from +y is (sin 30°, cos 30°) (compass convention, common practice)', () => {
-    const r = straightestLine(m, P, { kind: 'face', face: 40, bary: [0.2, 0.3, 0.5] }, { heading: 30, length: 0.3 });
+    const r = straightestLine(S, { kind: 'face', face: 40, bary: [0.2, 0.3, 0.5] }, { heading: 30, length: 0.3 });
     const dir: [number, number, number] = [Math.sin(Math.PI / 6), Math.cos(Math.PI / 6), 0];
     expect(r.stoppedAtBoundary).toBe(false);
     expect(r.length).toBe(0.3);
@@ -54,7 +55,7 @@ describe('flat meshes: a straight segment of exactly the length asked (elementar
 
   it('from a vertex and from an edge point: the same straight segment', () => {
     for (const start of [{ kind: 'vertex', vertex: 37 }, { kind: 'edge', edge: 100, t: 0.35 }] as SurfacePoint[]) {
-      const r = straightestLine(m, P, start, { heading: 200, length: 0.2 });
+      const r = straightestLine(S, start, { heading: 200, length: 0.2 });
       const a = (200 * Math.PI) / 180;
       expect(r.stoppedAtBoundary).toBe(false);
       expect(dist(pt(r, 0), surfacePointPosition(start, t, P))).toBe(0);
@@ -66,14 +67,14 @@ describe('flat meshes: a straight segment of exactly the length asked (elementar
     const start: SurfacePoint = { kind: 'face', face: 12, bary: [0.5, 0.25, 0.25] };
     const a = surfacePointPosition(start, t, P) as Float64Array;
     const target = [0.81, 0.77, 0];
-    const r = straightestLine(m, P, start, { toward: target, length: dist(a, target) });
+    const r = straightestLine(S, start, { toward: target, length: dist(a, target) });
     expect(dist(pt(r, count(r) - 1), target)).toBeLessThanOrEqual(TOL);
   });
 
   it('stops at the boundary: length = distance to the square\'s side along the bearing, stoppedAtBoundary (elementary)', () => {
     const start: SurfacePoint = { kind: 'face', face: 40, bary: [0.2, 0.3, 0.5] };
     const a = surfacePointPosition(start, t, P) as Float64Array;
-    const r = straightestLine(m, P, start, { heading: 30, length: 10 });
+    const r = straightestLine(S, start, { heading: 30, length: 10 });
     // the line x = a + ℓ(1/2, √3/2) leaves [0,1]² through y = 1 when that comes before x = 1
     const expected = Math.min((1 - a[1]!) / Math.cos(Math.PI / 6), (1 - a[0]!) / Math.sin(Math.PI / 6));
     expect(r.stoppedAtBoundary).toBe(true);
@@ -83,7 +84,7 @@ describe('flat meshes: a straight segment of exactly the length asked (elementar
   });
 
   it('a start on the boundary facing off the surface walks nothing', () => {
-    const r = straightestLine(m, P, { kind: 'vertex', vertex: 5 }, { heading: 180, length: 1 }); // bottom side y = 0, facing −y
+    const r = straightestLine(S, { kind: 'vertex', vertex: 5 }, { heading: 180, length: 1 }); // bottom side y = 0, facing −y
     expect(r.length).toBe(0);
     expect(r.stoppedAtBoundary).toBe(true);
     expect(count(r)).toBe(1);
@@ -92,7 +93,7 @@ describe('flat meshes: a straight segment of exactly the length asked (elementar
   it('through vertices (a grid diagonal, θ = 2π at every vertex): straight on, exact', () => {
     const g = build(flatGrid(8, 8)); // cells (k, k) have the diagonal (k, k)–(k+1, k+1)
     for (const [heading, dir] of [[45, [Math.SQRT1_2, Math.SQRT1_2, 0]], [Math.atan2(2, 1) * (180 / Math.PI), [2 / Math.sqrt(5), 1 / Math.sqrt(5), 0]]] as const) {
-      const r = straightestLine(g.m, g.P, { kind: 'vertex', vertex: 0 }, { heading, length: 1.1 });
+      const r = straightestLine({ topology: g.m.topology, positions: g.P }, { kind: 'vertex', vertex: 0 }, { heading, length: 1.1 });
       expect(r.vertexPassages).toBeGreaterThan(2);
       expectStraight(r, [dir[0], dir[1], dir[2]], 1);
     }
@@ -132,7 +133,7 @@ describe('a polyhedral prism unrolls: the line is straight in the development (e
   const base: [number, number][] = [[2, 0], [0.9, 1.7], [-1.4, 1.1], [-1.6, -0.9], [0.6, -1.8]];
   const perim = base.reduce((s, p, i) => s + Math.hypot(base[(i + 1) % 5]![0] - p[0], base[(i + 1) % 5]![1] - p[1]), 0);
   const H = 6;
-  const { m, P } = build(prism(base, 7, H));
+  const { m, P, S } = build(prism(base, 7, H));
   const t = m.topology;
   const alpha = 62; // degrees from +z, clockwise seen from outside
   const ca = Math.cos((alpha * Math.PI) / 180), sa = Math.sin((alpha * Math.PI) / 180);
@@ -157,7 +158,7 @@ describe('a polyhedral prism unrolls: the line is straight in the development (e
   it('from a face point, reference +z: straight in the development, stops at the top rim after (H − z0)/cos α', () => {
     const start: SurfacePoint = { kind: 'face', face: 3, bary: [0.3, 0.3, 0.4] };
     const z0 = (surfacePointPosition(start, t, P) as Float64Array)[2]!;
-    const r = straightestLine(m, P, start, { heading: alpha, reference: [0, 0, 1], length: 100 });
+    const r = straightestLine(S, start, { heading: alpha, reference: [0, 0, 1], length: 100 });
     expect(r.stoppedAtBoundary).toBe(true);
     expect(Math.abs(r.length - (H - z0) / ca)).toBeLessThanOrEqual(TOL * H);
     expect(Math.abs(pt(r, count(r) - 1)[2] - H)).toBeLessThanOrEqual(TOL * H);
@@ -171,14 +172,14 @@ describe('a polyhedral prism unrolls: the line is straight in the development (e
       const h = t.edgeHalfedge[e]!, a = t.tri[h]!, b = t.tri[h % 3 === 2 ? h - 2 : h + 1]!;
       if (P[3 * a] === P[3 * b] && P[3 * a + 1] === P[3 * b + 1] && t.twin[h]! >= 0) break;
     }
-    const r = straightestLine(m, P, { kind: 'edge', edge: e, t: 0.4 }, { heading: alpha, reference: [0, 0, 1], length: 3 });
+    const r = straightestLine(S, { kind: 'edge', edge: e, t: 0.4 }, { heading: alpha, reference: [0, 0, 1], length: 3 });
     expect(r.stoppedAtBoundary).toBe(false);
     expectUnrolledLine(r);
   });
 
   it('from a vertex at heading 90°: round the ring through every vertex (θ/2 = π on each side), closing after the perimeter', () => {
     const v = 3 * 5 + 2; // ring 3, corner 2
-    const r = straightestLine(m, P, { kind: 'vertex', vertex: v }, { heading: 90, reference: [0, 0, 1], length: perim });
+    const r = straightestLine(S, { kind: 'vertex', vertex: v }, { heading: 90, reference: [0, 0, 1], length: perim });
     expect(r.vertexPassages).toBeGreaterThanOrEqual(4); // the other four corners, then back on the start
     expect(dist(pt(r, count(r) - 1), pt(r, 0))).toBeLessThanOrEqual(TOL * perim);
     for (let i = 0; i < count(r); i++) expect(Math.abs(pt(r, i)[2] - (3 * H) / 7)).toBeLessThanOrEqual(TOL * H);
@@ -196,8 +197,8 @@ describe('an open cylinder of radius R: a helix of pitch 2πR·cot α (elementar
    */
   const R = 1.5, alpha = 50, cot = 1 / Math.tan((alpha * Math.PI) / 180);
   function pitch(N: number): number {
-    const { m, P } = build(cylinder(N, 20, R, 40));
-    const r = straightestLine(m, P, { kind: 'face', face: 2 * N * 2 + 1, bary: [0.25, 0.5, 0.25] }, { heading: alpha, reference: [0, 0, 1], length: 2.2 * Math.PI * R / Math.sin((alpha * Math.PI) / 180) });
+    const { S } = build(cylinder(N, 20, R, 40));
+    const r = straightestLine(S, { kind: 'face', face: 2 * N * 2 + 1, bary: [0.25, 0.5, 0.25] }, { heading: alpha, reference: [0, 0, 1], length: 2.2 * Math.PI * R / Math.sin((alpha * Math.PI) / 180) });
     expect(r.stoppedAtBoundary).toBe(false);
     // z where the unwrapped polar angle has grown by 2π: intersect the crossing segment with that half-plane
     const p0 = pt(r, 0), th0 = Math.atan2(p0[1], p0[0]);
@@ -238,10 +239,10 @@ describe('a sphere of radius R: a great circle that closes after 2πR (do Carmo 
     const R = 2;
     let lastClose = Infinity, lastPlane = Infinity;
     for (const level of [2, 3, 5]) {
-      const { m, P } = build(icosphere(level, R));
+      const { S } = build(icosphere(level, R));
       let close = 0, plane = 0;
       for (const heading of [0, 50, 100, 150]) {
-        const r = straightestLine(m, P, { kind: 'face', face: 7, bary: [0.3, 0.3, 0.4] }, { heading, length: 2 * Math.PI * R });
+        const r = straightestLine(S, { kind: 'face', face: 7, bary: [0.3, 0.3, 0.4] }, { heading, length: 2 * Math.PI * R });
         expect(r.stoppedAtBoundary).toBe(false);
         const a = pt(r, 0), d = r.direction;
         close = Math.max(close, dist(pt(r, count(r) - 1), a) / R);
@@ -259,8 +260,8 @@ describe('a sphere of radius R: a great circle that closes after 2πR (do Carmo 
 
   it('from a vertex too (angle-weighted vertex normal): closes within the same error', () => {
     const R = 2;
-    const { m, P } = build(icosphere(5, R));
-    const r = straightestLine(m, P, { kind: 'vertex', vertex: 100 }, { heading: 70, length: 2 * Math.PI * R });
+    const { S } = build(icosphere(5, R));
+    const r = straightestLine(S, { kind: 'vertex', vertex: 100 }, { heading: 70, length: 2 * Math.PI * R });
     expect(dist(pt(r, count(r) - 1), pt(r, 0)) / R).toBeLessThan(0.01);
   });
 });
@@ -275,13 +276,13 @@ function pyramid(n: number, h: number): Shape {
 
 describe('through an apex of total angle θ < 2π: θ/2 on each side (Polthier & Schmies 1998, definition of straightest)', () => {
   it('square pyramid: leaves through the point of the opposite base edge at the same parameter (symmetry)', () => {
-    const { m, P } = build(pyramid(4, 0.8));
+    const { m, P, S } = build(pyramid(4, 0.8));
     const t = m.topology;
     const e = t.edgeOf[1]!; // face 0: apex→b0, b0→b1, b1→apex; half-edge 1 is the base edge b0→b1
     const start: SurfacePoint = { kind: 'edge', edge: e, t: 0.3 };
     const a = surfacePointPosition(start, t, P) as Float64Array;
     const slant = dist(a, [0, 0, 0.8]);
-    const r = straightestLine(m, P, start, { toward: [0, 0, 0.8], length: 5 });
+    const r = straightestLine(S, start, { toward: [0, 0, 0.8], length: 5 });
     expect(r.vertexPassages).toBe(1);
     expect(r.stoppedAtBoundary).toBe(true);
     expect(Math.abs(r.length - 2 * slant)).toBeLessThanOrEqual(TOL);
@@ -292,10 +293,10 @@ describe('through an apex of total angle θ < 2π: θ/2 on each side (Polthier &
 
   it('pentagonal pyramid: the exit on the base follows from θ/2 by the law of sines', () => {
     const n = 5, h = 0.6;
-    const { m, P } = build(pyramid(n, h));
+    const { m, S } = build(pyramid(n, h));
     const t = m.topology;
     const start: SurfacePoint = { kind: 'edge', edge: t.edgeOf[1]!, t: 0.3 };
-    const r = straightestLine(m, P, start, { toward: [0, 0, h], length: 5 });
+    const r = straightestLine(S, start, { toward: [0, 0, h], length: 5 });
     expect(r.vertexPassages).toBe(1);
     // face angle φ at the apex, slant s, base b, base angles ψ = (π − φ)/2
     const s = Math.hypot(1, h), b = 2 * Math.sin(Math.PI / n), phi = 2 * Math.asin(b / 2 / s), psi = (Math.PI - phi) / 2;
