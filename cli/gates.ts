@@ -4,7 +4,7 @@
  * when any requirement fails.
  */
 import { Option } from 'commander';
-import { parseRequirement, checkRequirements, type Requirement, type RequirementResult } from '../src/report/require.js';
+import { parseRequirement, checkRequirements, type Requirement, type RequirementResult } from '../src/api/report.js';
 import { fmt, GateFailure } from './run.js';
 
 /** The repeatable `--require` option. */

@@ -16,47 +16,29 @@
  * total for the run: each of the N concurrent solves gets 1/N of it.
  */
 import { Worker } from 'node:worker_threads';
-import type { Topology } from '../src/mesh/topology.js';
-import { intrinsicFromPositions, type IntrinsicMesh } from '../src/metric/intrinsic.js';
-import { OrthodromeError, isOrthodromeError, limitError } from '../src/errors.js';
-import type { SourceSet } from '../src/geodesic/sources.js';
-import type { SurfacePoint } from '../src/query/surface-point.js';
-import { prepareDistance, type DistanceOptions, type DistanceResult, type DistanceSolver, type SolveOptions } from '../src/geodesic/solver.js';
-import { orientationCover, prepareCoverDistance, type OrientationCover } from '../src/geodesic/cover.js';
-import { throughPinches } from '../src/geodesic/pinch.js';
-import { prepareExactGeometry, type ExactGeometry } from '../src/geodesic/exact/geometry.js';
-import type { DistanceMethod } from '../src/geodesic/field.js';
+import {
+  OrthodromeError, isOrthodromeError, prepareDistances,
+  type DistanceMethod, type DistanceResult, type DistanceSolver, type PrepareOptions, type SolvableSurface, type SolveOptions, type SourceSet, type SurfacePoint,
+} from '../src/index.js';
+import { limitError } from '../src/errors.js';
+import { intrinsicFromPositions, type IntrinsicMesh } from '../src/api/metric.js';
+import type { Topology } from '../src/api/mesh.js';
+import { prepareExactGeometry, type ExactGeometry } from '../src/api/geodesic.js';
 import type { ProgressLine } from './progress.js';
 
 /** Everything needed to prepare the same solver in any thread. */
 export interface SolverSpec {
-  topology: Topology;
-  positions: Float64Array;
-  /** The surface's orientation seams (empty: orientable). */
-  seams: Int32Array;
-  /** Split vertices that paths pass through (PointResolver.splitGroups). */
-  groups: number[][];
+  /** The surface (on a worker: its topology, positions and orientation seams only). */
+  surface: SolvableSurface;
   method: DistanceMethod;
-  opts: DistanceOptions;
-  /** The intrinsic mesh of `topology` (made from positions when absent). */
-  mesh?: IntrinsicMesh;
-  /** The orientation cover, when already built (main thread). */
-  cover?: OrientationCover | null;
+  /** The solver's options (`mesh`: the intrinsic mesh, when already made). */
+  opts: PrepareOptions;
 }
 
-/** Prepares the solver of `distance` for a spec: on the double cover when there are seams, through pinch points. */
+/** Prepares the solver of `distance` for a spec (the library's `prepareDistances`: double cover, pinch points). */
 export function prepareSolver(spec: SolverSpec): DistanceSolver {
-  const { topology: t, positions, seams, method, opts } = spec;
-  const cover = spec.cover !== undefined ? spec.cover : seams.length ? orientationCover(t, positions, seams) : null;
-  const maxDistance = opts.maxDistance;
-  return throughPinches(
-    cover ? prepareCoverDistance(cover, method, opts) : prepareDistance(spec.mesh ?? meshOf(t, positions), method, opts),
-    spec.groups,
-    maxDistance !== undefined ? { maxDistance } : {},
-  );
+  return prepareDistances(spec.surface, spec.method, spec.opts);
 }
-
-const meshOf = (t: Topology, positions: Float64Array): IntrinsicMesh => intrinsicFromPositions(t, positions);
 
 type Shareable = Uint32Array | Int32Array | Float64Array | Uint8Array;
 
@@ -85,9 +67,8 @@ export interface WorkerInit {
   positions: Float64Array;
   edgeLength: Float64Array;
   seams: Int32Array;
-  groups: number[][];
   method: DistanceMethod;
-  opts: DistanceOptions;
+  opts: PrepareOptions;
   /** ExactGeometry without its mesh, arrays shared (exact method on an orientable surface). */
   geometry: Omit<ExactGeometry, 'mesh'> | null;
 }
@@ -104,9 +85,9 @@ export type WorkerReply =
 /** Rebuilds the solver spec in a worker from its init message (views of the shared buffers). */
 export function specFromInit(w: WorkerInit): SolverSpec {
   const mesh: IntrinsicMesh = { topology: w.topology, edgeLength: w.edgeLength };
-  const opts: DistanceOptions = { ...w.opts };
+  const opts: PrepareOptions = { ...w.opts, mesh };
   if (w.geometry) opts.exactGeometry = { ...w.geometry, mesh } as ExactGeometry;
-  return { topology: w.topology, positions: w.positions, seams: w.seams, groups: w.groups, method: w.method, opts, mesh };
+  return { surface: { topology: w.topology, positions: w.positions, report: { orientationSeams: w.seams } }, method: w.method, opts };
 }
 
 /** An error sent across threads, as plain data. */
@@ -179,21 +160,22 @@ export async function solveSets(
     return { prepareMs, prepareDetails: solver.prepareDetails, results };
   }
   const n = Math.min(jobs, sets.length);
-  const mesh = spec.mesh ?? meshOf(spec.topology, spec.positions);
-  const topology = sharedFields(spec.topology);
+  const { surface } = spec;
+  const seams = surface.report.orientationSeams;
+  const mesh = spec.opts.mesh ?? intrinsicFromPositions(surface.topology, surface.positions);
+  const topology = sharedFields(surface.topology);
   const edgeLength = toShared(mesh.edgeLength);
-  const opts: DistanceOptions = { ...spec.opts };
+  const opts: PrepareOptions = { ...spec.opts };
+  delete opts.mesh;
   delete opts.exactGeometry;
   delete opts.progress; // a function cannot cross to a worker; the line counts finished sets instead
   if (opts.memoryBudget !== undefined) opts.memoryBudget = Math.floor(opts.memoryBudget / n);
   let geometry: WorkerInit['geometry'] = null;
-  if (spec.method === 'exact' && spec.seams.length === 0) {
+  if (spec.method === 'exact' && seams.length === 0) {
     const { mesh: _m, ...rest } = prepareExactGeometry(mesh);
     geometry = sharedFields(rest);
   }
-  const init: WorkerInit = {
-    topology, positions: toShared(spec.positions), edgeLength, seams: spec.seams, groups: spec.groups, method: spec.method, opts, geometry,
-  };
+  const init: WorkerInit = { topology, positions: toShared(surface.positions), edgeLength, seams, method: spec.method, opts, geometry };
   const here = import.meta.url;
   const url = new URL(here.endsWith('.ts') ? './solve-worker.ts' : './solve-worker.js', here);
   // run from source (tsx): a worker does not inherit the TypeScript loader's hooks on Node 20, so it

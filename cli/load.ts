@@ -1,12 +1,12 @@
 /**
  * Loading a mesh file for a command: read, parse, triangulate, build the
- * topology, and refuse non-manifold input for solvers unless splitting is
- * allowed.
+ * topology (the library's `loadSurface`), and refuse non-manifold input for
+ * solvers unless splitting is allowed.
  */
 import { Option } from 'commander';
-import { readMeshFile, DEFAULT_MAX_INPUT_BYTES, formatBytes } from '../src/io/read-mesh.js';
-import { surfaceFromMeshData, isManifold, type Surface } from '../src/mesh/surface.js';
-import { inputError, usageError } from '../src/errors.js';
+import { loadSurface as openFile, isManifold, type Surface } from '../src/index.js';
+import { DEFAULT_MAX_INPUT_BYTES } from '../src/api/node.js';
+import { formatBytes, inputError, usageError } from '../src/errors.js';
 import { since } from './run.js';
 
 /** A loaded surface and how long it took. */
@@ -35,6 +35,17 @@ export function maxInputSizeOption(): Option {
   );
 }
 
+/** Where a surface is not a manifold: the first problem, for the refusal message. */
+function firstProblem(s: Surface): string {
+  const r = s.report;
+  if (r.nonManifoldEdgeCount > 0) {
+    const e = r.nonManifoldEdges[0]!;
+    return `${r.nonManifoldEdgeCount} non-manifold edge(s), first between vertices ${e.a} and ${e.b} (faces ${e.faces.join(', ')})`;
+  }
+  if (r.nonManifoldVertexCount > 0) return `${r.nonManifoldVertexCount} non-manifold vertex(es), first vertex ${r.nonManifoldVertices[0]}`;
+  return `${r.orientationCuts} edge(s) where the surface cannot be oriented consistently`;
+}
+
 /**
  * Loads `path`. With `requireManifold`, a mesh that needed cutting or
  * splitting is refused (exit 2) with the first location, unless
@@ -44,20 +55,9 @@ export function maxInputSizeOption(): Option {
 export async function loadSurface(path: string, opts: { requireManifold?: boolean; allowSplit?: boolean; maxInputSize?: string } = {}): Promise<Loaded> {
   const t0 = performance.now();
   const maxInputBytes = opts.maxInputSize === undefined ? DEFAULT_MAX_INPUT_BYTES : parseByteSize(opts.maxInputSize, '--max-input-size');
-  const data = await readMeshFile(path, { maxInputBytes });
-  const surface = surfaceFromMeshData(data);
+  const surface = await openFile(path, { maxInputBytes });
   if (opts.requireManifold && !opts.allowSplit && !isManifold(surface)) {
-    const r = surface.report;
-    let where = '';
-    if (r.nonManifoldEdgeCount > 0) {
-      const e = r.nonManifoldEdges[0]!;
-      where = `${r.nonManifoldEdgeCount} non-manifold edge(s), first between vertices ${e.a} and ${e.b} (faces ${e.faces.join(', ')})`;
-    } else if (r.nonManifoldVertexCount > 0) {
-      where = `${r.nonManifoldVertexCount} non-manifold vertex(es), first vertex ${r.nonManifoldVertices[0]}`;
-    } else {
-      where = `${r.orientationCuts} edge(s) where the surface cannot be oriented consistently`;
-    }
-    throw inputError(`${where}; see 'orthodrome inspect', or pass --split-nonmanifold to cut the mesh there`, path);
+    throw inputError(`${firstProblem(surface)}; see 'orthodrome inspect', or pass --split-nonmanifold to cut the mesh there`, path);
   }
   return { surface, loadMs: since(t0) };
 }

@@ -7,7 +7,10 @@
  * refusing memory) · 70 internal error.
  * No stack trace is printed unless ORTHODROME_DEBUG=1.
  */
-import { isOrthodromeError, OrthodromeError } from '../src/errors.js';
+import { isOrthodromeError, OrthodromeError } from '../src/index.js';
+import { toJson } from '../src/api/io.js';
+
+export { toJson };
 
 /** Exit status for a successful run. */
 export const EXIT_OK = 0;
@@ -125,17 +128,4 @@ export function fmt(x: number, digits = 6): string {
  */
 export function fmtCoord(x: number): string {
   return String(x);
-}
-
-/** JSON.stringify that writes non-finite numbers as null (never NaN in output). */
-export function toJson(value: unknown, indent = 2): string {
-  return JSON.stringify(
-    value,
-    (_k, v) => {
-      if (typeof v === 'number' && !Number.isFinite(v)) return null;
-      if (ArrayBuffer.isView(v) && !(v instanceof DataView)) return Array.from(v as unknown as ArrayLike<number>, (x) => (Number.isFinite(x) ? x : null));
-      return v;
-    },
-    indent,
-  );
 }

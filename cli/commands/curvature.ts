@@ -3,7 +3,7 @@ import type { Command } from 'commander';
 import { loadSurface, maxInputSizeOption } from '../load.js';
 import { writeVertexColumns, checkFieldOutput } from '../output.js';
 import { action, fmt, toJson } from '../run.js';
-import { curvatureSummary } from '../../src/report/curvature.js';
+import { curvatureSummary } from '../../src/index.js';
 
 /** Registers the command. */
 export function registerCurvature(program: Command): void {

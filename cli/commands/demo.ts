@@ -8,20 +8,12 @@ import { mkdirSync } from 'node:fs';
 import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { loadSurface } from '../load.js';
-import { inspectSurface } from '../../src/report/inspect.js';
-import { curvatureSummary } from '../../src/report/curvature.js';
+import {
+  boundarySources, curvatureSummary, encodeRoute, fieldStats, inspectSurface, pointLocator, prepareDistances, shortestPath, writeFileAtomic,
+} from '../../src/index.js';
 import { writeVertexColumns } from '../output.js';
 import { action, fmt } from '../run.js';
 import { formatInspect } from './inspect.js';
-import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
-import { PointResolver } from '../../src/query/resolve.js';
-import { prepareDistance } from '../../src/geodesic/solver.js';
-import { fieldStats } from '../../src/geodesic/field.js';
-import { boundaryCurves } from '../../src/geodesic/sources.js';
-import { shortestPathThrough } from '../../src/geodesic/waypoints.js';
-import { pathPolyline } from '../../src/geodesic/path.js';
-import { writeObjPolyline } from '../../src/io/write-obj.js';
-import { writeFileAtomic } from '../../src/io/atomic.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
 
 
@@ -67,13 +59,12 @@ export function registerDemo(program: Command): void {
 
         // 2. hillside: walking distance on the ground from the trailhead car park
         const kt = knoll.surface.topology;
-        const kMesh = intrinsicFromPositions(kt, knoll.surface.positions);
-        const kPoints = new PointResolver(kt, knoll.surface.positions);
+        const kPoints = await pointLocator(knoll.surface);
         const trailhead = kPoints.resolve('p:431212,6170412,230', 'trailhead');
         const summit = kPoints.resolve('p:431280,6170470,260', 'summit cairn');
         const saddle = kPoints.resolve('p:431322,6170483,240', 'saddle');
-        const exact = prepareDistance(kMesh, 'exact').solve({ points: [trailhead], curves: [] });
-        const heatSolver = prepareDistance(kMesh, 'heat');
+        const exact = prepareDistances(knoll.surface, 'exact').solve({ points: [trailhead], curves: [] });
+        const heatSolver = prepareDistances(knoll.surface, 'heat');
         const heat = heatSolver.solve({ points: [trailhead], curves: [] });
         let diff = 0, n = 0;
         for (let v = 0; v < kt.nv; v++) {
@@ -104,19 +95,17 @@ export function registerDemo(program: Command): void {
         say(`  curvature: mean curvature ${fmt(cc.summary.mean.min, 3)} … ${fmt(cc.summary.mean.max, 3)} 1/mm; Gauss–Bonnet residual ${fmt(cc.summary.gaussBonnetResidual, 3)} rad → ${rel(cFile)}`);
 
         // 4. part: on-surface distance from the part's edges, and an exact cut path
-        const ct = cup.surface.topology;
-        const cMesh = intrinsicFromPositions(ct, cup.surface.positions);
-        const cPoints = new PointResolver(ct, cup.surface.positions);
-        const edges = prepareDistance(cMesh, 'exact').solve({ points: [], curves: boundaryCurves(ct) });
+        const cPoints = await pointLocator(cup.surface);
+        const edges = prepareDistances(cup.surface, 'exact').solve({ points: [], curves: boundarySources(cup.surface) });
         const ceFile = join(out, 'cup-edge-distance.csv');
         await writeVertexColumns(ceFile, cup.surface, [{ name: 'distanceFromEdge', unit: 'mm', values: edges.field.distance }]);
         const es = fieldStats(edges.field.distance);
         say('== PX-7 cup: on-surface distance from the hole and flange edges, and a cut path');
         say(`  distance from the nearest edge: up to ${fmt(es.max, 5)} mm (mean ${fmt(es.mean, 4)} mm) → ${rel(ceFile)}`);
         const stops = ['p:6,0,0', 'p:0,30,26', 'p:-46,0,26'].map((x, i) => cPoints.resolve(x, ['hole edge', 'wall top', 'flange rim'][i]));
-        const route = shortestPathThrough(cMesh, stops);
+        const route = shortestPath(cup.surface, stops);
         const cpFile = join(out, 'cup-cut-path.obj');
-        await writeFileAtomic(cpFile, writeObjPolyline(pathPolyline(route.path, ct, cup.surface.positions), 'px7_cut_path'));
+        await writeFileAtomic(cpFile, encodeRoute(route, 'obj', 'px7_cut_path'));
         say(`  exact shortest cut path hole edge → wall top → flange rim: ${fmt(route.length, 6)} mm (legs ${route.legs.map((l) => fmt(l.length, 5)).join(' + ')} mm), ${route.path.points.length} points → ${rel(cpFile)}`);
         say(TERRAIN_CAUTION);
         say(MACHINING_CAUTION);

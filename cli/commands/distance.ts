@@ -8,20 +8,16 @@ import { loadSurface, maxInputSizeOption } from '../load.js';
 import { checkFieldOutput, writeVertexColumns } from '../output.js';
 import { action, fmt, fmtCoord, toJson } from '../run.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
-import { PointResolver } from '../../src/query/resolve.js';
-import { formatSurfacePoint, type SurfacePoint } from '../../src/query/surface-point.js';
-import { boundaryCurves, type SourceSet } from '../../src/geodesic/sources.js';
-import type { DistanceOptions } from '../../src/geodesic/solver.js';
-import { orientationCover } from '../../src/geodesic/cover.js';
+import {
+  boundarySources, formatSurfacePoint, pointLocator,
+  type DistanceMethod, type DistanceOptions, type DistanceResult, type PointResolver, type SourceSet, type Surface, type SurfacePoint,
+} from '../../src/index.js';
+import { TIME_SCALE_RANGE } from '../../src/api/geodesic.js';
+import { usageError } from '../../src/errors.js';
 import { solveSets, type SolvedSets } from '../jobs.js';
 import { ProgressLine } from '../progress.js';
-import type { DistanceMethod } from '../../src/geodesic/field.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
-import { describeField, summarizeField } from '../field-summary.js';
-import { usageError } from '../../src/errors.js';
-import { commonFaces } from '../../src/geodesic/exact/layout.js';
-import { TIME_SCALE_RANGE } from '../../src/geodesic/heat.js';
-import { isLoopSpec, resolveLoopSpec } from '../../src/api/points.js';
+import { describeField, summarizeField, type FieldSummary } from '../field-summary.js';
 
 interface DistanceCliOptions {
   from?: string[];
@@ -82,8 +78,58 @@ export function registerDistance(program: Command): void {
     .action(action(async (mesh: string, o: DistanceCliOptions) => runDistance(mesh, o)));
 }
 
+/** The numeric options, checked before any work. */
+interface RunOptions {
+  maxDistance: number | undefined;
+  timeScale: number | undefined;
+  memoryBudget: number;
+  jobs: number;
+}
+
+/** One source set as given on the command line. */
+interface NamedSet {
+  /** The specs that make it (a curve as `curve(SPEC)`). */
+  specs: string[];
+  set: SourceSet;
+}
+
+/** One solved set, ready to print. */
+interface SetResult {
+  sources: string[];
+  result: DistanceResult;
+  targets: { point: string; surfacePoint: string; distance: number }[];
+  /** Per topology vertex, split vertices folded to the nearest copy. */
+  field: Float64Array;
+  summary: FieldSummary;
+}
+
 async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number> {
   if (o.output) checkFieldOutput(o.output, [mesh]);
+  const run = checkOptions(o);
+  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
+  const resolver = await pointLocator(surface);
+  const sets = sourceSets(mesh, surface, resolver, o);
+  const targets: SurfacePoint[] = (o.to ?? []).map((s) => resolver.resolve(s, '--to'));
+  // only -o needs every vertex; --json reports what was computed (machine output never changes the work)
+  const fieldNeeded = Boolean(o.output) || !o.to || o.to.length === 0;
+  const solved = await solveAll(surface, resolver, o, run, sets.map((s) => s.set), targets, fieldNeeded);
+  const results = sets.map(({ specs }, i) => setResult(specs, solved.results[i]!, targets, resolver, o, run, fieldNeeded));
+  if (o.output) {
+    await writeVertexColumns(
+      o.output,
+      surface,
+      results.map((r, i) => ({ name: results.length > 1 ? `distance_${i}` : 'distance', unit: 'mesh units', values: r.field, plyFill: -1 })),
+      { plyAscii: o.ascii },
+    );
+  }
+  const solveMs = results.reduce((a, r) => a + r.result.solveMs, 0);
+  const timings = { load: loadMs, prepare: Math.round(solved.prepareMs * 100) / 100, solve: Math.round(solveMs * 100) / 100 };
+  process.stdout.write((o.json ? jsonReport(mesh, o, resolver, results, timings, solved) : textReport(mesh, o, surface, resolver, results, timings, run)) + '\n');
+  return 0;
+}
+
+/** Parses and checks the numeric options (`USAGE` errors naming the option). */
+function checkOptions(o: DistanceCliOptions): RunOptions {
   const maxDistance = positiveNumber(o.maxDistance, '--max-distance');
   const timeScale = positiveNumber(o.timeScale, '--time-scale');
   if (timeScale !== undefined && !(timeScale >= TIME_SCALE_RANGE[0] && timeScale <= TIME_SCALE_RANGE[1])) {
@@ -93,127 +139,108 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
   const jobs = o.jobs === undefined ? 1 : Number(o.jobs);
   if (!Number.isInteger(jobs) || jobs < 1 || jobs > 256) throw usageError(`--jobs must be a whole number from 1 to 256, got '${o.jobs}'`);
   if (jobs > 1 && !o.each) throw usageError('--jobs works with --each (one source set per --from)');
-  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
-  const t = surface.topology;
-  const resolver = new PointResolver(t, surface.positions);
-  const seams = surface.report.orientationSeams;
-  const cover = seams.length ? orientationCover(t, surface.positions, seams) : null;
+  return { maxDistance, timeScale, memoryBudget, jobs };
+}
 
-  // source sets
+/** The source sets: one for all of --from and --from-curve, or one per --from with --each. */
+function sourceSets(mesh: string, surface: Surface, resolver: PointResolver, o: DistanceCliOptions): NamedSet[] {
   const specs: string[] = o.from ?? [];
   const curveSpecs: string[] = o.fromCurve ?? [];
   if (specs.length === 0 && curveSpecs.length === 0) throw usageError('give at least one --from or --from-curve');
   if (o.each && curveSpecs.length) throw usageError('--each works with --from only');
-  const curves = curveSpecs.map((c) => {
-    const pts = c.split(';').map((x) => x.trim()).filter(Boolean).map((x) => resolver.resolve(x, '--from-curve'));
-    if (pts.length < 2) throw usageError(`a curve needs at least two points in '${c}'`, '--from-curve');
-    for (let i = 1; i < pts.length; i++) {
-      if (commonFaces(t, pts[i - 1]!, pts[i]!).length === 0) {
-        throw usageError(`points ${i} and ${i + 1} of '${c}' share no face (insert the points where the curve crosses edges)`, '--from-curve');
-      }
-    }
-    return pts;
-  });
+  const curves = curveSpecs.map((c) => resolver.resolveCurve(c, '--from-curve'));
   const toSet = (list: string[]): SourceSet => {
     const set: SourceSet = { points: [], curves: [] };
     for (const s of list) {
       if (s.trim() === 'boundary') {
-        const loops = cover ? cover.boundaryCurves() : boundaryCurves(t);
+        const loops = boundarySources(surface);
         if (loops.length === 0) throw usageError('--from boundary: the mesh has no boundary', mesh);
         set.curves.push(...loops);
-      } else if (isLoopSpec(s)) {
-        set.curves.push(...resolveLoopSpec(s, { topology: t, positions: surface.positions, seams }, '--from', mesh).curves); // one boundary loop
+      } else if (resolver.isLoop(s)) {
+        set.curves.push(...resolver.resolveLoop(s, '--from', mesh)); // one boundary loop
       } else set.points.push(...resolver.resolveAll(s, '--from')); // every copy of a split vertex
     }
     return set;
   };
-  const sets = o.each
+  return o.each
     ? specs.map((s) => ({ specs: [s], set: toSet([s]) }))
     : [{ specs: [...specs, ...curveSpecs.map((c) => `curve(${c})`)], set: withCurves(toSet(specs), curves) }];
-  const targets: SurfacePoint[] = (o.to ?? []).map((s) => resolver.resolve(s, '--to'));
+}
 
-  const opts: DistanceOptions = { memoryBudget };
-  if (maxDistance !== undefined) opts.maxDistance = maxDistance;
+/** The solver's options from the command line. */
+function solverOptions(o: DistanceCliOptions, run: RunOptions): DistanceOptions {
+  const opts: DistanceOptions = { memoryBudget: run.memoryBudget };
+  if (run.maxDistance !== undefined) opts.maxDistance = run.maxDistance;
   if (o.method === 'heat') {
     opts.heat = { intrinsicDelaunay: o.intrinsicDelaunay, mollify: o.mollify, refine: o.refine };
-    if (timeScale !== undefined) opts.heat.timeScale = timeScale;
+    if (run.timeScale !== undefined) opts.heat.timeScale = run.timeScale;
     if (o.heatBoundary) opts.heat.boundary = o.heatBoundary;
   }
-  // a non-orientable surface was cut along seams to build it: solve on its double cover (paths cross the seams)
-  // and paths pass through split vertices (pinch points where sheets meet), as on the surface as given;
-  // --each sets go to `jobs` worker threads sharing the mesh (jobs.ts), else are solved here in turn
-  // only -o needs every vertex; --json reports what was computed (machine output never changes the work)
-  const fieldNeeded = Boolean(o.output) || !o.to || o.to.length === 0;
-  // a progress line on stderr for runs over a second, only on a terminal (progress.ts)
+  return opts;
+}
+
+/**
+ * Solves every set: the library's `prepareDistances` (a non-orientable surface on its double cover,
+ * paths through split vertices), --each sets in `jobs` worker threads sharing the mesh (jobs.ts),
+ * with a progress line on stderr for runs over a second, only on a terminal (progress.ts).
+ */
+async function solveAll(
+  surface: Surface, resolver: PointResolver, o: DistanceCliOptions, run: RunOptions, sets: SourceSet[], targets: SurfacePoint[], fieldNeeded: boolean,
+): Promise<SolvedSets> {
+  const opts = solverOptions(o, run);
   const line = new ProgressLine(process.stderr);
   if (line.enabled) {
     opts.progress = (p) => line.update(p.stage === 'prepare' ? { label: `${o.method}: preparing`, share: undefined } : { label: `${o.method} distance`, share: p.share });
   }
-  let solved: SolvedSets;
   try {
-    solved = await solveSets(
-      { topology: t, positions: surface.positions, seams, groups: resolver.splitGroups(), method: o.method, opts, cover },
-      sets.map((s) => s.set),
-      { targets, fieldNeeded },
-      targets.flatMap((p) => resolver.copies(p)),
-      jobs,
-      line,
-    );
+    return await solveSets({ surface, method: o.method, opts }, sets, { targets, fieldNeeded }, targets.flatMap((p) => resolver.copies(p)), run.jobs, line);
   } finally {
     line.done();
   }
-  const prepareMs = Math.round(solved.prepareMs * 100) / 100;
-  const solver = { prepareDetails: solved.prepareDetails };
-  let solveMs = 0;
-  const results = sets.map(({ specs: sp }, i) => {
-    const r = solved.results[i]!;
-    solveMs += r.solveMs;
-    return {
-      sources: sp,
-      result: r,
-      targets: targets.map((p, i) => ({ point: o.to![i]!, surfacePoint: formatSurfacePoint(p), distance: Math.min(...resolver.copies(p).map((q) => r.at(q))) })),
-      field: resolver.foldCopies(r.field.distance), // a split file vertex: the nearest of its copies
-      summary: summarizeField(resolver.foldCopies(r.field.distance), r.complete, r.stoppedBy, maxDistance, !fieldNeeded),
-    };
+}
+
+/** A solved set with its target distances (the nearest copy of a split vertex) and field summary. */
+function setResult(
+  specs: string[], r: DistanceResult, targets: SurfacePoint[], resolver: PointResolver, o: DistanceCliOptions, run: RunOptions, fieldNeeded: boolean,
+): SetResult {
+  const field = resolver.foldCopies(r.field.distance); // a split file vertex: the nearest of its copies
+  return {
+    sources: specs,
+    result: r,
+    targets: targets.map((p, i) => ({ point: o.to![i]!, surfacePoint: formatSurfacePoint(p), distance: Math.min(...resolver.copies(p).map((q) => r.at(q))) })),
+    field,
+    summary: summarizeField(field, r.complete, r.stoppedBy, run.maxDistance, !fieldNeeded),
+  };
+}
+
+/** The `--json` report. */
+function jsonReport(
+  mesh: string, o: DistanceCliOptions, resolver: PointResolver, results: SetResult[], timings: Record<string, number>, solved: SolvedSets,
+): string {
+  const one = (r: SetResult) => ({
+    sources: r.sources,
+    targets: r.targets,
+    field: r.summary,
+    complete: r.result.complete && r.summary.stoppedBy === null, // graph reports complete at --max-distance too
+    details: r.result.details,
   });
+  const base = { method: o.method, unit: 'mesh units', mesh, output: o.output ?? null };
+  const snapped = resolver.landings.map((l) => ({ point: l.spec, surfacePoint: formatSurfacePoint(l.point), position: l.position, moved: l.distance }));
+  const body = { ...(results.length === 1 ? { ...base, ...one(results[0]!) } : { ...base, sets: results.map(one) }), snapped };
+  return toJson({ ...body, timings, prepare: solved.prepareDetails });
+}
 
-  if (o.output) {
-    await writeVertexColumns(
-      o.output,
-      surface,
-      results.map((r, i) => ({
-        name: results.length > 1 ? `distance_${i}` : 'distance',
-        unit: 'mesh units',
-        values: r.field,
-        plyFill: -1,
-      })),
-      { plyAscii: o.ascii },
-    );
+/** The text report. */
+function textReport(
+  mesh: string, o: DistanceCliOptions, surface: Surface, resolver: PointResolver, results: SetResult[], timings: Record<string, number>, run: RunOptions,
+): string {
+  const L: string[] = [`${mesh}: ${o.method} distances (mesh units), ${surface.topology.nv} vertices`];
+  for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map(fmtCoord).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
+  for (const r of results) {
+    L.push(`  from ${r.sources.join(' ')}: ${describeField(r.summary, run.maxDistance)}`);
+    for (const tg of r.targets) L.push(`    to ${tg.point}: ${Number.isFinite(tg.distance) ? fmt(tg.distance, 9) : 'unreachable'}`);
   }
-
-  const timings = { load: loadMs, prepare: prepareMs, solve: Math.round(solveMs * 100) / 100 };
-  if (o.json) {
-    const one = (r: (typeof results)[number]) => ({
-      sources: r.sources,
-      targets: r.targets,
-      field: r.summary,
-      complete: r.result.complete && r.summary.stoppedBy === null, // graph reports complete at --max-distance too
-      details: r.result.details,
-    });
-    const base = { method: o.method, unit: 'mesh units', mesh, output: o.output ?? null };
-    const snapped = resolver.landings.map((l) => ({ point: l.spec, surfacePoint: formatSurfacePoint(l.point), position: l.position, moved: l.distance }));
-    const body = { ...(results.length === 1 ? { ...base, ...one(results[0]!) } : { ...base, sets: results.map(one) }), snapped };
-    process.stdout.write(toJson({ ...body, timings, prepare: solver.prepareDetails }) + '\n');
-  } else {
-    const L: string[] = [`${mesh}: ${o.method} distances (mesh units), ${t.nv} vertices`];
-    for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map(fmtCoord).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
-    for (const r of results) {
-      L.push(`  from ${r.sources.join(' ')}: ${describeField(r.summary, maxDistance)}`);
-      for (const tg of r.targets) L.push(`    to ${tg.point}: ${Number.isFinite(tg.distance) ? fmt(tg.distance, 9) : 'unreachable'}`);
-    }
-    L.push(`  timings: load ${fmt(timings.load, 4)} ms, prepare ${fmt(timings.prepare, 4)} ms, solve ${fmt(timings.solve, 4)} ms`);
-    if (o.output) L.push(`  wrote ${o.output}`);
-    process.stdout.write(L.join('\n') + '\n');
-  }
-  return 0;
+  L.push(`  timings: load ${fmt(timings.load!, 4)} ms, prepare ${fmt(timings.prepare!, 4)} ms, solve ${fmt(timings.solve!, 4)} ms`);
+  if (o.output) L.push(`  wrote ${o.output}`);
+  return L.join('\n');
 }

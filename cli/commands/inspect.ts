@@ -1,7 +1,7 @@
 /** `orthodrome inspect MESH [--json]`: mesh health summary. */
 import type { Command } from 'commander';
 import { loadSurface, maxInputSizeOption } from '../load.js';
-import { inspectSurface, inspectProblems, type InspectReport } from '../../src/report/inspect.js';
+import { inspectSurface, inspectProblems, type InspectReport } from '../../src/index.js';
 import { action, fmt, fmtCoord, toJson } from '../run.js';
 import { requireOption, parseRequirements, runGates, formatGates, failOnGates } from '../gates.js';
 

@@ -8,15 +8,8 @@ import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { checkOutput, outputFormat } from '../output.js';
 import { action, fmt, fmtCoord, since, toJson } from '../run.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
-import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
-import { PointResolver } from '../../src/query/resolve.js';
-import { formatSurfacePoint } from '../../src/query/surface-point.js';
-import { shortestPathThrough, AUTO_FLIP_FACES, FLIP_VERIFY_FACES, type PathMethod } from '../../src/geodesic/waypoints.js';
-import { pathPolyline } from '../../src/geodesic/path.js';
-import { coverPathThrough, orientationCover } from '../../src/geodesic/cover.js';
-import { writeObjPolyline } from '../../src/io/write-obj.js';
-import { toCsv } from '../../src/io/csv.js';
-import { writeFileAtomic } from '../../src/io/atomic.js';
+import { encodeRoute, formatSurfacePoint, pointLocator, shortestPath, writeFileAtomic, type PathMethod, type PointResolver, type SurfaceRoute } from '../../src/index.js';
+import { AUTO_FLIP_FACES, FLIP_VERIFY_FACES } from '../../src/api/geodesic.js';
 import { usageError } from '../../src/errors.js';
 
 const PATH_FORMATS = ['.obj', '.csv', '.geojson', '.json'];
@@ -70,11 +63,7 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
   if (!o.to && !o.closed) throw usageError('give --to, or --closed to return to the start');
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
   const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
-  const t = surface.topology;
-  const resolver = new PointResolver(t, surface.positions);
-  // a non-orientable surface was cut along seams to build it: trace on its double cover (paths cross the seams)
-  const seams = surface.report.orientationSeams;
-  const cover = seams.length ? orientationCover(t, surface.positions, seams) : null;
+  const resolver = await pointLocator(surface);
   const specs = [o.from, ...(o.via ?? []), ...(o.to ? [o.to] : [])];
   const labels = ['--from', ...(o.via ?? []).map(() => '--via'), ...(o.to ? ['--to'] : [])];
   const stops = specs.map((s, i) => resolver.resolveAll(s, labels[i])); // a split vertex: every copy
@@ -84,62 +73,69 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
   const proveLimit = o.proveLimit === undefined ? undefined : Number(o.proveLimit);
   if (proveLimit !== undefined && !(Number.isInteger(proveLimit) && proveLimit >= 0)) throw usageError(`--prove-limit must be a whole number of faces, got '${o.proveLimit}'`);
   const t0 = performance.now();
-  const route = cover ? coverPathThrough(cover, stops, { memoryBudget }) : shortestPathThrough(intrinsicFromPositions(t, surface.positions), stops, { memoryBudget, pinches: resolver.splitGroups(), method: o.pathMethod ?? 'auto', positions: surface.positions, ...(proveLimit !== undefined ? { verifyFaces: proveLimit } : {}) });
+  // a non-orientable surface is traced on its double cover (paths cross the seams): the library's shortestPath
+  const route = shortestPath(surface, stops, { memoryBudget, method: o.pathMethod ?? 'auto', ...(proveLimit !== undefined ? { verifyFaces: proveLimit } : {}) });
   const solveMs = since(t0);
-  const legMethods = route.legs.map((l) => l.method ?? 'windows');
-  const method = legMethods.every((x) => x === legMethods[0]) ? legMethods[0]! : 'mixed';
-  const legProven = route.legs.map((l) => l.proven ?? true);
-  const proven = legProven.every(Boolean);
   if (!Number.isFinite(route.length)) {
     const leg = route.legs.findIndex((l) => !Number.isFinite(l.length));
     throw usageError(`no path on the surface from ${specs[leg] ?? o.from} to ${specs[leg + 1] ?? o.from}: the points lie on different components`, mesh);
   }
-  const xyz = pathPolyline(route.path, t, surface.positions);
-  const n = route.path.points.length;
-  const points: [number, number, number][] = [];
-  for (let i = 0; i < n; i++) points.push([xyz[3 * i]!, xyz[3 * i + 1]!, xyz[3 * i + 2]!]);
-
-  if (o.output) {
-    const ext = outputFormat(o.output);
-    if (ext === '.obj') {
-      await writeFileAtomic(o.output, writeObjPolyline(xyz, 'shortest_path'));
-    } else if (ext === '.csv') {
-      const rows = points.map((p, i) => [p[0], p[1], p[2], route.cumulative[i]!, route.faces[i]!]);
-      await writeFileAtomic(o.output, toCsv(['x', 'y', 'z', 'length', 'face'], rows));
-    } else if (ext === '.geojson') {
-      const gj = {
-        type: 'Feature',
-        properties: { length: route.length, unit: 'mesh units', closed: Boolean(o.closed), waypoints: specs },
-        geometry: { type: 'LineString', coordinates: points },
-      };
-      await writeFileAtomic(o.output, toJson(gj, 0) + '\n');
-    } else {
-      await writeFileAtomic(o.output, toJson(resultJson(), 0) + '\n');
-    }
-  }
-  function resultJson() {
-    return {
-      length: route.length,
-      unit: 'mesh units',
-      points,
-      surfacePoints: route.path.points.map(formatSurfacePoint),
-      method,
-      proven,
-      legs: route.legs.map((l, i) => ({ from: specs[i] ?? specs[0], to: specs[i + 1] ?? specs[0], length: l.length, method: legMethods[i], proven: legProven[i] })),
-      snapped: resolver.landings.map((l) => ({ point: l.spec, surfacePoint: formatSurfacePoint(l.point), position: l.position, moved: l.distance })),
-      timings: { load: loadMs, solve: solveMs },
-    };
-  }
+  const facts = routeFacts(route, specs, resolver, loadMs, solveMs);
+  if (o.output) await writeRoute(o.output, route, facts, specs, Boolean(o.closed));
   if (o.json) {
-    process.stdout.write(toJson({ mesh, ...resultJson(), output: o.output ?? null }) + '\n');
+    process.stdout.write(toJson({ mesh, ...facts, output: o.output ?? null }) + '\n');
   } else {
-    const what = proven ? 'shortest path' : 'geodesic path (locally shortest, not proven shortest: see the legs)';
-    const L = [`${mesh}: ${what} ${fmt(route.length, 9)} mesh units, ${n} points, ${route.legs.length} leg(s), method ${METHOD_TEXT[method]}`];
-    for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map(fmtCoord).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
-    route.legs.forEach((l, i) => L.push(`  leg ${i + 1}: ${specs[i] ?? specs[0]} → ${specs[i + 1] ?? specs[0]}: ${fmt(l.length, 9)} (${legMethods[i]}${legProven[i] ? '' : `; a shorter path could run through more than --prove-limit ${proveLimit ?? FLIP_VERIFY_FACES} faces: not checked`})`));
-    L.push(`  timings: load ${fmt(loadMs, 4)} ms, solve ${fmt(solveMs, 4)} ms`);
-    if (o.output) L.push(`  wrote ${o.output}`);
-    process.stdout.write(L.join('\n') + '\n');
+    process.stdout.write(textReport(mesh, o, route, facts, resolver, proveLimit) + '\n');
   }
   return 0;
+}
+
+/** What is reported of a route (the JSON report and the .json file). */
+function routeFacts(route: SurfaceRoute, specs: string[], resolver: PointResolver, loadMs: number, solveMs: number) {
+  const xyz = route.polyline;
+  const points: [number, number, number][] = [];
+  for (let i = 0; i < xyz.length / 3; i++) points.push([xyz[3 * i]!, xyz[3 * i + 1]!, xyz[3 * i + 2]!]);
+  const legMethods = route.legs.map((l) => l.method ?? 'windows');
+  const legProven = route.legs.map((l) => l.proven ?? true);
+  return {
+    length: route.length,
+    unit: 'mesh units',
+    points,
+    surfacePoints: route.path.points.map(formatSurfacePoint),
+    method: legMethods.every((x) => x === legMethods[0]) ? legMethods[0]! : 'mixed',
+    proven: legProven.every(Boolean),
+    legs: route.legs.map((l, i) => ({ from: specs[i] ?? specs[0], to: specs[i + 1] ?? specs[0], length: l.length, method: legMethods[i], proven: legProven[i] })),
+    snapped: resolver.landings.map((l) => ({ point: l.spec, surfacePoint: formatSurfacePoint(l.point), position: l.position, moved: l.distance })),
+    timings: { load: loadMs, solve: solveMs },
+  };
+}
+
+type RouteFacts = ReturnType<typeof routeFacts>;
+
+/** Writes the route by extension: .obj polyline, .csv table, .geojson LineString or .json report. */
+async function writeRoute(path: string, route: SurfaceRoute, facts: RouteFacts, waypoints: string[], closed: boolean): Promise<void> {
+  const ext = outputFormat(path);
+  if (ext === '.obj' || ext === '.csv') {
+    await writeFileAtomic(path, encodeRoute(route, ext === '.obj' ? 'obj' : 'csv'));
+  } else if (ext === '.geojson') {
+    const gj = {
+      type: 'Feature',
+      properties: { length: route.length, unit: 'mesh units', closed, waypoints },
+      geometry: { type: 'LineString', coordinates: facts.points },
+    };
+    await writeFileAtomic(path, toJson(gj, 0) + '\n');
+  } else {
+    await writeFileAtomic(path, toJson(facts, 0) + '\n');
+  }
+}
+
+/** The text report. */
+function textReport(mesh: string, o: PathCliOptions, route: SurfaceRoute, facts: RouteFacts, resolver: PointResolver, proveLimit: number | undefined): string {
+  const what = facts.proven ? 'shortest path' : 'geodesic path (locally shortest, not proven shortest: see the legs)';
+  const L = [`${mesh}: ${what} ${fmt(route.length, 9)} mesh units, ${facts.points.length} points, ${route.legs.length} leg(s), method ${METHOD_TEXT[facts.method]}`];
+  for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map(fmtCoord).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
+  facts.legs.forEach((l, i) => L.push(`  leg ${i + 1}: ${l.from} → ${l.to}: ${fmt(l.length, 9)} (${l.method}${l.proven ? '' : `; a shorter path could run through more than --prove-limit ${proveLimit ?? FLIP_VERIFY_FACES} faces: not checked`})`));
+  L.push(`  timings: load ${fmt(facts.timings.load, 4)} ms, solve ${fmt(facts.timings.solve, 4)} ms`);
+  if (o.output) L.push(`  wrote ${o.output}`);
+  return L.join('\n');
 }

@@ -16,10 +16,12 @@ export type { Landing } from '../query/resolve.js';
  * A resolver of point specs on the surface of `topology` and `positions`
  * (a `Surface` has both): `resolve(text, label)` gives the canonical
  * surface point (a `USAGE` error naming `label` and the spec when it is
- * bad), `resolveAll` every copy of a split vertex, and `landings` where
- * each `p:` spec landed and how far it moved.
+ * bad), `resolveAll` every copy of a split vertex, `resolveCurve` a curve
+ * (specs separated by `;`), `resolveLoop` a boundary loop named by a loop
+ * spec (`loop:ID`, `loop@X,Y,Z`), and `landings` where each `p:` spec
+ * landed and how far it moved.
  */
-export async function pointLocator(s: { topology: Topology; positions: Float64Array }): Promise<PointResolver> {
+export async function pointLocator(s: { topology: Topology; positions: Float64Array; report?: { orientationSeams: Int32Array } }): Promise<PointResolver> {
   const { PointResolver } = await import('../query/resolve.js');
-  return new PointResolver(s.topology, s.positions);
+  return new PointResolver(s.topology, s.positions, s.report?.orientationSeams);
 }

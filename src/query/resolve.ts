@@ -13,6 +13,9 @@ import type { Topology } from '../mesh/topology.js';
 import { checkSurfacePoint, parsePointSpec, type SurfacePoint } from './surface-point.js';
 import { SurfaceLocator, type SnapResult } from './snap.js';
 import { vertexCopies } from './copies.js';
+import { isLoopSpec, resolveLoopSpec } from './loop-spec.js';
+import { commonFaces } from '../metric/face-points.js';
+import { usageError } from '../errors.js';
 
 /** Where a `p:` spec landed: the surface point, its position and how far it moved. */
 export interface Landing extends SnapResult {
@@ -30,11 +33,27 @@ export class PointResolver {
   /**
    * @param topology - the mesh connectivity
    * @param positions - x, y, z per topology vertex
+   * @param seams - the orientation seams of a non-orientable surface (`BuildReport.orientationSeams`), for loop specs
    */
   constructor(
     private readonly topology: Topology,
     private readonly positions: Float64Array,
+    private readonly seams?: Int32Array,
   ) {}
+
+  /** True when `text` is meant as a loop spec (`loop:` or `loop@`; it may still be malformed). */
+  isLoop(text: string): boolean {
+    return isLoopSpec(text);
+  }
+
+  /**
+   * The source curves of one boundary loop named by a loop spec (`loop:ID`,
+   * `loop@X,Y,Z`, `loop@X,Y`: see query/loop-spec.ts); `label` names the
+   * option and `file` the mesh in errors.
+   */
+  resolveLoop(text: string, label = 'loop', file?: string): SurfacePoint[][] {
+    return resolveLoopSpec(text, { topology: this.topology, positions: this.positions, ...(this.seams ? { seams: this.seams } : {}) }, label, file).curves;
+  }
 
   /**
    * Parses and checks `text`; `label` names the option in errors (e.g.
@@ -54,6 +73,22 @@ export class PointResolver {
       return point;
     }
     return checkSurfacePoint(spec, this.topology, label);
+  }
+
+  /**
+   * A curve as typed: point specs separated by `;` ({@link resolve} each),
+   * at least two, each consecutive pair on a common face (a `USAGE` error
+   * naming `label` and the curve otherwise).
+   */
+  resolveCurve(text: string, label = 'curve'): SurfacePoint[] {
+    const pts = text.split(';').map((x) => x.trim()).filter(Boolean).map((x) => this.resolve(x, label));
+    if (pts.length < 2) throw usageError(`a curve needs at least two points in '${text}'`, label);
+    for (let i = 1; i < pts.length; i++) {
+      if (commonFaces(this.topology, pts[i - 1]!, pts[i]!).length === 0) {
+        throw usageError(`points ${i} and ${i + 1} of '${text}' share no face (insert the points where the curve crosses edges)`, label);
+      }
+    }
+    return pts;
   }
 
   /** The topology copies of a point: every copy of a split vertex, else the point itself. */
