@@ -66,80 +66,119 @@ export function multifrontalFactor(
   minPivot: Float64Array | null = null,
   progress: Int32Array | null = null,
 ): number {
-  const { nsuper, superStart, childCount, rowPtr, rows, valPtr } = sn;
-  const { front: F, stack, pos, stackIds, rel, simd } = work;
+  const { nsuper, superStart, childCount, rowPtr, valPtr } = sn;
+  const { front: F, stack, stackIds, simd } = work;
   let nStack = 0; // entries on the stack
   let stackTop = 0; // doubles used
   for (let s = 0; s < nsuper; s++) {
-    const f = superStart[s]!, l = superStart[s + 1]!;
-    const nc = l - f;
-    const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
+    const f = superStart[s]!, nc = superStart[s + 1]! - f;
+    const nr = rowPtr[s + 1]! - rowPtr[s]!;
     if (progress !== null) progress[0] = s + 1;
-    for (let r = 0; r < nr; r++) pos[rows[r0 + r]!] = r;
-    // zero the lower triangle (short rows by hand: fill() costs a call per row)
-    if (nr <= 32) {
-      for (let r = 0, q = 0; r < nr; r++, q += nr) for (let c = 0; c <= r; c++) F[q + c] = 0;
-    } else {
-      for (let r = 0; r < nr; r++) F.fill(0, r * nr, r * nr + r + 1);
-    }
-    // assemble the columns of C owned by s: F(pos i, j − f) = C(i, j)
-    for (let j = f; j < l; j++) {
-      const jc = j - f;
-      for (let p = cp[j]!; p < cp[j + 1]!; p++) F[pos[ci[p]!]! * nr + jc]! += cx[p]!;
-    }
+    assembleFront(sn, s, cp, ci, cx, work, F);
     // extend-add the children's update matrices (topmost on the stack)
     for (let c = 0; c < childCount[s]!; c++) {
       const ch = stackIds[--nStack]!;
-      const cr0 = rowPtr[ch]! + (superStart[ch + 1]! - superStart[ch]!);
-      const m = rowPtr[ch + 1]! - cr0;
+      const m = updateOrder(sn, ch);
       stackTop -= (m * (m + 1)) >> 1;
-      for (let a = 0; a < m; a++) rel[a] = pos[rows[cr0 + a]!]!;
-      // packed row a of U_c starts at a(a+1)/2; its columns map through rel
-      let u = stackTop;
-      if (rel[m - 1]! - rel[0]! === m - 1) {
-        // the child's rows are consecutive in the parent: plain row additions
-        const c0 = rel[0]!;
-        for (let a = 0; a < m; a++) {
-          const ra = (c0 + a) * nr + c0;
-          for (let b = 0; b <= a; b++) F[ra + b]! += stack[u++]!;
-        }
-      } else {
-        for (let a = 0; a < m; a++) {
-          const ra = rel[a]! * nr;
-          for (let b = 0; b <= a; b++) F[ra + rel[b]!]! += stack[u++]!;
-        }
-      }
+      extendAdd(sn, ch, stack, stackTop, work, F, nr);
     }
     const bad = factorFront(F, nr, nc, simd, minPivot, f);
     if (bad >= 0) {
       pivotOut[0] = F[bad * nr + bad]!;
       return f + bad;
     }
-    // copy L's block: the diagonal block's lower triangle packed by rows,
-    // then the first nc entries of every row below (F's upper triangle
-    // holds scratch values)
-    const v0 = valPtr[s]!;
-    for (let r = 0, dst = v0; r < nc; r++) {
-      const src = r * nr;
-      for (let k = 0; k <= r; k++) Lx[dst++] = F[src + k]!;
-    }
-    const w0 = v0 + ((nc * (nc + 1)) >> 1) - nc * nc;
-    for (let r = nc; r < nr; r++) {
-      const src = r * nr;
-      const dst = w0 + r * nc;
-      for (let k = 0; k < nc; k++) Lx[dst + k] = F[src + k]!;
-    }
-    const m = nr - nc;
-    if (m > 0) {
-      // push U_s: the lower triangle of the trailing block, packed by rows
-      let u = stackTop;
-      for (let a = 0; a < m; a++) {
-        const src = (nc + a) * nr + nc;
-        for (let b = 0; b <= a; b++) stack[u++] = F[src + b]!;
-      }
-      stackTop = u;
+    storeBlock(F, nr, nc, Lx, valPtr[s]!);
+    if (nr > nc) {
+      stackTop = pushUpdate(F, nr, nc, stack, stackTop);
       stackIds[nStack++] = s;
     }
   }
   return -1;
+}
+
+/** Order of supernode s's update matrix: its rows below its own columns. */
+export function updateOrder(sn: SupernodalStructure, s: number): number {
+  return sn.rowPtr[s + 1]! - sn.rowPtr[s]! - (sn.superStart[s + 1]! - sn.superStart[s]!);
+}
+
+/**
+ * Sets `work.pos` for supernode s's rows, zeroes the lower triangle of its
+ * front F and assembles the columns of C that s owns: F(pos i, j − f) = C(i, j).
+ */
+export function assembleFront(
+  sn: SupernodalStructure, s: number, cp: Int32Array, ci: Int32Array, cx: Float64Array, work: MultifrontalWork, F: Float64Array,
+): void {
+  const { superStart, rowPtr, rows } = sn;
+  const pos = work.pos;
+  const f = superStart[s]!, l = superStart[s + 1]!;
+  const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
+  for (let r = 0; r < nr; r++) pos[rows[r0 + r]!] = r;
+  // zero the lower triangle (short rows by hand: fill() costs a call per row)
+  if (nr <= 32) {
+    for (let r = 0, q = 0; r < nr; r++, q += nr) for (let c = 0; c <= r; c++) F[q + c] = 0;
+  } else {
+    for (let r = 0; r < nr; r++) F.fill(0, r * nr, r * nr + r + 1);
+  }
+  for (let j = f; j < l; j++) {
+    const jc = j - f;
+    for (let p = cp[j]!; p < cp[j + 1]!; p++) F[pos[ci[p]!]! * nr + jc]! += cx[p]!;
+  }
+}
+
+/**
+ * Adds child ch's update matrix (packed by rows at stack[u0 …]) into the
+ * parent's front F of order nr, mapping the child's rows through `work.pos`
+ * (valid for the parent being assembled).
+ */
+export function extendAdd(
+  sn: SupernodalStructure, ch: number, stack: Float64Array, u0: number, work: MultifrontalWork, F: Float64Array, nr: number,
+): void {
+  const rows = sn.rows, pos = work.pos, rel = work.rel;
+  const cr0 = sn.rowPtr[ch]! + (sn.superStart[ch + 1]! - sn.superStart[ch]!);
+  const m = sn.rowPtr[ch + 1]! - cr0;
+  for (let a = 0; a < m; a++) rel[a] = pos[rows[cr0 + a]!]!;
+  // packed row a of U_c starts at a(a+1)/2; its columns map through rel
+  let u = u0;
+  if (rel[m - 1]! - rel[0]! === m - 1) {
+    // the child's rows are consecutive in the parent: plain row additions
+    const c0 = rel[0]!;
+    for (let a = 0; a < m; a++) {
+      const ra = (c0 + a) * nr + c0;
+      for (let b = 0; b <= a; b++) F[ra + b]! += stack[u++]!;
+    }
+  } else {
+    for (let a = 0; a < m; a++) {
+      const ra = rel[a]! * nr;
+      for (let b = 0; b <= a; b++) F[ra + rel[b]!]! += stack[u++]!;
+    }
+  }
+}
+
+/**
+ * Copies L's block out of the factored front: the diagonal block's lower
+ * triangle packed by rows, then the first nc entries of every row below
+ * (F's upper triangle holds scratch values).
+ */
+export function storeBlock(F: Float64Array, nr: number, nc: number, Lx: Float64Array, v0: number): void {
+  for (let r = 0, dst = v0; r < nc; r++) {
+    const src = r * nr;
+    for (let k = 0; k <= r; k++) Lx[dst++] = F[src + k]!;
+  }
+  const w0 = v0 + ((nc * (nc + 1)) >> 1) - nc * nc;
+  for (let r = nc; r < nr; r++) {
+    const src = r * nr;
+    const dst = w0 + r * nc;
+    for (let k = 0; k < nc; k++) Lx[dst + k] = F[src + k]!;
+  }
+}
+
+/** Pushes U = the lower triangle of F's trailing block, packed by rows; returns the new stack top. */
+export function pushUpdate(F: Float64Array, nr: number, nc: number, stack: Float64Array, top: number): number {
+  const m = nr - nc;
+  let u = top;
+  for (let a = 0; a < m; a++) {
+    const src = (nc + a) * nr + nc;
+    for (let b = 0; b <= a; b++) stack[u++] = F[src + b]!;
+  }
+  return u;
 }
