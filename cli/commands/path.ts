@@ -50,7 +50,7 @@ export function registerPath(program: Command): void {
     .addOption(maxInputSizeOption())
     .addOption(memoryBudgetOption())
     .addOption(new Option('--path-method <method>', `windows (window propagation: the shortest path, proven), flip (edge flips from the edge-graph shortest route: a geodesic, much faster on large meshes; two points off the vertices on one face, and split vertices, use windows) or auto (flip from ${AUTO_FLIP_FACES} faces up)`).choices(['auto', 'flip', 'windows']).default('auto'))
-    .option('--prove-limit <faces>', `largest region (faces within the ellipsoid that holds every shorter path) on which window propagation proves a flip leg shortest or finds the shorter one; 0 skips the proof (default: ${FLIP_VERIFY_FACES} with flip, none with auto)`)
+    .option('--prove-limit <faces>', `largest region (faces within the ellipsoid that holds every shorter path) on which window propagation proves a flip leg shortest or finds the shorter one; past it the leg is reported with a certified bound on how much longer than the shortest it can be; 0 skips the proof (default: ${FLIP_VERIFY_FACES})`)
     .addHelpText(
       'after',
       `\nLengths are in the mesh's own units. GeoJSON coordinates are the mesh's own coordinates (RFC 7946 expects\nWGS 84 longitude/latitude; use the file only where another system is agreed).\n${TERRAIN_CAUTION}\n${MACHINING_CAUTION}`,
@@ -104,13 +104,19 @@ function routeFacts(route: SurfaceRoute, specs: string[], resolver: PointResolve
     surfacePoints: route.path.points.map(formatSurfacePoint),
     method: legMethods.every((x) => x === legMethods[0]) ? legMethods[0]! : 'mixed',
     proven: legProven.every(Boolean),
-    legs: route.legs.map((l, i) => ({ from: specs[i] ?? specs[0], to: specs[i + 1] ?? specs[0], length: l.length, method: legMethods[i], proven: legProven[i] })),
+    // certified bound on the relative excess over the shortest path (0: proven; null: unknown)
+    excessBound: finiteOrNull(route.excessBound ?? 0),
+    legs: route.legs.map((l, i) => ({ from: specs[i] ?? specs[0], to: specs[i + 1] ?? specs[0], length: l.length, method: legMethods[i], proven: legProven[i], excessBound: finiteOrNull(l.excessBound ?? (legProven[i] ? 0 : Infinity)) })),
     snapped: resolver.landings.map((l) => ({ point: l.spec, surfacePoint: formatSurfacePoint(l.point), position: l.position, moved: l.distance })),
     timings: { load: loadMs, solve: solveMs },
   };
 }
 
 type RouteFacts = ReturnType<typeof routeFacts>;
+
+const finiteOrNull = (x: number): number | null => (Number.isFinite(x) ? x : null);
+/** A certified relative excess as text: "at most 0.0312% longer than the shortest". */
+const excessText = (x: number | null): string => (x === null ? 'no bound on how much longer than the shortest' : `at most ${fmt(100 * x, 3)}% longer than the shortest (certified: the straight 3D distance is a lower bound)`);
 
 /** Writes the route by extension: .obj polyline, .csv table, .geojson LineString or .json report. */
 async function writeRoute(path: string, route: SurfaceRoute, facts: RouteFacts, waypoints: string[], closed: boolean): Promise<void> {
@@ -131,10 +137,10 @@ async function writeRoute(path: string, route: SurfaceRoute, facts: RouteFacts, 
 
 /** The text report. */
 function textReport(mesh: string, o: PathCliOptions, route: SurfaceRoute, facts: RouteFacts, resolver: PointResolver, proveLimit: number | undefined): string {
-  const what = facts.proven ? 'shortest path' : 'geodesic path (locally shortest, not proven shortest: see the legs)';
+  const what = facts.proven ? 'shortest path' : `geodesic path (locally shortest, not proven shortest; ${excessText(facts.excessBound)})`;
   const L = [`${mesh}: ${what} ${fmt(route.length, 9)} mesh units, ${facts.points.length} points, ${route.legs.length} leg(s), method ${METHOD_TEXT[facts.method]}`];
   for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map(fmtCoord).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
-  facts.legs.forEach((l, i) => L.push(`  leg ${i + 1}: ${l.from} → ${l.to}: ${fmt(l.length, 9)} (${l.method}${l.proven ? '' : `; a shorter path could run through more than --prove-limit ${proveLimit ?? FLIP_VERIFY_FACES} faces: not checked`})`));
+  facts.legs.forEach((l, i) => L.push(`  leg ${i + 1}: ${l.from} → ${l.to}: ${fmt(l.length, 9)} (${l.method}${l.proven ? '' : `; not proven: a shorter path could run through more than --prove-limit ${proveLimit ?? FLIP_VERIFY_FACES} faces; ${excessText(l.excessBound)}`})`));
   L.push(`  timings: load ${fmt(facts.timings.load, 4)} ms, solve ${fmt(facts.timings.solve, 4)} ms`);
   if (o.output) L.push(`  wrote ${o.output}`);
   return L.join('\n');

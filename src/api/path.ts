@@ -17,7 +17,9 @@ export interface PathOptions {
   /**
    * `windows` (window propagation: proven shortest), `flip` (edge flips from the edge-graph
    * route: a geodesic, much faster on large meshes) or `auto` (default: flips on large
-   * meshes, each leg then proven shortest or replaced). A non-orientable surface always uses windows.
+   * meshes, each leg then proven shortest or replaced when the region a shorter path could use
+   * has at most `verifyFaces` faces, else returned with its certified `excessBound`). A
+   * non-orientable surface always uses windows.
    */
   method?: PathMethod;
   /** Largest region (faces) on which a flip leg is proven shortest; 0 skips the proof (see `WaypointOptions.verifyFaces`). */

@@ -25,8 +25,8 @@ export type PathMethod = 'auto' | 'flip' | 'windows';
 export const AUTO_FLIP_FACES = 50_000;
 
 /**
- * Default of `WaypointOptions.verifyFaces` with `method: 'flip'`: the largest region a flip leg
- * is proven shortest on (with `auto` there is no face limit; the memory budget bounds the proof).
+ * Default of `WaypointOptions.verifyFaces` (`flip` and `auto`): the largest region a flip leg is
+ * proven shortest on by window propagation. Past it the leg keeps its certified bound (`excessBound`).
  */
 export const FLIP_VERIFY_FACES = 50_000;
 
@@ -37,10 +37,18 @@ export interface WaypointPath {
   /** Total length, mesh units (Infinity when some leg has no path). */
   length: number;
   /**
-   * Each leg, its length, the method that found it (absent: windows) and whether it is
-   * proven shortest (absent: true; false for a flip leg that could not be checked).
+   * Each leg, its length, the method that found it (absent: windows), whether it is
+   * proven shortest (absent: true; false for a flip leg that could not be checked) and a
+   * certified bound on how much longer than the shortest it can be, relative (0 when proven;
+   * absent when unknown: an unproven leg without positions).
    */
-  legs: { path: SurfacePath; length: number; method?: 'flip' | 'windows'; proven?: boolean }[];
+  legs: { path: SurfacePath; length: number; method?: 'flip' | 'windows'; proven?: boolean; excessBound?: number }[];
+  /**
+   * Certified bound on the relative excess of `length` over the shortest path through the
+   * stops in order: the largest leg bound (Σ Lᵢ ≤ (1 + max εᵢ) Σ dᵢ); Infinity when some
+   * unproven leg has no bound; 0 (or absent) when every leg is proven.
+   */
+  excessBound?: number;
   /** Cumulative intrinsic length at each point of `path`. */
   cumulative: Float64Array;
   /** A face containing the segment from each point to the next (the last point: from the previous). */
@@ -65,19 +73,20 @@ export interface WaypointOptions {
    * inserted as vertices first; legs between two such points on one face, legs whose stop
    * has several copies (a split vertex), and legs where the flips do not converge use windows.
    * `auto` (default): `windows` below {@link AUTO_FLIP_FACES} faces or without `positions`; else flips, each
-   * leg then proven shortest (or replaced) by the ellipsoid check with no face limit (needs
-   * `positions`; the memory budget bounds it): always the shortest path, found faster than by
-   * windows alone. Paths through pinch points always use windows.
+   * leg then checked as with `flip`: proven shortest (or replaced) when the ellipsoid region has at
+   * most `verifyFaces` faces, otherwise returned unproven with its certified `excessBound`
+   * (from the straight 3D chord, flip/verify.ts). Paths through pinch points always use windows.
    */
   method?: PathMethod;
   /**
    * x, y, z per vertex. With them every flip leg is checked (flip/verify.ts): window
    * propagation on the faces within the ellipsoid |x − a| + |x − b| ≤ its length, which holds
    * every shorter path, proves it shortest or finds the shorter one, when that region has at
-   * most `verifyFaces` faces. Without them, or beyond that, a flip leg is a geodesic only.
+   * most `verifyFaces` faces. Without them a flip leg is a geodesic only; beyond that, a geodesic
+   * with a certified bound on its excess over the shortest (`excessBound`).
    */
   positions?: Float64Array;
-  /** Largest region (faces) a flip leg is checked on (default: {@link FLIP_VERIFY_FACES} with `flip`, no limit with `auto`). */
+  /** Largest region (faces) a flip leg is proven on (default {@link FLIP_VERIFY_FACES}; Infinity: always, the memory budget bounding it). */
   verifyFaces?: number;
 }
 
@@ -135,7 +144,7 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint |
   checkEdgeLengths(mesh, 'path');
   const stops = stops0.map((p, i) => (Array.isArray(p) ? p : [p]).map((q) => checkSurfacePoint(q, mesh.topology, `stop ${i}`)));
   if (stops.some((s) => s.length === 0)) throw usageError('a stop needs at least one point', 'path');
-  const legs: { path: SurfacePath; length: number; method: 'flip' | 'windows'; proven: boolean }[] = [];
+  const legs: { path: SurfacePath; length: number; method: 'flip' | 'windows'; proven: boolean; excessBound?: number }[] = [];
   const points: SurfacePoint[] = [];
   let length = 0;
   const method = opts.method ?? 'auto';
@@ -149,19 +158,21 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint |
     });
     const a = stops[i]!, b = stops[i + 1]!;
     const f = flips && a.length === 1 && b.length === 1 ? flipGeodesicPath(mesh, a[0]!, b[0]!) : null;
-    let p: SurfacePath, how: 'flip' | 'windows' = 'windows', proven = true;
+    let p: SurfacePath, how: 'flip' | 'windows' = 'windows', proven = true, excess: number | undefined = 0;
     if (f && f.status === 'ok') {
       p = f.path; how = 'flip'; proven = p.length === 0; // a point to itself: nothing is shorter
+      if (!proven) excess = undefined;
       if (opts.positions && p.length > 0) {
-        const limit = opts.verifyFaces ?? (method === 'auto' ? Infinity : FLIP_VERIFY_FACES);
+        const limit = opts.verifyFaces ?? FLIP_VERIFY_FACES;
         let v: ReturnType<typeof verifyShortest>;
         try {
           v = verifyShortest(mesh, opts.positions, a[0]!, b[0]!, p.length, limit, opts.memoryBudget);
         } catch (err) {
           if (!isOrthodromeError(err) || err.code !== 'LIMIT') throw err;
-          throw limitError(`${err.detail}; this was the proof that a path found by edge flips is the shortest: method 'flip' (--path-method flip) with a face limit on the proof (--prove-limit) returns the geodesic unproven instead`, err.location);
+          throw limitError(`${err.detail}; this was the proof that a path found by edge flips is the shortest: a smaller face limit on the proof (--prove-limit) returns the geodesic unproven, with its certified bound, instead`, err.location);
         }
         if (v.status !== 'skipped') proven = true;
+        excess = v.excess;
         if (v.status === 'shorter') { p = v.path!; how = 'windows'; }
       }
     } else if (f && f.status === 'unreachable') {
@@ -169,15 +180,16 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint |
     } else {
       p = legPath(run, a, b, opts.pinches ?? [], opts.maxPinchSolves ?? DEFAULT_MAX_PINCH_SOLVES);
     }
-    legs.push({ path: p, length: p.length, method: how, proven });
+    legs.push({ path: p, length: p.length, method: how, proven, ...(excess !== undefined ? { excessBound: excess } : {}) });
     length += p.length;
     if (!Number.isFinite(p.length)) continue;
     // legs share their stop; a leg may leave from another copy of it (same position), kept then
     const last = points[points.length - 1];
     points.push(...(last && p.points[0] && formatSurfacePoint(last) === formatSurfacePoint(p.points[0]) ? p.points.slice(1) : p.points));
   }
+  const excessBound = legs.reduce((m, l) => Math.max(m, l.excessBound ?? Infinity), 0);
   if (!Number.isFinite(length)) {
-    return { path: { points: [], length: Infinity }, length: Infinity, legs, cumulative: new Float64Array(0), faces: new Int32Array(0) };
+    return { path: { points: [], length: Infinity }, length: Infinity, legs, excessBound, cumulative: new Float64Array(0), faces: new Int32Array(0) };
   }
   const t = mesh.topology;
   const n = points.length;
@@ -190,5 +202,5 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint |
   }
   if (n > 1) faces[n - 1] = faces[n - 2]!;
   else if (n === 1) faces[0] = commonFaces(t, points[0]!, points[0]!)[0] ?? -1;
-  return { path: { points, length }, length, legs, cumulative, faces };
+  return { path: { points, length }, length, legs, excessBound, cumulative, faces };
 }

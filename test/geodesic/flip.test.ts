@@ -191,7 +191,7 @@ describe('path entry with edge flips', () => {
 });
 
 describe('auto method', () => {
-  it(`from ${AUTO_FLIP_FACES} faces: flips, each leg proven without a face limit; below: windows`, () => {
+  it(`from ${AUTO_FLIP_FACES} faces: flips, each leg proven (here by the chord: a flat plate); below: windows`, () => {
     const big = flatGrid(160, 160, 16, 16, 0.2, 2); // 51,200 faces
     const m = meshOf(big), P = big.positions;
     expect(m.topology.nf).toBeGreaterThanOrEqual(AUTO_FLIP_FACES);
@@ -230,7 +230,12 @@ describe('orthodrome path --path-method', () => {
     expect(Math.abs(jf.length - jw.length)).toBeLessThanOrEqual(1e-9 * jw.length);
     const text = runCli(['path', file, '--from', 'v:0', '--to', 'v:150', '--path-method', 'flip', '--prove-limit', '0']);
     expect(text.code).toBe(0);
-    expect(text.stdout).toMatch(/geodesic path \(locally shortest, not proven shortest/);
+    expect(text.stdout).toMatch(/geodesic path \(locally shortest, not proven shortest; at most [\d.e+-]+% longer than the shortest \(certified/);
+    const tj = JSON.parse(runCli(['path', file, '--from', 'v:0', '--to', 'v:150', '--path-method', 'flip', '--prove-limit', '0', '--json']).stdout);
+    expect(tj.proven).toBe(false);
+    expect(tj.excessBound).toBeGreaterThan(0); // sphere: the chord is shorter than the arc
+    expect(tj.legs[0].excessBound).toBe(tj.excessBound);
+    expect(jf.excessBound).toBe(0);
     expect(text.stdout).toMatch(/method flip/);
     const bad = runCli(['path', file, '--from', 'v:0', '--to', 'v:150', '--prove-limit', '-3']);
     expect(bad.code).toBe(2);

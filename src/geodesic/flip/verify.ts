@@ -16,6 +16,14 @@
  * centroid-to-corner distance (f = |x − a| + |x − b| is 2-Lipschitz), which
  * is the test used. Coordinates serve this bound only; lengths still come
  * from the mesh's metric.
+ *
+ * The same chord is a certified lower bound on the distance, d(a, b) ≥ |b − a|,
+ * so a path of length L is at most L/|b − a| − 1 longer than the shortest,
+ * relatively: {@link chordExcess}. A path as long as the chord (to 1e-9
+ * relative, the flat case) is proven shortest without any search. Both
+ * hold when the edge lengths are those of the positions (every face is then
+ * congruent to its 3D triangle, and a path on the surface is a curve in
+ * space of the same length), as for every mesh read from a file.
  */
 import type { IntrinsicMesh } from '../../metric/intrinsic.js';
 import type { SurfacePath } from '../field.js';
@@ -34,6 +42,12 @@ export interface VerifyResult {
    * allowed faces (nothing is known).
    */
   status: 'proven' | 'shorter' | 'skipped';
+  /**
+   * Certified bound on how much longer than the shortest path the checked path of length L
+   * is, relative ((L − d)/d ≤ excess; {@link chordExcess}); 0 when proven, and the shorter
+   * path's own bound when one was found (also 0: windows are exact).
+   */
+  excess: number;
   /** The shorter path, on the input mesh (status `shorter` only). */
   path?: SurfacePath;
   /** Faces of the region (counted up to the limit + 1 when skipped). */
@@ -50,6 +64,8 @@ export function verifyShortest(mesh: IntrinsicMesh, positions: Float64Array, A: 
   const t = mesh.topology, P = positions;
   const pa = surfacePointPosition(A, t, P), pb = surfacePointPosition(B, t, P);
   const ax = pa[0]!, ay = pa[1]!, az = pa[2]!, bx = pb[0]!, by = pb[1]!, bz = pb[2]!;
+  const excess = chordExcess(L, Math.hypot(bx - ax, by - ay, bz - az));
+  if (excess <= 1e-9) return { status: 'proven', faces: 0, excess: 0 }; // as long as the chord: nothing is shorter
   const bound = L * (1 + 1e-9);
   const faces: number[] = [];
   for (let f = 0; f < t.nf; f++) {
@@ -63,7 +79,7 @@ export function verifyShortest(mesh: IntrinsicMesh, positions: Float64Array, A: 
     const fc = Math.hypot(cx - ax, cy - ay, cz - az) + Math.hypot(cx - bx, cy - by, cz - bz);
     if (!(fc - 2 * r > bound)) {
       faces.push(f);
-      if (faces.length > maxFaces) return { status: 'skipped', faces: faces.length };
+      if (faces.length > maxFaces) return { status: 'skipped', faces: faces.length, excess };
     }
   }
   // the region as a mesh of its own; sub vertex i is input vertex verts[i]
@@ -91,7 +107,7 @@ export function verifyShortest(mesh: IntrinsicMesh, positions: Float64Array, A: 
   const len = new Float64Array(st.ne);
   for (let e = 0; e < st.ne; e++) {
     const H = inputHalfedge(st.edgeHalfedge[e]!);
-    if (H < 0) return { status: 'skipped', faces: faces.length }; // the build reoriented a face: no proof
+    if (H < 0) return { status: 'skipped', faces: faces.length, excess }; // the build reoriented a face: no proof
     len[e] = mesh.edgeLength[t.edgeOf[H]!]!;
   }
   const sub: IntrinsicMesh = { topology: st, edgeLength: len };
@@ -118,10 +134,10 @@ export function verifyShortest(mesh: IntrinsicMesh, positions: Float64Array, A: 
     return { kind: 'edge', edge: e, t: st.edgeHalfedge[e] === 3 * n + k ? p.t : 1 - p.t };
   };
   const sa = toSub(A), target = toSub(B);
-  if (!sa || !target) return { status: 'skipped', faces: faces.length };
+  if (!sa || !target) return { status: 'skipped', faces: faces.length, excess };
   const run = exactDistance(sub, pointSources([sa]), { targets: [target], ...(memoryBudget !== undefined ? { memoryBudget } : {}) });
   const d = run.distanceAt(target);
-  if (!(d < L * (1 - 1e-9))) return { status: 'proven', faces: faces.length };
+  if (!(d < L * (1 - 1e-9))) return { status: 'proven', faces: faces.length, excess: 0 };
   const p = run.pathTo(target);
   const points = p.points.map((q): SurfacePoint => {
     if (q.kind === 'vertex') return { kind: 'vertex', vertex: orig(q.vertex) };
@@ -133,5 +149,18 @@ export function verifyShortest(mesh: IntrinsicMesh, positions: Float64Array, A: 
     for (let k = 0; k < 3; k++) bary[[0, 1, 2].find((j) => t.tri[3 * F + j] === orig(st.tri[3 * q.face + k]!))!] = q.bary[k]!;
     return { kind: 'face', face: F, bary };
   });
-  return { status: 'shorter', path: { points, length: p.length }, faces: faces.length };
+  return { status: 'shorter', path: { points, length: p.length }, faces: faces.length, excess: 0 };
+}
+
+/**
+ * Certified relative excess of a path of length `L` over the shortest one between two points
+ * whose straight 3D distance is `chord` (a lower bound on their distance on the surface, see the
+ * module comment): (L − c)/c with c = chord·(1 − 1e-12), which covers the rounding of the
+ * lengths and of the chord (a few ulps each). Infinity when the chord is 0 (the two ends meet in
+ * space only) and L is not.
+ */
+export function chordExcess(L: number, chord: number): number {
+  if (!(L > 0)) return 0;
+  const c = chord * (1 - 1e-12);
+  return c > 0 ? Math.max(0, (L - c) / c) : Infinity;
 }
