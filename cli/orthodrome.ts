@@ -9,6 +9,9 @@ import { registerCurvature } from './commands/curvature.js';
 import { registerDemo } from './commands/demo.js';
 import { registerDistance } from './commands/distance.js';
 import { registerPath } from './commands/path.js';
+import { registerIsolines } from './commands/isolines.js';
+import { registerOffset } from './commands/offset.js';
+import { registerStraight } from './commands/straight.js';
 import { EXIT_INPUT, reportError } from './run.js';
 
 const program = new Command();
@@ -26,6 +29,9 @@ registerInspect(program);
 registerCurvature(program);
 registerDistance(program);
 registerPath(program);
+registerIsolines(program);
+registerOffset(program);
+registerStraight(program);
 registerDemo(program);
 
 try {

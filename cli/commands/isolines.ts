@@ -1,0 +1,199 @@
+/**
+ * `orthodrome isolines MESH (--from SOURCE... | --field NAME|FILE.csv[:COLUMN])
+ * (--every D | --levels D1,D2,...) [--bands]`: level sets of the distance
+ * field (or of a per-vertex field from the mesh file or a CSV file),
+ * chained into polylines, and the bands between them.
+ */
+import { readFile } from 'node:fs/promises';
+import { Command, Option } from 'commander';
+import { loadSurface, maxInputSizeOption } from '../load.js';
+import { checkOutput } from '../output.js';
+import { action, fmt, toJson } from '../run.js';
+import { TERRAIN_CAUTION } from '../cautions.js';
+import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
+import {
+  boundarySources, measureDistances, pointLocator, surfaceIsolines, distanceScalarField, fieldFromCsv, vertexProperty, toTopologyVertices,
+  writeCurves, curveFormatOf, writeFileAtomic, CURVE_FORMATS, DEFAULT_MAX_LEVELS,
+  type Band, type CurvePolygon, type DistanceMethod, type PointResolver, type ScalarField, type SourceSet, type Surface, type SurfaceCurve,
+} from '../../src/index.js';
+import { usageError } from '../../src/errors.js';
+
+/** Options shared by `isolines` and `offset`. */
+export interface CurveCliOptions {
+  from?: string[];
+  fromCurve?: string[];
+  method: DistanceMethod;
+  output?: string;
+  json?: boolean;
+  splitNonmanifold?: boolean;
+  maxInputSize?: string;
+  memoryBudget?: string;
+}
+
+interface IsolinesCliOptions extends CurveCliOptions {
+  field?: string;
+  every?: string;
+  levels?: string;
+  bands?: boolean;
+  maxLevels?: string;
+}
+
+const collect = (v: string, prev: string[] = []) => [...prev, v];
+
+/** The `--from` help shared by `isolines` and `offset`. */
+export const FROM_HELP =
+  "source: v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2, p:X,Y,Z (nearest surface point), p:X,Y (the surface point straight below or above), 'boundary' (all boundary loops), loop:ID (one boundary loop, ids as 'inspect' lists them), loop@X,Y,Z or loop@X,Y (the loop nearest the point); repeat for several";
+/** The `--from-curve` help. */
+export const FROM_CURVE_HELP = "a curve source, e.g. a trim line: point specs separated by ';', each consecutive pair on a common face (e.g. 'v:3;e:17:0.5;v:9'); repeat for several";
+
+/** A number option: finite, and positive when `positive`; `USAGE` naming the option otherwise. */
+export function numberOption(text: string, name: string, positive = false): number {
+  const x = Number(text);
+  if (text.trim() === '' || !Number.isFinite(x) || (positive && !(x > 0))) throw usageError(`${name} must be a ${positive ? 'positive ' : ''}number, got '${text}'`);
+  return x;
+}
+
+/** One source set from every --from and --from-curve (`USAGE` naming the bad spec). */
+export function sourceSet(mesh: string, surface: Surface, resolver: PointResolver, o: CurveCliOptions): SourceSet {
+  const set: SourceSet = { points: [], curves: [] };
+  for (const s of o.from ?? []) {
+    if (s.trim() === 'boundary') {
+      const loops = boundarySources(surface);
+      if (loops.length === 0) throw usageError('--from boundary: the mesh has no boundary', mesh);
+      set.curves.push(...loops);
+    } else if (resolver.isLoop(s)) set.curves.push(...resolver.resolveLoop(s, '--from', mesh));
+    else set.points.push(...resolver.resolveAll(s, '--from'));
+  }
+  for (const c of o.fromCurve ?? []) set.curves.push(resolver.resolveCurve(c, '--from-curve'));
+  return set;
+}
+
+/** Checks `-o` (a curve format, writable, not the mesh) before any work. */
+export function checkCurveOutput(path: string, mesh: string): void {
+  checkOutput(path, CURVE_FORMATS, [mesh]);
+}
+
+/** Writes curves (and band polygons, GeoJSON only) to `path` by extension, atomically. */
+export async function writeCurveFile(path: string, curves: SurfaceCurve[], polygons: CurvePolygon[] = []): Promise<void> {
+  const format = curveFormatOf(path)!;
+  const plain = curves.map((c) => ({ level: c.level, closed: c.closed, length: c.length, points: c.points }));
+  await writeFileAtomic(path, writeCurves(format, plain, { units: 'mesh units', ...(format === 'geojson' ? { polygons } : {}) }));
+}
+
+/** A curve as `--json` prints it. */
+export function curveJson(c: SurfaceCurve) {
+  return { level: c.level, closed: c.closed, length: c.length, points: c.points };
+}
+
+/** Registers the command. */
+export function registerIsolines(program: Command): void {
+  program
+    .command('isolines')
+    .description('level sets of the distance field (or of a per-vertex field) chained into polylines, and the bands between them')
+    .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
+    .option('--from <source>', FROM_HELP, collect)
+    .option('--from-curve <points>', FROM_CURVE_HELP, collect)
+    .option('--field <name>', "instead of distances: x, y or z (z: contour lines of height), a vertex property of the mesh file (PLY), or FILE.csv[:COLUMN] (a header row; one row per vertex, or a 'vertex' column; empty = missing)")
+    .option('--every <d>', 'a level at every multiple of D')
+    .option('--levels <list>', 'levels listed, separated by commas (D1,D2,...)')
+    .option('--bands', 'also the bands between consecutive levels: polygons, area on the surface and in plan view (xy)')
+    .option('--max-levels <n>', `most levels allowed (default ${DEFAULT_MAX_LEVELS})`)
+    .addOption(new Option('--method <method>', 'distances: exact (window propagation; exact crossings along edges), heat (heat method) or graph (along edges)').choices(['exact', 'heat', 'graph']).default('exact'))
+    .option('-o, --output <file>', 'write the curves: .obj (l polylines), .geojson (with the band polygons), .csv or .json; add .gz to compress')
+    .option('--json', 'print the result as JSON')
+    .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh (curves end at the cuts)')
+    .addOption(maxInputSizeOption())
+    .addOption(memoryBudgetOption())
+    .addHelpText('after', `
+A vertex exactly on a level counts as above it. Curves are open where they reach the boundary,
+a cut, or a face with a missing value, closed otherwise; closed curves repeat their first point.
+Plan-view areas are areas projected on the xy-plane. Lengths and areas are in mesh units.
+${TERRAIN_CAUTION}`)
+    .action(action(async (mesh: string, o: IsolinesCliOptions) => runIsolines(mesh, o)));
+}
+
+async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number> {
+  if (o.output) checkCurveOutput(o.output, mesh);
+  if ((o.every === undefined) === (o.levels === undefined)) throw usageError('give either --every D or --levels D1,D2,...');
+  const every = o.every !== undefined ? numberOption(o.every, '--every', true) : undefined;
+  const levels = o.levels !== undefined ? o.levels.split(',').map((x) => numberOption(x, '--levels')) : undefined;
+  const maxLevels = o.maxLevels !== undefined ? numberOption(o.maxLevels, '--max-levels', true) : undefined;
+  const hasFrom = (o.from?.length ?? 0) + (o.fromCurve?.length ?? 0) > 0;
+  if (hasFrom === (o.field !== undefined)) throw usageError('give either --from/--from-curve (distances) or --field (a per-vertex field)');
+  const memoryBudget = memoryBudgetBytes(o.memoryBudget);
+  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
+
+  let field: ScalarField;
+  let solveMs = 0, prepareMs = 0;
+  let resolver: PointResolver | null = null;
+  if (o.field !== undefined) {
+    field = { values: toTopologyVertices(surface.topology, await readField(o.field, surface)) };
+  } else {
+    resolver = await pointLocator(surface);
+    const m = measureDistances(surface, sourceSet(mesh, surface, resolver, o), { method: o.method, memoryBudget });
+    field = distanceScalarField(m);
+    solveMs = m.solveMs;
+    prepareMs = m.prepareMs;
+  }
+  const r = surfaceIsolines(surface, field, {
+    ...(every !== undefined ? { every } : { levels: levels! }),
+    ...(maxLevels !== undefined ? { maxLevels } : {}),
+    bands: Boolean(o.bands),
+  });
+  if (o.output) await writeCurveFile(o.output, r.curves, (r.bands ?? []).flatMap(bandPolygons));
+  const timings = { load: loadMs, prepare: round(prepareMs), solve: round(solveMs), curves: round(r.ms) };
+  if (o.json) {
+    process.stdout.write(toJson({
+      mesh, field: o.field ?? 'distance', method: o.field !== undefined ? null : o.method, unit: 'mesh units', levels: r.levels,
+      curves: r.curves.map(curveJson),
+      ...(r.bands ? { bands: r.bands.map((b) => ({ lower: b.lower, upper: b.upper, area: b.area, planArea: b.planArea, polygons: b.polygons })) } : {}),
+      output: o.output ?? null, timings,
+    }) + '\n');
+    return 0;
+  }
+  const L: string[] = [`${mesh}: isolines of ${o.field !== undefined ? `field ${o.field}` : `${o.method} distance`} (mesh units), ${r.levels.length} level(s), ${r.curves.length} curve(s)`];
+  for (const l of resolver?.landings ?? []) L.push(`  ${l.spec} landed at (${l.position.join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
+  for (const level of r.levels) {
+    const cs = r.curves.filter((c) => c.level === level);
+    if (cs.length === 0) continue;
+    const closed = cs.filter((c) => c.closed).length;
+    L.push(`  level ${fmt(level, 9)}: ${cs.length} curve(s) (${closed} closed, ${cs.length - closed} open), length ${fmt(cs.reduce((a, c) => a + c.length, 0), 9)}`);
+  }
+  for (const b of r.bands ?? []) {
+    L.push(`  band [${fmt(b.lower, 9)}, ${fmt(b.upper, 9)}): area ${fmt(b.area, 9)}, plan area ${fmt(b.planArea, 9)} (mesh units²), ${b.polygons.length} polygon(s)`);
+  }
+  L.push(`  timings: load ${fmt(timings.load, 4)} ms, prepare ${fmt(timings.prepare, 4)} ms, solve ${fmt(timings.solve, 4)} ms, curves ${fmt(timings.curves, 4)} ms`);
+  if (o.output) L.push(`  wrote ${o.output}`);
+  process.stdout.write(L.join('\n') + '\n');
+  return 0;
+}
+
+const round = (x: number) => Math.round(x * 100) / 100;
+
+/** A band's polygons for GeoJSON: rings outer first, with the band's levels and areas. */
+function bandPolygons(b: Band): CurvePolygon[] {
+  return b.polygons.map((p) => ({
+    rings: [p.outer, ...p.holes],
+    properties: { levelFrom: b.lower, levelTo: b.upper, area: b.area, planArea: b.planArea },
+  }));
+}
+
+/** `--field`: FILE.csv[:COLUMN] or a vertex property of the mesh file; values per file vertex. */
+async function readField(spec: string, surface: Surface): Promise<Float64Array> {
+  const m = /^(.*\.csv)(?::([^:]+))?$/i.exec(spec);
+  if (!m) {
+    const axis = ['x', 'y', 'z'].indexOf(spec);
+    if (axis >= 0 && !surface.data.vertexProps.some((c) => c.name === spec)) {
+      const P = surface.data.positions; // a coordinate: contour lines of height with --field z
+      return Float64Array.from({ length: P.length / 3 }, (_, v) => P[3 * v + axis]!);
+    }
+    return vertexProperty(surface.data, spec);
+  }
+  let text: string;
+  try {
+    text = await readFile(m[1]!, 'utf8');
+  } catch (e) {
+    throw usageError(`cannot read the field file (${(e as NodeJS.ErrnoException).code ?? 'error'})`, m[1]!);
+  }
+  return fieldFromCsv(text, m[1]!, surface.data.positions.length / 3, m[2]);
+}

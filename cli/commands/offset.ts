@@ -1,0 +1,73 @@
+/**
+ * `orthodrome offset MESH --from SOURCE... --distance D`: the curves at
+ * on-surface distance D from a boundary loop, points or a curve on the
+ * surface (a trim line at D from a part's edge, a margin round a hazard).
+ */
+import { Command, Option } from 'commander';
+import { loadSurface, maxInputSizeOption } from '../load.js';
+import { action, fmt, toJson } from '../run.js';
+import { MACHINING_CAUTION, TERRAIN_CAUTION } from '../cautions.js';
+import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
+import { pointLocator, surfaceOffset } from '../../src/index.js';
+import { usageError } from '../../src/errors.js';
+import {
+  FROM_CURVE_HELP, FROM_HELP, checkCurveOutput, curveJson, numberOption, sourceSet, writeCurveFile, type CurveCliOptions,
+} from './isolines.js';
+
+interface OffsetCliOptions extends CurveCliOptions {
+  distance?: string;
+}
+
+const collect = (v: string, prev: string[] = []) => [...prev, v];
+
+/** Registers the command. */
+export function registerOffset(program: Command): void {
+  program
+    .command('offset')
+    .description('the curves at on-surface distance D from a boundary loop, points or a curve on the surface (trim lines, margins)')
+    .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
+    .option('--from <source>', FROM_HELP, collect)
+    .option('--from-curve <points>', FROM_CURVE_HELP, collect)
+    .option('--distance <d>', 'the on-surface distance D, mesh units')
+    .addOption(new Option('--method <method>', 'exact (window propagation; exact crossings along edges), heat (heat method, approximate) or graph (along edges, an upper bound)').choices(['exact', 'heat', 'graph']).default('exact'))
+    .option('-o, --output <file>', 'write the curves: .obj (l polylines), .geojson, .csv or .json; add .gz to compress')
+    .option('--json', 'print the result as JSON')
+    .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh (curves end at the cuts)')
+    .addOption(maxInputSizeOption())
+    .addOption(memoryBudgetOption())
+    .addHelpText('after', `
+The offset is the level set at D of the on-surface distance from the sources, measured on the mesh
+as given; curves are open where they reach the boundary or a cut, closed otherwise (a closed curve
+repeats its first point). Offsets are estimates for planning: verify a trim line on the machine
+before cutting, and defer to the shop's procedures and licensed practice.
+${MACHINING_CAUTION}
+${TERRAIN_CAUTION}`)
+    .action(action(async (mesh: string, o: OffsetCliOptions) => runOffset(mesh, o)));
+}
+
+async function runOffset(mesh: string, o: OffsetCliOptions): Promise<number> {
+  if (o.output) checkCurveOutput(o.output, mesh);
+  if (o.distance === undefined) throw usageError('give the offset distance with --distance D');
+  const D = numberOption(o.distance, '--distance', true);
+  if ((o.from?.length ?? 0) + (o.fromCurve?.length ?? 0) === 0) throw usageError('give at least one --from or --from-curve');
+  const memoryBudget = memoryBudgetBytes(o.memoryBudget);
+  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
+  const resolver = await pointLocator(surface);
+  const r = surfaceOffset(surface, sourceSet(mesh, surface, resolver, o), D, { method: o.method, memoryBudget });
+  if (o.output) await writeCurveFile(o.output, r.curves);
+  const round = (x: number) => Math.round(x * 100) / 100;
+  const timings = { load: loadMs, prepare: round(r.timings.prepare), solve: round(r.timings.solve), curves: round(r.timings.curves) };
+  if (o.json) {
+    process.stdout.write(toJson({ mesh, method: o.method, unit: 'mesh units', distance: D, curves: r.curves.map(curveJson), output: o.output ?? null, timings }) + '\n');
+    return 0;
+  }
+  const L: string[] = [`${mesh}: offset at ${fmt(D, 9)} mesh units (${o.method} distance): ${r.curves.length} curve(s)`];
+  for (const l of resolver.landings) L.push(`  ${l.spec} landed at (${l.position.join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
+  r.curves.forEach((c, k) => L.push(`  curve ${k}: ${c.closed ? 'closed' : 'open'}, ${c.points.length} points, length ${fmt(c.length, 9)} mesh units`));
+  if (r.curves.length === 0) L.push('  nothing on the surface lies at that distance from the sources');
+  L.push(`  timings: load ${fmt(timings.load, 4)} ms, prepare ${fmt(timings.prepare, 4)} ms, solve ${fmt(timings.solve, 4)} ms, curves ${fmt(timings.curves, 4)} ms`);
+  if (o.output) L.push(`  wrote ${o.output}`);
+  L.push('  estimates for planning: verify on the machine before cutting; follow the shop\'s procedures and licensed practice');
+  process.stdout.write(L.join('\n') + '\n');
+  return 0;
+}
