@@ -26,7 +26,7 @@ import type { DistanceField } from './field.js';
 import type { SourceSet } from './sources.js';
 import type { SurfacePoint } from '../query/surface-point.js';
 import { checkSurfacePoint } from '../query/surface-point.js';
-import { next, prev } from '../mesh/topology.js';
+import { next, prev, nextOutgoing } from '../mesh/topology.js';
 import { usageError } from '../errors.js';
 import { layoutFace, pointSegmentDistance } from '../metric/layout.js';
 import { pointInLayout, facesOfPoint, commonFaces } from '../metric/face-points.js';
@@ -224,8 +224,8 @@ export function runEdgeDijkstra(
   via?: Int32Array,
 ): void {
   const L = mesh.edgeLength;
-  const { twin, tri, vertexHalfedge, edgeOf } = mesh.topology;
-  const maxSteps = tri.length;
+  const t = mesh.topology;
+  const { twin, tri, vertexHalfedge, edgeOf } = t;
   while (heap.size > 0) {
     const v = heap.pop();
     if (v === stopAt) break;
@@ -233,20 +233,19 @@ export function runEdgeDijkstra(
     const dv = dist[v]!;
     const start = vertexHalfedge[v]!;
     if (start < 0) continue;
-    let h = start, steps = 0;
-    for (;;) {
+    let last = start;
+    for (let h = start; h >= 0; h = nextOutgoing(t, start, h)) {
       const w = tri[next(h)]!, e = edgeOf[h]!;
       const nd = dv + L[e]!;
       if (!done[w] && nd < dist[w]! && nd <= maxD) { dist[w] = nd; if (via) via[w] = e; heap.push(w); }
-      const hp = prev(h);
-      if (twin[hp]! < 0) {
-        const u = tri[hp]!, eu = edgeOf[hp]!;
-        const nu = dv + L[eu]!;
-        if (!done[u] && nu < dist[u]! && nu <= maxD) { dist[u] = nu; if (via) via[u] = eu; heap.push(u); }
-        break;
-      }
-      h = twin[hp]!;
-      if (h === start || ++steps > maxSteps) break;
+      last = h;
+    }
+    // a boundary fan ends with an incoming boundary edge: its tail is a neighbour too
+    const hp = prev(last);
+    if (twin[hp]! < 0) {
+      const u = tri[hp]!, eu = edgeOf[hp]!;
+      const nu = dv + L[eu]!;
+      if (!done[u] && nu < dist[u]! && nu <= maxD) { dist[u] = nu; if (via) via[u] = eu; heap.push(u); }
     }
   }
 }

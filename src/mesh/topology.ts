@@ -93,22 +93,35 @@ export function isBoundaryEdge(t: Topology, e: number): boolean {
 }
 
 /**
+ * The walk round a vertex, one step: the half-edge leaving tail(h) after `h`,
+ * counter-clockwise (`twin[prev(h)]`), or −1 when the walk that began at
+ * `start` is over (back at `start`, or past the last face of a boundary fan).
+ * The one home of this walk; loops read
+ * `for (let h = start; h >= 0; h = nextOutgoing(t, start, h))`, allocation
+ * free, and end on every topology whose `twin` pairs half-edges (twin∘prev is
+ * then one-to-one, so the walk cannot enter a cycle that skips `start`).
+ * At a boundary vertex started from `vertexHalfedge[v]` the walk sweeps the
+ * whole fan; its last half-edge h has `twin[prev(h)] === -1`, and prev(h) is
+ * the incoming boundary edge.
+ */
+export function nextOutgoing(t: Topology, start: number, h: number): number {
+  const o = t.twin[prev(h)]!;
+  return o === start ? -1 : o;
+}
+
+/**
  * Calls `fn(h)` for every half-edge leaving `v`, counter-clockwise, starting at
- * `vertexHalfedge[v]`. Returns the number of half-edges visited (the valence
- * in faces).
+ * `vertexHalfedge[v]` ({@link nextOutgoing}). Returns the number of half-edges
+ * visited (the valence in faces).
  */
 export function forEachOutgoing(t: Topology, v: number, fn: (h: number) => void): number {
   const start = t.vertexHalfedge[v]!;
-  if (start < 0) return 0;
-  let h = start;
   let n = 0;
-  do {
+  // the count bound only matters for a topology whose twins do not pair up (never a built one)
+  for (let h = start; h >= 0 && n <= t.tri.length; h = nextOutgoing(t, start, h)) {
     fn(h);
     n++;
-    const p = t.twin[prev(h)]!;
-    if (p < 0) break;
-    h = p;
-  } while (h !== start && n <= t.tri.length);
+  }
   return n;
 }
 

@@ -26,9 +26,10 @@
 import type { SurfacePoint } from '../../query/surface-point.js';
 import { next, faceOf } from '../../mesh/topology.js';
 import type { ExactState } from './state.js';
-import { VIA_WINDOW, VIA_VERTEX, VIA_ROOT } from './state.js';
+import { VIA_WINDOW, VIA_VERTEX, VIA_ROOT, EVAL_NONE, EVAL_WINDOW, EVAL_CORNER, EVAL_ROOT, type EvalKind } from './codes.js';
 import type { Evaluation } from './evaluate.js';
-import { evaluateInFace, windowCrossing } from './evaluate.js';
+import { evaluateInFace } from './evaluate.js';
+import { windowCrossing } from './light.js';
 
 const REL = 1e-12;
 
@@ -67,14 +68,14 @@ export function tracePath(
   const out: SurfacePoint[] = [end];
   const t = s.t, W = s.win;
   let guard = 8 * (t.nf + t.nv) + 16;
-  const ev: Evaluation = { value: 0, kind: 0, id: 0, x: 0 };
+  const ev: Evaluation = { value: 0, kind: EVAL_NONE, id: 0, x: 0 };
   const b = [0, 0, 0];
-  let kind = best.kind, id = best.id, x = best.x;
+  let kind: EvalKind | number = best.kind, id = best.id, x = best.x;
   const P = [0, 0];
   const seen = new Set<number>();
   while (--guard > 0) {
-    if (kind === 3) { out.push(sourcePoint(s.pointRoots[id]!.root, out[out.length - 1]!)); break; }
-    if (kind === 1) {
+    if (kind === EVAL_ROOT) { out.push(sourcePoint(s.pointRoots[id]!.root, out[out.length - 1]!)); break; }
+    if (kind === EVAL_WINDOW) {
       const h = W.he[id]!;
       out.push(edgePoint(s, h, x));
       // continue from x in the face across h, skipping windows on x's own edge
@@ -86,11 +87,11 @@ export function tracePath(
       b[k] = x / L;
       b[(k + 1) % 3] = 1 - x / L;
       evaluateInFace(s, f, b, ev, g);
-      if (ev.kind === 0 || !(ev.value < Infinity)) break;
+      if (ev.kind === EVAL_NONE || !(ev.value < Infinity)) break;
       kind = ev.kind; id = ev.id; x = ev.x;
       continue;
     }
-    if (kind !== 2) break;
+    if (kind !== EVAL_CORNER) break;
     // at vertex id
     const v = id;
     const last = out[out.length - 1]!;
@@ -106,7 +107,7 @@ export function tracePath(
       else { P[0] = s.hc[2 * h]!; P[1] = s.hc[2 * h + 1]!; }
       // v is the third corner of the window's face, reached when the (then final) window was propagated
       x = crossing(s, via, P[0]!, P[1]!, true);
-      kind = 1; id = via;
+      kind = EVAL_WINDOW; id = via;
       continue;
     }
     if (type === VIA_ROOT) out.push(sourcePoint(via, { kind: 'vertex', vertex: v }));

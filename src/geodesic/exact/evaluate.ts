@@ -11,20 +11,16 @@
  *   on f: the distance from P to the segment.
  */
 import type { ExactState } from './state.js';
-import { pointSegmentDistance } from '../../metric/layout.js';
-
-/** √(x² + y²) without Math.hypot's overflow guard, which costs several times more in V8 (lengths here are far from 1e±154). Local to each hot module so it inlines. */
-function len2(x: number, y: number): number {
-  return Math.sqrt(x * x + y * y);
-}
-
+import { pointSegmentDistance, planarLength as norm } from '../../metric/layout.js';
+import { windowCrossing } from './light.js';
+import { EVAL_NONE, EVAL_WINDOW, EVAL_CORNER, EVAL_ROOT, WIN_DEAD, type EvalKind } from './codes.js';
 
 /** Best candidate found by {@link evaluateInFace}. */
 export interface Evaluation {
   /** Distance (Infinity when nothing reaches the face). */
   value: number;
-  /** 1 window, 2 corner vertex, 3 point root, 0 none. */
-  kind: number;
+  /** What the best candidate is (EVAL_ constants, codes.ts): a window, a corner vertex, a point root, or none. */
+  kind: EvalKind | number;
   /** Window id, vertex id or index into `pointRoots`. */
   id: number;
   /** For a window: the crossing on its half-edge, as a distance from the half-edge's tail. */
@@ -39,44 +35,31 @@ export function pointInFrame(s: ExactState, f: number, k: number, b: ArrayLike<n
   out[1] = bk2 * s.hc[2 * g + 1]!;
 }
 
-const P = [0, 0];
-
-/**
- * Where the light of a window reaching (px, py) (in the window's frame)
- * crossed the axis: towards the image for a point window, back along the
- * direction for a planar one.
- */
-export function windowCrossing(flat: number, sx: number, sy: number, px: number, py: number): number {
-  if (flat) return sy > 0 ? px - (sx * py) / sy : px;
-  const den = py - sy;
-  return den > 0 ? sx + ((px - sx) * -sy) / den : px;
-}
-
 /**
  * Evaluates the distance at barycentric point b of face f; writes the best
  * candidate to `out`. Windows on half-edge `skip` (if given) are ignored.
  */
 export function evaluateInFace(s: ExactState, f: number, b: ArrayLike<number>, out: Evaluation, skip = -1): Evaluation {
-  out.value = Infinity; out.kind = 0; out.id = -1; out.x = 0;
-  const W = s.win;
+  out.value = Infinity; out.kind = EVAL_NONE; out.id = -1; out.x = 0;
+  const W = s.win, P = s.scratch.point;
   for (let k = 0; k < 3; k++) for (let w = W.heHead[3 * f + k]!; w >= 0; w = W.nextOnHe[w]!) {
-    if (W.state[w] === 2 || 3 * f + k === skip) continue;
+    if (W.state[w] === WIN_DEAD || 3 * f + k === skip) continue;
     pointInFrame(s, f, k, b, P);
     const px = P[0]!, py = P[1]!;
     const sx = W.sx[w]!, sy = W.sy[w]!, flat = W.flat[w]!;
     let x = windowCrossing(flat, sx, sy, px, py);
     const b0 = W.b0[w]!, b1 = W.b1[w]!;
     x = x < b0 ? b0 : x > b1 ? b1 : x;
-    const d = (flat ? W.sigma[w]! + sx * x : W.sigma[w]! + len2(x - sx, sy)) + len2(px - x, py);
-    if (d < out.value) { out.value = d; out.kind = 1; out.id = w; out.x = x; }
+    const d = (flat ? W.sigma[w]! + sx * x : W.sigma[w]! + norm(x - sx, sy)) + norm(px - x, py);
+    if (d < out.value) { out.value = d; out.kind = EVAL_WINDOW; out.id = w; out.x = x; }
   }
   pointInFrame(s, f, 0, b, P);
   const L = s.hl[3 * f]!, cx = s.hc[6 * f]!, cy = s.hc[6 * f + 1]!;
   const cornerX = [0, L, cx], cornerY = [0, 0, cy];
   for (let k = 0; k < 3; k++) {
     const v = s.t.tri[3 * f + k]!;
-    const d = s.dist[v]! + len2(P[0]! - cornerX[k]!, P[1]! - cornerY[k]!);
-    if (d < out.value) { out.value = d; out.kind = 2; out.id = v; }
+    const d = s.dist[v]! + norm(P[0]! - cornerX[k]!, P[1]! - cornerY[k]!);
+    if (d < out.value) { out.value = d; out.kind = EVAL_CORNER; out.id = v; }
   }
   for (let i = 0; i < s.pointRoots.length; i++) {
     const r = s.pointRoots[i]!;
@@ -86,8 +69,8 @@ export function evaluateInFace(s: ExactState, f: number, b: ArrayLike<number>, o
     const qx = sb[3 * j + 1]! * L + sb[3 * j + 2]! * cx, qy = sb[3 * j + 2]! * cy;
     const d = sq
       ? pointSegmentDistance(P[0]!, P[1]!, qx, qy, sq[3 * j + 1]! * L + sq[3 * j + 2]! * cx, sq[3 * j + 2]! * cy)
-      : len2(P[0]! - qx, P[1]! - qy);
-    if (d < out.value) { out.value = d; out.kind = 3; out.id = i; }
+      : norm(P[0]! - qx, P[1]! - qy);
+    if (d < out.value) { out.value = d; out.kind = EVAL_ROOT; out.id = i; }
   }
   return out;
 }

@@ -72,6 +72,7 @@ import { runEvents } from './propagate.js';
 import { seedSources, rootPoint } from './seed.js';
 import { markPseudoSources } from './pseudo-sources.js';
 import { evaluateInFace } from './evaluate.js';
+import { EVAL_NONE, EVAL_CORNER, WIN_DEAD } from './codes.js';
 import type { Evaluation } from './evaluate.js';
 import { tracePath } from './backtrace.js';
 import { pathLength } from '../path.js';
@@ -185,16 +186,16 @@ export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: Exa
   const all = seedSources(s, sources);
   const bary = [0, 0, 0];
 
-  const ev: Evaluation = { value: Infinity, kind: 0, id: -1, x: 0 };
+  const ev: Evaluation = { value: Infinity, kind: EVAL_NONE, id: -1, x: 0 };
   const best = (p: SurfacePoint): Evaluation => {
-    const out: Evaluation = { value: Infinity, kind: 0, id: -1, x: 0 };
+    const out: Evaluation = { value: Infinity, kind: EVAL_NONE, id: -1, x: 0 };
     for (const f of facesOfPoint(t, p)) {
       baryInFace(t, f, p, bary);
       evaluateInFace(s, f, bary, ev);
       if (ev.value < out.value) Object.assign(out, ev);
     }
     if (p.kind === 'vertex' && s.dist[p.vertex]! <= out.value) {
-      Object.assign(out, { value: s.dist[p.vertex]!, kind: 2, id: p.vertex, x: 0 });
+      Object.assign(out, { value: s.dist[p.vertex]!, kind: EVAL_CORNER, id: p.vertex, x: 0 });
     }
     return out;
   };
@@ -289,7 +290,7 @@ function countTouched(s: ExactState): number {
   const seen = new Uint8Array(s.t.nf);
   const W = s.win;
   for (let h = 0; h < W.heHead.length; h++) {
-    for (let w = W.heHead[h]!; w >= 0; w = W.nextOnHe[w]!) if (W.state[w] !== 2) { seen[(h / 3) | 0] = 1; break; }
+    for (let w = W.heHead[h]!; w >= 0; w = W.nextOnHe[w]!) if (W.state[w] !== WIN_DEAD) { seen[(h / 3) | 0] = 1; break; }
   }
   for (const r of s.pointRoots) for (const f of r.faces) seen[f] = 1;
   let n = 0;

@@ -20,22 +20,12 @@
  */
 import { next, prev } from '../../mesh/topology.js';
 import type { ExactState } from './state.js';
-import { relaxVertex, VIA_WINDOW } from './state.js';
-import { addWindow } from './propagate.js';
+import { relaxVertex } from './state.js';
+import { VIA_WINDOW, PLANAR_WINDOW } from './codes.js';
+import { addWindow, REL } from './add-window.js';
+import { windowCrossing, unitRatio as unit } from './light.js';
+import { planarLength as norm } from '../../metric/layout.js';
 import { windsAround } from './winding.js';
-
-/** √(x² + y²) without Math.hypot's overflow guard, which costs several times more in V8 (lengths here are far from 1e±154). Local to each hot module so it inlines. */
-function len2(x: number, y: number): number {
-  return Math.sqrt(x * x + y * y);
-}
-
-
-const REL = 1e-12;
-
-function unit(num: number, den: number): number {
-  const u = num / den;
-  return u > 0 ? (u < 1 ? u : 1) : 0;
-}
 
 /** Propagates planar window w through its face (already marked propagated). */
 export function propagatePlanar(s: ExactState, w: number): void {
@@ -47,30 +37,30 @@ export function propagatePlanar(s: ExactState, w: number): void {
   if (s.prune && c + ux * b1 > (s.dist[A]! + b1) * (1 + REL)) return;
   if (s.prune && c + ux * b0 > (s.dist[B]! + (L - b0)) * (1 + REL)) return;
   const cx = s.hc[2 * h]!, cy = s.hc[2 * h + 1]!;
-  const xC = cx - (ux * cy) / uy;
+  const xC = windowCrossing(PLANAR_WINDOW, ux, uy, cx, cy); // uy > 0 here: cx − ux·cy/uy
   const hp = prev(h), hn = next(h);
   const xc = xC < b0 ? b0 : xC > b1 ? b1 : xC; // as for point windows: exact when lit, a bound otherwise
-  relaxVertex(s, t.tri[hp]!, c + ux * xc + len2(cx - xc, cy), VIA_WINDOW, w);
+  relaxVertex(s, t.tri[hp]!, c + ux * xc + norm(cx - xc, cy), VIA_WINDOW, w);
   const gp = t.twin[hp]!, sharp = s.geometry.sharp;
   // a front that would go once round a sharp vertex carries no shortest path (winding.ts)
   if (gp >= 0 && b0 < xC && !(sharp[A] && windsAround(W, t, w, gp, A))) {
     // A→C hit at s(x) = x·uy / (cx·uy − cy·ux)
     const den = cx * uy - cy * ux, x1 = b1 < xC ? b1 : xC;
-    const lca = len2(cx, cy), Lc = s.hl[gp]!;
+    const lca = norm(cx, cy), Lc = s.hl[gp]!;
     if (lca > 0) {
       const ex = cx / lca, ey = cy / lca;
-      addWindow(s, gp, unit(b0 * uy, den) * Lc, unit(x1 * uy, den) * Lc, ux * ex + uy * ey, -ux * ey + uy * ex, c, w, 1);
+      addWindow(s, gp, unit(b0 * uy, den) * Lc, unit(x1 * uy, den) * Lc, ux * ex + uy * ey, -ux * ey + uy * ex, c, w, PLANAR_WINDOW);
     }
   }
   const gn = t.twin[hn]!;
   if (gn >= 0 && b1 > xC && !(sharp[B] && windsAround(W, t, w, gn, B))) {
     // B→C hit at s(x) = (x − L)·uy / ((cx − L)·uy − cy·ux); the twin runs C→B
     const den = (cx - L) * uy - cy * ux, x0 = b0 > xC ? b0 : xC;
-    const dx = L - cx, dy = -cy, lbc = len2(dx, dy), Lc = s.hl[gn]!;
+    const dx = L - cx, dy = -cy, lbc = norm(dx, dy), Lc = s.hl[gn]!;
     if (lbc > 0) {
       const ex = dx / lbc, ey = dy / lbc;
       const s0 = unit((x0 - L) * uy, den), s1 = unit((b1 - L) * uy, den);
-      addWindow(s, gn, (1 - s0) * Lc, (1 - s1) * Lc, ux * ex + uy * ey, -ux * ey + uy * ex, c + ux * cx + uy * cy, w, 1);
+      addWindow(s, gn, (1 - s0) * Lc, (1 - s1) * Lc, ux * ex + uy * ey, -ux * ey + uy * ex, c + ux * cx + uy * cy, w, PLANAR_WINDOW);
     }
   }
 }
@@ -92,7 +82,7 @@ export function emitFromSegment(s: ExactState, f: number, bp: ArrayLike<number>,
     const k1 = (k + 1) % 3, k2 = (k + 2) % 3;
     const px = bp[k1]! * L + bp[k2]! * cx, py = bp[k2]! * cy;
     const qx = bq[k1]! * L + bq[k2]! * cx, qy = bq[k2]! * cy;
-    const dx = qx - px, dy = qy - py, len = len2(dx, dy);
+    const dx = qx - px, dy = qy - py, len = norm(dx, dy);
     if (!(len > REL * L)) continue;
     for (const sign of [1, -1]) {
       const ux = (-sign * dy) / len, uy = (sign * dx) / len;
@@ -109,7 +99,7 @@ export function emitFromSegment(s: ExactState, f: number, bp: ArrayLike<number>,
       else if (ux < 0) hi = Math.min(hi, px + (py * uy) / ux);
       if (!(hi - lo > REL * L)) continue;
       const c = -(ux * px + uy * py);
-      addWindow(s, gt, L - hi, L - lo, -ux, -uy, c + ux * L, -1 - root, 1);
+      addWindow(s, gt, L - hi, L - lo, -ux, -uy, c + ux * L, -1 - root, PLANAR_WINDOW);
     }
   }
 }

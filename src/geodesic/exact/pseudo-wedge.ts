@@ -38,10 +38,11 @@
  * rounding; there the extra windows make up for rays lost to rounding in
  * the thin faces (measured: columns of 1e-9-wide slivers in a flat grid).
  */
-import { next, prev } from '../../mesh/topology.js';
+import { next, prev, nextOutgoing } from '../../mesh/topology.js';
 import type { ExactState } from './state.js';
-import { VIA_VERTEX, VIA_WINDOW } from './state.js';
-import { addWindow } from './propagate.js';
+import { VIA_VERTEX, VIA_WINDOW } from './codes.js';
+import { addWindow } from './add-window.js';
+import { windowCrossing } from './light.js';
 
 /** Angular slack (radians) added on both sides of the wedge. */
 const SLACK = 1e-7;
@@ -50,31 +51,30 @@ const MIN_EXCESS = 1e-6;
 /** A fan with a corner angle below this (radians) lights whole: its layouts' directions may be off by more than SLACK. */
 const MIN_ANGLE = 1e-3;
 
-let fanH = new Int32Array(64);
-let fanT = new Float64Array(64);
-
-/** Walks v's fan into fanH/fanT; returns the count (negative when v is on the boundary: −count). */
+/**
+ * Walks v's fan into the run's scratch (fanH: the half-edges, fanT: the
+ * angle before each); returns the count, negative when v is on the boundary
+ * (−count).
+ */
 function walkFan(s: ExactState, v: number): number {
-  const t = s.t, ang = s.angle;
+  const t = s.t, ang = s.angle, sc = s.scratch;
   const start = t.vertexHalfedge[v]!;
-  let h = start, n = 0, th = 0;
-  for (;;) {
-    if (n === fanH.length) {
+  let n = 0, th = 0, last = start;
+  for (let h = start; h >= 0; h = nextOutgoing(t, start, h)) {
+    if (n === sc.fanH.length) {
       const a = new Int32Array(2 * n), b = new Float64Array(2 * n);
-      a.set(fanH); b.set(fanT); fanH = a; fanT = b;
+      a.set(sc.fanH); b.set(sc.fanT); sc.fanH = a; sc.fanT = b;
     }
-    fanH[n] = h; fanT[n] = th; n++;
+    sc.fanH[n] = h; sc.fanT[n] = th; n++;
     th += ang[h]!;
-    const o = t.twin[prev(h)]!;
-    if (o < 0) return -n;
-    h = o;
-    if (h === start || n > t.tri.length) return n;
+    last = h;
   }
+  return t.twin[prev(last)]! < 0 ? -n : n;
 }
 
 /** Direction θ0 of the last segment of v's recorded path, seen from v; NaN when unknown. */
 function arrival(s: ExactState, v: number, n: number, boundary: boolean): number {
-  const t = s.t, type = s.viaType[v], id = s.viaId[v]!;
+  const t = s.t, type = s.viaType[v], id = s.viaId[v]!, fanH = s.scratch.fanH, fanT = s.scratch.fanT;
   if (type === VIA_VERTEX) {
     for (let i = 0; i < n; i++) if (t.tri[next(fanH[i]!)] === id) return fanT[i]!;
     const last = fanH[n - 1]!;
@@ -87,9 +87,7 @@ function arrival(s: ExactState, v: number, n: number, boundary: boolean): number
   const W = s.win, hw = W.he[id]!, hv = prev(hw);
   const cx = s.hc[2 * hw]!, cy = s.hc[2 * hw + 1]!;
   const sx = W.sx[id]!, sy = W.sy[id]!;
-  let xC: number;
-  if (W.flat[id]) xC = sy > 0 ? cx - (sx * cy) / sy : cx;
-  else { const den = cy - sy; xC = den > 0 ? sx + ((cx - sx) * -sy) / den : cx; }
+  const xC = windowCrossing(W.flat[id]!, sx, sy, cx, cy);
   const b0 = W.b0[id]!, b1 = W.b1[id]!;
   const xc = xC < b0 ? b0 : xC > b1 ? b1 : xC;
   // angle at C from C→A = (−cx, −cy) to C→X = (xc − cx, −cy): cross = cy·xc, dot = cy² − cx·(xc − cx)
@@ -112,6 +110,7 @@ export function emitPseudoSource(s: ExactState, v: number, root: number): void {
   let n = walkFan(s, v);
   const boundary = n < 0;
   if (boundary) n = -n;
+  const fanH = s.scratch.fanH, fanT = s.scratch.fanT;
   const last = fanH[n - 1]!;
   const total = fanT[n - 1]! + s.angle[last]!;
   let wedge = !full && total - (boundary ? Math.PI : 2 * Math.PI) > MIN_EXCESS;

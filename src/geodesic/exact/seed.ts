@@ -18,12 +18,11 @@ import type { SourceSet } from '../sources.js';
 import { pointSegmentDistance } from '../../metric/layout.js';
 import { baryInFace, commonFaces, facesOfPoint } from '../../metric/face-points.js';
 import type { ExactState } from './state.js';
-import { addRoot, relaxVertex, VIA_ROOT, VIA_SOURCE } from './state.js';
+import { addRoot, relaxVertex } from './state.js';
+import { VIA_ROOT, VIA_SOURCE } from './codes.js';
 import { emitFromPoint } from './propagate.js';
 import { emitFromSegment } from './planar.js';
 import { pointInFrame } from './evaluate.js';
-
-const PA = [0, 0], PB = [0, 0];
 
 /** Coordinates of a surface point in each of `faces`, three per face. */
 function barys(s: ExactState, faces: number[], p: SurfacePoint): number[] {
@@ -38,6 +37,7 @@ function barys(s: ExactState, faces: number[], p: SurfacePoint): number[] {
 /** Seeds the state; returns the list of source points that roots refer to (`PointRoot.source`). */
 export function seedSources(s: ExactState, sources: SourceSet): SurfacePoint[] {
   const t = s.t;
+  const PA = [0, 0], PB = [0, 0];
   const all: SurfacePoint[] = [];
   // one spelling per point (a face point on a corner is that vertex, on an edge that edge point):
   // a vertex source must be a pseudo-source lighting its whole fan, an edge point both its faces
@@ -94,6 +94,7 @@ export function seedSources(s: ExactState, sources: SourceSet): SurfacePoint[] {
  */
 export function rootPoint(s: ExactState, all: SurfacePoint[], r: number, from: SurfacePoint): SurfacePoint {
   const pr = s.pointRoots.find((q) => q.root === r)!;
+  const PA = [0, 0], PB = [0, 0];
   if (!pr.bary2) return all[pr.source]!;
   const b = [0, 0, 0];
   let j = pr.faces.findIndex((f) => baryInFace(s.t, f, from, b));

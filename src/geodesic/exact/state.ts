@@ -11,19 +11,30 @@ import { EventQueue } from './queue.js';
 import { BucketQueue } from './bucket-queue.js';
 import { RunBudget } from './budget.js';
 import { maxPerHalfEdge } from './guard.js';
+import { TrimWork } from './trim.js';
+import type { Via } from './codes.js';
 
-/** How a vertex's distance bound was reached (`viaType`); see each constant. */
-export type Via = 0 | 1 | 2 | 3 | 4;
-/** No bound yet. */
-export const VIA_NONE = 0;
-/** Straight from a window: viaId = window id. */
-export const VIA_WINDOW = 1;
-/** Straight from a root inside one face: viaId = root id. */
-export const VIA_ROOT = 2;
-/** Along an edge from a settled vertex: viaId = that vertex. */
-export const VIA_VERTEX = 3;
-/** The vertex is itself a source. */
-export const VIA_SOURCE = 4;
+/** Working space of one run, so that the solver keeps no module state (runs may interleave). */
+export interface ExactScratch {
+  /** Intervals written by trimBoth: N's [b0, b1], then O's. */
+  readonly pair: Float64Array;
+  /** trimBoth's break points and piece sides. */
+  readonly trim: TrimWork;
+  /** A pseudo-source's fan (pseudo-wedge.ts): its half-edges, grown on demand. */
+  fanH: Int32Array;
+  /** The angle before each of them, from the first. */
+  fanT: Float64Array;
+  /** A point in a face frame (evaluate.ts). */
+  readonly point: number[];
+  /** addWindow's interval between its phases (add-window.ts). */
+  b0: number;
+  /** End of that interval. */
+  b1: number;
+  /** Whether a queued window on the edge may absorb the new one (add-window.ts). */
+  mergeable: boolean;
+  /** The window the new one is inserted after (add-window.ts). */
+  pred: number;
+}
 
 /** A point source off the vertices, or a segment of a curve source: the faces holding it and its coordinates in each. */
 export interface PointRoot {
@@ -53,7 +64,7 @@ export interface ExactState {
   readonly hc: Float64Array;
   /** Upper bound on the distance of each vertex; exact once settled. */
   readonly dist: Float64Array;
-  /** How each bound was reached (VIA_* constants). */
+  /** How each bound was reached (VIA_* constants, codes.ts). */
   readonly viaType: Uint8Array;
   /** Window, root or vertex id for `viaType`. */
   readonly viaId: Int32Array;
@@ -101,6 +112,8 @@ export interface ExactState {
   prune: boolean;
   /** Saddles emit windows only into their shadow wedge (pseudo-wedge.ts; default on, needs `prune`). */
   wedge: boolean;
+  /** The run's working space. */
+  readonly scratch: ExactScratch;
 }
 
 /**
@@ -143,6 +156,10 @@ export function createState(
     maxPerEdge: maxPerHalfEdge(t.nv),
     prune: true,
     wedge: true,
+    scratch: {
+      pair: new Float64Array(4), trim: new TrimWork(), fanH: new Int32Array(64), fanT: new Float64Array(64), point: [0, 0],
+      b0: 0, b1: 0, mergeable: false, pred: -1,
+    },
   };
   // per-vertex arrays of this run (dist, viaType, viaId, settled, pseudo) and the shared geometry
   const g = geometry;

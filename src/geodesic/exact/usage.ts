@@ -17,7 +17,8 @@
  */
 import { next } from '../../mesh/topology.js';
 import type { ExactState } from './state.js';
-import { axisValue } from './propagate.js';
+import { axisValue } from './light.js';
+import { WIN_DEAD } from './codes.js';
 
 /** Result of {@link windowUsage}. */
 export interface WindowUsage {
@@ -37,7 +38,7 @@ export function windowUsage(s: ExactState, samples = 5): WindowUsage {
   const n = Math.max(1, Math.floor(samples));
   let live = 0, used = 0;
   for (let w = 0; w < W.count; w++) {
-    if (W.state[w] === 2) continue;
+    if (W.state[w] === WIN_DEAD) continue;
     live++;
     const h = W.he[w]!, g = t.twin[h]!, L = s.hl[h]!;
     const dA = s.dist[t.tri[h]!]!, dB = s.dist[t.tri[next(h)]!]!;
@@ -52,7 +53,7 @@ export function windowUsage(s: ExactState, samples = 5): WindowUsage {
         if (e < 0) continue;
         const xe = side === 0 ? x : L - x;
         for (let o = W.heHead[e]!; o >= 0 && !beaten; o = W.nextOnHe[o]!) {
-          if (o === w || W.state[o] === 2 || xe < W.b0[o]! || xe > W.b1[o]!) continue;
+          if (o === w || W.state[o] === WIN_DEAD || xe < W.b0[o]! || xe > W.b1[o]!) continue;
           if (axisValue(W.flat[o]!, W.sx[o]!, W.sy[o]!, W.sigma[o]!, xe) < limit) beaten = true;
         }
       }

@@ -35,6 +35,7 @@
  */
 import type { Topology } from '../../mesh/topology.js';
 import { RunBudget, WINDOW_BYTES } from './budget.js';
+import { WIN_QUEUED } from './codes.js';
 
 export class WindowStore {
   /** Number of windows stored. */
@@ -57,9 +58,9 @@ export class WindowStore {
   parent: Int32Array;
   /** Next window on the same half-edge, −1 at the end. */
   nextOnHe: Int32Array;
-  /** 0 queued, 1 propagated, 2 dead (trimmed away before propagation). */
+  /** WIN_QUEUED, WIN_PROPAGATED or WIN_DEAD (trimmed away before propagation); codes.ts. */
   state: Uint8Array;
-  /** 1 for a planar window (see the module comment). */
+  /** POINT_WINDOW or PLANAR_WINDOW (see the module comment; codes.ts). */
   flat: Uint8Array;
   /** First window on each half-edge, −1 when none. */
   readonly heHead: Int32Array;
@@ -103,7 +104,7 @@ export class WindowStore {
     const w = this.count++;
     this.he[w] = he; this.b0[w] = b0; this.b1[w] = b1;
     this.sx[w] = sx; this.sy[w] = sy; this.sigma[w] = sigma; this.parent[w] = parent;
-    this.state[w] = 0;
+    this.state[w] = WIN_QUEUED;
     this.flat[w] = flat;
     this.heCount[he]++;
     if (after < 0) {
