@@ -45,7 +45,7 @@
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { DistanceField } from './field.js';
 import type { SourceSet } from './sources.js';
-import type { SurfacePoint } from '../query/surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
 import { analyzeCholesky, CholeskyFactor } from '../linalg/index.js';
 import { meanEdgeLength } from '../metric/intrinsic.js';
 import { heatTriangulation, MAX_SEPARATE_CURVES, type HeatOptions, type HeatStats, type HeatSolveStats } from './heat-setup.js';
@@ -178,7 +178,8 @@ export class HeatSolver {
     }
     const pinned = pinnedPoisson(p, Lv, Mv, inactive, comp.vertexComponent, comp.count);
     mats.push(patternMatrix(p, pinned.values));
-    const fs = CholeskyFactor.factorMany(mats, sym, { executor: opts.factorExecutor ?? null });
+    // heatD shares heatN's blocks wherever the boundary rows do not reach (multifrontal-pair.ts)
+    const fs = CholeskyFactor.factorMany(mats, sym, { executor: opts.factorExecutor ?? null, pairFirst: mats.length === 3 });
     const heatN = factorOrThrow(fs[0]!), heatD = mats.length === 3 ? factorOrThrow(fs[1]!) : null;
     // a singular pinned Poisson matrix (a component held together by faces without area): L + εM instead
     const pf = fs[mats.length - 1]!, shifted = !(pf instanceof CholeskyFactor);

@@ -8,6 +8,7 @@ import type { CscMatrix } from './csc.js';
 import type { CholeskySymbolic } from './symbolic.js';
 import { upLookingFactor } from './simplicial.js';
 import { multifrontalFactor, multifrontalWork } from './multifrontal.js';
+import { affectedBlocks, multifrontalPair } from './multifrontal-pair.js';
 import { supernodalLowerSolve, supernodalLowerTransposeSolve } from './solve-supernodal.js';
 import type { MultifrontalWork } from './multifrontal.js';
 import { lowerSolve, lowerTransposeSolve } from './solve.js';
@@ -41,6 +42,12 @@ export interface FactorManyOptions extends FactorOptions {
    * factored here, one after the other.
    */
   executor?: FactorExecutor | null;
+  /**
+   * Factor `mats[0]` and `mats[1]` together on this thread
+   * ({@link CholeskyFactor.factorPair}: the second shares the first's
+   * blocks where they agree); the rest as usual.
+   */
+  pairFirst?: boolean;
 }
 
 /**
@@ -82,6 +89,11 @@ export class CholeskyFactor {
   private readonly pivot = new Float64Array(1);
   private readonly pivotTolerance: number;
   private readonly minPivot: Float64Array | null;
+  /** Shared blocks (factorPair): block s at own[s] in Lx, or at valPtr[s] in base where own[s] < 0. */
+  private own: Int32Array | null = null;
+  private base: Float64Array | null = null;
+  /** Set on a factor whose blocks another factor reads: refactor would change both. */
+  private lent = false;
 
   private constructor(sym: CholeskySymbolic, opts: FactorOptions, Lx: Float64Array | null = null) {
     const n = sym.n;
@@ -141,16 +153,18 @@ export class CholeskyFactor {
         throw e;
       }
     };
-    if (!ex || mats.length < 2 || !sym.supernodal || sym.n < ex.minSize) return mats.map(one);
+    const first = opts.pairFirst && mats.length >= 2 ? 2 : 1;
+    const here = (): (CholeskyFactor | OrthodromeError)[] => (first === 2 ? CholeskyFactor.factorPair(mats[0]!, mats[1]!, sym, opts) : [one(mats[0]!)]);
+    if (!ex || mats.length <= first || !sym.supernodal || sym.n < ex.minSize) return [...here(), ...mats.slice(first).map(one)];
     const simd = opts.simd ?? true; // the thread decides as multifrontalWork does here: same kernels, same bits
-    const remote = mats.slice(1).map((A) => {
+    const remote = mats.slice(first).map((A) => {
       const f = new CholeskyFactor(sym, opts, ex.shared(sym.supernodal!.valPtr[sym.supernodal!.nsuper]!));
       const cx = ex.shared(sym.cRowIdx.length);
       const minPivot = f.minPivot ? ex.shared(sym.n) : null;
       f.load(A, cx, minPivot);
       return { f, wait: ex.start({ sym, cx, lx: f.Lx, minPivot, simd }) };
     });
-    const out: (CholeskyFactor | OrthodromeError)[] = [one(mats[0]!)];
+    const out = here();
     for (const { f, wait } of remote) {
       const r = wait();
       if (r.bad === -2) {
@@ -162,6 +176,53 @@ export class CholeskyFactor {
       out.push(r.bad >= 0 ? f.failure(r.bad) : f);
     }
     return out;
+  }
+
+  /**
+   * Factors two matrices of one analysis that differ in a few columns, in
+   * one sweep (multifrontal-pair.ts): the second factor stores only the
+   * blocks whose subtree sees a difference and reads the first's for the
+   * rest; both are bit-identical to separate factorizations. The first can
+   * then no longer be refactored (`USAGE`). Entry k is the factor or its
+   * `NUMERIC` error. Simplicial analyses and pivot floors factor the two
+   * separately.
+   */
+  static factorPair(A: CscMatrix, B: CscMatrix, sym: CholeskySymbolic, opts: FactorOptions = {}): (CholeskyFactor | OrthodromeError)[] {
+    const sn = sym.supernodal;
+    if (!sn || (opts.pivotTolerance ?? 0) > 0) return CholeskyFactor.factorMany([A, B], sym, { ...opts, pairFirst: false });
+    const fa = new CholeskyFactor(sym, opts);
+    fa.load(A, fa.Cx, null);
+    const cxB = new Float64Array(sym.cRowIdx.length);
+    fa.load(B, cxB, null);
+    const { own, total } = affectedBlocks(sn, sym.cColPtr, fa.Cx, cxB);
+    const fb = new CholeskyFactor(sym, opts, new Float64Array(total));
+    fb.own = own;
+    fb.base = fa.Lx;
+    fa.lent = true;
+    const workB = multifrontalWork(sym.n, sn, opts.simd ?? true);
+    const status = new Int32Array(2);
+    const pivots = new Float64Array(2);
+    multifrontalPair(sn, sym.cColPtr, sym.cRowIdx, fa.Cx, cxB, fa.Lx, fb.Lx, own, fa.mf!, workB, status, pivots);
+    fa.pivot[0] = pivots[0]!;
+    fb.pivot[0] = pivots[1]!;
+    if (status[0]! >= 0) {
+      // A failed: B's factorization stopped with it; redo B alone
+      const err = fa.failure(status[0]!);
+      let rb: CholeskyFactor | OrthodromeError;
+      try {
+        rb = CholeskyFactor.factor(B, sym, opts);
+      } catch (e) {
+        if (!(e instanceof Error) || (e as OrthodromeError).code !== 'NUMERIC') throw e;
+        rb = e as OrthodromeError;
+      }
+      return [err, rb];
+    }
+    return [fa, status[1]! >= 0 ? fb.failure(status[1]!) : fb];
+  }
+
+  /** Values of L stored by this factor (shared blocks excluded). */
+  get storedValues(): number {
+    return this.Lx.length;
   }
 
   /**
@@ -209,6 +270,7 @@ export class CholeskyFactor {
    * successful refactorization).
    */
   refactor(Alower: CscMatrix): void {
+    if (this.lent || this.own) throw usageError('refactor: this factor shares its blocks with another (factorPair)');
     const sym = this.symbolic;
     const minPivot = this.minPivot;
     this.load(Alower, this.Cx, minPivot);
@@ -235,8 +297,8 @@ export class CholeskyFactor {
     const perm = sym.perm;
     for (let k = 0; k < n; k++) x[k] = b[perm[k]!]!;
     if (sym.supernodal) {
-      supernodalLowerSolve(sym.supernodal, this.Lx, x);
-      supernodalLowerTransposeSolve(sym.supernodal, this.Lx, x);
+      supernodalLowerSolve(sym.supernodal, this.Lx, x, this.own, this.base);
+      supernodalLowerTransposeSolve(sym.supernodal, this.Lx, x, this.own, this.base);
     } else {
       lowerSolve(n, sym.lColPtr, this.Li, this.Lx, x);
       lowerTransposeSolve(n, sym.lColPtr, this.Li, this.Lx, x);
@@ -264,7 +326,9 @@ export class CholeskyFactor {
       const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
       for (let k = 0; k < nc; k++) {
         for (let r = k; r < nr; r++) {
-          const v = this.Lx[r < nc ? valPtr[s]! + ((r * (r + 1)) >> 1) + k : valPtr[s]! + ((nc * (nc + 1)) >> 1) + (r - nc) * nc + k]!;
+          const o = this.own === null || this.own[s]! < 0 ? valPtr[s]! : this.own[s]!;
+          const Lb = this.own === null || this.own[s]! >= 0 ? this.Lx : this.base!;
+          const v = Lb[r < nc ? o + ((r * (r + 1)) >> 1) + k : o + ((nc * (nc + 1)) >> 1) + (r - nc) * nc + k]!;
           if (v === 0 && r !== k) continue;
           ri.push(rows[r0 + r]!);
           vx.push(v);

@@ -21,6 +21,10 @@
  * sparse matrix computations", SIAM J. Matrix Anal. Appl. 15(1), 1994). The
  * skipped work would only add exact zeros, so the result is the same to the
  * bit.
+ *
+ * A factor that shares blocks with another (multifrontal-pair.ts) passes
+ * `own` and `base`: block s is then at own[s] in Lx, or, where own[s] < 0,
+ * at valPtr[s] in base.
  */
 import type { SupernodalStructure } from './supernodes.js';
 
@@ -29,7 +33,9 @@ import type { SupernodalStructure } from './supernodes.js';
  * Forward solve L y = x in place with the supernodal factor:
  * per supernode, y_s = L₁₁⁻¹ x_s, then x(R₂) −= L₂₁ y_s.
  */
-export function supernodalLowerSolve(sn: SupernodalStructure, Lx: Float64Array, x: Float64Array): void {
+export function supernodalLowerSolve(
+  sn: SupernodalStructure, LxOwn: Float64Array, x: Float64Array, own: Int32Array | null = null, base: Float64Array | null = null,
+): void {
   const { nsuper, superStart, rowPtr, rows, valPtr } = sn;
   for (let s = 0; s < nsuper; s++) {
     const f = superStart[s]!, nc = superStart[s + 1]! - f;
@@ -38,7 +44,11 @@ export function supernodalLowerSolve(sn: SupernodalStructure, Lx: Float64Array, 
     let k0 = 0;
     while (k0 < nc && x[f + k0] === 0) k0++;
     if (k0 === nc) continue;
-    const v0 = valPtr[s]!;
+    let Lx = LxOwn, v0 = valPtr[s]!;
+    if (own !== null) {
+      if (own[s]! >= 0) v0 = own[s]!;
+      else Lx = base!;
+    }
     // packed: diagonal row j at v0 + j(j+1)/2, row r ≥ nc at w0 + r·nc
     const w0 = v0 + ((nc * (nc + 1)) >> 1) - nc * nc;
     for (let j = k0; j < nc; j++) {
@@ -88,7 +98,9 @@ export function supernodalLowerSolve(sn: SupernodalStructure, Lx: Float64Array, 
  * Backward solve Lᵀ x = y in place: per supernode in reverse,
  * y_s −= L₂₁ᵀ x(R₂), then x_s = L₁₁⁻ᵀ y_s.
  */
-export function supernodalLowerTransposeSolve(sn: SupernodalStructure, Lx: Float64Array, x: Float64Array): void {
+export function supernodalLowerTransposeSolve(
+  sn: SupernodalStructure, LxOwn: Float64Array, x: Float64Array, own: Int32Array | null = null, base: Float64Array | null = null,
+): void {
   const { nsuper, superStart, rowPtr, rows, valPtr } = sn;
   // Every loop below runs downwards, so the whole pass reads Lx as one
   // descending stream (hardware prefetchers lose an ascending stream that
@@ -96,7 +108,11 @@ export function supernodalLowerTransposeSolve(sn: SupernodalStructure, Lx: Float
   for (let s = nsuper - 1; s >= 0; s--) {
     const f = superStart[s]!, nc = superStart[s + 1]! - f;
     const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
-    const v0 = valPtr[s]!;
+    let Lx = LxOwn, v0 = valPtr[s]!;
+    if (own !== null) {
+      if (own[s]! >= 0) v0 = own[s]!;
+      else Lx = base!;
+    }
     // packed: diagonal row j at v0 + j(j+1)/2, row r ≥ nc at w0 + r·nc
     const w0 = v0 + ((nc * (nc + 1)) >> 1) - nc * nc;
     // y_s −= L₂₁ᵀ x(R₂): four rows of L₂₁ per pass over y_s

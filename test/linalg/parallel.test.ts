@@ -77,3 +77,62 @@ describe('factorizations on worker threads', () => {
     expect(sameBits(xp, xs)).toBe(true);
   });
 });
+
+/** A with the rows and columns of `fixed` replaced by identity rows (Dirichlet rows). */
+function withIdentityRows(A: CscMatrix, fixed: (v: number) => boolean): CscMatrix {
+  const values = A.values.slice();
+  for (let j = 0; j < A.n; j++) {
+    for (let p = A.colPtr[j]!; p < A.colPtr[j + 1]!; p++) {
+      const i = A.rowIdx[p]!;
+      if (fixed(i) || fixed(j)) values[p] = i === j ? 1 : 0;
+    }
+  }
+  return { ...A, values };
+}
+
+describe('a pair of factorizations sharing blocks (factorPair)', () => {
+  const nx = 50;
+  const A = gridLaplacianLower(nx, nx, 0.01, true, 11);
+  const sym = analyzeCholesky(A);
+  const onRim = (v: number) => v % nx === 0 || v % nx === nx - 1 || v < nx || v >= nx * (nx - 1);
+  const b = Float64Array.from({ length: A.n }, (_, i) => Math.cos(0.37 * i));
+
+  for (const [name, B] of [
+    ['identity rows on the grid boundary', withIdentityRows(A, onRim)],
+    ['one interior column changed', scaledDiagonal(withIdentityRows(A, (v) => v === 1275), 1)],
+    ['the same matrix', A],
+  ] as const) {
+    it(`gives the factors and solutions of separate factorizations, bit for bit: ${name}`, () => {
+      const [pa, pb] = CholeskyFactor.factorPair(A, B, sym);
+      const sa = CholeskyFactor.factor(A, sym), sb = CholeskyFactor.factor(B, sym);
+      expect(pa).toBeInstanceOf(CholeskyFactor);
+      expect(pb).toBeInstanceOf(CholeskyFactor);
+      const fa = pa as CholeskyFactor, fb = pb as CholeskyFactor;
+      expect(sameBits(fa.lowerFactor().values, sa.lowerFactor().values)).toBe(true);
+      expect(sameBits(fb.lowerFactor().values, sb.lowerFactor().values)).toBe(true);
+      const x1 = new Float64Array(A.n), x2 = new Float64Array(A.n);
+      fb.solve(b, x1);
+      sb.solve(b, x2);
+      expect(sameBits(x1, x2)).toBe(true);
+      // the second stores only the blocks the difference reaches
+      expect(fb.storedValues).toBeLessThanOrEqual(sa.storedValues);
+      if (B === A) expect(fb.storedValues).toBe(0);
+      // the first lends its blocks: refactoring it would change the second
+      expect(() => fa.refactor(A)).toThrow(/shares its blocks/);
+    });
+  }
+
+  it('reports a failed pivot of either matrix like a separate factorization', () => {
+    const bad = withIdentityRows(A, onRim);
+    const vals = bad.values.slice();
+    for (let p = A.colPtr[777]!; p < A.colPtr[778]!; p++) if (A.rowIdx[p] === 777) vals[p] = -2;
+    const B = { ...A, values: vals };
+    const [fa, fb] = CholeskyFactor.factorPair(A, B, sym);
+    expect(fa).toBeInstanceOf(CholeskyFactor);
+    expect(fb).not.toBeInstanceOf(CholeskyFactor);
+    expect(() => CholeskyFactor.factor(B, sym)).toThrow((fb as Error).message);
+    const [ga, gb] = CholeskyFactor.factorPair(B, A, sym);
+    expect(ga).not.toBeInstanceOf(CholeskyFactor);
+    expect(gb).toBeInstanceOf(CholeskyFactor);
+  });
+});
