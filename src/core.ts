@@ -25,8 +25,8 @@ export { inspectSurface, inspectProblems, type InspectReport } from './report/in
 export { curvatureSummary, type CurvatureResult } from './report/curvature.js';
 
 // points on the surface
-export type { SurfacePoint } from './query/surface-point.js';
-export { formatSurfacePoint } from './query/surface-point.js';
+export type { SurfacePoint } from './mesh/surface-point.js';
+export { formatSurfacePoint } from './mesh/surface-point.js';
 export { pointLocator, type PointResolver, type Landing } from './api/locate.js';
 
 // distances

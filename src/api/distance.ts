@@ -10,7 +10,7 @@
  * read back from the solver afterwards.
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
-import type { SurfacePoint } from '../query/surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
 import { boundaryCurves, type SourceSet } from '../geodesic/sources.js';
 import type { DistanceMethod } from '../geodesic/field.js';
 import { prepareDistance, type DistanceOptions, type DistanceResult, type DistanceSolver, type SolveOptions } from '../geodesic/solver.js';

@@ -4,7 +4,7 @@
  * `geodesic/cover.ts` (a non-orientable surface is traced on its double
  * cover), with the path's 3D polyline.
  */
-import type { SurfacePoint } from '../query/surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
 import { shortestPathThrough, type PathMethod, type WaypointPath } from '../geodesic/waypoints.js';
 import { coverPathThrough } from '../geodesic/cover.js';
 import { pathPolyline } from '../geodesic/path.js';

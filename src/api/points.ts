@@ -9,7 +9,7 @@
 export {
   parsePointSpec, formatSurfacePoint, checkSurfacePoint, canonicalSurfacePoint, surfacePointPosition, SNAP_TOLERANCE, BARY_SUM_TOLERANCE,
   type SurfacePoint, type PointSpec,
-} from '../query/surface-point.js';
+} from '../mesh/surface-point.js';
 export { SurfaceLocator, closestOnTriangle, type SnapResult } from '../query/snap.js';
 export { PointResolver, type Landing } from '../query/resolve.js';
 export { splitGroups, vertexCopies } from '../query/copies.js';

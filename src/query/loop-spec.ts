@@ -22,7 +22,7 @@ import { inputError, usageError } from '../errors.js';
 import type { Topology } from '../mesh/topology.js';
 import { next } from '../mesh/topology.js';
 import { namedBoundaryLoops, type NamedLoop } from '../mesh/boundary.js';
-import type { SurfacePoint } from './surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
 
 /** A parsed loop spec. */
 export type LoopSpec =

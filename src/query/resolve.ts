@@ -10,7 +10,7 @@
  * ({@link PointResolver.foldCopies}).
  */
 import type { Topology } from '../mesh/topology.js';
-import { checkSurfacePoint, parsePointSpec, type SurfacePoint } from './surface-point.js';
+import { checkSurfacePoint, parsePointSpec, type SurfacePoint } from '../mesh/surface-point.js';
 import { SurfaceLocator, type SnapResult } from './snap.js';
 import { vertexCopies } from './copies.js';
 import { isLoopSpec, resolveLoopSpec } from './loop-spec.js';

@@ -19,7 +19,7 @@ import { BufferAttribute, BufferGeometry, DoubleSide, Ray, Vector3 } from 'three
 import { MeshBVH } from 'three-mesh-bvh';
 import type { Topology } from '../mesh/topology.js';
 import { forEachOutgoing } from '../mesh/topology.js';
-import type { SurfacePoint } from './surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
 import { usageError } from '../errors.js';
 
 /** A snapped point: the surface point, its position and its distance from the query (for a vertical drop: horizontal distance, 0 up to rounding). */
