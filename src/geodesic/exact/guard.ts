@@ -37,7 +37,28 @@
 import { numericError } from '../../errors.js';
 import type { OrthodromeError } from '../../errors.js';
 import { next } from '../../mesh/topology.js';
-import type { ExactState } from './state.js';
+import type { Topology } from '../../mesh/topology.js';
+import type { WindowStore } from './windows.js';
+
+/**
+ * The parts of a run the guard reads (an `ExactState` has them; named here
+ * so that state.ts, which reads {@link maxPerHalfEdge}, and this file do not
+ * import each other).
+ */
+export interface GuardedRun {
+  /** The mesh's topology. */
+  readonly t: Topology;
+  /** The run's windows. */
+  readonly win: WindowStore;
+  /** Roots registered so far. */
+  readonly nRoots: number;
+  /** Point and segment roots. */
+  readonly pointRoots: readonly unknown[];
+  /** Which bound the run passed ('' while it has passed none). */
+  readonly diverged: '' | 'edge' | 'events';
+  /** The half-edge that passed its window cap. */
+  readonly divergedAt: number;
+}
 
 /** Floor of the per-half-edge window cap (see the module comment). */
 export const MIN_PER_HALF_EDGE = 1 << 12;
@@ -48,12 +69,12 @@ export function maxPerHalfEdge(nv: number): number {
 }
 
 /** Events a run may process with `windows` made (see the module comment); past it the run is looping. */
-export function eventBound(s: ExactState): number {
+export function eventBound(s: GuardedRun): number {
   return 2 * (4 * s.win.count + 9 * s.t.nf + 16 * (s.nRoots + s.pointRoots.length)) + 4096;
 }
 
 /** The NUMERIC error of a run stopped by one of the bounds (`s.diverged`). */
-export function divergedError(s: ExactState, events: number): OrthodromeError {
+export function divergedError(s: GuardedRun, events: number): OrthodromeError {
   const t = s.t, h = s.divergedAt;
   const what = s.diverged === 'edge'
     ? `${s.win.heCount[h]} windows on the edge between vertices ${t.tri[h]} and ${t.tri[next(h)]}, more than a correct run makes on one edge`

@@ -13,7 +13,6 @@
  * windows.
  */
 import type { Topology } from '../../mesh/topology.js';
-import type { ExactState } from './state.js';
 
 /** Relative slack on the angle-sum tests. */
 const SLACK = 1e-9;
@@ -34,8 +33,16 @@ export function saddleFlags(t: Topology, ang: Float64Array, out: Uint8Array): nu
   return n;
 }
 
-/** Marks the run's pseudo-sources (from its geometry) and makes the corner angles available to it; returns how many. */
-export function markPseudoSources(s: ExactState): number {
+/**
+ * Marks the run's pseudo-sources (from its geometry, geometry.ts) and makes
+ * the corner angles available to it; returns how many. Takes the parts of
+ * the run state it touches (an `ExactState` has them), so this file does not
+ * depend on state.ts, which depends on the geometry, which reads
+ * {@link saddleFlags} here.
+ */
+export function markPseudoSources(s: {
+  angle: Float64Array; readonly pseudo: Uint8Array; readonly geometry: { readonly angle: Float64Array; readonly saddle: Uint8Array; readonly saddles: number };
+}): number {
   s.angle = s.geometry.angle;
   s.pseudo.set(s.geometry.saddle);
   return s.geometry.saddles;
