@@ -23,6 +23,7 @@ import { isLoopSpec, parseLoopSpec, resolveLoopSpec, loopCurves } from '../../sr
 import { namedBoundaryLoops } from '../../src/mesh/boundary.js';
 import { twoHolePlate, annulus } from '../fixtures/holed-plates.js';
 import { icosphere } from '../fixtures/shapes.js';
+import { runCli } from '../cli/run-cli.js';
 
 const surf = (positions: Float64Array, triangles: ArrayLike<number>, name = 'plate.obj') => surfaceFromMeshData(meshFromTriangles(positions, triangles, name));
 
@@ -159,5 +160,30 @@ describe('distance from a loop', () => {
     const mid = Array.from({ length: n }, (_, i) => a[id(i, 1)]!);
     expect(Math.min(...mid)).toBeGreaterThan(0.45); // the centre line is ≈ 0.5 from the rim
     expect(Math.max(...mid)).toBeLessThan(0.55);
+  });
+});
+
+describe('the command: distance --from loop:…', () => {
+  it('PX-7 cup: loop:1, loop@0,0,0 and the hole rim typed as a --from-curve of its vertices give the same distance; a bad id is exit 2', () => {
+    const mesh = 'meshes/px7-cup.ply';
+    const ins = runCli(['inspect', mesh, '--json']);
+    expect(ins.code).toBe(0);
+    const loops = JSON.parse(ins.stdout).boundaryLoopList as { id: number; vertexList: number[]; point: { vertex: number; position: number[] } }[];
+    expect(loops.length).toBe(2);
+    const rim = loops[1]!.vertexList; // the hole: the shorter loop, round the origin
+    expect(Math.hypot(loops[1]!.point.position[0]!, loops[1]!.point.position[1]!)).toBeLessThan(10);
+    const target = `v:${loops[0]!.point.vertex}`; // a point on the outer rim
+    const byLoop = runCli(['distance', mesh, '--from', 'loop:1', '--from', 'loop@0,0,0', '--each', '--to', target, '--json']);
+    expect(byLoop.code).toBe(0);
+    const sets = JSON.parse(byLoop.stdout).sets as { targets: { distance: number }[] }[];
+    const curve = [...rim, rim[0]!].map((v) => `v:${v}`).join(';');
+    const byCurve = runCli(['distance', mesh, '--from-curve', curve, '--to', target, '--json']);
+    expect(byCurve.code).toBe(0);
+    const d = JSON.parse(byCurve.stdout).targets[0].distance as number;
+    expect(d).toBeGreaterThan(0);
+    expect(sets.map((x) => x.targets[0]!.distance)).toEqual([d, d]);
+    const bad = runCli(['distance', mesh, '--from', 'loop:2', '--to', target]);
+    expect(bad.code).toBe(2);
+    expect(bad.stderr.trim().split('\n')).toEqual([`orthodrome: ${mesh}: --from loop:2: no boundary loop 2 (the mesh has 2: ids 0 to 1; 'inspect' lists them)`]);
   });
 });
