@@ -14,18 +14,21 @@
  * - at a vertex: normal = Σ (corner angle × unit face normal) over the fan
  *   (angle-weighted vertex normal, G. Thürmer & C. A. Wüthrich, "Computing
  *   vertex normals from polygonal facets", J. Graphics Tools 3(1), 1998).
- *   Each fan edge projected into the plane gives an angle there; a direction
- *   between the projections of the two edges of a corner of angle α, at a
- *   fraction q of the projected angle between them, becomes the direction
- *   at q·α from the first edge inside that face (piecewise linear in the
- *   angle, so the direction of an edge's projection walks along the edge).
- *   When no corner holds the direction (a fan folded over in projection) the
- *   angle from the first projected edge is scaled by θ/2π instead. At a
- *   boundary vertex, a direction in no corner points off the surface.
+ *   Each fan edge is turned into the plane by the rotation that takes the
+ *   mean normal of its faces to n (the smallest rotation between the two
+ *   normals), which gives it an angle there; a direction between the images
+ *   of the two edges of a corner of angle α, at a fraction q of the angle
+ *   between them, becomes the direction at q·α from the first edge inside
+ *   that face (piecewise linear in the angle, so the image of an edge walks
+ *   along the edge). Where faces meet in one plane the rotation keeps their
+ *   angles, so on a developable fan (a prism's side) the heading is exact.
+ *   When no corner holds the direction (a fan folded over) the angle from
+ *   the first edge is scaled by θ/2π instead. At a boundary vertex, a
+ *   direction in no corner points off the surface.
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import { next, prev, faceOf } from '../mesh/topology.js';
-import type { SurfacePoint } from '../query/surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
 import { layoutAlong } from '../metric/layout.js';
 import { cornerAngleAt, type WalkStart } from './straightest-walk.js';
 
@@ -130,30 +133,53 @@ export function walkStartOf(m: IntrinsicMesh, P: Float64Array, p: SurfacePoint, 
   return vertexStart(m, P, p.vertex, n, d);
 }
 
+/**
+ * `a` turned by the rotation that takes the unit vector `from` to the unit
+ * vector `to` about their common perpendicular (Rodrigues' formula, with
+ * w = from × to, c = from · to: a·c + w × a + w (w · a) / (1 + c)); `a`
+ * projected onto the plane normal to `to` when the two are opposite.
+ */
+export function rotateInto(a: Vec3, from: Vec3, to: Vec3): Vec3 {
+  const c = dot(from, to);
+  if (!(c > -1 + 1e-9)) return projectOut(a, to);
+  const w = cross(from, to), wa = cross(w, a), k = dot(w, a) / (1 + c);
+  return [a[0] * c + wa[0] + w[0] * k, a[1] * c + wa[1] + w[1] * k, a[2] * c + wa[2] + w[2] * k];
+}
+
 /** {@link walkStartOf} at a vertex (see the module comment for the map from the plane to the fan). */
 function vertexStart(m: IntrinsicMesh, P: Float64Array, v: number, n: Vec3, d: Vec3): WalkStart | null {
-  const t = m.topology, fan = fanOf(t, v), scratch = new Float64Array(3);
+  const t = m.topology, fan = fanOf(t, v), k = fan.length, scratch = new Float64Array(3);
   const boundary = t.twin[fan[0]!]! < 0;
   const pv = at(P, v);
-  const r1 = unit(projectOut(sub(at(P, t.tri[next(fan[0]!)]!), pv), n)) ?? unit(projectOut(d, n));
+  const normals = fan.map((h) => faceNormal(t, P, faceOf(h)));
+  // the fan's edges from v (a boundary vertex has one more: the far side of its last face), each turned into the tangent plane
+  const ends = fan.map((h) => t.tri[next(h)]!);
+  if (boundary) ends.push(t.tri[prev(fan[k - 1]!)]!);
+  const dirs = ends.map((w, i) => {
+    const nl = i > 0 ? normals[i - 1] : boundary ? null : normals[k - 1];
+    const nr = i < k ? normals[i] : null;
+    const mean = nl && nr ? unit([nl[0] + nr[0], nl[1] + nr[1], nl[2] + nr[2]]) : nl ?? nr ?? null;
+    const e = sub(at(P, w), pv);
+    return projectOut(mean ? rotateInto(e, mean, n) : e, n);
+  });
+  const r1 = unit(dirs[0]!) ?? unit(projectOut(d, n));
   if (!r1) return null;
   const r2 = cross(n, r1);
   const angleOf = (q: Vec3) => Math.atan2(dot(q, r2), dot(q, r1));
   const delta = angleOf(d);
   const alpha = fan.map((h) => cornerAngleAt(m, h, scratch));
   const start = (h: number, gamma: number): WalkStart => ({ base: h, x: 0, y: 0, dx: Math.cos(gamma), dy: Math.sin(gamma), entry: 'vertex' });
-  for (let i = 0; i < fan.length; i++) {
-    const h = fan[i]!;
-    const a = angleOf(sub(at(P, t.tri[next(h)]!), pv)), c = angleOf(sub(at(P, t.tri[prev(h)]!), pv));
+  for (let i = 0; i < k; i++) {
+    const a = angleOf(dirs[i]!), c = angleOf(dirs[(i + 1) % dirs.length]!);
     const width = mod2pi(c - a);
     let off = mod2pi(delta - a);
     if (off > TWO_PI - 1e-12) off = 0;
-    if (width < Math.PI && off <= width + 1e-12) return start(h, Math.min(1, width > 0 ? off / width : 0) * alpha[i]!);
+    if (width < Math.PI && off <= width + 1e-12) return start(fan[i]!, Math.min(1, width > 0 ? off / width : 0) * alpha[i]!);
   }
   if (boundary) return null;
-  // a fan folded over in projection: scale the angle from the first edge by θ / 2π
+  // a fan folded over in the plane: scale the angle from the first edge by θ / 2π
   const theta = alpha.reduce((s, x) => s + x, 0);
   let phi = (mod2pi(delta) / TWO_PI) * theta, j = 0;
-  while (j < fan.length - 1 && phi >= alpha[j]!) phi -= alpha[j++]!;
+  while (j < k - 1 && phi >= alpha[j]!) phi -= alpha[j++]!;
   return start(fan[j]!, Math.min(Math.max(phi, 0), alpha[j]!));
 }

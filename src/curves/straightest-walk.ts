@@ -124,21 +124,19 @@ export function cornerAngleAt(m: IntrinsicMesh, h: number, scratch: Float64Array
 }
 
 /**
- * Walks a straightest line of intrinsic length up to `length` from `start`,
- * crossing at most `maxSteps` faces. `positions` (x, y, z per vertex) only
- * map the points to 3D; the walk itself uses the edge lengths of `m`.
+ * Walks a straightest line of intrinsic length up to `length` from `start`
+ * (3D point `origin`), crossing at most `maxSteps` faces. `positions` (x, y,
+ * z per vertex) only map the points to 3D; the walk itself uses the edge
+ * lengths of `m`.
  */
-export function walkStraightest(m: IntrinsicMesh, positions: Float64Array, start: WalkStart, length: number, maxSteps: number): WalkResult {
+export function walkStraightest(m: IntrinsicMesh, positions: Float64Array, start: WalkStart, origin: ArrayLike<number>, length: number, maxSteps: number): WalkResult {
   const t = m.topology, L = m.edgeLength, tri = t.tri;
   const w = new Walk(Math.min(maxSteps + 2, 1 << 16));
   const lay = w.lay;
   let base = start.base, x = start.x, y = start.y, dx = start.dx, dy = start.dy, entry = start.entry;
   let walked = 0, steps = 0, passages = 0;
 
-  // the start point in 3D
-  layoutAlong(m, base, lay, 4);
-  lay[0] = 0; lay[1] = 0; lay[2] = L[t.edgeOf[base]!]!; lay[3] = 0;
-  pushLayoutPoint(w, positions, tri, base, lay, x, y);
+  w.push(origin[0]!, origin[1]!, origin[2]!);
 
   const finish = (status: WalkStatus, end: WalkResult['end']): WalkResult => ({
     status, points: w.pts.slice(0, 3 * w.n), length: walked, steps, vertexPassages: passages, face: faceOf(base), end,
@@ -275,10 +273,11 @@ function pushLayoutPoint(w: Walk, P: Float64Array, tri: Uint32Array, base: numbe
   const b = w.tri3;
   layoutBary(lay, x, y, b);
   const a = 3 * tri[base]!, c = 3 * tri[next(base)]!, d = 3 * tri[prev(base)]!;
+  // A + b1·(B − A) + b2·(C − A): differences first, so map coordinates keep their last digits
   w.push(
-    b[0]! * P[a]! + b[1]! * P[c]! + b[2]! * P[d]!,
-    b[0]! * P[a + 1]! + b[1]! * P[c + 1]! + b[2]! * P[d + 1]!,
-    b[0]! * P[a + 2]! + b[1]! * P[c + 2]! + b[2]! * P[d + 2]!,
+    P[a]! + b[1]! * (P[c]! - P[a]!) + b[2]! * (P[d]! - P[a]!),
+    P[a + 1]! + b[1]! * (P[c + 1]! - P[a + 1]!) + b[2]! * (P[d + 1]! - P[a + 1]!),
+    P[a + 2]! + b[1]! * (P[c + 2]! - P[a + 2]!) + b[2]! * (P[d + 2]! - P[a + 2]!),
   );
 }
 

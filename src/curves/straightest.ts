@@ -30,7 +30,7 @@
  */
 import { intrinsicFromPositions, type IntrinsicMesh } from '../metric/intrinsic.js';
 import type { Topology } from '../mesh/topology.js';
-import { checkSurfacePoint, canonicalSurfacePoint, surfacePointPosition, type SurfacePoint } from '../query/surface-point.js';
+import { checkSurfacePoint, canonicalSurfacePoint, surfacePointPosition, type SurfacePoint } from '../mesh/surface-point.js';
 import { usageError, limitError, numericError } from '../errors.js';
 import { walkStraightest } from './straightest-walk.js';
 import { tangentNormal, walkStartOf, unit, projectOut, cross, type Vec3 } from './straightest-start.js';
@@ -177,7 +177,7 @@ export function straightestLine(surface: StraightSurface, start: SurfacePoint, o
     const q = surfacePointPosition(p, t, positions) as Float64Array;
     return { ...base, points: Float64Array.from(q), length: 0, stoppedAtBoundary: true, end: p, steps: 0, vertexPassages: 0 };
   }
-  const r = walkStraightest(mesh, positions, ws, length, maxSteps);
+  const r = walkStraightest(mesh, positions, ws, surfacePointPosition(p, t, positions), length, maxSteps);
   if (r.status === 'steps') {
     throw limitError(`the straightest line crossed ${maxSteps} faces after ${r.length} of ${length} mesh units, the step limit; raise maxSteps (--max-steps)`);
   }

@@ -177,6 +177,14 @@ describe('a polyhedral prism unrolls: the line is straight in the development (e
     expectUnrolledLine(r);
   });
 
+  it('from a vertex (angle-weighted normal, fan edges turned into the tangent plane): straight in the development', () => {
+    for (const v of [2 * 5 + 1, 4 * 5 + 4]) { // corners with and without diagonals ending there
+      const r = straightestLine(S, { kind: 'vertex', vertex: v }, { heading: alpha, reference: [0, 0, 1], length: 3 });
+      expect(r.stoppedAtBoundary).toBe(false);
+      expectUnrolledLine(r);
+    }
+  });
+
   it('from a vertex at heading 90°: round the ring through every vertex (θ/2 = π on each side), closing after the perimeter', () => {
     const v = 3 * 5 + 2; // ring 3, corner 2
     const r = straightestLine(S, { kind: 'vertex', vertex: v }, { heading: 90, reference: [0, 0, 1], length: perim });
