@@ -59,7 +59,8 @@ export interface NamedLoop {
    * half-edges are not boundary and are left out: consecutive half-edges
    * then meet at two copies of one vertex, and since crossing a seam
    * reverses the orientation, the loop runs along some half-edges from tip
-   * to tail.
+   * to tail (and its direction is that of the first boundary half-edge
+   * found: such a surface has no "left").
    */
   halfedges: Int32Array;
   /**
