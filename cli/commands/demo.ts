@@ -10,6 +10,7 @@ import { fileURLToPath } from 'node:url';
 import { loadSurface } from '../load.js';
 import {
   boundarySources, curvatureSummary, encodeRoute, fieldStats, inspectSurface, pointLocator, prepareDistances, shortestPath, writeFileAtomic,
+  surfaceIsolines, distanceScalarField, surfaceOffset, writeCurves,
 } from '../../src/index.js';
 import { writeVertexColumns } from '../output.js';
 import { action, fmt } from '../run.js';
@@ -81,6 +82,11 @@ export function registerDemo(program: Command): void {
         say(`  exact (window propagation): to the summit cairn ${fmt(exact.at(summit), 6)} m, to the saddle ${fmt(exact.at(saddle), 6)} m; farthest point of the scan ${fmt(ks.max, 6)} m`);
         say(`  heat method: to the summit cairn ${fmt(heat.at(summit), 6)} m (mean difference from exact ${fmt((100 * diff) / Math.max(n, 1), 3)}%), prepared in ${fmt(heatSolver.prepareMs, 3)} ms, solved in ${fmt(heat.solveMs, 3)} ms`);
         say(`  → ${rel(kdFile)}`);
+        const iso = surfaceIsolines(knoll.surface, distanceScalarField(exact), { every: 25, bands: true });
+        const kiFile = join(out, 'knoll-isolines-25m.geojson');
+        const bandPolys = iso.bands!.flatMap((b) => b.polygons.map((p) => ({ rings: [p.outer, ...p.holes], properties: { levelFrom: b.lower, levelTo: b.upper, area: b.area, planArea: b.planArea } })));
+        await writeFileAtomic(kiFile, writeCurves('geojson', iso.curves, { units: 'm', polygons: bandPolys }));
+        say(`  isolines every 25 m of walking distance: ${iso.curves.length} curves at ${iso.levels.join(', ')} m, bands with plan areas ${iso.bands!.map((b) => fmt(b.planArea, 4)).join(', ')} m² → ${rel(kiFile)}`);
         say('  (planning aid only: see the terrain caution below)\n');
 
         // 3. part: health and curvature
@@ -106,6 +112,10 @@ export function registerDemo(program: Command): void {
         const route = shortestPath(cup.surface, stops);
         const cpFile = join(out, 'cup-cut-path.obj');
         await writeFileAtomic(cpFile, encodeRoute(route, 'obj', 'px7_cut_path'));
+        const trim = surfaceOffset(cup.surface, { points: [], curves: cPoints.resolveLoop('loop@-46,0,26', 'flange rim') }, 8);
+        const ctFile = join(out, 'cup-trim-line-8mm.obj');
+        await writeFileAtomic(ctFile, writeCurves('obj', trim.curves, { units: 'mm', comment: 'PX-7 trim line 8 mm inside the flange rim (planning estimate)' }));
+        say(`  trim line 8 mm on the surface inside the flange rim: ${trim.curves.map((c) => `${c.closed ? 'closed' : 'open'}, ${fmt(c.length, 6)} mm`).join('; ')} → ${rel(ctFile)}`);
         say(`  exact shortest cut path hole edge → wall top → flange rim: ${fmt(route.length, 6)} mm (legs ${route.legs.map((l) => fmt(l.length, 5)).join(' + ')} mm), ${route.path.points.length} points → ${rel(cpFile)}`);
         say(TERRAIN_CAUTION);
         say(MACHINING_CAUTION);

@@ -14,7 +14,9 @@ describe('demo', () => {
     const out = mkdtempSync(join(tmpdir(), 'orthodrome-demo-'));
     const r = runCli(['demo', '--out', out]);
     expect(r.code).toBe(0);
-    expect(readdirSync(out).sort()).toEqual(['cup-curvature.csv', 'cup-cut-path.obj', 'cup-edge-distance.csv', 'knoll-curvature.ply', 'knoll-distance.ply']);
+    expect(readdirSync(out).sort()).toEqual([
+      'cup-curvature.csv', 'cup-cut-path.obj', 'cup-edge-distance.csv', 'cup-trim-line-8mm.obj', 'knoll-curvature.ply', 'knoll-distance.ply', 'knoll-isolines-25m.geojson',
+    ]);
     expect(r.stdout).toMatch(/Gauss–Bonnet residual -?\d(\.\d+)?e-1\d rad/);
     // heat vs exact on the hillside: the printed mean difference stays within the heat method's usual ~1–2 %
     const m = /mean difference from exact ([\d.]+)%/.exec(r.stdout);
