@@ -56,6 +56,17 @@ describe('bad options are USAGE errors', () => {
   });
 });
 
+describe('boundary vertices', () => {
+  const { S } = build(flatGrid(4, 4)); // v:12 = (0.5, 0.5), v:24 = (1, 1); cells (2, 2) and (3, 3) have the diagonal along y = x
+  it('a line into a corner stops there: length = distance to the corner (elementary), end = that vertex', () => {
+    const r = straightestLine(S, { kind: 'vertex', vertex: 12 }, { heading: 45, length: 3 });
+    expect(r.stoppedAtBoundary).toBe(true);
+    expect(Math.abs(r.length - Math.SQRT1_2)).toBeLessThan(1e-12);
+    expect(r.end).toEqual({ kind: 'vertex', vertex: 24 });
+    expect(r.vertexPassages).toBe(1); // through v:18 = (0.75, 0.75) on the way
+  });
+});
+
 describe('the step bound', () => {
   const { S } = build(cylinder(24, 10, 1, 10));
   const start: SurfacePoint = { kind: 'face', face: 100, bary: [0.3, 0.3, 0.4] };
