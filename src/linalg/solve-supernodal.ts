@@ -115,8 +115,19 @@ export function supernodalLowerTransposeSolve(
     }
     // packed: diagonal row j at v0 + j(j+1)/2, row r ≥ nc at w0 + r·nc
     const w0 = v0 + ((nc * (nc + 1)) >> 1) - nc * nc;
-    // y_s −= L₂₁ᵀ x(R₂): four rows of L₂₁ per pass over y_s
+    // y_s −= L₂₁ᵀ x(R₂): eight (then four) rows of L₂₁ per pass over y_s, so
+    // y_s is read and written once per eight rows (terrain 100k: ~20% faster
+    // than four; the sums are grouped by four, rounding differs in the last bits)
     let r = nr - 1;
+    for (; r - 7 >= nc; r -= 8) {
+      const x0 = x[rows[r0 + r]!]!, x1 = x[rows[r0 + r - 1]!]!, x2 = x[rows[r0 + r - 2]!]!, x3 = x[rows[r0 + r - 3]!]!;
+      const x4 = x[rows[r0 + r - 4]!]!, x5 = x[rows[r0 + r - 5]!]!, x6 = x[rows[r0 + r - 6]!]!, x7 = x[rows[r0 + r - 7]!]!;
+      const q0 = w0 + r * nc, q1 = q0 - nc, q2 = q1 - nc, q3 = q2 - nc, q4 = q3 - nc, q5 = q4 - nc, q6 = q5 - nc, q7 = q6 - nc;
+      for (let k = nc - 1; k >= 0; k--) {
+        x[f + k]! -= (Lx[q0 + k]! * x0 + Lx[q1 + k]! * x1 + Lx[q2 + k]! * x2 + Lx[q3 + k]! * x3)
+          + (Lx[q4 + k]! * x4 + Lx[q5 + k]! * x5 + Lx[q6 + k]! * x6 + Lx[q7 + k]! * x7);
+      }
+    }
     for (; r - 3 >= nc; r -= 4) {
       const x0 = x[rows[r0 + r]!]!, x1 = x[rows[r0 + r - 1]!]!, x2 = x[rows[r0 + r - 2]!]!, x3 = x[rows[r0 + r - 3]!]!;
       const q0 = w0 + r * nc, q1 = q0 - nc, q2 = q1 - nc, q3 = q2 - nc;
