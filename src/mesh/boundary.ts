@@ -116,7 +116,13 @@ export function namedBoundaryLoops(t: Topology, positions: Float64Array, seams: 
     }
     // start the loop at its representative vertex, so the order does not depend on the face order in the file
     const r0 = vertices.indexOf(representative);
-    const rot = (a: Int32Array) => (r0 > 0 ? Int32Array.from({ length: n }, (_, i) => a[(i + r0) % n]!) : a);
+    const rot = (a: Int32Array) => {
+      if (r0 <= 0) return a;
+      const out = new Int32Array(n);
+      out.set(a.subarray(r0));
+      out.set(a.subarray(0, r0), n - r0);
+      return out;
+    };
     return { id: -1, halfedges: rot(halfedges), vertices: rot(vertices), length, min, max, representative };
   });
   loops.sort((p, q) => q.length - p.length || origin[p.representative]! - origin[q.representative]!);
