@@ -99,6 +99,9 @@ export interface StraightestLine {
   vertexPassages: number;
 }
 
+/** Shortest positive edge per edge-length array, found once (walks from many starts on one mesh). */
+const shortestEdge = new WeakMap<Float64Array, number>();
+
 /**
  * The default bound on faces crossed: 64 + 8 × length / (shortest edge), at
  * most {@link MAX_DEFAULT_STEPS}. A straight segment crosses more faces than
@@ -106,8 +109,13 @@ export interface StraightestLine {
  * slivers; 8× leaves room for both.
  */
 export function defaultMaxSteps(m: IntrinsicMesh, length: number): number {
-  let lmin = Infinity;
-  for (const l of m.edgeLength) if (l > 0 && l < lmin) lmin = l;
+  const L = m.edgeLength;
+  let lmin = shortestEdge.get(L);
+  if (lmin === undefined) {
+    lmin = Infinity;
+    for (let e = 0; e < L.length; e++) if (L[e]! > 0 && L[e]! < lmin) lmin = L[e]!;
+    shortestEdge.set(L, lmin);
+  }
   const n = 64 + Math.ceil((8 * length) / lmin);
   return Number.isFinite(n) ? Math.min(n, MAX_DEFAULT_STEPS) : MAX_DEFAULT_STEPS;
 }
