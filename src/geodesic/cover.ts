@@ -19,8 +19,8 @@
 import type { Topology } from '../mesh/topology.js';
 import { buildTopology } from '../mesh/build.js';
 import { intrinsicFromPositions, type IntrinsicMesh } from '../metric/intrinsic.js';
-import type { SurfacePoint } from '../query/surface-point.js';
-import { checkSurfacePoint } from '../query/surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
+import { checkSurfacePoint } from '../mesh/surface-point.js';
 import type { SourceSet } from './sources.js';
 import type { DistanceMethod, SurfacePath } from './field.js';
 import { shortestPathThrough, type WaypointPath } from './waypoints.js';

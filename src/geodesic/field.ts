@@ -1,7 +1,7 @@
 /**
  * Distance fields: the common result type of every distance solver.
  */
-import type { SurfacePoint } from '../query/surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
 
 /** Name of a distance method. */
 export type DistanceMethod = 'heat' | 'exact' | 'graph';

@@ -4,9 +4,9 @@
 import type { Topology } from '../mesh/topology.js';
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { SurfacePath } from './field.js';
-import type { SurfacePoint } from '../query/surface-point.js';
-import { surfacePointPosition } from '../query/surface-point.js';
-import { commonFaces, inFaceDistance } from '../metric/face-points.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
+import { surfacePointPosition } from '../mesh/surface-point.js';
+import { commonFaces, chainLength } from '../metric/face-points.js';
 
 /** The 3D polyline of a path: x, y, z per point, from positions per topology vertex. */
 export function pathPolyline(path: SurfacePath, t: Topology, positions: Float64Array): Float64Array {
@@ -24,11 +24,10 @@ export function pathPolyline(path: SurfacePath, t: Topology, positions: Float64A
  * in-face distances between consecutive points, each measured in a planar
  * layout of a face they share (the shortest if they share two). Returns
  * Infinity when a consecutive pair shares no face (not a surface path).
+ * (metric/face-points.ts's `chainLength`, the one home.)
  */
 export function pathLength(mesh: IntrinsicMesh, points: SurfacePoint[]): number {
-  let sum = 0;
-  for (let i = 1; i < points.length; i++) sum += inFaceDistance(mesh, points[i - 1]!, points[i]!).distance;
-  return sum;
+  return chainLength(mesh, points);
 }
 
 /** True when every consecutive pair of points shares a face (the path stays on the surface). */

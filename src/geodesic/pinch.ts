@@ -15,7 +15,7 @@
  * path reaching g through another pinch point h has length ≥ m_h ≥ m_g. One
  * extra solve per pinch point that the sources reach.
  */
-import type { SurfacePoint } from '../query/surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
 import type { SourceSet } from './sources.js';
 import { limitError } from '../errors.js';
 import type { DistanceResult, DistanceSolver, SolveOptions } from './solver.js';

@@ -6,7 +6,7 @@
  * straight segment between them lies in that face, or along an edge); a
  * boundary loop is such a curve through boundary vertices.
  */
-import type { SurfacePoint } from '../query/surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
 import type { Topology } from '../mesh/topology.js';
 import { boundaryLoops } from '../mesh/boundary.js';
 

@@ -6,8 +6,8 @@
  * route (flip/index.ts); `WaypointOptions.method` picks.
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
-import type { SurfacePoint } from '../query/surface-point.js';
-import { checkSurfacePoint, formatSurfacePoint } from '../query/surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
+import { checkSurfacePoint, formatSurfacePoint } from '../mesh/surface-point.js';
 import { isOrthodromeError, limitError, usageError } from '../errors.js';
 import { checkEdgeLengths } from './solver.js';
 import type { SurfacePath } from './field.js';

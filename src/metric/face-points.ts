@@ -13,7 +13,7 @@
 import type { IntrinsicMesh } from './intrinsic.js';
 import type { Topology } from '../mesh/topology.js';
 import { forEachOutgoing, faceOf } from '../mesh/topology.js';
-import type { SurfacePoint } from '../query/surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
 import { layoutFace } from './layout.js';
 
 /** Barycentric coordinates of p in face f, written to out (false, with zeros, when p is not on f's closure). */
@@ -98,4 +98,15 @@ export function inFaceDistance(mesh: IntrinsicMesh, a: SurfacePoint, b: SurfaceP
     if (d < distance) { distance = d; face = f; }
   }
   return { distance, face };
+}
+
+/**
+ * Intrinsic length of a chain of surface points: the sum of
+ * {@link inFaceDistance} over consecutive pairs. Infinity when a pair shares
+ * no face (the chain is not a surface path).
+ */
+export function chainLength(mesh: IntrinsicMesh, points: readonly SurfacePoint[]): number {
+  let sum = 0;
+  for (let i = 1; i < points.length; i++) sum += inFaceDistance(mesh, points[i - 1]!, points[i]!).distance;
+  return sum;
 }

@@ -23,7 +23,7 @@
  * uses the stored geometry only, not parent links, so windows merged or
  * trimmed after they were stored do not break it.
  */
-import type { SurfacePoint } from '../../query/surface-point.js';
+import type { SurfacePoint } from '../../mesh/surface-point.js';
 import { next, faceOf } from '../../mesh/topology.js';
 import type { ExactState } from './state.js';
 import { VIA_WINDOW, VIA_VERTEX, VIA_ROOT, EVAL_NONE, EVAL_WINDOW, EVAL_CORNER, EVAL_ROOT, type EvalKind } from './codes.js';

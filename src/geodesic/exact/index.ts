@@ -58,12 +58,12 @@
  * seed.ts).
  */
 import type { IntrinsicMesh } from '../../metric/intrinsic.js';
-import type { SurfacePoint } from '../../query/surface-point.js';
-import { checkSurfacePoint } from '../../query/surface-point.js';
+import type { SurfacePoint } from '../../mesh/surface-point.js';
+import { checkSurfacePoint } from '../../mesh/surface-point.js';
 import type { DistanceField, SurfacePath } from '../field.js';
 import type { SourceSet } from '../sources.js';
 import { formatBytes, limitError, usageError } from '../../errors.js';
-import { baryInFace, facesOfPoint } from '../../metric/face-points.js';
+import { baryInFace, chainLength, facesOfPoint } from '../../metric/face-points.js';
 import { createState } from './state.js';
 import { prepareExactGeometry } from './geometry.js';
 import type { ExactGeometry } from './geometry.js';
@@ -75,7 +75,6 @@ import { evaluateInFace } from './evaluate.js';
 import { EVAL_NONE, EVAL_CORNER, WIN_DEAD } from './codes.js';
 import type { Evaluation } from './evaluate.js';
 import { tracePath } from './backtrace.js';
-import { pathLength } from '../path.js';
 import { windowUsage } from './usage.js';
 import type { WindowUsage } from './usage.js';
 import { DEFAULT_MEMORY_BUDGET } from './budget.js';
@@ -248,7 +247,7 @@ export function exactDistance(mesh: IntrinsicMesh, sources: SourceSet, opts: Exa
       const b = best(p);
       if (!(b.value <= reach) || !Number.isFinite(b.value)) return { points: [], length: Infinity };
       const points = tracePath(s, p, b, sourcePoint);
-      return { points, length: pathLength(mesh, points) };
+      return { points, length: chainLength(mesh, points) };
     },
     windowUsage: (samples) => windowUsage(s, samples),
   };

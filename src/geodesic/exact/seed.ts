@@ -11,8 +11,8 @@
  * that corner (the adjacent edges hold it), and on an edge only its own
  * face, leaving the rest of the fan to edge-graph relaxation.
  */
-import type { SurfacePoint } from '../../query/surface-point.js';
-import { canonicalSurfacePoint } from '../../query/surface-point.js';
+import type { SurfacePoint } from '../../mesh/surface-point.js';
+import { canonicalSurfacePoint } from '../../mesh/surface-point.js';
 import { usageError } from '../../errors.js';
 import type { SourceSet } from '../sources.js';
 import { pointSegmentDistance } from '../../metric/layout.js';
