@@ -8,3 +8,4 @@
 export { readMeshFile, readMeshFileSync, gunzipIfNeeded, DEFAULT_MAX_INPUT_BYTES, type ReadMeshOptions } from '../io/read-mesh.js';
 export { writeFileAtomic, writeFileAtomicSync, pendingTempFiles, type AtomicData, type AtomicOptions } from '../io/atomic.js';
 export { loadSurface, type LoadOptions } from './load.js';
+export { NodeFactorExecutor, DEFAULT_MIN_SIZE as FACTOR_THREADS_MIN_SIZE, type NodeFactorExecutorOptions, type ExecutorCounts } from '../linalg/parallel-node.js';

@@ -78,6 +78,8 @@ export interface HeatStats {
   nnzL: number;
   /** Number of numeric factorizations (2 or 3). */
   factorizations: number;
+  /** Values of L stored by the factors together (the Dirichlet heat factor shares the natural one's blocks where the boundary does not reach). */
+  factorValues: number;
   /** The ordering used. */
   ordering: string;
   /** Mean edge length h of the input mesh (mesh units). */

@@ -189,6 +189,7 @@ export class HeatSolver {
     const stats: HeatStats = {
       prepareMs: t3 - t0, remeshMs: t1 - t0, analysisMs: t2 - t1, factorMs: t3 - t2,
       flips, flipsCapped, inserted, refineCapped, mollifyEpsilon: epsilon, nnzL: sym.nnzL, factorizations: heatD ? 3 : 2,
+      factorValues: heatN.storedValues + (heatD?.storedValues ?? 0) + poisson.storedValues,
       ordering: sym.ordering, meanEdgeLength: h, stepEdgeLength: hStep, timeStep: step, poissonShifted: shifted,
     };
     return new HeatSolver(mesh, work, stats, {

@@ -8,6 +8,12 @@
  * icospheres (levels 5, 7, 8: 10242, 163842, 655362 vertices, the levels
  * nearest those sizes). `--quick` runs the 10k and 100k sizes only.
  * Goals at 1M: solve ≤ 1.5× Dijkstra, factorization ≤ 20× Dijkstra, peak RSS < 3 GB.
+ *
+ * `--factor-threads=N` factors on N worker threads as well (NodeFactorExecutor,
+ * linalg/parallel-node.ts; default 0: all on this thread, as in earlier runs);
+ * `HEAT_CASE=terrain-1000` runs the cases whose name contains the text.
+ * `prepare` counts the remesh too; `ordering+symbolic` + `factorization` is
+ * the issue's "preparation" (its ratio: `orderingPlusFactorRatio`).
  */
 import { emit, timeMedian, timeEdgeDijkstra, peakRssMB, quick } from './harness.js';
 import { buildTopology } from '../../src/mesh/build.js';
@@ -15,6 +21,9 @@ import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/int
 import { HeatSolver, type HeatOptions } from '../../src/geodesic/heat.js';
 import type { Shape } from '../fixtures/shapes.js';
 import { jitteredTerrain, bumpySphere } from './meshes.js';
+import { NodeFactorExecutor } from '../../src/linalg/parallel-node.js';
+
+const factorThreads = Number(process.argv.find((a) => a.startsWith('--factor-threads='))?.slice(17) ?? 0);
 
 const BENCH = 'heat';
 
@@ -34,9 +43,13 @@ async function runCase(name: string, make: () => Shape, opts: HeatOptions): Prom
   // the one yardstick (harness.ts): typed-array binary-heap Dijkstra over the edge graph
   const dijkstra = await timeEdgeDijkstra(mesh, centre, runs);
 
+  const executor = factorThreads > 0 ? new NodeFactorExecutor({ threads: factorThreads }) : null;
   const t0 = performance.now();
-  const solver = HeatSolver.prepare(mesh, opts);
+  executor?.warm(); // as a caller would: the workers load while the mesh is remeshed and ordered
+  const solver = HeatSolver.prepare(mesh, { ...opts, factorExecutor: executor });
   const prepareMs = performance.now() - t0;
+  const counts = executor ? { ...executor.counts } : null;
+  await executor?.close();
   const st = solver.stats;
   // typical source (centre: every vertex within ~700 rings, one heat stage), and
   // varied sources (corners and boundary points; may need relay stages on the largest meshes)
@@ -64,10 +77,11 @@ async function runCase(name: string, make: () => Shape, opts: HeatOptions): Prom
   rec('remesh', st.remeshMs, 'ms', { flips: st.flips, mollifyEpsilon: st.mollifyEpsilon });
   rec('ordering+symbolic', st.analysisMs, 'ms', { ordering: st.ordering });
   rec('factorization', st.factorMs, 'ms', {
-    factorizations: st.factorizations, ratioToDijkstra: st.factorMs / dijkstra.ms,
+    factorizations: st.factorizations, ratioToDijkstra: st.factorMs / dijkstra.ms, factorThreads, threadJobs: counts,
     orderingPlusFactorRatio: (st.analysisMs + st.factorMs) / dijkstra.ms,
   });
   rec('nnzL', st.nnzL, 'entries', { perVertex: st.nnzL / nv });
+  rec('factorMemory', (8 * st.factorValues) / 2 ** 20, 'MB', { factorValues: st.factorValues, factorizations: st.factorizations });
   rec('solve', centreSolve.ms, 'ms', {
     ratioToDijkstra: centreSolve.ms / dijkstra.ms, source: 'centre', relayStages: centreStats.relayStages, flatFaces: centreStats.flatFaces,
   });
@@ -81,7 +95,8 @@ const grid = [100, 316, 1000];
 const level = [5, 7, 8];
 const ordering = process.argv.find((a) => a.startsWith('--ordering='))?.slice(11) as HeatOptions['ordering'];
 const opts: HeatOptions = ordering ? { ordering } : {};
+const only = process.env.HEAT_CASE;
 for (const i of sizes) {
-  await runCase(`terrain-${grid[i]}x${grid[i]}`, () => jitteredTerrain(grid[i]!, 3), opts);
-  await runCase(`sphere-level${level[i]}`, () => bumpySphere(level[i]!, 5), opts);
+  if (!only || `terrain-${grid[i]}x${grid[i]}`.includes(only)) await runCase(`terrain-${grid[i]}x${grid[i]}`, () => jitteredTerrain(grid[i]!, 3), opts);
+  if (!only || `sphere-level${level[i]}`.includes(only)) await runCase(`sphere-level${level[i]}`, () => bumpySphere(level[i]!, 5), opts);
 }
