@@ -54,7 +54,7 @@ export function registerStraight(program: Command): void {
     .requiredOption('--length <length>', 'length to walk on the surface, in mesh units')
     .option('--reference <x,y,z>', 'direction of heading 0, projected onto the tangent plane at the start (default 0,1,0: +y); refused where it is normal to the surface')
     .option('--max-steps <faces>', 'most faces the line may cross (default: 64 + 8 × length / shortest edge, at most 10000000)')
-    .option('-o, --output <file>', 'write the line: .obj (l polyline), .geojson (LineString with z, mesh coordinates), .csv (curve,level,closed,length,point,x,y,z) or .json; add .gz to compress')
+    .option('-o, --output <file>', 'write the line as a curve file: .obj (l polyline), .geojson (LineString with z, mesh coordinates; properties length, requestedLength, stoppedAtBoundary, heading), .csv (curve,level,closed,length,point,x,y,z) or .json ({"units", "curves"}); add .gz to compress')
     .option('--json', 'print the result as JSON')
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh (the line then stops at a cut as at the boundary)')
     .addOption(maxInputSizeOption())
