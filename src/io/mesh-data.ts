@@ -45,6 +45,35 @@ export interface MeshData {
   faceProps: PropertyColumn[];
   /** A label for messages, normally the file name. */
   name: string;
+  /** Set by the STL reader: the encoding, the weld of the facet corners and the check of the stored normals. */
+  stl?: StlReport;
+}
+
+/**
+ * What reading an STL file found (`parseStl`). STL stores each facet's three
+ * corners on their own; they are welded into shared vertices (io/weld.ts).
+ */
+export interface StlReport {
+  /** `binary` or `ascii`, as sniffed from the content. */
+  encoding: 'binary' | 'ascii';
+  /** Facets in the file. */
+  facets: number;
+  /** Weld tolerance used, in mesh units. */
+  weldTolerance: number;
+  /** Facet corners merged into an earlier vertex: 3 × facets − vertices. */
+  mergedVertices: number;
+  /** Vertices closer than this (mesh units) but beyond the tolerance are counted as near pairs. */
+  nearPairRadius: number;
+  /** Pairs of vertices left apart although closer than `nearPairRadius`; null when not checked (too dense a region). */
+  nearPairs: number | null;
+  /** The first near pair: vertex indices (from 0) and distance, or null. */
+  firstNearPair: { a: number; b: number; distance: number } | null;
+  /** Facets whose stored normal points against the normal of their winding (right-hand rule). */
+  normalsDisagreeing: number;
+  /** Facets whose normal was not checked: stored as zero or not finite, or a facet without area. */
+  normalsUnchecked: number;
+  /** The first facet (from 0) whose stored normal disagrees, or null. */
+  firstNormalDisagreeing: number | null;
 }
 
 /** Number of vertices of a {@link MeshData}. */

@@ -1,6 +1,6 @@
 /**
  * Node adapter: read a mesh file from disk, unpack gzip (by magic bytes, so
- * `.obj.gz`, `.ply.gz` and mis-named files all work), sniff and parse.
+ * `.obj.gz`, `.ply.gz`, `.stl.gz` and mis-named files all work), sniff and parse.
  *
  * Input size is bounded: the file on disk and the unpacked gzip data may not
  * exceed {@link ReadMeshOptions.maxInputBytes} (default
@@ -25,6 +25,8 @@ export interface ReadMeshOptions {
    * unpacked gzip content (default {@link DEFAULT_MAX_INPUT_BYTES}).
    */
   maxInputBytes?: number;
+  /** STL: corners closer than this (mesh units) are welded into one vertex (default 1e-9 × the bounding-box diagonal). */
+  weldTolerance?: number;
 }
 
 /** A byte count for messages: `1 GiB`, `512 MiB`, `1.5 KiB`, `900 bytes`. */
@@ -77,11 +79,11 @@ export function gunzipIfNeeded(bytes: Uint8Array, path: string, opts: ReadMeshOp
 /** Parses bytes read from `path` (gzip allowed); names the path in errors. */
 function parseFile(bytes: Uint8Array, path: string, opts: ReadMeshOptions): MeshData {
   // Messages name the real file (`hill.obj.gz:12`); the format hint ignores `.gz`.
-  return parseMesh(gunzipIfNeeded(bytes, path, opts), path);
+  return parseMesh(gunzipIfNeeded(bytes, path, opts), path, opts.weldTolerance !== undefined ? { weldTolerance: opts.weldTolerance } : {});
 }
 
 /**
- * Reads and parses an OBJ or PLY file (optionally gzip-compressed). Throws
+ * Reads and parses an OBJ, PLY or STL file (optionally gzip-compressed). Throws
  * `INPUT` for unreadable or malformed files and `LIMIT` for input over
  * `opts.maxInputBytes`, both naming `path`.
  */

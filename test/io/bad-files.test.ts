@@ -87,7 +87,7 @@ const CASES: [string, string | Uint8Array, string][] = [
   ['part.ply', plyBinary(0, [4, 0, 1, 2]), 'part.ply: face 0: file ends inside this item'],
   ['part.ply', plyBinary(0, [1, 0, 0, 0]), 'part.ply: face 0: face has 1 vertex (at least 3 needed)'],
   // neither format
-  ['blob.bin', new Uint8Array([0, 1, 2, 3, 255]), 'blob.bin: unrecognised mesh format (expected OBJ or PLY)'],
+  ['blob.bin', new Uint8Array([0, 1, 2, 3, 255]), 'blob.bin: unrecognised mesh format (expected OBJ, PLY or STL)'],
   ['part.ply.gz', new Uint8Array([0x1f, 0x8b, 8, 0]), 'part.ply.gz: gzip-compressed data: decompress before parsing'],
 ];
 
