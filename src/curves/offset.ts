@@ -17,7 +17,6 @@
  * face's edges), so vertices beyond read Infinity and no face the curve
  * crosses is skipped.
  */
-import type { SourceSet } from '../geodesic/sources.js';
 import type { DistanceResult } from '../geodesic/solver.js';
 import { measureDistances, type MeasureOptions, type Measurement, type SolvableSurface } from '../api/distance.js';
 import { intrinsicOf } from '../api/parts.js';
@@ -26,6 +25,9 @@ import { isolines, type ScalarField, type SurfaceCurve } from './isolines.js';
 
 /** Options of {@link surfaceOffset}: those of a distance measurement (method, default `exact`; heat options; memory budget), without a distance cap. */
 export type OffsetOptions = Omit<MeasureOptions, 'maxDistance' | 'targets' | 'fieldNeeded'>;
+
+/** Points and curves to measure from (the source set of `measureDistances`). */
+type SourceSet = Parameters<typeof measureDistances>[1];
 
 /** Result of {@link surfaceOffset}. */
 export interface OffsetResult {

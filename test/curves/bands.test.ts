@@ -6,7 +6,6 @@ import { describe, it, expect } from 'vitest';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { faceAreas } from '../../src/metric/triangle.js';
-import { pointSources } from '../../src/geodesic/sources.js';
 import { bands, bandLevels, planArea } from '../../src/curves/bands.js';
 import { isolines } from '../../src/curves/isolines.js';
 import { distanceScalarField } from '../../src/curves/offset.js';
@@ -24,7 +23,7 @@ function discField(h: number) {
   const m = meshOf(s);
   let c = 0;
   for (let v = 1; v < s.positions.length / 3; v++) if (Math.hypot(s.positions[3 * v]!, s.positions[3 * v + 1]!) < Math.hypot(s.positions[3 * c]!, s.positions[3 * c + 1]!)) c = v;
-  const r = prepareDistance(m, 'exact').solve(pointSources([{ kind: 'vertex', vertex: c }]));
+  const r = prepareDistance(m, 'exact').solve({ points: [{ kind: 'vertex', vertex: c }], curves: [] });
   return { s, m, field: distanceScalarField(r) };
 }
 

@@ -8,11 +8,12 @@ import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import type { Topology } from '../../src/mesh/topology.js';
 import { prepareDistance } from '../../src/geodesic/solver.js';
-import { pointSources } from '../../src/geodesic/sources.js';
 import { isolines, chooseLevels, polylineLength } from '../../src/curves/isolines.js';
 import { distanceScalarField } from '../../src/curves/offset.js';
 import { planArea } from '../../src/curves/bands.js';
 import { isOrthodromeError } from '../../src/errors.js';
+import { meshFromTriangles } from '../../src/io/mesh-data.js';
+import { surfaceFromMeshData, isManifold } from '../../src/mesh/surface.js';
 import { flatGrid, icosphere, type Shape } from '../fixtures/shapes.js';
 import { holedPlate } from '../fixtures/holed-plates.js';
 
@@ -99,6 +100,31 @@ describe('isolines: chaining and degenerate cases', () => {
     expect(c[0]!.length).toBeCloseTo(0.5, 12);
   });
 
+  it('non-manifold input (three fins on one edge, split by the build): the curves end at the cut, open', () => {
+    // three flat 1 × 1 fins share the edge x = y = 0, 0 ≤ z ≤ 1; the level z = 0.55 of the field z
+    // crosses each fin in a segment of length 1 (elementary), whatever way the build splits the edge
+    const pos: number[] = [], tri: number[] = [];
+    const id = new Map<string, number>();
+    const vert = (x: number, y: number, z: number): number => {
+      const k = [x, y, z].map((c) => c.toFixed(9)).join(',');
+      let v = id.get(k);
+      if (v === undefined) { v = pos.length / 3; id.set(k, v); pos.push(x, y, z); }
+      return v;
+    };
+    const m = 4;
+    for (const th of [0, (2 * Math.PI) / 3, (4 * Math.PI) / 3]) {
+      const at = (i: number, j: number) => vert((i / m) * Math.cos(th), (i / m) * Math.sin(th), j / m);
+      for (let i = 0; i < m; i++) for (let j = 0; j < m; j++) tri.push(at(i, j), at(i + 1, j), at(i + 1, j + 1), at(i, j), at(i + 1, j + 1), at(i, j + 1));
+    }
+    const surf = surfaceFromMeshData(meshFromTriangles(Float64Array.from(pos), tri));
+    expect(isManifold(surf)).toBe(false);
+    const z = new Float64Array(surf.topology.nv);
+    for (let v = 0; v < z.length; v++) z[v] = surf.positions[3 * v + 2]!;
+    const c = isolines(surf.topology, surf.positions, { values: z }, [0.55]);
+    expect(c.every((k) => !k.closed)).toBe(true);
+    expect(c.reduce((a, k) => a + k.length, 0)).toBeCloseTo(3, 12);
+  });
+
   it('chooseLevels: multiples inside the range, listed levels sorted, limits', () => {
     // with every D the levels are k·D with min < k·D ≤ max (definition in isolines.ts)
     const v = Float64Array.from([0.05, 0.4, Infinity, 1.0]);
@@ -120,7 +146,7 @@ describe('isolines: exact crossings and the heat field', () => {
     const t = topo(s);
     const m = intrinsicFromPositions(t, s.positions);
     const src = 0;
-    const r = prepareDistance(m, 'exact').solve(pointSources([{ kind: 'vertex', vertex: src }]));
+    const r = prepareDistance(m, 'exact').solve({ points: [{ kind: 'vertex', vertex: src }], curves: [] });
     const P = s.positions, sx = P[3 * src]!, sy = P[3 * src + 1]!;
     const far = (c: ReturnType<typeof isolines>) => Math.max(...c.flatMap((k) => k.points.map((p) => Math.abs(Math.hypot(p[0] - sx, p[1] - sy) - 0.5))));
     const exact = far(isolines(t, P, distanceScalarField(r), [0.5]));
@@ -137,7 +163,7 @@ describe('isolines: exact crossings and the heat field', () => {
     const errs = [3, 4].map((level) => {
       const s = icosphere(level, R);
       const t = topo(s);
-      const r = prepareDistance(intrinsicFromPositions(t, s.positions), 'heat').solve(pointSources([{ kind: 'vertex', vertex: 0 }]));
+      const r = prepareDistance(intrinsicFromPositions(t, s.positions), 'heat').solve({ points: [{ kind: 'vertex', vertex: 0 }], curves: [] });
       const c = isolines(t, s.positions, distanceScalarField(r), chooseLevels(r.field.distance, { every: 0.5 }));
       let worst = 0;
       for (const L of [0.5, 1, 1.5, 2, 2.5]) {

@@ -8,8 +8,9 @@ import { buildTopology } from '../../src/mesh/build.js';
 import { boundaryLoops } from '../../src/mesh/boundary.js';
 import type { Topology } from '../../src/mesh/topology.js';
 import type { SurfacePoint } from '../../src/query/surface-point.js';
-import type { SourceSet } from '../../src/geodesic/sources.js';
 import { surfaceOffset } from '../../src/curves/offset.js';
+
+type SourceSet = Parameters<typeof surfaceOffset>[1];
 import { isOrthodromeError } from '../../src/errors.js';
 import { cylinder, icosphere, gridTriangles, type Shape } from '../fixtures/shapes.js';
 import { holedPlate } from '../fixtures/holed-plates.js';
