@@ -21,13 +21,11 @@
  * m = 1 (the heat decays like e^(−r/√t)); beyond that the heat underflows,
  * ∇u = 0 and those faces are counted in `lastSolve.flatFaces`.
  *
- * Boundaries: 'neumann' uses the natural condition, 'dirichlet' fixes u on
- * the boundary, 'average' (default, the paper's recommendation) averages the
- * two heat solutions. The Dirichlet data are 0 except at boundary vertices
- * carrying source heat δ_v, which are held at δ_v / (M + tL)_vv (the value a
- * lone heated vertex takes): a source on the boundary is then a boundary
- * value, as in Varadhan's formula with Dirichlet data, instead of being
- * erased (which made all three modes equal for boundary sources).
+ * Boundaries: 'neumann', 'dirichlet' or 'average' (default, the paper's
+ * recommendation: the mean of the two); the Dirichlet data are 0 except at
+ * boundary vertices carrying source heat δ_v, held at δ_v / (M + tL)_vv (the
+ * value a lone heated vertex takes), so a source on the boundary is a
+ * boundary value, as in Varadhan's formula with Dirichlet data (heat-step.ts).
  *
  * A NaN or infinite value in the solve is a `NUMERIC` error, never a
  * distance; so is heat that underflows beyond the relay (timeScale too small).
@@ -35,6 +33,9 @@
  * The Poisson step pins one vertex per connected component (heat-poisson.ts).
  *
  * All matrices share one lower-triangle pattern and one symbolic analysis;
+ * the Dirichlet heat factor is computed with the natural one and stores only
+ * the blocks the boundary rows reach (linalg/multifrontal-pair.ts), and an
+ * executor (HeatOptions.factorExecutor) may factor on other threads;
  * per-source work is two or three triangular solve pairs and two sweeps
  * over the faces, in preallocated buffers. The heat right-hand side of a
  * point source has one nonzero per weighted vertex, so each heat step's
@@ -54,12 +55,11 @@ import {
 } from '../metric/laplacian.js';
 import { components } from '../mesh/components.js';
 import { boundaryVertexMask } from '../mesh/boundary.js';
-import { addSourceHeat, sourceValue } from './heat-sources.js';
-import { pinnedPoisson, factorShiftedPoisson } from './heat-poisson.js';
+import { tail } from '../mesh/topology.js';
+import { addSourceHeat, sourceValue, sourceDirichlet } from './heat-sources.js';
+import { pinnedPoisson, factorShiftedPoisson, SourcePoisson } from './heat-poisson.js';
 import { assembleDivergence, heatCeiling, relayFaces, type RelayWork } from './heat-relay.js';
 import { usageError, numericError, isOrthodromeError, type OrthodromeError } from '../errors.js';
-import { sourceDirichlet } from './heat-sources.js';
-import { SourcePoisson } from './heat-poisson.js';
 import { HeatStep, maskIndices, type HeatStepParts } from './heat-step.js';
 
 export {
@@ -261,7 +261,7 @@ export class HeatSolver {
     stats.relayStages = Math.max(stats.relayStages, stages);
     const shift = this.compShift.fill(Infinity);
     const seen = (p: SurfacePoint, val: number): void => {
-      const c = comp[p.kind === 'vertex' ? p.vertex : p.kind === 'edge' ? t0v(this.mesh, p.edge) : this.mesh.topology.tri[3 * p.face]!]!;
+      const c = comp[p.kind === 'vertex' ? p.vertex : p.kind === 'edge' ? tail(this.mesh.topology, this.mesh.topology.edgeHalfedge[p.edge]!) : this.mesh.topology.tri[3 * p.face]!]!;
       if (c >= 0 && val < shift[c]!) shift[c] = val;
     };
     let held = false;
@@ -302,9 +302,4 @@ export class HeatSolver {
 function factorOrThrow(f: CholeskyFactor | OrthodromeError): CholeskyFactor {
   if (f instanceof CholeskyFactor) return f;
   throw f;
-}
-
-/** Tail vertex of edge e's stored half-edge. */
-function t0v(m: IntrinsicMesh, e: number): number {
-  return m.topology.tri[m.topology.edgeHalfedge[e]!]!;
 }
