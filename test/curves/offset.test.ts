@@ -7,7 +7,7 @@ import { describe, it, expect } from 'vitest';
 import { buildTopology } from '../../src/mesh/build.js';
 import { boundaryLoops } from '../../src/mesh/boundary.js';
 import type { Topology } from '../../src/mesh/topology.js';
-import type { SurfacePoint } from '../../src/query/surface-point.js';
+import type { SurfacePoint } from '../../src/mesh/surface-point.js';
 import { surfaceOffset } from '../../src/curves/offset.js';
 
 type SourceSet = Parameters<typeof surfaceOffset>[1];
