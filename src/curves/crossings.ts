@@ -30,7 +30,7 @@
  */
 import type { Topology } from '../mesh/topology.js';
 import { next } from '../mesh/topology.js';
-import type { SurfacePoint } from '../query/surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
 
 /** A scalar field on the surface whose level sets are wanted. */
 export interface ScalarField {

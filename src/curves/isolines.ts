@@ -30,7 +30,7 @@
  */
 import type { Topology } from '../mesh/topology.js';
 import { faceOf } from '../mesh/topology.js';
-import type { SurfacePoint } from '../query/surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
 import { limitError, usageError } from '../errors.js';
 import { EdgeCrossings, type ScalarField } from './crossings.js';
 
