@@ -60,8 +60,8 @@
 import type { IntrinsicMesh } from '../../metric/intrinsic.js';
 import type { SurfacePoint } from '../../mesh/surface-point.js';
 import { checkSurfacePoint } from '../../mesh/surface-point.js';
-import type { DistanceField, SurfacePath } from '../field.js';
-import type { SourceSet } from '../sources.js';
+import type { DistanceField, SurfacePath } from '../shared/field.js';
+import type { SourceSet } from '../shared/sources.js';
 import { formatBytes, limitError, usageError } from '../../errors.js';
 import { baryInFace, chainLength, facesOfPoint } from '../../metric/face-points.js';
 import { createState } from './state.js';

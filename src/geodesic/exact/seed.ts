@@ -14,7 +14,7 @@
 import type { SurfacePoint } from '../../mesh/surface-point.js';
 import { canonicalSurfacePoint } from '../../mesh/surface-point.js';
 import { usageError } from '../../errors.js';
-import type { SourceSet } from '../sources.js';
+import type { SourceSet } from '../shared/sources.js';
 import { pointSegmentDistance } from '../../metric/layout.js';
 import { baryInFace, commonFaces, facesOfPoint } from '../../metric/face-points.js';
 import type { ExactState } from './state.js';

@@ -26,8 +26,8 @@
  * verify.ts when the region to search is small enough, and says when not.
  */
 import type { IntrinsicMesh } from '../../metric/intrinsic.js';
-import type { SurfacePath } from '../field.js';
-import type { SurfacePoint } from '../../query/surface-point.js';
+import type { SurfacePath } from '../shared/field.js';
+import type { SurfacePoint } from '../../mesh/surface-point.js';
 import { FlipTriangulation } from './triangulation.js';
 import { shortestEdgePath } from './start-path.js';
 import { shortenPath } from './flipout.js';

@@ -23,7 +23,7 @@
  *   c0       c1                               d
  * ```
  */
-import type { SurfacePoint } from '../../query/surface-point.js';
+import type { SurfacePoint } from '../../mesh/surface-point.js';
 import { next, prev } from '../../mesh/topology.js';
 import { angleOpposite } from '../../metric/triangle.js';
 import { layoutAlong } from '../../metric/layout.js';

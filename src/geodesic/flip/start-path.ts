@@ -10,7 +10,7 @@
  */
 import type { IntrinsicMesh } from '../../metric/intrinsic.js';
 import { next } from '../../mesh/topology.js';
-import { IndexedMinHeap, runEdgeDijkstra } from '../graph.js';
+import { IndexedMinHeap, runEdgeDijkstra } from '../shared/edge-dijkstra.js';
 
 /** An edge path: vertices in order and the edge id between each consecutive pair. */
 export interface EdgePath {

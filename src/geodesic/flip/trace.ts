@@ -19,7 +19,7 @@
  * edge in the face on the ray's side, from its reference direction; a ray
  * ending there must end in a face that holds the point.
  */
-import type { SurfacePoint } from '../../query/surface-point.js';
+import type { SurfacePoint } from '../../mesh/surface-point.js';
 import { next, prev } from '../../mesh/topology.js';
 import { angleOpposite } from '../../metric/triangle.js';
 import { layoutAlong, layoutFace } from '../../metric/layout.js';

@@ -26,13 +26,13 @@
  * space of the same length), as for every mesh read from a file.
  */
 import type { IntrinsicMesh } from '../../metric/intrinsic.js';
-import type { SurfacePath } from '../field.js';
-import type { SurfacePoint } from '../../query/surface-point.js';
+import type { SurfacePath } from '../shared/field.js';
+import type { SurfacePoint } from '../../mesh/surface-point.js';
 import { buildTopology } from '../../mesh/build.js';
 import { next } from '../../mesh/topology.js';
 import { exactDistance } from '../exact/index.js';
-import { pointSources } from '../sources.js';
-import { surfacePointPosition } from '../../query/surface-point.js';
+import { pointSources } from '../shared/sources.js';
+import { surfacePointPosition } from '../../mesh/surface-point.js';
 
 /** Result of {@link verifyShortest}. */
 export interface VerifyResult {
