@@ -43,6 +43,7 @@ import type { ExactState } from './state.js';
 import { VIA_VERTEX, VIA_WINDOW } from './codes.js';
 import { addWindow } from './add-window.js';
 import { windowCrossing } from './light.js';
+import { planarLength } from '../../metric/layout.js';
 
 /** Angular slack (radians) added on both sides of the wedge. */
 const SLACK = 1e-7;
@@ -163,7 +164,7 @@ function emitCorner(s: ExactState, h: number, dv: number, root: number, phi0: nu
   if (!(cy > 0)) return;
   let x0 = 0, x1 = L;
   if (phi0 >= 0 || phi1 >= 0) {
-    const r = Math.sqrt(cx * cx + cy * cy);
+    const r = planarLength(cx, cy);
     if (!(r > 0)) return;
     if (phi0 >= 0) x0 = rayHit(-cx / r, -cy / r, cx, cy, L, phi0);
     if (phi1 >= 0) x1 = rayHit(-cx / r, -cy / r, cx, cy, L, phi1);
