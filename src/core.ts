@@ -54,6 +54,7 @@ export type { SurfaceCurve, ScalarField, LevelOptions } from './curves/isolines.
 export { DEFAULT_MAX_LEVELS } from './curves/isolines.js';
 export type { Band, BandPolygon } from './curves/bands.js';
 export { fieldFromCsv, vertexProperty, toTopologyVertices } from './curves/field-input.js';
+export { parsePolylines, polylineSources } from './curves/polyline-source.js';
 
 // result files
 export { encodeVertexColumns, encodeRoute, type VertexColumn, type VertexFileOptions } from './api/write.js';

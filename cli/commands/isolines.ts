@@ -12,7 +12,7 @@ import { action, fmt, toJson } from '../run.js';
 import { TERRAIN_CAUTION } from '../cautions.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import {
-  boundarySources, measureDistances, pointLocator, surfaceIsolines, distanceScalarField, fieldFromCsv, vertexProperty, toTopologyVertices,
+  boundarySources, measureDistances, pointLocator, surfaceIsolines, parsePolylines, polylineSources, distanceScalarField, fieldFromCsv, vertexProperty, toTopologyVertices,
   writeCurves, curveFormatOf, writeFileAtomic, CURVE_FORMATS, DEFAULT_MAX_LEVELS,
   type Band, type CurvePolygon, type DistanceMethod, type PointResolver, type ScalarField, type SourceSet, type Surface, type SurfaceCurve,
 } from '../../src/index.js';
@@ -22,6 +22,7 @@ import { usageError } from '../../src/errors.js';
 export interface CurveCliOptions {
   from?: string[];
   fromCurve?: string[];
+  fromPolyline?: string[];
   method: DistanceMethod;
   output?: string;
   json?: boolean;
@@ -53,8 +54,17 @@ export function numberOption(text: string, name: string, positive = false): numb
   return x;
 }
 
-/** One source set from every --from and --from-curve (`USAGE` naming the bad spec). */
-export function sourceSet(mesh: string, surface: Surface, resolver: PointResolver, o: CurveCliOptions): SourceSet {
+/** The `--from-polyline` help. */
+export const FROM_POLYLINE_HELP =
+  'a curve source from a file: a polyline in 3D (.csv with x,y,z columns, one polyline per value of a curve column if any; or .obj v and l lines), each point snapped to the surface and consecutive points joined by the shortest path on it; repeat for several';
+
+/** True when any source option is given. */
+export function hasSources(o: CurveCliOptions): boolean {
+  return (o.from?.length ?? 0) + (o.fromCurve?.length ?? 0) + (o.fromPolyline?.length ?? 0) > 0;
+}
+
+/** One source set from every --from, --from-curve and --from-polyline (`USAGE` naming the bad spec, `INPUT` naming a bad file). */
+export async function sourceSet(mesh: string, surface: Surface, resolver: PointResolver, o: CurveCliOptions): Promise<SourceSet> {
   const set: SourceSet = { points: [], curves: [] };
   for (const s of o.from ?? []) {
     if (s.trim() === 'boundary') {
@@ -65,6 +75,17 @@ export function sourceSet(mesh: string, surface: Surface, resolver: PointResolve
     else set.points.push(...resolver.resolveAll(s, '--from'));
   }
   for (const c of o.fromCurve ?? []) set.curves.push(resolver.resolveCurve(c, '--from-curve'));
+  for (const file of o.fromPolyline ?? []) {
+    const format = /\.csv$/i.test(file) ? 'csv' : /\.obj$/i.test(file) ? 'obj' : null;
+    if (!format) throw usageError('a polyline file must be .csv or .obj', file);
+    let text: string;
+    try {
+      text = await readFile(file, 'utf8');
+    } catch (e) {
+      throw usageError(`cannot read the polyline file (${(e as NodeJS.ErrnoException).code ?? 'error'})`, file);
+    }
+    set.curves.push(...(await polylineSources(surface, parsePolylines(text, file, format))));
+  }
   return set;
 }
 
@@ -93,6 +114,7 @@ export function registerIsolines(program: Command): void {
     .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
     .option('--from <source>', FROM_HELP, collect)
     .option('--from-curve <points>', FROM_CURVE_HELP, collect)
+    .option('--from-polyline <file>', FROM_POLYLINE_HELP, collect)
     .option('--field <name>', "instead of distances: x, y or z (z: contour lines of height), a vertex property of the mesh file (PLY), or FILE.csv[:COLUMN] (a header row; one row per vertex, or a 'vertex' column; empty = missing)")
     .option('--every <d>', 'a level at every multiple of D')
     .option('--levels <list>', 'levels listed, separated by commas (D1,D2,...)')
@@ -118,8 +140,7 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
   const every = o.every !== undefined ? numberOption(o.every, '--every', true) : undefined;
   const levels = o.levels !== undefined ? o.levels.split(',').map((x) => numberOption(x, '--levels')) : undefined;
   const maxLevels = o.maxLevels !== undefined ? numberOption(o.maxLevels, '--max-levels', true) : undefined;
-  const hasFrom = (o.from?.length ?? 0) + (o.fromCurve?.length ?? 0) > 0;
-  if (hasFrom === (o.field !== undefined)) throw usageError('give either --from/--from-curve (distances) or --field (a per-vertex field)');
+  if (hasSources(o) === (o.field !== undefined)) throw usageError('give either --from/--from-curve/--from-polyline (distances) or --field (a per-vertex field)');
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
   const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
 
@@ -130,7 +151,7 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
     field = { values: toTopologyVertices(surface.topology, await readField(o.field, surface)) };
   } else {
     resolver = await pointLocator(surface);
-    const m = measureDistances(surface, sourceSet(mesh, surface, resolver, o), { method: o.method, memoryBudget });
+    const m = measureDistances(surface, await sourceSet(mesh, surface, resolver, o), { method: o.method, memoryBudget });
     field = distanceScalarField(m);
     solveMs = m.solveMs;
     prepareMs = m.prepareMs;

@@ -11,7 +11,7 @@ import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { pointLocator, surfaceOffset } from '../../src/index.js';
 import { usageError } from '../../src/errors.js';
 import {
-  FROM_CURVE_HELP, FROM_HELP, checkCurveOutput, curveJson, numberOption, sourceSet, writeCurveFile, type CurveCliOptions,
+  FROM_CURVE_HELP, FROM_HELP, FROM_POLYLINE_HELP, checkCurveOutput, curveJson, hasSources, numberOption, sourceSet, writeCurveFile, type CurveCliOptions,
 } from './isolines.js';
 
 interface OffsetCliOptions extends CurveCliOptions {
@@ -28,6 +28,7 @@ export function registerOffset(program: Command): void {
     .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
     .option('--from <source>', FROM_HELP, collect)
     .option('--from-curve <points>', FROM_CURVE_HELP, collect)
+    .option('--from-polyline <file>', FROM_POLYLINE_HELP, collect)
     .option('--distance <d>', 'the on-surface distance D, mesh units')
     .addOption(new Option('--method <method>', 'exact (window propagation; exact crossings along edges), heat (heat method, approximate) or graph (along edges, an upper bound)').choices(['exact', 'heat', 'graph']).default('exact'))
     .option('-o, --output <file>', 'write the curves: .obj (l polylines), .geojson, .csv or .json; add .gz to compress')
@@ -49,11 +50,11 @@ async function runOffset(mesh: string, o: OffsetCliOptions): Promise<number> {
   if (o.output) checkCurveOutput(o.output, mesh);
   if (o.distance === undefined) throw usageError('give the offset distance with --distance D');
   const D = numberOption(o.distance, '--distance', true);
-  if ((o.from?.length ?? 0) + (o.fromCurve?.length ?? 0) === 0) throw usageError('give at least one --from or --from-curve');
+  if (!hasSources(o)) throw usageError('give at least one --from, --from-curve or --from-polyline');
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
   const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
   const resolver = await pointLocator(surface);
-  const r = surfaceOffset(surface, sourceSet(mesh, surface, resolver, o), D, { method: o.method, memoryBudget });
+  const r = surfaceOffset(surface, await sourceSet(mesh, surface, resolver, o), D, { method: o.method, memoryBudget });
   if (o.output) await writeCurveFile(o.output, r.curves);
   const round = (x: number) => Math.round(x * 100) / 100;
   const timings = { load: loadMs, prepare: round(r.timings.prepare), solve: round(r.timings.solve), curves: round(r.timings.curves) };

@@ -51,6 +51,22 @@ describe('offset command', () => {
     for (const p of c.points) expect(Math.hypot(Math.max(0, Math.abs(p[0]) - a / 2), Math.max(0, Math.abs(p[1]) - a / 2))).toBeCloseTo(D, 9);
   });
 
+  it('--from-polyline: the rim given as a CSV or OBJ polyline of its corners gives the same trim line', () => {
+    // the shortest path on the plate between consecutive corners of the convex hole is its side
+    // (plane geometry), so the source is the rim itself: length 4a + 2πD as above
+    const corners = [[-5, -5], [5, -5], [5, 5], [-5, 5], [-5, -5]];
+    writeFileSync(join(dir, 'rim.csv'), 'x,y,z\n' + corners.map(([x, y]) => `${x},${y},0`).join('\n') + '\n');
+    writeFileSync(join(dir, 'rim.obj'), corners.slice(0, 4).map(([x, y]) => `v ${x} ${y} 0`).join('\n') + '\nl 1 2 3 4 1\n');
+    const want = 4 * a + 2 * Math.PI * 5;
+    for (const f of ['rim.csv', 'rim.obj']) {
+      const r = runCli(['offset', join(dir, 'plate.obj'), '--from-polyline', join(dir, f), '--distance', '5', '--json']);
+      expect(r.code, r.stderr).toBe(0);
+      const j = JSON.parse(r.stdout);
+      expect(j.curves.length).toBe(1);
+      expect(Math.abs(j.curves[0].length - want) / want).toBeLessThan(0.01);
+    }
+  });
+
   it('writes CSV and JSON curve files; the help carries the caution', () => {
     const csv = join(dir, 'trim.csv');
     expect(runCli(['offset', join(dir, 'plate.obj'), '--from', 'loop@0,0,0', '--distance', '5', '-o', csv]).code).toBe(0);

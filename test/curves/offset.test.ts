@@ -9,6 +9,7 @@ import { boundaryLoops } from '../../src/mesh/boundary.js';
 import type { Topology } from '../../src/mesh/topology.js';
 import type { SurfacePoint } from '../../src/mesh/surface-point.js';
 import { surfaceOffset } from '../../src/curves/offset.js';
+import { parsePolylines } from '../../src/curves/polyline-source.js';
 
 type SourceSet = Parameters<typeof surfaceOffset>[1];
 import { isOrthodromeError } from '../../src/errors.js';
@@ -137,5 +138,16 @@ describe('offsets: closed forms', () => {
       try { surfaceOffset(m, { points: [{ kind: 'vertex', vertex: 0 }], curves: [] }, D); } catch (e) { err = e; }
       expect(isOrthodromeError(err) && err.code === 'USAGE').toBe(true);
     }
+  });
+  it('polyline files: CSV grouped by a curve column, OBJ l statements; bad lines are INPUT errors naming file:line', () => {
+    // the formats are those written by write-curves.ts (CSV curve,…,x,y,z) and OBJ v/l (common practice)
+    const csv = 'curve,level,closed,length,point,x,y,z\n0,5,0,2,0,0,0,0\n0,5,0,2,1,1,0,0\n1,6,0,1,0,0,1,0\n1,6,0,1,1,0,2,0\n';
+    expect(parsePolylines(csv, 'a.csv', 'csv')).toEqual([[[0, 0, 0], [1, 0, 0]], [[0, 1, 0], [0, 2, 0]]]);
+    expect(parsePolylines('v 0 0 0\nv 1 0 0\nv 1 1 0\nl 1 -1\n', 'a.obj', 'obj')).toEqual([[[0, 0, 0], [1, 1, 0]]]);
+    const err = (f: () => unknown) => { try { f(); } catch (e) { return isOrthodromeError(e) ? `${e.code} ${e.message}` : 'other'; } return 'none'; };
+    expect(err(() => parsePolylines('x,y,z\n0,0,0\n1,zz,0\n', 'b.csv', 'csv'))).toMatch(/^INPUT .*b\.csv:3/);
+    expect(err(() => parsePolylines('a,b\n1,2\n', 'c.csv', 'csv'))).toMatch(/^INPUT .*c\.csv:1/);
+    expect(err(() => parsePolylines('v 0 0 0\nl 1 5\n', 'd.obj', 'obj'))).toMatch(/^INPUT .*d\.obj:2/);
+    expect(err(() => parsePolylines('x,y,z\n0,0,0\n', 'e.csv', 'csv'))).toMatch(/^INPUT .*two points/);
   });
 });
