@@ -237,7 +237,8 @@ function assemble(edges: Map<number, number[]>, at: Map<number, P3>, sgn: number
     if (best) best.holes.push(h);
     else outers.push({ ring: h.slice().reverse(), area: -sgn * planArea(h), holes: [] });
   }
-  const close = (r: P3[]): P3[] => [...r, r[0]!];
+  // counter-clockwise outer rings and clockwise holes in plan view, whichever way the faces point
+  const close = (r: P3[]): P3[] => (sgn > 0 ? [...r, r[0]!] : [r[0]!, ...r.slice().reverse()]);
   return outers.map((o) => ({ outer: close(o.ring), holes: o.holes.map(close) }));
 }
 

@@ -73,6 +73,20 @@ describe('bands', () => {
     }
   });
 
+  it('a mesh facing down (faces clockwise from +z) gives the same outer rings and holes in plan view', () => {
+    // the plan view is the map seen from +z whichever way the faces point (bands.ts): reversing
+    // every face changes no ring's plan-view orientation (shoelace formula)
+    const { s, field } = discField(0.1);
+    const down = s.triangles.slice();
+    for (let k = 0; k < down.length; k += 3) { const a = down[k + 1]!; down[k + 1] = down[k + 2]!; down[k + 2] = a; }
+    const md = meshOf({ positions: s.positions, triangles: down });
+    const [, ring] = bands(md.topology, s.positions, field, [0, 0.25, 0.5]);
+    expect(ring!.polygons.length).toBe(1);
+    expect(ring!.polygons[0]!.holes.length).toBe(1);
+    expect(planArea(ring!.polygons[0]!.outer)).toBeGreaterThan(0);
+    expect(planArea(ring!.polygons[0]!.holes[0]!)).toBeLessThan(0);
+  });
+
   it('an annulus band is one polygon with one hole; its rings are the isolines at its levels', () => {
     // the region r1 ≤ d < r2 about a point of a disc is an annulus: one outer ring, one hole
     // (elementary topology); the rings and the isolines share their points (one crossing rule)
