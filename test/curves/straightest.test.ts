@@ -5,12 +5,13 @@
  * apex, by symmetry and by the law of sines). "Exact" means 1e-9 relative.
  */
 import { describe, it, expect } from 'vitest';
+import { test, fc } from '@fast-check/vitest';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { straightestLine, type StraightestLine } from '../../src/curves/straightest.js';
 import type { SurfacePoint } from '../../src/query/surface-point.js';
 import { surfacePointPosition } from '../../src/query/surface-point.js';
-import { flatGrid, icosphere, cylinder, randomFlat, type Shape } from '../fixtures/shapes.js';
+import { flatGrid, icosphere, cylinder, randomFlat, terrain, rng, type Shape } from '../fixtures/shapes.js';
 
 const TOL = 1e-9;
 
@@ -319,5 +320,60 @@ describe('through an apex of total angle θ < 2π: θ/2 on each side (Polthier &
     const end = pt(r, count(r) - 1);
     expect(dist(end, exp)).toBeLessThanOrEqual(1e-9);
     expect(r.stoppedAtBoundary).toBe(true);
+  });
+});
+
+describe('random flat squares, starts and bearings (property test)', () => {
+  /**
+   * On a flat mesh of the unit square the line is the segment a + ℓ·d
+   * (elementary); it stops where that segment first leaves [0,1]², or after
+   * the length asked. Starts anywhere: face points, edge points, vertices.
+   */
+  test.prop([fc.integer({ min: 1, max: 40 }), fc.double({ min: 0, max: 360, noNaN: true }), fc.double({ min: 0.01, max: 2, noNaN: true }), fc.nat(), fc.double({ min: 0.05, max: 0.95, noNaN: true }), fc.double({ min: 0.05, max: 0.95, noNaN: true }), fc.nat(2)])(
+    'straight, of the length asked or up to the boundary',
+    (seed, heading, length, pick, u, w, kind) => {
+      const { m, P, S } = build(randomFlat(6, seed));
+      const t = m.topology;
+      const start: SurfacePoint = kind === 0
+        ? { kind: 'face', face: pick % t.nf, bary: [u * w, (1 - u) * w, 1 - w] }
+        : kind === 1 ? { kind: 'edge', edge: pick % t.ne, t: u } : { kind: 'vertex', vertex: pick % t.nv };
+      const r = straightestLine(S, start, { heading, length });
+      const a = surfacePointPosition(r.start, t, P) as Float64Array;
+      const rad = (heading * Math.PI) / 180, dx = Math.sin(rad), dy = Math.cos(rad);
+      // a line along the square's side stops at the next boundary vertex (documented): not this property
+      const onSide = (c: number) => c === 0 || c === 1;
+      fc.pre(!((Math.abs(dx) < 1e-12 && onSide(a[0]!)) || (Math.abs(dy) < 1e-12 && onSide(a[1]!))));
+      // distance along d to the square's boundary
+      const exit = Math.min(dx > 0 ? (1 - a[0]!) / dx : dx < 0 ? -a[0]! / dx : Infinity, dy > 0 ? (1 - a[1]!) / dy : dy < 0 ? -a[1]! / dy : Infinity);
+      const expected = Math.min(length, exit);
+      expect(Math.abs(r.length - expected)).toBeLessThanOrEqual(1e-9);
+      expect(r.stoppedAtBoundary).toBe(exit < length - 1e-9 || (exit <= length + 1e-9 && r.stoppedAtBoundary));
+      if (r.length > 0) expectStraight(r, [dx, dy, 0], 1);
+    },
+  );
+});
+
+describe('reversibility on a noisy terrain', () => {
+  /**
+   * Walked back from its end along its last segment, a straightest line
+   * retraces itself to the start: the definition (equal angles on both
+   * sides at every point) does not depend on the direction of travel
+   * (Polthier & Schmies 1998).
+   */
+  it('walking back from the end returns to the start within 1e-9 of the mesh size', () => {
+    const r0 = rng(5);
+    const { m, S } = build(terrain(30, 30, 10, 10, (x, y) => Math.sin(3 * x) * Math.cos(2 * y) + (r0() - 0.5) * 0.3));
+    const t = m.topology;
+    let walks = 0;
+    for (let k = 0; k < 60; k++) {
+      const u = r0(), w = r0();
+      const r = straightestLine(S, { kind: 'face', face: Math.floor(r0() * t.nf), bary: [u * w, (1 - u) * w, 1 - w] }, { heading: r0() * 360, length: 0.5 + 3 * r0() });
+      if (r.stoppedAtBoundary) continue;
+      const n = count(r);
+      const back = straightestLine(S, r.end, { toward: pt(r, n - 2), length: r.length });
+      expect(dist(pt(back, count(back) - 1), pt(r, 0))).toBeLessThanOrEqual(TOL * 10);
+      walks++;
+    }
+    expect(walks).toBeGreaterThan(30);
   });
 });
