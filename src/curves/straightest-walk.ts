@@ -39,6 +39,7 @@ import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import { next, prev, faceOf, isBoundaryVertex, type Topology } from '../mesh/topology.js';
 import { anglesOfSides } from '../metric/triangle.js';
 import { layoutAlong } from '../metric/layout.js';
+import type { SurfacePoint } from '../query/surface-point.js';
 
 /** How close (relative to an edge's length) a crossing must come to a corner to pass through the vertex. */
 export const VERTEX_SNAP = 1e-9;
@@ -81,10 +82,7 @@ export interface WalkResult {
   /** The face where the walk ended or got stuck. */
   face: number;
   /** Where the walk ended: a vertex, an edge point (edge id and parameter along its `edgeHalfedge`), or a face point. */
-  end:
-    | { kind: 'vertex'; vertex: number }
-    | { kind: 'edge'; edge: number; t: number }
-    | { kind: 'face'; face: number; bary: [number, number, number] };
+  end: SurfacePoint;
 }
 
 /** Scratch of one walk (kept apart so walks can run side by side). */
@@ -138,7 +136,7 @@ export function walkStraightest(m: IntrinsicMesh, positions: Float64Array, start
 
   w.push(origin[0]!, origin[1]!, origin[2]!);
 
-  const finish = (status: WalkStatus, end: WalkResult['end']): WalkResult => ({
+  const finish = (status: WalkStatus, end: SurfacePoint): WalkResult => ({
     status, points: w.pts.slice(0, 3 * w.n), length: walked, steps, vertexPassages: passages, face: faceOf(base), end,
   });
 
@@ -148,7 +146,7 @@ export function walkStraightest(m: IntrinsicMesh, positions: Float64Array, start
     if (steps >= maxSteps) return finish('steps', faceEnd(base, lay, x, y));
     steps++;
     // candidate edges k (corner k → corner k+1): from the entry edge only the other two, from a vertex only the opposite one
-    const k0 = entry === 'edge' ? 1 : entry === 'vertex' ? 1 : 0;
+    const k0 = entry === 'interior' ? 0 : 1;
     const k1 = entry === 'vertex' ? 1 : 2;
     let bestK = -1, bestS = Infinity, bestU = 0, bestOut = Infinity;
     for (let k = k0; k <= k1; k++) {
@@ -282,7 +280,7 @@ function pushLayoutPoint(w: Walk, P: Float64Array, tri: Uint32Array, base: numbe
 }
 
 /** The face point of layout point (x, y): barycentric coordinates in the face's own corner order. */
-function faceEnd(base: number, lay: Float64Array, x: number, y: number): WalkResult['end'] {
+function faceEnd(base: number, lay: Float64Array, x: number, y: number): SurfacePoint {
   const b = new Float64Array(3);
   layoutBary(lay, x, y, b);
   const f = faceOf(base), k = base - 3 * f;
@@ -292,7 +290,7 @@ function faceEnd(base: number, lay: Float64Array, x: number, y: number): WalkRes
 }
 
 /** The edge point at parameter u along half-edge h, as (edge id, parameter along its edgeHalfedge). */
-function edgeEnd(t: Topology, h: number, u: number): WalkResult['end'] {
+function edgeEnd(t: Topology, h: number, u: number): SurfacePoint {
   const e = t.edgeOf[h]!;
   return { kind: 'edge', edge: e, t: t.edgeHalfedge[e] === h ? u : 1 - u };
 }
