@@ -35,6 +35,21 @@ export function maxInputSizeOption(): Option {
   );
 }
 
+/** The `--weld-tolerance` option, for every command that reads a mesh (STL input only). */
+export function weldToleranceOption(): Option {
+  return new Option(
+    '--weld-tolerance <length>',
+    'STL input: weld facet corners closer than this, in mesh units (default 1e-9 × the bounding-box diagonal; 0 welds exact copies only)',
+  );
+}
+
+/** A `--weld-tolerance` value: a finite number ≥ 0, else `USAGE`. */
+function parseWeldTolerance(text: string): number {
+  const t = text.trim() === '' ? NaN : Number(text);
+  if (!(Number.isFinite(t) && t >= 0)) throw usageError(`--weld-tolerance must be a length ≥ 0 in mesh units, got '${text}'`);
+  return t;
+}
+
 /** Where a surface is not a manifold: the first problem, for the refusal message. */
 function firstProblem(s: Surface): string {
   const r = s.report;
@@ -50,12 +65,17 @@ function firstProblem(s: Surface): string {
  * Loads `path`. With `requireManifold`, a mesh that needed cutting or
  * splitting is refused (exit 2) with the first location, unless
  * `allowSplit` is set. `maxInputSize` is the `--max-input-size` text, if
- * given (input over it is a `LIMIT` error).
+ * given (input over it is a `LIMIT` error); `weldTolerance` the
+ * `--weld-tolerance` text, if given.
  */
-export async function loadSurface(path: string, opts: { requireManifold?: boolean; allowSplit?: boolean; maxInputSize?: string } = {}): Promise<Loaded> {
+export async function loadSurface(
+  path: string,
+  opts: { requireManifold?: boolean; allowSplit?: boolean; maxInputSize?: string; weldTolerance?: string } = {},
+): Promise<Loaded> {
   const t0 = performance.now();
   const maxInputBytes = opts.maxInputSize === undefined ? DEFAULT_MAX_INPUT_BYTES : parseByteSize(opts.maxInputSize, '--max-input-size');
-  const surface = await openFile(path, { maxInputBytes });
+  const weld = opts.weldTolerance === undefined ? {} : { weldTolerance: parseWeldTolerance(opts.weldTolerance) };
+  const surface = await openFile(path, { maxInputBytes, ...weld });
   if (opts.requireManifold && !opts.allowSplit && !isManifold(surface)) {
     throw inputError(`${firstProblem(surface)}; see 'orthodrome inspect', or pass --split-nonmanifold to cut the mesh there`, path);
   }

@@ -1,6 +1,6 @@
 /** `orthodrome curvature MESH -o OUT`: angle defect, Gaussian and mean curvature per vertex. */
 import type { Command } from 'commander';
-import { loadSurface, maxInputSizeOption } from '../load.js';
+import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
 import { writeVertexColumns, checkFieldOutput } from '../output.js';
 import { action, fmt, toJson } from '../run.js';
 import { curvatureSummary } from '../../src/index.js';
@@ -10,16 +10,17 @@ export function registerCurvature(program: Command): void {
   program
     .command('curvature')
     .description('angle defect, Gaussian curvature (defect / mixed-Voronoi area) and mean curvature (cotangent Laplacian) per vertex')
-    .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
+    .argument('<mesh>', 'OBJ, PLY or STL file (optionally .gz)')
     .option('-o, --output <file>', 'write per-vertex values: .ply (binary, with colours), .csv or .json; add .gz to compress')
     .option('--ascii', 'write PLY output as ascii instead of binary')
     .option('--json', 'print the summary as JSON')
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
     .addOption(maxInputSizeOption())
+    .addOption(weldToleranceOption())
     .action(
-      action(async (mesh: string, opts: { output?: string; json?: boolean; ascii?: boolean; splitNonmanifold?: boolean; maxInputSize?: string }) => {
+      action(async (mesh: string, opts: { output?: string; json?: boolean; ascii?: boolean; splitNonmanifold?: boolean; maxInputSize?: string; weldTolerance?: string }) => {
         if (opts.output) checkFieldOutput(opts.output, [mesh]);
-        const { surface } = await loadSurface(mesh, { requireManifold: true, allowSplit: opts.splitNonmanifold, maxInputSize: opts.maxInputSize });
+        const { surface } = await loadSurface(mesh, { requireManifold: true, allowSplit: opts.splitNonmanifold, maxInputSize: opts.maxInputSize, weldTolerance: opts.weldTolerance });
         const c = curvatureSummary(surface);
         if (opts.output) {
           await writeVertexColumns(opts.output, surface, [

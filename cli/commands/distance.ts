@@ -4,7 +4,7 @@
  * target points.
  */
 import { Command, Option } from 'commander';
-import { loadSurface, maxInputSizeOption } from '../load.js';
+import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
 import { checkFieldOutput, writeVertexColumns } from '../output.js';
 import { action, fmt, fmtCoord, toJson } from '../run.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
@@ -36,6 +36,7 @@ interface DistanceCliOptions {
   refine: boolean;
   splitNonmanifold?: boolean;
   maxInputSize?: string;
+  weldTolerance?: string;
   memoryBudget?: string;
   jobs?: string;
 }
@@ -55,7 +56,7 @@ export function registerDistance(program: Command): void {
   program
     .command('distance')
     .description('geodesic distance on the surface from sources to every vertex and to target points')
-    .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
+    .argument('<mesh>', 'OBJ, PLY or STL file (optionally .gz)')
     .option('--from <point>', "source: v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2, p:X,Y,Z (nearest surface point in 3D), p:X,Y (the surface point straight below or above, along +z), 'boundary' (all boundary loops), loop:ID (one boundary loop, ids as 'inspect' lists them), loop@X,Y,Z or loop@X,Y (the boundary loop nearest the point, in 3D or in plan); repeat for several", collect)
     .option('--from-curve <points>', "a curve source: point specs separated by ';', each consecutive pair on a common face (e.g. 'v:3;e:17:0.5;v:9'); repeat for several", collect)
     .option('--to <point>', 'target point whose distance is printed; repeat for several', collect)
@@ -73,6 +74,7 @@ export function registerDistance(program: Command): void {
     .option('--no-refine', 'heat: do not split long edges of the intrinsic triangulation (added vertices cost time and memory)')
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
     .addOption(maxInputSizeOption())
+    .addOption(weldToleranceOption())
     .addOption(memoryBudgetOption())
     .addHelpText('after', `\nDistances are in the mesh's own units; unreachable points get null (JSON) or an empty field (CSV).\n${TERRAIN_CAUTION}\n${MACHINING_CAUTION}`)
     .action(action(async (mesh: string, o: DistanceCliOptions) => runDistance(mesh, o)));
@@ -106,7 +108,7 @@ interface SetResult {
 async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number> {
   if (o.output) checkFieldOutput(o.output, [mesh]);
   const run = checkOptions(o);
-  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
+  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance });
   const resolver = await pointLocator(surface);
   const sets = sourceSets(mesh, surface, resolver, o);
   const targets: SurfacePoint[] = (o.to ?? []).map((s) => resolver.resolve(s, '--to'));

@@ -1,6 +1,6 @@
 /** `orthodrome inspect MESH [--json]`: mesh health summary. */
 import type { Command } from 'commander';
-import { loadSurface, maxInputSizeOption } from '../load.js';
+import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
 import { inspectSurface, inspectProblems, type InspectReport } from '../../src/index.js';
 import { action, fmt, fmtCoord, toJson } from '../run.js';
 import { requireOption, parseRequirements, runGates, formatGates, failOnGates } from '../gates.js';
@@ -11,6 +11,7 @@ export function formatInspect(r: InspectReport): string {
   const L: string[] = [];
   L.push(`${r.file}`);
   L.push(`  vertices ${r.vertices}, faces ${r.faces} (${r.triangles} triangles), edges ${r.edges}`);
+  if (r.stl) L.push(formatStl(r.stl));
   L.push(
     `  components ${r.components}, boundary loops ${r.boundaryLoops}, Euler characteristic ${r.eulerCharacteristic}, genus ${r.genus ?? 'n/a (not orientable)'}`,
   );
@@ -24,6 +25,15 @@ export function formatInspect(r: InspectReport): string {
     `  total angle defect ${fmt(r.totalAngleDefect)} rad, boundary turning ${fmt(r.totalBoundaryTurning)} rad, Gauss–Bonnet residual ${fmt(r.gaussBonnetResidual, 3)} rad`,
   );
   return L.join('\n');
+}
+
+/** The STL line: facets, the weld and the stored-normal check. */
+function formatStl(s: NonNullable<InspectReport['stl']>): string {
+  const near = s.nearPairs === null
+    ? `near pairs not checked (too dense within ${fmt(s.nearPairRadius)} units)`
+    : `${s.nearPairs} near pair(s) left apart within ${fmt(s.nearPairRadius)} units${s.firstNearPair ? ` (first: vertices ${s.firstNearPair.a} and ${s.firstNearPair.b}, ${fmt(s.firstNearPair.distance)} units apart)` : ''}`;
+  const normals = `${s.normalsDisagreeing} stored normal(s) against the winding${s.firstNormalDisagreeing !== null ? ` (first: facet ${s.firstNormalDisagreeing})` : ''}, ${s.normalsUnchecked} not checked`;
+  return `  STL (${s.encoding}): ${s.facets} facets, ${s.mergedVertices} corners welded (tolerance ${fmt(s.weldTolerance)} units), ${near}; ${normals}`;
 }
 
 /** How many boundary loops the text report lists (--json lists more, with their vertices). */
@@ -44,14 +54,15 @@ export function registerInspect(program: Command): void {
   program
     .command('inspect')
     .description('mesh health: counts, components, boundary, Euler characteristic and genus, manifold and orientation problems, angles, Gauss–Bonnet check')
-    .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
+    .argument('<mesh>', 'OBJ, PLY or STL file (optionally .gz)')
     .option('--json', 'print the report as JSON (keys documented in the README)')
     .addOption(maxInputSizeOption())
+    .addOption(weldToleranceOption())
     .addOption(requireOption())
     .action(
-      action(async (mesh: string, opts: { json?: boolean; maxInputSize?: string; require?: string[] }) => {
+      action(async (mesh: string, opts: { json?: boolean; maxInputSize?: string; weldTolerance?: string; require?: string[] }) => {
         const reqs = parseRequirements(opts.require); // a typo is exit 2 before any work
-        const { surface } = await loadSurface(mesh, { maxInputSize: opts.maxInputSize });
+        const { surface } = await loadSurface(mesh, { maxInputSize: opts.maxInputSize, weldTolerance: opts.weldTolerance });
         const r = inspectSurface(surface);
         const gates = runGates(r, reqs);
         process.stdout.write((opts.json ? toJson(reqs.length ? { ...r, requirements: gates } : r) : formatInspect(r) + formatGates(gates)) + '\n');

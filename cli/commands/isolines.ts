@@ -6,7 +6,7 @@
  */
 import { readFile } from 'node:fs/promises';
 import { Command, Option } from 'commander';
-import { loadSurface, maxInputSizeOption } from '../load.js';
+import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
 import { checkOutput } from '../output.js';
 import { action, fmt, toJson } from '../run.js';
 import { TERRAIN_CAUTION } from '../cautions.js';
@@ -28,6 +28,7 @@ export interface CurveCliOptions {
   json?: boolean;
   splitNonmanifold?: boolean;
   maxInputSize?: string;
+  weldTolerance?: string;
   memoryBudget?: string;
 }
 
@@ -111,7 +112,7 @@ export function registerIsolines(program: Command): void {
   program
     .command('isolines')
     .description('level sets of the distance field (or of a per-vertex field) chained into polylines, and the bands between them')
-    .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
+    .argument('<mesh>', 'OBJ, PLY or STL file (optionally .gz)')
     .option('--from <source>', FROM_HELP, collect)
     .option('--from-curve <points>', FROM_CURVE_HELP, collect)
     .option('--from-polyline <file>', FROM_POLYLINE_HELP, collect)
@@ -125,6 +126,7 @@ export function registerIsolines(program: Command): void {
     .option('--json', 'print the result as JSON')
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh (curves end at the cuts)')
     .addOption(maxInputSizeOption())
+    .addOption(weldToleranceOption())
     .addOption(memoryBudgetOption())
     .addHelpText('after', `
 A vertex exactly on a level counts as above it. Curves are open where they reach the boundary,
@@ -142,7 +144,7 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
   const maxLevels = o.maxLevels !== undefined ? numberOption(o.maxLevels, '--max-levels', true) : undefined;
   if (hasSources(o) === (o.field !== undefined)) throw usageError('give either --from/--from-curve/--from-polyline (distances) or --field (a per-vertex field)');
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
-  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
+  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance });
 
   let field: ScalarField;
   let solveMs = 0, prepareMs = 0;

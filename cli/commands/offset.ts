@@ -4,7 +4,7 @@
  * surface (a trim line at D from a part's edge, a margin round a hazard).
  */
 import { Command, Option } from 'commander';
-import { loadSurface, maxInputSizeOption } from '../load.js';
+import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
 import { action, fmt, toJson } from '../run.js';
 import { MACHINING_CAUTION, TERRAIN_CAUTION } from '../cautions.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
@@ -25,7 +25,7 @@ export function registerOffset(program: Command): void {
   program
     .command('offset')
     .description('the curves at on-surface distance D from a boundary loop, points or a curve on the surface (trim lines, margins)')
-    .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
+    .argument('<mesh>', 'OBJ, PLY or STL file (optionally .gz)')
     .option('--from <source>', FROM_HELP, collect)
     .option('--from-curve <points>', FROM_CURVE_HELP, collect)
     .option('--from-polyline <file>', FROM_POLYLINE_HELP, collect)
@@ -35,6 +35,7 @@ export function registerOffset(program: Command): void {
     .option('--json', 'print the result as JSON')
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh (curves end at the cuts)')
     .addOption(maxInputSizeOption())
+    .addOption(weldToleranceOption())
     .addOption(memoryBudgetOption())
     .addHelpText('after', `
 The offset is the level set at D of the on-surface distance from the sources, measured on the mesh
@@ -52,7 +53,7 @@ async function runOffset(mesh: string, o: OffsetCliOptions): Promise<number> {
   const D = numberOption(o.distance, '--distance', true);
   if (!hasSources(o)) throw usageError('give at least one --from, --from-curve or --from-polyline');
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
-  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
+  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance });
   const resolver = await pointLocator(surface);
   const r = surfaceOffset(surface, await sourceSet(mesh, surface, resolver, o), D, { method: o.method, memoryBudget });
   if (o.output) await writeCurveFile(o.output, r.curves);

@@ -3,7 +3,7 @@
  * the exact shortest path on the surface through waypoints.
  */
 import { Option, type Command } from 'commander';
-import { loadSurface, maxInputSizeOption } from '../load.js';
+import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { checkOutput, outputFormat } from '../output.js';
 import { action, fmt, fmtCoord, since, toJson } from '../run.js';
@@ -29,6 +29,7 @@ interface PathCliOptions {
   json?: boolean;
   splitNonmanifold?: boolean;
   maxInputSize?: string;
+  weldTolerance?: string;
   memoryBudget?: string;
   pathMethod?: PathMethod;
   proveLimit?: string;
@@ -39,7 +40,7 @@ export function registerPath(program: Command): void {
   program
     .command('path')
     .description('exact shortest path on the surface from a point to another, through optional waypoints')
-    .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
+    .argument('<mesh>', 'OBJ, PLY or STL file (optionally .gz)')
     .requiredOption('--from <point>', 'start: v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2, p:X,Y,Z (nearest surface point in 3D) or p:X,Y (straight below or above, along +z)')
     .option('--to <point>', 'end point (required unless --closed)')
     .option('--via <point>', 'waypoint visited in order between --from and --to; repeat for several', collect)
@@ -48,6 +49,7 @@ export function registerPath(program: Command): void {
     .option('--json', 'print the result as JSON')
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
     .addOption(maxInputSizeOption())
+    .addOption(weldToleranceOption())
     .addOption(memoryBudgetOption())
     .addOption(new Option('--path-method <method>', `windows (window propagation: the shortest path, proven), flip (edge flips from the edge-graph shortest route: a geodesic, much faster on large meshes; two points off the vertices on one face, and split vertices, use windows) or auto (flip from ${AUTO_FLIP_FACES} faces up)`).choices(['auto', 'flip', 'windows']).default('auto'))
     .option('--prove-limit <faces>', `largest region (faces within the ellipsoid that holds every shorter path) on which window propagation proves a flip leg shortest or finds the shorter one; past it the leg is reported with a certified bound on how much longer than the shortest it can be; 0 skips the proof (default: ${FLIP_VERIFY_FACES})`)
@@ -62,7 +64,7 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
   if (o.output) checkOutput(o.output, PATH_FORMATS, [mesh]);
   if (!o.to && !o.closed) throw usageError('give --to, or --closed to return to the start');
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
-  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
+  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance });
   const resolver = await pointLocator(surface);
   const specs = [o.from, ...(o.via ?? []), ...(o.to ? [o.to] : [])];
   const labels = ['--from', ...(o.via ?? []).map(() => '--via'), ...(o.to ? ['--to'] : [])];

@@ -4,7 +4,7 @@
  * Polthier & Schmies 1998, `src/curves/straightest.ts`).
  */
 import type { Command } from 'commander';
-import { loadSurface, maxInputSizeOption } from '../load.js';
+import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
 import { checkOutput } from '../output.js';
 import { action, fmt, fmtCoord, since, toJson } from '../run.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
@@ -24,6 +24,7 @@ interface StraightCliOptions {
   json?: boolean;
   splitNonmanifold?: boolean;
   maxInputSize?: string;
+  weldTolerance?: string;
 }
 
 const usage = (detail: string, location?: string) => new OrthodromeError('USAGE', detail, location);
@@ -47,7 +48,7 @@ export function registerStraight(program: Command): void {
   program
     .command('straight')
     .description('walk straight on the surface from a point, on a bearing or toward a point, for a given length (a straightest line)')
-    .argument('<mesh>', 'OBJ or PLY file (optionally .gz)')
+    .argument('<mesh>', 'OBJ, PLY or STL file (optionally .gz)')
     .requiredOption('--from <point>', 'start: v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2, p:X,Y,Z (nearest surface point in 3D) or p:X,Y (straight below or above, along +z)')
     .option('--heading <degrees>', 'bearing of the first step in degrees, clockwise from the reference direction as seen from the side the surface normal points to (with +y as north and normals up: 90 is east, +x)')
     .option('--toward <x,y,z>', 'first step toward this point: the chord from the start projected onto the tangent plane at the start')
@@ -58,6 +59,7 @@ export function registerStraight(program: Command): void {
     .option('--json', 'print the result as JSON')
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh (the line then stops at a cut as at the boundary)')
     .addOption(maxInputSizeOption())
+    .addOption(weldToleranceOption())
     .addHelpText(
       'after',
       `
@@ -92,7 +94,7 @@ async function runStraight(mesh: string, o: StraightCliOptions): Promise<number>
     if (!(Number.isInteger(maxSteps) && maxSteps >= 1)) throw usage(`--max-steps must be a whole number of faces ≥ 1, got '${o.maxSteps}'`);
   }
 
-  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize });
+  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance });
   const resolver = await pointLocator(surface);
   const start = resolver.resolve(o.from, '--from');
   const t0 = performance.now();

@@ -1,6 +1,6 @@
 /**
  * `orthodrome/io`: bytes ⇄ mesh data and result files, browser-safe.
- * Readers (OBJ, PLY, format sniffing), writers (PLY, OBJ, CSV, curves),
+ * Readers (OBJ, PLY, STL with welding, format sniffing), writers (PLY, OBJ, CSV, curves),
  * the colour ramp and the JSON writer of results. Files on disk: `orthodrome/node`.
  *
  * @packageDocumentation
@@ -9,7 +9,10 @@ export type { MeshData, PropertyColumn, ScalarType } from '../io/mesh-data.js';
 export { meshFromTriangles, vertexCount, faceCount } from '../io/mesh-data.js';
 export { parseObj } from '../io/obj.js';
 export { parsePly } from '../io/ply.js';
-export { parseMesh, sniffMesh, isGzip, type Sniffed } from '../io/sniff.js';
+export { parseMesh, sniffMesh, isGzip, type Sniffed, type ParseOptions } from '../io/sniff.js';
+export { parseStl, isBinaryStl, looksLikeAsciiStl, type StlOptions } from '../io/stl.js';
+export type { StlReport } from '../io/mesh-data.js';
+export { weldPoints, WELD_RELATIVE_TOLERANCE, NEAR_FACTOR, type WeldResult, type NearPair } from '../io/weld.js';
 export { writePly, type PlyMeshInput, type WritePlyOptions } from '../io/write-ply.js';
 export { writeObj, writeObjPolyline, type ObjMeshInput, type WriteObjOptions } from '../io/write-obj.js';
 export { writeVertexCsv, toCsv, type CsvColumn, type CsvOptions } from '../io/csv.js';

@@ -1,5 +1,5 @@
 /**
- * Node adapter of the facade: a surface from a mesh file on disk (OBJ or PLY,
+ * Node adapter of the facade: a surface from a mesh file on disk (OBJ, PLY or STL,
  * gzip unpacked by magic bytes, size bounded). Reached only from the Node
  * entry (`src/index.ts`); the browser entry (`src/core.ts`) has
  * `openSurface` for bytes instead.
@@ -22,6 +22,9 @@ export interface LoadOptions extends OpenOptions {
  * location; input over `maxInputBytes` is a `LIMIT` error.
  */
 export async function loadSurface(path: string, opts: LoadOptions = {}): Promise<Surface> {
-  const data = await readMeshFile(path, opts.maxInputBytes !== undefined ? { maxInputBytes: opts.maxInputBytes } : {});
+  const data = await readMeshFile(path, {
+    ...(opts.maxInputBytes !== undefined ? { maxInputBytes: opts.maxInputBytes } : {}),
+    ...(opts.weldTolerance !== undefined ? { weldTolerance: opts.weldTolerance } : {}),
+  });
   return openSurface(data, path, opts);
 }

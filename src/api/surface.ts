@@ -15,16 +15,21 @@ export type { Surface };
 export interface OpenOptions {
   /** Repairs while building the half-edge topology (e.g. splitting non-manifold vertices, how many problems to list). */
   build?: BuildOptions;
+  /**
+   * STL: facet corners closer than this (mesh units) are welded into one vertex
+   * (default 1e-9 × the bounding-box diagonal; 0 welds exact copies only).
+   */
+  weldTolerance?: number;
 }
 
 /**
- * A surface from the bytes of an OBJ or PLY file (format sniffed from the
+ * A surface from the bytes of an OBJ, PLY or STL file (format sniffed from the
  * content; gzip is unpacked by `loadSurface` only) or from parsed
  * {@link MeshData}: triangulated, with its half-edge topology, positions and
  * the build report (problems found, repairs made). `name` labels errors.
  * Bad input is an `INPUT` error naming `name` and the location.
  */
 export function openSurface(input: Uint8Array | MeshData, name = 'mesh', opts: OpenOptions = {}): Surface {
-  const data = input instanceof Uint8Array ? parseMesh(input, name) : input;
+  const data = input instanceof Uint8Array ? parseMesh(input, name, opts.weldTolerance !== undefined ? { weldTolerance: opts.weldTolerance } : {}) : input;
   return surfaceFromMeshData(data, opts.build ?? {});
 }

@@ -28,6 +28,7 @@ import { intrinsicFromPositions } from '../metric/intrinsic.js';
 import { cornerAngles, faceAreas } from '../metric/triangle.js';
 import { gaussianCurvature, gaussBonnetResidual } from '../metric/curvature.js';
 import type { NonManifoldEdge, DuplicateFace } from '../mesh/build.js';
+import type { StlReport } from '../io/mesh-data.js';
 
 /** A triangle is zero-area when its thickness 2A/ℓ_max is at most this fraction of the mean edge length. */
 export const ZERO_THICKNESS = 1e-9;
@@ -101,6 +102,8 @@ export interface InspectReport {
   totalAngleDefect: number;
   totalBoundaryTurning: number;
   gaussBonnetResidual: number;
+  /** STL input only (else null): encoding, facets, the weld (tolerance, merged corners, near pairs) and the stored-normal check. */
+  stl: StlReport | null;
   /** The problems found, one short phrase each, as `inspect` prints them (empty for a healthy mesh). */
   problems: string[];
   /** The boundary loops by id (the first {@link LISTED_LOOPS}; `boundaryLoops` counts them all). */
@@ -233,6 +236,7 @@ export function inspectSurface(s: Surface): InspectReport {
     totalAngleDefect: curv.totalInteriorDefect,
     totalBoundaryTurning: curv.totalBoundaryTurning,
     gaussBonnetResidual: gaussBonnetResidual(curv, chi),
+    stl: s.data.stl ?? null,
     problems: [],
     boundaryLoopList: loopList(s),
     componentList: comps.info.map((c) => ({ ...c, genus: genusOf(c.genus) })),

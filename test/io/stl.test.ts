@@ -26,6 +26,7 @@ import { readMeshFile } from '../../src/io/read-mesh.js';
 import { weldPoints, NEAR_FACTOR, WELD_RELATIVE_TOLERANCE } from '../../src/io/weld.js';
 import { openSurface, inspectSurface, measureDistances, isOrthodromeError } from '../../src/index.js';
 import { objText } from '../fixtures/shapes.js';
+import { runCli } from '../cli/run-cli.js';
 
 type P3 = [number, number, number];
 type Facet = { n: P3; v: [P3, P3, P3] };
@@ -126,6 +127,7 @@ describe('binary and ASCII STL cube', () => {
       // default tolerance: 1e-9 × the diagonal √3
       expect(m.stl!.weldTolerance).toBeCloseTo(WELD_RELATIVE_TOLERANCE * Math.sqrt(3), 20);
       const r = inspectSurface(openSurface(bytes, 'cube.stl'));
+      expect(r.stl).toEqual(m.stl);
       expect(r.eulerCharacteristic).toBe(2);
       expect(r.boundaryLoops).toBe(0);
       expect(r.edges).toBe(18);
@@ -164,6 +166,31 @@ describe('binary and ASCII STL cube', () => {
       const m = await readMeshFile(join(dir, 'cube.stl.gz'), { weldTolerance: 0 });
       expect(m.stl!.weldTolerance).toBe(0);
       expect(m.positions.length / 3).toBe(8); // exact copies weld at tolerance 0
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});
+
+describe('the command on STL (exit codes: 0 done, 2 bad input or usage; common practice of this CLI, cli/run.ts)', () => {
+  it('inspect reports the weld; a truncated file and a negative tolerance exit 2 with one line', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'orthodrome-stl-cli-'));
+    try {
+      const bytes = binaryStl(cubeFacets(), 'solid cube');
+      writeFileSync(join(dir, 'cube.stl'), bytes);
+      writeFileSync(join(dir, 'cut.stl'), bytes.subarray(0, 300));
+      const ok = runCli(['inspect', join(dir, 'cube.stl'), '--json', '--weld-tolerance', '0.001']);
+      expect(ok.code).toBe(0);
+      const r = JSON.parse(ok.stdout);
+      expect(r.stl).toMatchObject({ encoding: 'binary', facets: 12, mergedVertices: 28, weldTolerance: 0.001 });
+      expect(r.eulerCharacteristic).toBe(2);
+      const cut = runCli(['inspect', join(dir, 'cut.stl')]);
+      expect(cut.code).toBe(2);
+      expect(cut.stderr.trim().split('\n')).toHaveLength(1);
+      expect(cut.stderr).toContain(`${join(dir, 'cut.stl')}: facet 4: binary STL truncated`);
+      const neg = runCli(['inspect', join(dir, 'cube.stl'), '--weld-tolerance', '-1']);
+      expect(neg.code).toBe(2);
+      expect(neg.stderr).toContain("--weld-tolerance must be a length ≥ 0 in mesh units, got '-1'");
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
