@@ -30,8 +30,8 @@ beforeAll(() => {
 });
 
 describe('isolines command', () => {
-  it('distance from a corner every 2.5: quarter circles, --json has the documented keys', () => {
-    const r = runCli(['isolines', join(dir, 'square.obj'), '--from', 'v:0', '--every', '2.5', '--json']);
+  it('distance from a corner every 2.5: quarter circles and quarter-annulus bands, --json has the documented keys', () => {
+    const r = runCli(['isolines', join(dir, 'square.obj'), '--from', 'v:0', '--every', '2.5', '--bands', '--json']);
     expect(r.code).toBe(0);
     const j = JSON.parse(r.stdout);
     expect(j).toHaveProperty('timings');
@@ -46,13 +46,7 @@ describe('isolines command', () => {
       expect(Math.abs(cs[0].length - (Math.PI * L) / 2) / ((Math.PI * L) / 2)).toBeLessThan(0.01);
       for (const p of cs[0].points) expect(Math.abs(Math.hypot(p[0], p[1]) - L)).toBeLessThan(1e-9); // exact crossings
     }
-  });
-
-  it('--bands: band areas πr²/4 slices, summing to the square', () => {
     // closed form: quarter annuli of area π(r2² − r1²)/4 inside the square (elementary); all the bands tile the square, area W²
-    const r = runCli(['isolines', join(dir, 'square.obj'), '--from', 'v:0', '--every', '2.5', '--bands', '--json']);
-    expect(r.code).toBe(0);
-    const j = JSON.parse(r.stdout);
     const b1 = j.bands.find((b: { lower: number }) => b.lower === 2.5);
     expect(Math.abs(b1.area - (Math.PI * (25 - 6.25)) / 4) / b1.area).toBeLessThan(0.01);
     expect(b1.planArea).toBeCloseTo(b1.area, 9);
@@ -72,21 +66,17 @@ describe('isolines command', () => {
     for (const c of b.curves) for (const p of c.points) expect(p[1]).toBeCloseTo(c.level, 9);
   });
 
-  it('writes curve files by extension (GeoJSON with band polygons, OBJ l lines)', () => {
+  it('writes curve files by extension (GeoJSON with band polygons)', () => {
     const g = join(dir, 'iso.geojson');
     expect(runCli(['isolines', join(dir, 'square.obj'), '--from', 'v:0', '--levels', '3,6', '--bands', '-o', g]).code).toBe(0);
     const fc = JSON.parse(readFileSync(g, 'utf8'));
     expect(fc.type).toBe('FeatureCollection');
     expect(fc.features.filter((f: { geometry: { type: string } }) => f.geometry.type === 'LineString').length).toBe(2);
     expect(fc.features.filter((f: { geometry: { type: string } }) => f.geometry.type === 'Polygon').length).toBe(1);
-    const o = join(dir, 'iso.obj');
-    expect(runCli(['isolines', join(dir, 'square.obj'), '--from', 'v:0', '--levels', '3,6', '-o', o]).code).toBe(0);
-    expect(readFileSync(o, 'utf8').split('\n').filter((l) => l.startsWith('l ')).length).toBe(2);
   });
 
   it('bad input: one line, exit 2', () => {
     const cases: string[][] = [
-      ['isolines', join(dir, 'square.obj'), '--from', 'v:0', '--every', '1', '--levels', '2'],
       ['isolines', join(dir, 'square.obj'), '--from', 'v:9999', '--every', '1'],
       ['isolines', join(dir, 'square.obj'), '--field', 'nope', '--every', '1'],
       ['isolines', join(dir, 'square.obj'), '--field', join(dir, 'missing.csv'), '--every', '1'],
