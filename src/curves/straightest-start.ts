@@ -27,7 +27,7 @@
  *   direction in no corner points off the surface.
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
-import { next, prev, faceOf } from '../mesh/topology.js';
+import { next, prev, faceOf, forEachOutgoing } from '../mesh/topology.js';
 import type { SurfacePoint } from '../mesh/surface-point.js';
 import { layoutAlong } from '../metric/layout.js';
 import { cornerAngleAt, type WalkStart } from './straightest-walk.js';
@@ -67,12 +67,7 @@ function faceNormal(t: IntrinsicMesh['topology'], P: Float64Array, f: number): V
 /** The outgoing half-edges of v, counter-clockwise from `vertexHalfedge` (a boundary vertex: from its boundary edge). */
 function fanOf(t: IntrinsicMesh['topology'], v: number): number[] {
   const out: number[] = [];
-  const h0 = t.vertexHalfedge[v]!;
-  let h = h0;
-  do {
-    out.push(h);
-    h = t.twin[prev(h)]!;
-  } while (h >= 0 && h !== h0 && out.length <= t.tri.length);
+  forEachOutgoing(t, v, (h) => out.push(h));
   return out;
 }
 
@@ -91,11 +86,11 @@ export function tangentNormal(m: IntrinsicMesh, P: Float64Array, p: SurfacePoint
     if (nf && ng) return unit([nf[0] + ng[0], nf[1] + ng[1], nf[2] + ng[2]]) ?? nf;
     return nf ?? ng;
   }
-  const s: Vec3 = [0, 0, 0], scratch = new Float64Array(3);
+  const s: Vec3 = [0, 0, 0];
   for (const h of fanOf(t, p.vertex)) {
     const n = faceNormal(t, P, faceOf(h));
     if (!n) continue;
-    const a = cornerAngleAt(m, h, scratch);
+    const a = cornerAngleAt(m, h);
     s[0] += a * n[0]; s[1] += a * n[1]; s[2] += a * n[2];
   }
   return unit(s);
@@ -148,7 +143,7 @@ export function rotateInto(a: Vec3, from: Vec3, to: Vec3): Vec3 {
 
 /** {@link walkStartOf} at a vertex (see the module comment for the map from the plane to the fan). */
 function vertexStart(m: IntrinsicMesh, P: Float64Array, v: number, n: Vec3, d: Vec3): WalkStart | null {
-  const t = m.topology, fan = fanOf(t, v), k = fan.length, scratch = new Float64Array(3);
+  const t = m.topology, fan = fanOf(t, v), k = fan.length;
   const boundary = t.twin[fan[0]!]! < 0;
   const pv = at(P, v);
   const normals = fan.map((h) => faceNormal(t, P, faceOf(h)));
@@ -167,7 +162,7 @@ function vertexStart(m: IntrinsicMesh, P: Float64Array, v: number, n: Vec3, d: V
   const r2 = cross(n, r1);
   const angleOf = (q: Vec3) => Math.atan2(dot(q, r2), dot(q, r1));
   const delta = angleOf(d);
-  const alpha = fan.map((h) => cornerAngleAt(m, h, scratch));
+  const alpha = fan.map((h) => cornerAngleAt(m, h));
   const start = (h: number, gamma: number): WalkStart => ({ base: h, x: 0, y: 0, dx: Math.cos(gamma), dy: Math.sin(gamma), entry: 'vertex' });
   for (let i = 0; i < k; i++) {
     const a = angleOf(dirs[i]!), c = angleOf(dirs[(i + 1) % dirs.length]!);

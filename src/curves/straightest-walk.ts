@@ -36,8 +36,8 @@
  * boundary vertex. The kernel never throws: it returns a status.
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
-import { next, prev, faceOf, isBoundaryVertex, type Topology } from '../mesh/topology.js';
-import { anglesOfSides } from '../metric/triangle.js';
+import { next, prev, faceOf, isBoundaryVertex, nextOutgoing, type Topology } from '../mesh/topology.js';
+import { angleOpposite } from '../metric/triangle.js';
 import { layoutAlong } from '../metric/layout.js';
 import type { SurfacePoint } from '../query/surface-point.js';
 
@@ -115,10 +115,9 @@ class Walk {
 }
 
 /** Interior angle of the face of `h` at the tail of `h` (opposite side next(h)), radians. */
-export function cornerAngleAt(m: IntrinsicMesh, h: number, scratch: Float64Array): number {
+export function cornerAngleAt(m: IntrinsicMesh, h: number): number {
   const L = m.edgeLength, e = m.topology.edgeOf;
-  anglesOfSides(L[e[h]!]!, L[e[next(h)]!]!, L[e[prev(h)]!]!, scratch, 0);
-  return scratch[1]!;
+  return angleOpposite(L[e[next(h)]!]!, L[e[h]!]!, L[e[prev(h)]!]!);
 }
 
 /**
@@ -236,19 +235,19 @@ function bk(base: number, k: number): number {
  */
 function collectFan(w: Walk, m: IntrinsicMesh, h0: number): number {
   const t = m.topology;
-  let h = h0, n = 0;
-  do {
+  let n = 0;
+  for (let h = h0; h >= 0; h = nextOutgoing(t, h0, h)) {
+    if (n === t.tri.length) return 0; // not a fan (a broken topology): no way on
     if (n === w.fan.length) {
       const f = new Int32Array(2 * n), a = new Float64Array(2 * n);
       f.set(w.fan); a.set(w.ang);
       w.fan = f; w.ang = a;
     }
     w.fan[n] = h;
-    w.ang[n] = cornerAngleAt(m, h, w.tri3);
+    w.ang[n] = cornerAngleAt(m, h);
     n++;
-    h = t.twin[prev(h)]!;
-  } while (h >= 0 && h !== h0 && n <= t.tri.length);
-  return h === h0 ? n : 0;
+  }
+  return n;
 }
 
 /** Barycentric coordinates of layout point (x, y) on corners A, B, C of the layout (clamped to the face). */
