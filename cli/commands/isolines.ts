@@ -178,7 +178,10 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
   for (const l of resolver?.landings ?? []) L.push(`  ${l.spec} landed at (${l.position.join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
   for (const level of r.levels) {
     const cs = r.curves.filter((c) => c.level === level);
-    if (cs.length === 0) continue;
+    if (cs.length === 0) {
+      if (levels) L.push(`  level ${fmt(level, 9)}: no curve (the field does not cross it)`);
+      continue;
+    }
     const closed = cs.filter((c) => c.closed).length;
     L.push(`  level ${fmt(level, 9)}: ${cs.length} curve(s) (${closed} closed, ${cs.length - closed} open), length ${fmt(cs.reduce((a, c) => a + c.length, 0), 9)}`);
   }
