@@ -136,9 +136,20 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
   for (let k = 0; k < n; k++) perm[k] = perm0[post0[k]!]!;
   const pinv = inversePermutation(perm);
   const C = permutedPattern(Alower, pinv);
-  const parent = eliminationTree(n, C.upPtr, C.upIdx);
+  // A postorder is an equivalent reordering: the elimination tree of the
+  // reordered matrix is the same tree relabelled, and every column keeps its
+  // count (Liu, "The role of elimination trees in sparse factorization",
+  // SIAM J. Matrix Anal. Appl. 11(1), 1990, §3), so both are relabelled
+  // instead of computed again.
+  const newOf = inversePermutation(post0);
+  const parent = new Int32Array(n);
+  const colCount = new Int32Array(n);
+  for (let k = 0; k < n; k++) {
+    const q = parent0[post0[k]!]!;
+    parent[k] = q === -1 ? -1 : newOf[q]!;
+    colCount[k] = count0[post0[k]!]!;
+  }
   const post = postorder(parent, n);
-  const colCount = columnCounts(n, C.lowPtr, C.lowIdx, parent, post);
   const lColPtr = new Int32Array(n + 1);
   let total = 0;
   for (let k = 0; k < n; k++) {
