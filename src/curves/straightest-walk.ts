@@ -39,7 +39,7 @@ import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import { next, prev, faceOf, isBoundaryVertex, nextOutgoing, type Topology } from '../mesh/topology.js';
 import { angleOpposite } from '../metric/triangle.js';
 import { layoutAlong } from '../metric/layout.js';
-import type { SurfacePoint } from '../query/surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
 
 /** How close (relative to an edge's length) a crossing must come to a corner to pass through the vertex. */
 export const VERTEX_SNAP = 1e-9;

@@ -143,7 +143,6 @@ export function straightestLine(surface: StraightSurface, start: SurfacePoint, o
   const { topology: t, positions } = surface;
   if (positions.length !== 3 * t.nv) throw usageError(`expected ${3 * t.nv} coordinates (x, y, z per vertex), got ${positions.length}`, 'positions');
   if (options.mesh && options.mesh.topology !== t) throw usageError('the edge lengths given (mesh) are for another topology', 'mesh');
-  const mesh = options.mesh ?? intrinsicFromPositions(t, positions);
   const p = checkSurfacePoint(start, t, 'start');
   const length = options.length;
   if (!(typeof length === 'number' && Number.isFinite(length) && length > 0)) throw usageError(`length must be a positive number of mesh units, got ${length}`);
@@ -153,6 +152,7 @@ export function straightestLine(surface: StraightSurface, start: SurfacePoint, o
     throw usageError(`heading must be a finite number of degrees, got ${options.heading}`);
   }
   const refIn = vec3(options.reference, 'reference') ?? ([...DEFAULT_REFERENCE] as Vec3);
+  const mesh = options.mesh ?? intrinsicFromPositions(t, positions);
   const maxSteps = options.maxSteps ?? defaultMaxSteps(mesh, length);
   if (!(Number.isInteger(maxSteps) && maxSteps >= 1)) throw usageError(`maxSteps must be a whole number ≥ 1, got ${maxSteps}`);
 
