@@ -16,3 +16,5 @@
 export * from './core.js';
 export { loadSurface, type LoadOptions } from './api/load.js';
 export { writeFileAtomic } from './io/atomic.js';
+// batch scoring (`orthodrome score`): Node entry only, so the browser bundle does not carry the rules schema library
+export * from './score/index.js';
