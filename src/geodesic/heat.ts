@@ -59,7 +59,7 @@ import { tail } from '../mesh/topology.js';
 import { addSourceHeat, sourceValue, sourceDirichlet } from './heat-sources.js';
 import { pinnedPoisson, factorShiftedPoisson, SourcePoisson } from './heat-poisson.js';
 import { assembleDivergence, heatCeiling, relayFaces, type RelayWork } from './heat-relay.js';
-import { usageError, numericError, isOrthodromeError, type OrthodromeError } from '../errors.js';
+import { usageError, numericError, isOrthodromeError } from '../errors.js';
 import { HeatStep, maskIndices, type HeatStepParts } from './heat-step.js';
 
 export {
@@ -180,7 +180,7 @@ export class HeatSolver {
     mats.push(patternMatrix(p, pinned.values));
     // heatD shares heatN's blocks wherever the boundary rows do not reach (multifrontal-pair.ts)
     const fs = CholeskyFactor.factorMany(mats, sym, { executor: opts.factorExecutor ?? null, pairFirst: mats.length === 3 });
-    const heatN = factorOrThrow(fs[0]!), heatD = mats.length === 3 ? factorOrThrow(fs[1]!) : null;
+    const heatN = CholeskyFactor.orThrow(fs[0]!), heatD = mats.length === 3 ? CholeskyFactor.orThrow(fs[1]!) : null;
     // a singular pinned Poisson matrix (a component held together by faces without area): L + εM instead
     const pf = fs[mats.length - 1]!, shifted = !(pf instanceof CholeskyFactor);
     const { factor: poisson, blocked } = pf instanceof CholeskyFactor ? { factor: pf, blocked: pinned.blocked } : factorShiftedPoisson(p, sym, Lv, Mv, inactive, h);
@@ -297,9 +297,4 @@ export class HeatSolver {
       phi[v] = d > 0 ? d : 0; // clamps tiny negatives
     }
   }
-}
-
-function factorOrThrow(f: CholeskyFactor | OrthodromeError): CholeskyFactor {
-  if (f instanceof CholeskyFactor) return f;
-  throw f;
 }

@@ -220,6 +220,12 @@ export class CholeskyFactor {
     return [fa, status[1]! >= 0 ? fb.failure(status[1]!) : fb];
   }
 
+  /** An entry of {@link CholeskyFactor.factorMany}'s result as a factor, or throws its error. */
+  static orThrow(f: CholeskyFactor | OrthodromeError): CholeskyFactor {
+    if (f instanceof CholeskyFactor) return f;
+    throw f;
+  }
+
   /** Values of L stored by this factor (shared blocks excluded). */
   get storedValues(): number {
     return this.Lx.length;
