@@ -109,7 +109,7 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
   if (o.output) checkFieldOutput(o.output, [mesh]);
   const run = checkOptions(o);
   const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance });
-  const resolver = await pointLocator(surface);
+  const resolver = await pointLocator(surface, [...(o.from ?? []), ...(o.fromCurve ?? []), ...(o.to ?? [])]); // snapping code only for p: points
   const sets = sourceSets(mesh, surface, resolver, o);
   const targets: SurfacePoint[] = (o.to ?? []).map((s) => resolver.resolve(s, '--to'));
   // only -o needs every vertex; --json reports what was computed (machine output never changes the work)

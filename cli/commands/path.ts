@@ -65,8 +65,8 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
   if (!o.to && !o.closed) throw usageError('give --to, or --closed to return to the start');
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
   const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance });
-  const resolver = await pointLocator(surface);
   const specs = [o.from, ...(o.via ?? []), ...(o.to ? [o.to] : [])];
+  const resolver = await pointLocator(surface, specs); // snapping code only for p: points
   const labels = ['--from', ...(o.via ?? []).map(() => '--via'), ...(o.to ? ['--to'] : [])];
   const stops = specs.map((s, i) => resolver.resolveAll(s, labels[i])); // a split vertex: every copy
   if (o.closed) stops.push(stops[0]!);

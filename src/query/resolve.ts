@@ -1,132 +1,22 @@
 /**
- * Turning user point specs into surface points on a given surface, and the
- * bookkeeping for vertices that were split while building the topology.
- *
- * Split vertices (`--split-nonmanifold`: bow-ties, ends of cut edges) have
- * several topology copies of one file vertex (`Topology.vertexOrigin` maps
- * each copy back). A point at such a vertex lies on every copy: as a source
- * it seeds all of them ({@link PointResolver.copies}), and a per-vertex
- * value for the file vertex is the minimum over its copies
- * ({@link PointResolver.foldCopies}).
+ * The point resolver with snapping: `p:X,Y,Z` and `p:X,Y` specs snap to the
+ * surface through query/snap.ts (three.js and three-mesh-bvh). See
+ * query/resolver.ts for the resolver itself.
  */
 import type { Topology } from '../mesh/topology.js';
-import { checkSurfacePoint, parsePointSpec, type SurfacePoint } from '../mesh/surface-point.js';
-import { SurfaceLocator, type SnapResult } from './snap.js';
-import { vertexCopies } from './copies.js';
-import { isLoopSpec, resolveLoopSpec } from './loop-spec.js';
-import { commonFaces } from '../metric/face-points.js';
-import { usageError } from '../errors.js';
+import { PointResolver as Resolver } from './resolver.js';
+import { SurfaceLocator } from './snap.js';
 
-/** Where a `p:` spec landed: the surface point, its position and how far it moved. */
-export interface Landing extends SnapResult {
-  /** The spec as typed. */
-  spec: string;
-}
+export type { Landing, Snapper } from './resolver.js';
 
-/** Resolves point specs (text or parsed) on a surface; `p:` specs snap to the surface (see {@link SurfaceLocator}). */
-export class PointResolver {
-  private locator: SurfaceLocator | null = null;
-  private copyList: Map<number, number[]> | null = null;
-  /** Every `p:` spec resolved so far, in order: where it landed and how far it moved. */
-  readonly landings: Landing[] = [];
-
+/** Resolves point specs on a surface; `p:` specs snap to the surface (see {@link SurfaceLocator}). */
+export class PointResolver extends Resolver {
   /**
    * @param topology - the mesh connectivity
    * @param positions - x, y, z per topology vertex
    * @param seams - the orientation seams of a non-orientable surface (`BuildReport.orientationSeams`), for loop specs
    */
-  constructor(
-    private readonly topology: Topology,
-    private readonly positions: Float64Array,
-    private readonly seams?: Int32Array,
-  ) {}
-
-  /** True when `text` is meant as a loop spec (`loop:` or `loop@`; it may still be malformed). */
-  isLoop(text: string): boolean {
-    return isLoopSpec(text);
-  }
-
-  /**
-   * The source curves of one boundary loop named by a loop spec (`loop:ID`,
-   * `loop@X,Y,Z`, `loop@X,Y`: see query/loop-spec.ts); `label` names the
-   * option and `file` the mesh in errors.
-   */
-  resolveLoop(text: string, label = 'loop', file?: string): SurfacePoint[][] {
-    return resolveLoopSpec(text, { topology: this.topology, positions: this.positions, ...(this.seams ? { seams: this.seams } : {}) }, label, file).curves;
-  }
-
-  /**
-   * Parses and checks `text`; `label` names the option in errors (e.g.
-   * `--from`). `p:X,Y,Z` is the nearest surface point in 3D; `p:X,Y` is the
-   * surface point straight below or above (X, Y) along +z (the highest one
-   * when the vertical line meets the surface several times; a `USAGE` error
-   * naming the point when it meets none). The result is in canonical
-   * spelling (`checkSurfacePoint`).
-   */
-  resolve(text: string, label = 'point'): SurfacePoint {
-    const spec = parsePointSpec(text, label);
-    if (spec.kind === 'position' || spec.kind === 'column') {
-      this.locator ??= new SurfaceLocator(this.topology, this.positions);
-      const hit = spec.kind === 'position' ? this.locator.closest(spec.xyz) : this.locator.dropVertical(spec.xy, text, label);
-      const point = checkSurfacePoint(hit.point, this.topology, label);
-      this.landings.push({ ...hit, point, spec: text });
-      return point;
-    }
-    return checkSurfacePoint(spec, this.topology, label);
-  }
-
-  /**
-   * A curve as typed: point specs separated by `;` ({@link resolve} each),
-   * at least two, each consecutive pair on a common face (a `USAGE` error
-   * naming `label` and the curve otherwise).
-   */
-  resolveCurve(text: string, label = 'curve'): SurfacePoint[] {
-    const pts = text.split(';').map((x) => x.trim()).filter(Boolean).map((x) => this.resolve(x, label));
-    if (pts.length < 2) throw usageError(`a curve needs at least two points in '${text}'`, label);
-    for (let i = 1; i < pts.length; i++) {
-      if (commonFaces(this.topology, pts[i - 1]!, pts[i]!).length === 0) {
-        throw usageError(`points ${i} and ${i + 1} of '${text}' share no face (insert the points where the curve crosses edges)`, label);
-      }
-    }
-    return pts;
-  }
-
-  /** The topology copies of a point: every copy of a split vertex, else the point itself. */
-  copies(p: SurfacePoint): SurfacePoint[] {
-    if (p.kind !== 'vertex') return [p];
-    const list = this.copyMap().get(this.topology.vertexOrigin[p.vertex]!);
-    return list ? list.map((vertex) => ({ kind: 'vertex', vertex })) : [p];
-  }
-
-  /** {@link resolve}, then every copy of the point ({@link copies}): what a source spec seeds. */
-  resolveAll(text: string, label = 'point'): SurfacePoint[] {
-    return this.copies(this.resolve(text, label));
-  }
-
-  /**
-   * Per-topology-vertex values with every copy of a split vertex set to the
-   * minimum over its copies (the distance to the file vertex). Returns
-   * `values` itself when nothing was split.
-   */
-  foldCopies(values: Float64Array): Float64Array {
-    const map = this.copyMap();
-    if (map.size === 0) return values;
-    const out = values.slice();
-    for (const list of map.values()) {
-      let m = Infinity;
-      for (const v of list) if (out[v]! < m) m = out[v]!;
-      for (const v of list) out[v] = m;
-    }
-    return out;
-  }
-
-  /** The topology copies of every split file vertex (one list per file vertex, two or more copies each). */
-  splitGroups(): number[][] {
-    return [...this.copyMap().values()];
-  }
-
-  /** File vertex → its topology copies, for split vertices only. */
-  private copyMap(): Map<number, number[]> {
-    return (this.copyList ??= vertexCopies(this.topology));
+  constructor(topology: Topology, positions: Float64Array, seams?: Int32Array) {
+    super(topology, positions, seams, (t, p) => new SurfaceLocator(t, p));
   }
 }

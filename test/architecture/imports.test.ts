@@ -34,10 +34,11 @@ describe('the import graph reader', () => {
     const specs = importsOf('cli/orthodrome.ts').map((e) => e.spec);
     expect(specs).toContain('commander');
     expect(specs).toContain('./commands/distance.js');
-    // src/api/locate.ts imports the resolver by a dynamic import and by a type-only import
+    // src/api/locate.ts imports the snapping resolver by a dynamic import, a type by a type-only import
     const locate = importsOf('src/api/locate.ts');
     expect(locate.some((e) => e.dynamic && e.target === 'src/query/resolve.ts')).toBe(true);
-    expect(locate.some((e) => e.typeOnly && e.target === 'src/query/resolve.ts')).toBe(true);
+    expect(locate.some((e) => e.typeOnly && !e.dynamic && e.target === 'src/mesh/topology.ts')).toBe(true);
+    expect(locate.some((e) => !e.typeOnly && !e.dynamic && e.target === 'src/query/resolver.ts')).toBe(true);
   });
 
   it("finds the cycles of a small graph (Tarjan 1972: strongly connected components)", () => {
