@@ -15,8 +15,8 @@
  * method and the step, never a distance or "unreachable".
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
-import type { SurfacePoint } from '../query/surface-point.js';
-import { checkSurfacePoint } from '../query/surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
+import { checkSurfacePoint } from '../mesh/surface-point.js';
 import { inputError, numericError } from '../errors.js';
 import type { DistanceField, DistanceMethod } from './field.js';
 import type { SourceSet } from './sources.js';
