@@ -36,19 +36,20 @@ function baseName(name: string): string {
 
 /**
  * Guesses the format (after a UTF-8 byte-order mark, if any): PLY files start with `ply` and a newline; bytes
- * of exactly the size a binary STL header declares (84 + 50·n), or beginning with the STL keyword `solid`, are
- * STL; text whose first statement is an OBJ keyword (or any text named `.obj`) is OBJ. The name decides only
+ * of exactly the size a binary STL header declares (84 + 50·n; for a text file that would take over 500 million
+ * facets), or beginning with the STL keyword `solid`, are STL; text whose first statement is an OBJ keyword (or any text named `.obj`) is OBJ. The name decides only
  * when the bytes do not (`.stl`: a truncated binary STL is reported as such).
  */
 export function sniffMesh(b: Uint8Array, name = ''): Sniffed {
   const gzip = isGzip(b);
   const base = baseName(name);
   if (gzip) return { format: base.endsWith('.obj') ? 'obj' : base.endsWith('.ply') ? 'ply' : base.endsWith('.stl') ? 'stl' : 'unknown', gzip };
-  if (isBinaryStl(b)) return { format: 'stl', gzip };
+  const raw = b;
   b = stripBom(b);
   if (b.length >= 4 && b[0] === 0x70 && b[1] === 0x6c && b[2] === 0x79 && (b[3] === 10 || b[3] === 13)) {
     return { format: 'ply', gzip };
   }
+  if (isBinaryStl(raw)) return { format: 'stl', gzip };
   if (looksLikeAsciiStl(b) || startsWithSolid(b)) return { format: 'stl', gzip };
   // First non-blank bytes of the text.
   let p = 0;
