@@ -16,6 +16,7 @@ import { writeCurves, curveFormatOf, CURVE_FORMATS } from '../../src/api/io.js';
 interface StraightCliOptions {
   from: string;
   heading?: string;
+  plan?: boolean;
   toward?: string;
   length: string;
   reference?: string;
@@ -50,7 +51,8 @@ export function registerStraight(program: Command): void {
     .description('walk straight on the surface from a point, on a bearing or toward a point, for a given length (a straightest line)')
     .argument('<mesh>', 'OBJ, PLY or STL file (optionally .gz)')
     .requiredOption('--from <point>', 'start: v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2, p:X,Y,Z (nearest surface point in 3D) or p:X,Y (straight below or above, along +z)')
-    .option('--heading <degrees>', 'bearing of the first step in degrees, clockwise from the reference direction as seen from the side the surface normal points to (with +y as north and normals up: 90 is east, +x)')
+    .option('--heading <degrees>', 'bearing of the first step in degrees, clockwise from the reference direction as seen from the side the surface normal points to (with +y as north and normals up: 90 is east, +x); measured in the tangent plane, so on a slope it is not the map bearing (see --plan)')
+    .option('--plan', 'measure --heading on the map instead: clockwise from the reference\'s horizontal direction seen from above (+z), like a compass bearing; the first step is the tangent direction straight above or below it')
     .option('--toward <x,y,z>', 'first step toward this point: the chord from the start projected onto the tangent plane at the start')
     .requiredOption('--length <length>', 'length to walk on the surface, in mesh units')
     .option('--reference <x,y,z>', 'direction of heading 0, projected onto the tangent plane at the start (default 0,1,0: +y); refused where it is normal to the surface')
@@ -101,7 +103,7 @@ async function runStraight(mesh: string, o: StraightCliOptions): Promise<number>
   let line: StraightestLine;
   try {
     line = straightestLine(surface, start, {
-      length, ...(heading !== undefined ? { heading } : {}), ...(toward ? { toward } : {}), ...(reference ? { reference } : {}), ...(maxSteps !== undefined ? { maxSteps } : {}),
+      length, ...(heading !== undefined ? { heading, plan: Boolean(o.plan) } : {}), ...(toward ? { toward } : {}), ...(reference ? { reference } : {}), ...(maxSteps !== undefined ? { maxSteps } : {}),
     });
   } catch (e) {
     // name the option the library's refusal is about
@@ -123,7 +125,7 @@ async function runStraight(mesh: string, o: StraightCliOptions): Promise<number>
     const format = curveFormatOf(o.output)!;
     const text = writeCurves(format, [{
       closed: false, length: line.length, points: line.points,
-      properties: { requestedLength: length, stoppedAtBoundary: line.stoppedAtBoundary, heading: line.heading ?? null, from: o.from },
+      properties: { requestedLength: length, stoppedAtBoundary: line.stoppedAtBoundary, heading: line.heading ?? null, planBearing: line.planBearing ?? null, from: o.from },
     }], { comment: `orthodrome straight ${mesh} --from ${o.from}` });
     await writeFileAtomic(o.output, text);
   }
@@ -138,6 +140,7 @@ async function runStraight(mesh: string, o: StraightCliOptions): Promise<number>
       start: formatSurfacePoint(line.start),
       end: formatSurfacePoint(line.end),
       heading: line.heading ?? null,
+      planBearing: line.planBearing ?? null,
       reference: reference ?? [...DEFAULT_REFERENCE],
       direction: line.direction,
       normal: line.normal,
@@ -152,7 +155,9 @@ async function runStraight(mesh: string, o: StraightCliOptions): Promise<number>
   const L = [`${mesh}: straightest line ${fmt(line.length, 9)} mesh units${line.stoppedAtBoundary ? ` of ${fmt(length, 9)} asked: stopped at the boundary${cut ? ' (or at a cut made by --split-nonmanifold)' : ''}` : ''}, ${n} points, ${line.vertexPassages} vertex passage(s)`];
   for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at ${v3(l.position)}, moved ${fmt(l.distance, 4)} mesh units`);
   const ref = reference ?? DEFAULT_REFERENCE;
-  const bearing = line.heading === undefined ? '' : `bearing ${fmt(line.heading, 9)}° clockwise from (${ref.join(', ')}) projected on the tangent plane`;
+  const tangentBearing = line.heading === undefined ? '' : `bearing ${fmt(line.heading, 9)}° clockwise from (${ref.join(', ')}) projected on the tangent plane`;
+  const mapBearing = line.planBearing === undefined ? '' : `map bearing ${fmt(line.planBearing, 9)}° from (${ref.join(', ')}) seen from above`;
+  const bearing = [o.plan ? mapBearing : tangentBearing, o.plan ? tangentBearing : mapBearing].filter(Boolean).join('; ');
   L.push(`  from ${formatSurfacePoint(line.start)} at ${v3(points[0]!)}, ${toward ? `toward ${v3(toward)}${bearing ? ` (${bearing})` : ''}` : bearing}`);
   L.push(`  first direction ${v3(line.direction.map((x) => Number(x.toPrecision(9))))}, tangent-plane normal ${v3(line.normal.map((x) => Number(x.toPrecision(9))))}`);
   L.push(`  to ${formatSurfacePoint(line.end)} at ${v3(points[n - 1]!)}`);

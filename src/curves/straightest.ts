@@ -18,6 +18,13 @@
  *   reference is the projection of `reference` (default +y) onto the
  *   tangent plane; a reference within {@link REFERENCE_TOLERANCE} of the
  *   normal has no usable projection and is refused (`USAGE`): give another.
+ *   With `plan`, the bearing is a map (compass) bearing instead: clockwise
+ *   seen from above (+z) from the reference's horizontal direction, and the
+ *   first step is the tangent direction straight above or below that
+ *   horizontal direction (lifted onto the tangent plane along z). On
+ *   sloping ground the two differ: a tangent-plane bearing of 40° on a
+ *   40° slope can be about 31° on the map. `planBearing` in the result is
+ *   the map bearing of the first step either way.
  * - `toward`: a 3D point; the direction is the chord from the start to it,
  *   projected onto the tangent plane (the line then walks toward the point's
  *   foot on the plane; it reaches the point itself only on a flat surface).
@@ -58,6 +65,8 @@ export interface StraightestOptions {
   length: number;
   /** Bearing in degrees, clockwise from the reference direction seen from the normal's side. */
   heading?: number;
+  /** Measure `heading` in plan view: clockwise from the reference's horizontal direction seen from +z (a map bearing). Ignored with `toward`. */
+  plan?: boolean;
   /** A 3D point: the direction is the chord to it projected onto the tangent plane. */
   toward?: ArrayLike<number>;
   /** The direction of heading 0, projected onto the tangent plane (default +y). */
@@ -93,6 +102,8 @@ export interface StraightestLine {
   direction: Vec3;
   /** Bearing of `direction` in degrees in [0, 360), clockwise from the reference; undefined when the reference is normal to the surface (a `toward` walk). */
   heading: number | undefined;
+  /** Map bearing of `direction` in degrees in [0, 360): its horizontal part, clockwise from the reference's horizontal part seen from +z; undefined when either is vertical. */
+  planBearing: number | undefined;
   /** Faces crossed. */
   steps: number;
   /** Vertices the line passed through (where the θ/2 rule chose the way on). */
@@ -163,13 +174,15 @@ export function straightestLine(surface: StraightSurface, start: SurfacePoint, o
   const ref = refLen > 0 && Math.hypot(...refProj) > REFERENCE_TOLERANCE * refLen ? unit(refProj) : null;
   const left = ref ? cross(n, ref) : null; // n × ref: 90° counter-clockwise of the reference
   let d: Vec3;
-  if (options.heading !== undefined) {
+  if (options.heading !== undefined && !options.plan) {
     if (!ref || !left) {
       throw usageError(`the reference direction (${refIn.join(', ')}) is normal to the surface at the start (its projection on the tangent plane is below ${REFERENCE_TOLERANCE} of its length); give another reference`, 'reference');
     }
     const a = (options.heading * Math.PI) / 180, c = Math.cos(a), s = Math.sin(a);
     // clockwise seen from the normal's side: d = cos α · ref − sin α · (n × ref)
     d = unit([c * ref[0] - s * left[0], c * ref[1] - s * left[1], c * ref[2] - s * left[2]])!;
+  } else if (options.heading !== undefined) {
+    d = planDirection(options.heading, refIn, n);
   } else {
     const from = surfacePointPosition(p, t, positions, [0, 0, 0]) as number[];
     const chord: Vec3 = [toward![0] - from[0]!, toward![1] - from[1]!, toward![2] - from[2]!];
@@ -180,7 +193,7 @@ export function straightestLine(surface: StraightSurface, start: SurfacePoint, o
   }
   const heading = ref && left ? bearing(d, ref, left) : undefined;
   const ws = walkStartOf(mesh, positions, p, n, d);
-  const base = { requestedLength: length, start: p, normal: n, direction: d, heading };
+  const base = { requestedLength: length, start: p, normal: n, direction: d, heading, planBearing: planBearingOf(d, refIn) };
   if (!ws) {
     const q = surfacePointPosition(p, t, positions) as Float64Array;
     return { ...base, points: Float64Array.from(q), length: 0, stoppedAtBoundary: true, end: p, steps: 0, vertexPassages: 0 };
@@ -208,4 +221,35 @@ function bearing(d: Vec3, ref: Vec3, left: Vec3): number {
   const deg = (Math.atan2(s, c) * 180) / Math.PI;
   const b = deg < 0 ? deg + 360 : deg;
   return b >= 360 ? 0 : b;
+}
+
+/** Unit horizontal part of a reference (x, y, 0), or null when it is (nearly) vertical. */
+function horizontal(r: Vec3): Vec3 | null {
+  const l = Math.hypot(r[0], r[1], r[2]), h = Math.hypot(r[0], r[1]);
+  return l > 0 && h > REFERENCE_TOLERANCE * l ? [r[0] / h, r[1] / h, 0] : null;
+}
+
+/**
+ * The tangent direction (normal n) whose plan view has map bearing `deg`
+ * from the horizontal part of `ref`: h = cos α·r − sin α·(ẑ × r), lifted
+ * along z onto the plane: d ∝ h − (h·n / n_z)·ẑ.
+ */
+function planDirection(deg: number, ref: Vec3, n: Vec3): Vec3 {
+  const r = horizontal(ref);
+  if (!r) throw usageError(`the reference direction (${ref.join(', ')}) is vertical: it gives no map direction; give another reference`, 'reference');
+  if (!(Math.abs(n[2]) > REFERENCE_TOLERANCE)) {
+    throw usageError('the surface is vertical at the start: a map bearing gives no direction along it; measure the heading in the tangent plane (without plan, --plan)', 'start');
+  }
+  const a = (deg * Math.PI) / 180, c = Math.cos(a), s = Math.sin(a);
+  const h: Vec3 = [c * r[0] + s * r[1], c * r[1] - s * r[0], 0]; // ẑ × r = (−r_y, r_x, 0)
+  const k = (h[0] * n[0] + h[1] * n[1]) / n[2];
+  return unit([h[0], h[1], -k])!;
+}
+
+/** Map bearing of d from the horizontal part of ref ({@link StraightestLine.planBearing}). */
+function planBearingOf(d: Vec3, ref: Vec3): number | undefined {
+  const r = horizontal(ref), dh = Math.hypot(d[0], d[1]);
+  if (!r || !(dh > REFERENCE_TOLERANCE)) return undefined;
+  // the horizontal frame: r and ẑ × r = (−r_y, r_x, 0), 90° counter-clockwise of r seen from +z
+  return bearing([d[0], d[1], 0], r, [-r[1], r[0], 0]);
 }

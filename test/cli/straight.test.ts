@@ -29,6 +29,7 @@ describe('straight', () => {
     const j = JSON.parse(r.stdout);
     for (const k of ['length', 'points', 'stoppedAtBoundary', 'timings']) expect(j).toHaveProperty(k);
     expect(j.length).toBe(5);
+    expect(Math.abs(j.planBearing - 30)).toBeLessThan(1e-9); // on a level plane the map bearing is the heading
     expect(j.stoppedAtBoundary).toBe(false);
     const a = j.points[0], b = j.points[j.points.length - 1];
     expect(a).toEqual([431203.25, 6170402.5, 0]);

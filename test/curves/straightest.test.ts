@@ -377,3 +377,45 @@ describe('reversibility on a noisy terrain', () => {
     expect(walks).toBeGreaterThan(30);
   });
 });
+
+describe('bearings on a sloping plane z = 0.8·x + 0.3·y (elementary)', () => {
+  const s = flatGrid(8, 8, 4, 4, 0.1, 9);
+  for (let i = 0; i < s.positions.length; i += 3) s.positions[i + 2] = 0.8 * s.positions[i]! + 0.3 * s.positions[i + 1]!;
+  const { S } = build(s);
+  const start: SurfacePoint = { kind: 'face', face: 40, bary: [0.3, 0.3, 0.4] };
+  const n = (() => { const v = [-0.8, -0.3, 1], l = Math.hypot(...v); return v.map((x) => x / l); })();
+
+  it('a tangent-plane heading makes that angle with +y projected on the plane, clockwise seen from the normal', () => {
+    const r = straightestLine(S, start, { heading: 40, length: 1.5 });
+    const yp = [0, 1, 0].map((x, i) => x - n[1]! * n[i]!), yl = Math.hypot(...yp);
+    const d = r.direction, cosA = (d[0] * yp[0]! + d[1] * yp[1]! + d[2] * yp[2]!) / yl;
+    expect(Math.abs(cosA - Math.cos((40 * Math.PI) / 180))).toBeLessThan(1e-12);
+    // clockwise seen from the normal: (ref × d) · n < 0 for 0 < α < 180°
+    const c = [yp[1]! * d[2] - yp[2]! * d[1], yp[2]! * d[0] - yp[0]! * d[2], yp[0]! * d[1] - yp[1]! * d[0]];
+    expect(c[0]! * n[0]! + c[1]! * n[1]! + c[2]! * n[2]!).toBeLessThan(0);
+    expect(r.planBearing).not.toBeCloseTo(40, 1); // on the slope the map bearing differs
+  });
+
+  it('a plan (map) bearing: the line\'s plan view runs on that bearing from +y, seen from above, all the way', () => {
+    const r = straightestLine(S, start, { heading: 40, plan: true, length: 1.5 });
+    expect(Math.abs(r.planBearing! - 40)).toBeLessThan(1e-9);
+    const a = pt(r, 0), b = pt(r, count(r) - 1);
+    // a straight line in the plane projects to a straight line on the map, here on bearing 40°
+    const bx = Math.sin((40 * Math.PI) / 180), by = Math.cos((40 * Math.PI) / 180);
+    for (let i = 1; i < count(r); i++) {
+      const p = pt(r, i);
+      expect(Math.abs((p[0] - a[0]) * by - (p[1] - a[1]) * bx)).toBeLessThan(1e-9);
+    }
+    expect((b[0] - a[0]) * bx + (b[1] - a[1]) * by).toBeGreaterThan(0);
+    expectStraight(r, [(b[0] - a[0]) / 1.5, (b[1] - a[1]) / 1.5, (b[2] - a[2]) / 1.5], 2);
+  });
+
+  it('a plan bearing on a vertical wall is refused (USAGE)', () => {
+    const g = flatGrid(2, 2); // the z = 0 grid stood up as the wall x = 0: (x, y, 0) → (0, x, y)
+    for (let i = 0; i < g.positions.length; i += 3) { const [x, y] = [g.positions[i]!, g.positions[i + 1]!]; g.positions.set([0, x, y], i); }
+    const w = build(g);
+    let code = '';
+    try { straightestLine(w.S, { kind: 'face', face: 0, bary: [0.3, 0.3, 0.4] }, { heading: 10, plan: true, length: 0.1 }); } catch (e) { code = (e as { code: string }).code; }
+    expect(code).toBe('USAGE');
+  });
+});
