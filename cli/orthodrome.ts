@@ -12,6 +12,7 @@ import { registerPath } from './commands/path.js';
 import { registerIsolines } from './commands/isolines.js';
 import { registerOffset } from './commands/offset.js';
 import { registerStraight } from './commands/straight.js';
+import { registerScore } from './commands/score.js';
 import { EXIT_INPUT, reportError } from './run.js';
 
 const program = new Command();
@@ -32,6 +33,7 @@ registerPath(program);
 registerIsolines(program);
 registerOffset(program);
 registerStraight(program);
+registerScore(program);
 registerDemo(program);
 
 try {

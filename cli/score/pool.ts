@@ -1,0 +1,60 @@
+/**
+ * The worker pool of `score` (tinypool: worker threads, one mesh per task):
+ * N threads started once, so a run pays Node's start-up once, not once per
+ * mesh. At most N tasks are in flight, so each task starts as soon as it is
+ * handed over and its time limit counts its own work only: past the limit
+ * the task is aborted, which ends its thread (tinypool terminates a worker
+ * whose task is aborted and starts a fresh one), and the mesh becomes an
+ * error row naming the limit. A thread that dies (out of memory) is an
+ * error row too; the run goes on.
+ *
+ * Run from source (tsx), a worker thread on Node 20 does not inherit the
+ * TypeScript loader: the pool then loads a small module that registers
+ * tsx's hooks in the thread before importing worker.ts (as cli/jobs.ts does).
+ */
+import Tinypool from 'tinypool';
+import type { ScoreReply, ScoreTask } from './worker.js';
+
+/** The worker module for the pool: worker.js, or from source a loader module that registers tsx first. */
+function workerFilename(): string {
+  const here = import.meta.url;
+  const url = new URL(here.endsWith('.ts') ? './worker.ts' : './worker.js', here);
+  if (!here.endsWith('.ts')) return url.href;
+  const boot =
+    `const ready = import(${JSON.stringify(import.meta.resolve('tsx/esm/api'))}).then((m) => { m.register(); return import(${JSON.stringify(url.href)}); });\n` +
+    'export default async function (task) { return (await ready).default(task); }\n';
+  return `data:text/javascript,${encodeURIComponent(boot)}`;
+}
+
+/** A pool of `threads` scoring workers with a per-task time limit (ms; 0 = none). */
+export class ScorePool {
+  private readonly pool: Tinypool;
+
+  constructor(readonly threads: number, private readonly timeLimitMs: number) {
+    this.pool = new Tinypool({ filename: workerFilename(), minThreads: threads, maxThreads: threads, idleTimeout: 60_000 });
+  }
+
+  /** Scores one mesh; never rejects: a timeout or a dead thread is an error reply. */
+  async run(task: ScoreTask): Promise<ScoreReply> {
+    const ctl = new AbortController();
+    const timer = this.timeLimitMs > 0 ? setTimeout(() => ctl.abort(), this.timeLimitMs) : undefined;
+    try {
+      return (await this.pool.run(task, { signal: ctl.signal })) as ScoreReply;
+    } catch (e) {
+      if (ctl.signal.aborted) {
+        return { ok: false, limit: true, error: `${task.file}: over the per-mesh time limit of ${this.timeLimitMs / 1000} s; raise it with --time-limit (seconds, 0 for none) or leave out the costly groups (--metrics)` };
+      }
+      const code = (e as { code?: unknown }).code;
+      const oom = code === 'ERR_WORKER_OUT_OF_MEMORY';
+      const msg = e instanceof Error ? e.message.split('\n')[0] : String(e);
+      return { ok: false, limit: oom, error: `${task.file}: ${oom ? 'the worker thread ran out of memory; lower --jobs or --mesh-memory' : `the worker thread stopped: ${msg}`}` };
+    } finally {
+      if (timer) clearTimeout(timer);
+    }
+  }
+
+  /** Stops every thread. */
+  async close(): Promise<void> {
+    await this.pool.destroy();
+  }
+}

@@ -1,0 +1,59 @@
+/**
+ * Worker thread of `orthodrome score` (run by the pool in pool.ts): loads
+ * one mesh, checks the memory estimate against the per-mesh limit, and
+ * computes its metrics. It never throws for a bad mesh: errors come back as
+ * data (the message, and whether a limit was reached), so one mesh's failure
+ * is one error row and the worker goes on to the next.
+ */
+import { loadSurface, scoreSurface, isOrthodromeError } from '../../src/index.js';
+import { estimateScoreBytes, type MetricGroup, type LandmarkSpec, type Metrics, type LandmarkResult } from '../../src/score/index.js';
+import { formatBytes } from '../../src/errors.js';
+
+/** One mesh to score. */
+export interface ScoreTask {
+  /** Path to read. */
+  path: string;
+  /** The path as the results name it (errors are prefixed with it). */
+  file: string;
+  groups: MetricGroup[];
+  landmarks: LandmarkSpec[];
+  heatSamples: number;
+  /** Per-mesh memory limit, bytes (the estimate is checked against it; exact solves get it as their budget). */
+  memoryLimit: number;
+  maxInputBytes: number;
+}
+
+/** The worker's answer. */
+export type ScoreReply =
+  | { ok: true; metrics: Metrics; landmarks: LandmarkResult[] }
+  | { ok: false; error: string; limit: boolean };
+
+/** One line of an error, the file name in front unless it is there already. */
+function message(e: unknown, file: string): { error: string; limit: boolean } {
+  const limit = isOrthodromeError(e) && e.code === 'LIMIT';
+  let text = e instanceof Error ? e.message : String(e);
+  text = text.replace(/\s*\n\s*/g, ' ');
+  if (e instanceof RangeError && /allocation failed|Array buffer allocation|Invalid (typed )?array length/i.test(text)) {
+    return { error: `${file}: out of memory while scoring (${text}); lower --jobs or raise --mesh-memory only if the machine has the memory`, limit: true };
+  }
+  return { error: text.includes(file) ? text : `${file}: ${text}`, limit };
+}
+
+/** Scores one mesh (the pool calls this in a worker thread). */
+export default async function scoreTask(task: ScoreTask): Promise<ScoreReply> {
+  try {
+    const s = await loadSurface(task.path, { maxInputBytes: task.maxInputBytes });
+    const need = estimateScoreBytes(s.topology.nf, task.groups, task.landmarks.length);
+    if (need > task.memoryLimit) {
+      return {
+        ok: false,
+        limit: true,
+        error: `${task.file}: memory estimate ${formatBytes(need)} for ${s.topology.nf} triangles (groups ${task.groups.join(',')}) is over the per-mesh limit of ${formatBytes(task.memoryLimit)}; raise it with --mesh-memory or leave out the costly groups (--metrics)`,
+      };
+    }
+    const r = await scoreSurface(s, { groups: task.groups, landmarks: task.landmarks, heatSamples: task.heatSamples, memoryBudget: task.memoryLimit });
+    return { ok: true, metrics: r.metrics, landmarks: r.landmarks };
+  } catch (e) {
+    return { ok: false, ...message(e, task.file) };
+  }
+}
