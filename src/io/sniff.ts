@@ -35,10 +35,11 @@ function baseName(name: string): string {
 }
 
 /**
- * Guesses the format (after a UTF-8 byte-order mark, if any): PLY files start with `ply` and a newline; bytes
- * of exactly the size a binary STL header declares (84 + 50·n; for a text file that would take over 500 million
- * facets), or beginning with the STL keyword `solid`, are STL; text whose first statement is an OBJ keyword (or any text named `.obj`) is OBJ. The name decides only
- * when the bytes do not (`.stl`: a truncated binary STL is reported as such).
+ * Guesses the format (after a UTF-8 byte-order mark, if any): PLY files start with `ply` and a newline;
+ * bytes of exactly the size a binary STL header declares (84 + 50·n; a text file would need over 500 million
+ * facets for that), or beginning with the STL keyword `solid`, are STL; text whose first statement is an OBJ
+ * keyword (or any text named `.obj`) is OBJ. The name decides only when the bytes do not (`.stl`: a truncated
+ * binary STL is then reported as such).
  */
 export function sniffMesh(b: Uint8Array, name = ''): Sniffed {
   const gzip = isGzip(b);
