@@ -42,20 +42,14 @@ export {
 // paths
 export type { PathMethod } from './geodesic/waypoints.js';
 export { shortestPath, type PathOptions, type SurfaceRoute } from './api/path.js';
-export {
-  straightestLine, defaultMaxSteps, DEFAULT_REFERENCE, REFERENCE_TOLERANCE,
-  type StraightestOptions, type StraightestLine, type StraightSurface,
-} from './curves/straightest.js';
+export { straightestLine, type StraightestOptions, type StraightestLine, type StraightSurface } from './curves/straightest.js';
 
-// curves on the surface: isolines, bands, offsets
+// curves on the surface: isolines, bands, offsets (the rest: `orthodrome/curves`, src/curves/index.ts)
 export { surfaceIsolines, type IsolineOptions, type IsolineResult } from './curves/extract.js';
-export { surfaceOffset, distanceScalarField, type OffsetOptions, type OffsetResult } from './curves/offset.js';
+export { surfaceOffset, type OffsetOptions, type OffsetResult } from './curves/offset.js';
 export type { SurfaceCurve, ScalarField, LevelOptions } from './curves/isolines.js';
-export { DEFAULT_MAX_LEVELS } from './curves/isolines.js';
 export type { Band, BandPolygon } from './curves/bands.js';
-export { fieldFromCsv, vertexProperty, toTopologyVertices } from './curves/field-input.js';
-export { parsePolylines, polylineSources } from './curves/polyline-source.js';
 
 // result files
 export { encodeVertexColumns, encodeRoute, type VertexColumn, type VertexFileOptions } from './api/write.js';
-export { writeCurves, curveFormatOf, CURVE_FORMATS, type Curve, type CurvePolygon, type CurveFormat } from './io/write-curves.js';
+export { writeCurves, type Curve, type CurvePolygon, type CurveFormat } from './io/write-curves.js';

@@ -16,5 +16,6 @@
 export * from './core.js';
 export { loadSurface, type LoadOptions } from './api/load.js';
 export { writeFileAtomic } from './io/atomic.js';
-// batch scoring (`orthodrome score`): Node entry only, so the browser bundle does not carry the rules schema library
-export * from './score/index.js';
+// batch scoring (`orthodrome score`): Node entry only, so the browser bundle does not carry the rules schema library;
+// the rest of it (metric catalogue, rules, result rows, manifests, landmarks) is the `orthodrome/score` subpath (src/score/index.ts)
+export { scoreSurface, type ScoreOptions, type SurfaceScore } from './score/index.js';

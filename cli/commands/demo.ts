@@ -10,8 +10,9 @@ import { fileURLToPath } from 'node:url';
 import { loadSurface } from '../load.js';
 import {
   boundarySources, curvatureSummary, encodeRoute, fieldStats, inspectSurface, pointLocator, prepareDistances, shortestPath, writeFileAtomic,
-  surfaceIsolines, distanceScalarField, surfaceOffset, writeCurves,
+  surfaceIsolines, surfaceOffset, writeCurves,
 } from '../../src/index.js';
+import { distanceScalarField } from '../../src/curves/index.js';
 import { writeVertexColumns } from '../output.js';
 import { action, fmt } from '../run.js';
 import { formatInspect } from './inspect.js';

@@ -11,11 +11,9 @@ import { checkOutput } from '../output.js';
 import { action, fmt, toJson } from '../run.js';
 import { TERRAIN_CAUTION } from '../cautions.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
-import {
-  boundarySources, measureDistances, pointLocator, surfaceIsolines, parsePolylines, polylineSources, distanceScalarField, fieldFromCsv, vertexProperty, toTopologyVertices,
-  writeCurves, curveFormatOf, writeFileAtomic, CURVE_FORMATS, DEFAULT_MAX_LEVELS,
-  type Band, type CurvePolygon, type DistanceMethod, type PointResolver, type ScalarField, type SourceSet, type Surface, type SurfaceCurve,
-} from '../../src/index.js';
+import { boundarySources, measureDistances, pointLocator, surfaceIsolines, writeCurves, writeFileAtomic, type Band, type CurvePolygon, type DistanceMethod, type PointResolver, type SourceSet, type Surface } from '../../src/index.js';
+import { parsePolylines, polylineSources, distanceScalarField, fieldFromCsv, vertexProperty, toTopologyVertices, DEFAULT_MAX_LEVELS, type ScalarField, type SurfaceCurve } from '../../src/curves/index.js';
+import { curveFormatOf, CURVE_FORMATS } from '../../src/api/io.js';
 import { usageError } from '../../src/errors.js';
 
 /** Options shared by `isolines` and `offset`. */

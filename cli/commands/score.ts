@@ -8,7 +8,7 @@ import { action } from '../run.js';
 import { maxInputSizeOption } from '../load.js';
 import { runScore, metricList, DEFAULT_TIME_LIMIT_S, type ScoreOpts } from '../score/run-score.js';
 import { runMerge } from '../score/merge.js';
-import { METRIC_GROUPS, DEFAULT_GROUPS } from '../../src/index.js';
+import { METRIC_GROUPS, DEFAULT_GROUPS } from '../../src/score/index.js';
 
 /** Registers the command and its `merge` subcommand. */
 export function registerScore(program: Command): void {

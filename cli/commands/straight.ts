@@ -8,9 +8,8 @@ import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js
 import { checkOutput } from '../output.js';
 import { action, fmt, fmtCoord, since, toJson } from '../run.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
-import {
-  OrthodromeError, formatSurfacePoint, isManifold, pointLocator, straightestLine, writeFileAtomic, DEFAULT_REFERENCE, type StraightestLine,
-} from '../../src/index.js';
+import { OrthodromeError, formatSurfacePoint, isManifold, pointLocator, straightestLine, writeFileAtomic, type StraightestLine } from '../../src/index.js';
+import { DEFAULT_REFERENCE } from '../../src/curves/index.js';
 import { writeCurves, curveFormatOf, CURVE_FORMATS } from '../../src/api/io.js';
 
 interface StraightCliOptions {

@@ -14,7 +14,8 @@
  * like the run itself.
  */
 import { readFileSync } from 'node:fs';
-import { readResults, resultFormatOf, writeFileAtomic, type ReadRow } from '../../src/index.js';
+import { writeFileAtomic } from '../../src/index.js';
+import { readResults, resultFormatOf, type ReadRow } from '../../src/score/index.js';
 import { inputError, usageError } from '../../src/errors.js';
 import { planPath, readPlan, resultsText, type ScorePlan } from './log.js';
 import { countRows, summaryLines } from './summary.js';

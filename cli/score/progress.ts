@@ -5,7 +5,7 @@
  * a second, erased at the end. Otherwise (a pipe, a file, a cluster log):
  * one plain line per mesh, so a log shows what happened to each.
  */
-import type { RowStatus } from '../../src/index.js';
+import type { RowStatus } from '../../src/score/index.js';
 
 /** Counts so far. */
 export interface ScoreCounts {

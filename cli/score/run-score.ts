@@ -12,11 +12,12 @@
 import { readFileSync } from 'node:fs';
 import { availableParallelism, totalmem } from 'node:os';
 import { createHash } from 'node:crypto';
+import { writeFileAtomic } from '../../src/index.js';
 import {
-  parseRules, groupsOfRules, orderGroups, checkGates, encodeRow, resultColumns, resultFormatOf, readResults, formatLandmarks, writeFileAtomic,
+  parseRules, groupsOfRules, orderGroups, checkGates, encodeRow, resultColumns, resultFormatOf, readResults, formatLandmarks,
   METRIC_GROUPS, DEFAULT_GROUPS, DEFAULT_HEAT_SAMPLES, METRICS,
   type MetricGroup, type Rule, type ScoreRow, type ResultFormat,
-} from '../../src/index.js';
+} from '../../src/score/index.js';
 import { DEFAULT_MAX_INPUT_BYTES } from '../../src/api/node.js';
 import { formatBytes, inputError, usageError } from '../../src/errors.js';
 import { parseByteSize } from '../load.js';
