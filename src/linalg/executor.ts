@@ -43,4 +43,6 @@ export interface FactorExecutor {
   shared(length: number): Float64Array;
   /** Starts a job; the returned function blocks until it is done. */
   start(job: FactorJob): () => FactorJobResult;
+  /** Starts the threads ahead of the first job (optional), so they load while the caller works. */
+  warm?(): void;
 }
