@@ -129,3 +129,15 @@ describe('the browser entry', () => {
     expect(packages.has('three-mesh-bvh')).toBe(true);
   });
 });
+
+describe('the root export', () => {
+  it('is the facade: the names the README lists in its library section (a new root name is a decision: add it there and here)', async () => {
+    const root = await import('../../src/index.js');
+    // common practice: a package's root names are its documented surface; internals go to subpaths
+    expect(Object.keys(root).sort()).toEqual([
+      'OrthodromeError', 'boundarySources', 'curvatureSummary', 'encodeRoute', 'encodeVertexColumns', 'fieldStats', 'formatSurfacePoint',
+      'inspectProblems', 'inspectSurface', 'isManifold', 'isOrthodromeError', 'loadSurface', 'measureDistances', 'openSurface', 'pointLocator',
+      'prepareDistances', 'scoreSurface', 'shortestPath', 'straightestLine', 'surfaceIsolines', 'surfaceOffset', 'writeCurves', 'writeFileAtomic',
+    ]);
+  });
+});
