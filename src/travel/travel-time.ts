@@ -1,0 +1,177 @@
+/**
+ * Walking times over the Steiner graph (steiner-graph.ts): Dijkstra's
+ * algorithm (E. W. Dijkstra, Numer. Math. 1, 1959) with non-negative,
+ * direction-dependent arc times, the typed-array queue of the edge-graph
+ * method (geodesic/shared/edge-dijkstra.ts) and arcs made on the fly.
+ *
+ * A source or target off the nodes (a point inside a face or on an edge)
+ * is joined to every node of its face(s) by a straight segment in that
+ * face: the graph with the point added as a node, without storing it.
+ * A target stops the search once no unsettled node can improve it: when
+ * the settled time reaches the best arrival found, it is final.
+ */
+import { IndexedMinHeap } from '../geodesic/shared/edge-dijkstra.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
+import { facesOfPoint } from '../metric/face-points.js';
+import type { SteinerGraph } from './steiner-graph.js';
+import type { PaceModel } from './pace.js';
+
+/** A node with a time: seconds from the source to the node, or from the node to the target. */
+export interface TravelSeed {
+  /** Graph node. */
+  node: number;
+  /** Seconds. */
+  seconds: number;
+}
+
+/** The working arrays of searches on one graph (reused across searches). */
+export interface TravelState {
+  /** Seconds from the sources per node (Infinity: not reached). */
+  dist: Float64Array;
+  /** The node each node was reached from (−1: a seed, or not reached). */
+  pred: Int32Array;
+  /** 1 where a node is settled. */
+  done: Uint8Array;
+  /** Seconds from a node to the target, where the node is next to it (NaN elsewhere). */
+  toTarget: Float64Array;
+  /** Scratch of one node's arcs. */
+  to: Int32Array;
+  /** See {@link to}. */
+  mult: Float64Array;
+  /** Arcs relaxed by the last search. */
+  relaxed: number;
+  /** Nodes settled by the last search. */
+  settled: number;
+}
+
+/** Fresh working arrays for searches on `g`. */
+export function travelState(g: SteinerGraph): TravelState {
+  const n = g.nodeCount;
+  return {
+    dist: new Float64Array(n),
+    pred: new Int32Array(n),
+    done: new Uint8Array(n),
+    toTarget: new Float64Array(n).fill(NaN),
+    to: new Int32Array(g.maxDegree),
+    mult: new Float64Array(g.maxDegree),
+    relaxed: 0,
+    settled: 0,
+  };
+}
+
+/** Height and horizontal coordinates (metres) of a surface point, interpolated from the graph's vertex nodes. */
+export function pointFrame(g: SteinerGraph, p: SurfacePoint): [number, number, number] {
+  const t = g.t;
+  let w: [number, number, number][];
+  if (p.kind === 'vertex') w = [[p.vertex, 1, 0]];
+  else if (p.kind === 'edge') {
+    const h = t.edgeHalfedge[p.edge]!;
+    w = [[t.tri[h]!, 1 - p.t, 0], [t.tri[h % 3 === 2 ? h - 2 : h + 1]!, p.t, 0]];
+  } else w = [0, 1, 2].map((c) => [t.tri[3 * p.face + c]!, p.bary[c]!, 0]);
+  let a = 0, b = 0, z = 0;
+  for (const [v, s] of w) {
+    a += s * g.ha[v]!; b += s * g.hb[v]!; z += s * g.hz[v]!;
+  }
+  return [a, b, z];
+}
+
+/**
+ * Seconds of the straight step between a point at frame `p` and node `u`
+ * (from the point when `fromPoint`, else to it), times `m`.
+ */
+export function stepSeconds(g: SteinerGraph, pace: PaceModel, p: [number, number, number], u: number, m: number, fromPoint: boolean): number {
+  const da = g.ha[u]! - p[0], db = g.hb[u]! - p[1], dz = g.hz[u]! - p[2];
+  const dx = Math.sqrt(da * da + db * db);
+  const s = pace.seconds(dx, fromPoint ? dz : -dz);
+  return s === 0 ? 0 : s * m;
+}
+
+/**
+ * The nodes a point joins, with the seconds of the straight step from the
+ * point to each (`fromPoint`) or from each to the point: a vertex is its
+ * own node (0 s); an edge or face point reaches every node of its face(s)
+ * of positive multiplier (the best face for a node on a shared edge).
+ */
+export function pointSeeds(g: SteinerGraph, pace: PaceModel, p: SurfacePoint, fromPoint: boolean): TravelSeed[] {
+  if (p.kind === 'vertex') return [{ node: p.vertex, seconds: 0 }];
+  const frame = pointFrame(g, p);
+  const best = new Map<number, number>();
+  for (const f of facesOfPoint(g.t, p)) {
+    const m = g.faceMult ? g.faceMult[f]! : 1;
+    if (!(m > 0)) continue;
+    for (const u of g.faceNodes(f)) {
+      const s = stepSeconds(g, pace, frame, u, m, fromPoint);
+      if (s < (best.get(u) ?? Infinity)) best.set(u, s);
+    }
+  }
+  return [...best].filter(([, s]) => s < Infinity).map(([node, seconds]) => ({ node, seconds }));
+}
+
+/** Result of {@link runTravelSearch}. */
+export interface SearchResult {
+  /** Seconds to the target (Infinity: unreachable, or no target). */
+  seconds: number;
+  /** The node the best arrival came through (−1: none). */
+  via: number;
+}
+
+/**
+ * Dijkstra from `seeds` over `g` with arc times from `pace`. With `target`
+ * (the nodes next to the target and their seconds to it) it stops once the
+ * target's time is final; otherwise it settles every reachable node with a
+ * time ≤ `maxSeconds`. Results are in `state.dist` and `state.pred`
+ * (with a target, times of nodes left unsettled are not final: `state.done`).
+ */
+export function runTravelSearch(
+  g: SteinerGraph,
+  pace: PaceModel,
+  state: TravelState,
+  seeds: readonly TravelSeed[],
+  target: readonly TravelSeed[] | null = null,
+  maxSeconds = Infinity,
+): SearchResult {
+  const { dist, pred, done, toTarget, to, mult } = state;
+  const { ha, hb, hz } = g;
+  dist.fill(Infinity);
+  pred.fill(-1);
+  done.fill(0);
+  const heap = new IndexedMinHeap(g.nodeCount, dist);
+  for (const s of seeds) {
+    if (s.seconds < dist[s.node]!) { dist[s.node] = s.seconds; heap.push(s.node); }
+  }
+  if (target) for (const s of target) toTarget[s.node] = Math.min(s.seconds, Number.isNaN(toTarget[s.node]!) ? Infinity : toTarget[s.node]!);
+  let best = Infinity, via = -1, relaxed = 0, settled = 0;
+  while (heap.size > 0) {
+    const u = heap.pop();
+    const du = dist[u]!;
+    if (du >= best) break; // nothing left can arrive earlier
+    done[u] = 1;
+    settled++;
+    if (target) {
+      const tt = toTarget[u]!;
+      if (tt === tt && du + tt < best) { best = du + tt; via = u; }
+    }
+    const n = g.arcs(u, to, mult);
+    const au = ha[u]!, bu = hb[u]!, zu = hz[u]!;
+    for (let i = 0; i < n; i++) {
+      const w = to[i]!;
+      if (done[w]) continue;
+      const da = ha[w]! - au, db = hb[w]! - bu;
+      const s = pace.seconds(Math.sqrt(da * da + db * db), hz[w]! - zu);
+      relaxed++;
+      const nd = du + (s === 0 ? 0 : s * mult[i]!);
+      if (nd < dist[w]! && nd <= maxSeconds) { dist[w] = nd; pred[w] = u; heap.push(w); }
+    }
+  }
+  if (target) for (const s of target) toTarget[s.node] = NaN;
+  state.relaxed = relaxed;
+  state.settled = settled;
+  return { seconds: best, via };
+}
+
+/** The nodes from a seed to `u` along `pred`, in order. */
+export function nodeChain(pred: Int32Array, u: number): number[] {
+  const out: number[] = [];
+  for (let w = u; w >= 0; w = pred[w]!) out.push(w);
+  return out.reverse();
+}
