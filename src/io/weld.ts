@@ -42,8 +42,14 @@ export const WELD_RELATIVE_TOLERANCE = 1e-9;
 export const NEAR_FACTOR = 1000;
 /** The near-pair pass gives up (count null) after this many distance checks per vertex on average. */
 export const NEAR_WORK = 64;
-/** Cells are this much wider than twice the radius, so rounding in the cell index never loses a neighbour. */
-const CELL_MARGIN = 1 + 1e-6;
+/**
+ * Cells are this much wider than twice the radius, so rounding in a cell
+ * index never loses a neighbour: the index of a point is (x − min)/w with a
+ * rounding error below 2.2e-16 × diagonal / w cells, under the slack of
+ * 0.5e-3 cells while the tolerance is above ~1e-12 of the diagonal (below
+ * that, a pair at almost exactly the tolerance may stay apart).
+ */
+const CELL_MARGIN = 1 + 1e-3;
 
 /** A pair of kept vertices closer than the near radius but beyond the tolerance. */
 export interface NearPair {
