@@ -9,7 +9,7 @@
  * The step owns its workspaces (one per solver, so a solver in a worker
  * thread shares nothing with another).
  */
-import type { CholeskyFactor } from '../linalg/index.js';
+import { CholeskyFactor } from '../linalg/index.js';
 import { liftDirichlet, type EdgePattern } from '../metric/laplacian.js';
 
 /** What the heat step reads: the factors and the Dirichlet rows. */
@@ -37,24 +37,31 @@ export interface HeatStepParts {
 /** One heat step with its own workspaces; `run` is a bound function for heat-relay.ts. */
 export class HeatStep {
   private readonly uD: Float64Array;
+  private readonly rhsD: Float64Array;
   private readonly g: Float64Array;
   private readonly compMax: Float64Array;
 
   constructor(private readonly parts: HeatStepParts, nv: number) {
     this.uD = new Float64Array(parts.heatD ? nv : 0);
+    this.rhsD = new Float64Array(parts.heatD ? nv : 0);
     this.g = new Float64Array(parts.heatD ? nv : 0);
     this.compMax = new Float64Array(parts.componentCount);
   }
 
   /**
-   * u = (M + tL)⁻¹ rhs under the boundary mode; may overwrite rhs. A
-   * component without heat keeps the (zero) Neumann solution.
+   * u = (M + tL)⁻¹ rhs under the boundary mode; leaves rhs as it is. A
+   * component without heat keeps the (zero) Neumann solution. The natural
+   * and Dirichlet solves run as a pair (CholeskyFactor.solvePair: the
+   * Dirichlet factor shares the natural one's blocks away from the boundary).
    */
   readonly run = (rhs: Float64Array, u: Float64Array): void => {
     const { heatN, heatD, onBoundary, vertexComponent: comp, boundaryMode } = this.parts;
-    heatN.solve(rhs, u);
-    if (!heatD) return;
-    const nv = u.length, uD = this.uD, g = this.g, { fixedD, fixedList, heatDiag, p, Lv, step } = this.parts;
+    if (!heatD) {
+      heatN.solve(rhs, u);
+      return;
+    }
+    const nv = u.length, uD = this.uD, g = this.g, rD = this.rhsD, { fixedD, fixedList, heatDiag, p, Lv, step } = this.parts;
+    rD.set(rhs);
     // data on the fixed rows only (liftDirichlet reads no other entry of g)
     let heated = false;
     for (let k = 0; k < fixedList.length; k++) {
@@ -63,9 +70,9 @@ export class HeatStep {
       g[v] = gv;
       if (gv !== 0) heated = true;
     }
-    if (heated) liftDirichlet(p, Lv, step, fixedD, g, rhs);
-    else for (let k = 0; k < fixedList.length; k++) rhs[fixedList[k]!] = 0; // zero data move nothing
-    heatD.solve(rhs, uD);
+    if (heated) liftDirichlet(p, Lv, step, fixedD, g, rD);
+    else for (let k = 0; k < fixedList.length; k++) rD[fixedList[k]!] = 0; // zero data move nothing
+    CholeskyFactor.solvePair(heatN, heatD, rhs, rD, u, uD);
     const cmax = this.compMax.fill(0);
     for (let v = 0; v < nv; v++) if (comp[v]! >= 0 && uD[v]! > cmax[comp[v]!]!) cmax[comp[v]!] = uD[v]!;
     const avg = boundaryMode === 'average';

@@ -12,6 +12,7 @@ import { affectedBlocks, multifrontalPair } from './multifrontal-pair.js';
 import { supernodalLowerSolve, supernodalLowerTransposeSolve } from './solve-supernodal.js';
 import type { MultifrontalWork } from './multifrontal.js';
 import { lowerSolve, lowerTransposeSolve } from './solve.js';
+import { pairTransposeSolve } from './solve-pair.js';
 import { numericError, usageError, type OrthodromeError } from '../errors.js';
 import type { FactorExecutor } from './executor.js';
 
@@ -310,6 +311,35 @@ export class CholeskyFactor {
       lowerTransposeSolve(n, sym.lColPtr, this.Li, this.Lx, x);
     }
     for (let k = 0; k < n; k++) out[perm[k]!] = x[k]!;
+  }
+
+  /**
+   * outA = A⁻¹·bA and outB = B⁻¹·bB for a pair from
+   * {@link CholeskyFactor.factorPair} (`fa` the first, `fb` the second): the
+   * backward passes run together and read each shared block once
+   * (solve-pair.ts); the results equal two `solve` calls to the bit. Other
+   * factors are solved one after the other. Does not allocate; an output may
+   * be the same array as its right-hand side.
+   */
+  static solvePair(fa: CholeskyFactor, fb: CholeskyFactor, bA: Float64Array, bB: Float64Array, outA: Float64Array, outB: Float64Array): void {
+    const sn = fa.symbolic.supernodal;
+    if (!sn || fb.base !== fa.Lx || fb.own === null || fa === fb) {
+      fa.solve(bA, outA);
+      fb.solve(bB, outB);
+      return;
+    }
+    const { n, x } = fa, z = fb.x, perm = fa.symbolic.perm;
+    for (let k = 0; k < n; k++) {
+      x[k] = bA[perm[k]!]!;
+      z[k] = bB[perm[k]!]!;
+    }
+    supernodalLowerSolve(sn, fa.Lx, x);
+    supernodalLowerSolve(sn, fb.Lx, z, fb.own, fb.base);
+    pairTransposeSolve(sn, fa.Lx, x, fb.Lx, fb.own, z);
+    for (let k = 0; k < n; k++) {
+      outA[perm[k]!] = x[k]!;
+      outB[perm[k]!] = z[k]!;
+    }
   }
 
   /**

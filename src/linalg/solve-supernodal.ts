@@ -101,52 +101,53 @@ export function supernodalLowerSolve(
 export function supernodalLowerTransposeSolve(
   sn: SupernodalStructure, LxOwn: Float64Array, x: Float64Array, own: Int32Array | null = null, base: Float64Array | null = null,
 ): void {
-  const { nsuper, superStart, rowPtr, rows, valPtr } = sn;
-  // Every loop below runs downwards, so the whole pass reads Lx as one
-  // descending stream (hardware prefetchers lose an ascending stream that
-  // restarts at every block of a descending sweep).
-  for (let s = nsuper - 1; s >= 0; s--) {
-    const f = superStart[s]!, nc = superStart[s + 1]! - f;
-    const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
-    let Lx = LxOwn, v0 = valPtr[s]!;
-    if (own !== null) {
-      if (own[s]! >= 0) v0 = own[s]!;
-      else Lx = base!;
+  // Every loop runs downwards, so the whole pass reads Lx as one descending
+  // stream (hardware prefetchers lose an ascending stream that restarts at
+  // every block of a descending sweep).
+  for (let s = sn.nsuper - 1; s >= 0; s--) {
+    if (own !== null && own[s]! < 0) backwardBlock(sn, s, base!, sn.valPtr[s]!, x);
+    else backwardBlock(sn, s, LxOwn, own !== null ? own[s]! : sn.valPtr[s]!, x);
+  }
+}
+
+/** Supernode s's step of the backward solve, its block at v0 in Lx. */
+export function backwardBlock(sn: SupernodalStructure, s: number, Lx: Float64Array, v0: number, x: Float64Array): void {
+  const { superStart, rowPtr, rows } = sn;
+  const f = superStart[s]!, nc = superStart[s + 1]! - f;
+  const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
+  // packed: diagonal row j at v0 + j(j+1)/2, row r ≥ nc at w0 + r·nc
+  const w0 = v0 + ((nc * (nc + 1)) >> 1) - nc * nc;
+  // y_s −= L₂₁ᵀ x(R₂): eight (then four) rows of L₂₁ per pass over y_s, so
+  // y_s is read and written once per eight rows (terrain 100k: ~20% faster
+  // than four; the sums are grouped by four)
+  let r = nr - 1;
+  for (; r - 7 >= nc; r -= 8) {
+    const x0 = x[rows[r0 + r]!]!, x1 = x[rows[r0 + r - 1]!]!, x2 = x[rows[r0 + r - 2]!]!, x3 = x[rows[r0 + r - 3]!]!;
+    const x4 = x[rows[r0 + r - 4]!]!, x5 = x[rows[r0 + r - 5]!]!, x6 = x[rows[r0 + r - 6]!]!, x7 = x[rows[r0 + r - 7]!]!;
+    const q0 = w0 + r * nc, q1 = q0 - nc, q2 = q1 - nc, q3 = q2 - nc, q4 = q3 - nc, q5 = q4 - nc, q6 = q5 - nc, q7 = q6 - nc;
+    for (let k = nc - 1; k >= 0; k--) {
+      x[f + k]! -= (Lx[q0 + k]! * x0 + Lx[q1 + k]! * x1 + Lx[q2 + k]! * x2 + Lx[q3 + k]! * x3)
+        + (Lx[q4 + k]! * x4 + Lx[q5 + k]! * x5 + Lx[q6 + k]! * x6 + Lx[q7 + k]! * x7);
     }
-    // packed: diagonal row j at v0 + j(j+1)/2, row r ≥ nc at w0 + r·nc
-    const w0 = v0 + ((nc * (nc + 1)) >> 1) - nc * nc;
-    // y_s −= L₂₁ᵀ x(R₂): eight (then four) rows of L₂₁ per pass over y_s, so
-    // y_s is read and written once per eight rows (terrain 100k: ~20% faster
-    // than four; the sums are grouped by four, rounding differs in the last bits)
-    let r = nr - 1;
-    for (; r - 7 >= nc; r -= 8) {
-      const x0 = x[rows[r0 + r]!]!, x1 = x[rows[r0 + r - 1]!]!, x2 = x[rows[r0 + r - 2]!]!, x3 = x[rows[r0 + r - 3]!]!;
-      const x4 = x[rows[r0 + r - 4]!]!, x5 = x[rows[r0 + r - 5]!]!, x6 = x[rows[r0 + r - 6]!]!, x7 = x[rows[r0 + r - 7]!]!;
-      const q0 = w0 + r * nc, q1 = q0 - nc, q2 = q1 - nc, q3 = q2 - nc, q4 = q3 - nc, q5 = q4 - nc, q6 = q5 - nc, q7 = q6 - nc;
-      for (let k = nc - 1; k >= 0; k--) {
-        x[f + k]! -= (Lx[q0 + k]! * x0 + Lx[q1 + k]! * x1 + Lx[q2 + k]! * x2 + Lx[q3 + k]! * x3)
-          + (Lx[q4 + k]! * x4 + Lx[q5 + k]! * x5 + Lx[q6 + k]! * x6 + Lx[q7 + k]! * x7);
-      }
+  }
+  for (; r - 3 >= nc; r -= 4) {
+    const x0 = x[rows[r0 + r]!]!, x1 = x[rows[r0 + r - 1]!]!, x2 = x[rows[r0 + r - 2]!]!, x3 = x[rows[r0 + r - 3]!]!;
+    const q0 = w0 + r * nc, q1 = q0 - nc, q2 = q1 - nc, q3 = q2 - nc;
+    for (let k = nc - 1; k >= 0; k--) {
+      x[f + k]! -= Lx[q0 + k]! * x0 + Lx[q1 + k]! * x1 + Lx[q2 + k]! * x2 + Lx[q3 + k]! * x3;
     }
-    for (; r - 3 >= nc; r -= 4) {
-      const x0 = x[rows[r0 + r]!]!, x1 = x[rows[r0 + r - 1]!]!, x2 = x[rows[r0 + r - 2]!]!, x3 = x[rows[r0 + r - 3]!]!;
-      const q0 = w0 + r * nc, q1 = q0 - nc, q2 = q1 - nc, q3 = q2 - nc;
-      for (let k = nc - 1; k >= 0; k--) {
-        x[f + k]! -= Lx[q0 + k]! * x0 + Lx[q1 + k]! * x1 + Lx[q2 + k]! * x2 + Lx[q3 + k]! * x3;
-      }
-    }
-    for (; r >= nc; r--) {
-      const xr = x[rows[r0 + r]!]!;
-      const q0 = w0 + r * nc;
-      for (let k = nc - 1; k >= 0; k--) x[f + k]! -= Lx[q0 + k]! * xr;
-    }
-    // L₁₁ᵀ x_s = y_s by rows of L₁₁: x_j = y_j / L(j,j), then y_k −= L(j,k) x_j for k < j
-    for (let j = nc - 1; j >= 0; j--) {
-      const rj = v0 + ((j * (j + 1)) >> 1);
-      const xj = x[f + j]! / Lx[rj + j]!;
-      x[f + j] = xj;
-      if (xj === 0) continue;
-      for (let k = j - 1; k >= 0; k--) x[f + k]! -= Lx[rj + k]! * xj;
-    }
+  }
+  for (; r >= nc; r--) {
+    const xr = x[rows[r0 + r]!]!;
+    const q0 = w0 + r * nc;
+    for (let k = nc - 1; k >= 0; k--) x[f + k]! -= Lx[q0 + k]! * xr;
+  }
+  // L₁₁ᵀ x_s = y_s by rows of L₁₁: x_j = y_j / L(j,j), then y_k −= L(j,k) x_j for k < j
+  for (let j = nc - 1; j >= 0; j--) {
+    const rj = v0 + ((j * (j + 1)) >> 1);
+    const xj = x[f + j]! / Lx[rj + j]!;
+    x[f + j] = xj;
+    if (xj === 0) continue;
+    for (let k = j - 1; k >= 0; k--) x[f + k]! -= Lx[rj + k]! * xj;
   }
 }

@@ -114,6 +114,12 @@ describe('a pair of factorizations sharing blocks (factorPair)', () => {
       fb.solve(b, x1);
       sb.solve(b, x2);
       expect(sameBits(x1, x2)).toBe(true);
+      // both solved together (the shared blocks read once): the same bits as two solves
+      const c = Float64Array.from(b, (v, i) => v * (1 + (i % 3))), ya = new Float64Array(A.n), yb = new Float64Array(A.n), za = new Float64Array(A.n);
+      CholeskyFactor.solvePair(fa, fb, c, b, ya, yb);
+      fa.solve(c, za);
+      expect(sameBits(ya, za)).toBe(true);
+      expect(sameBits(yb, x2)).toBe(true);
       // the second stores only the blocks the difference reaches
       expect(fb.storedValues).toBeLessThanOrEqual(sa.storedValues);
       if (B === A) expect(fb.storedValues).toBe(0);
