@@ -64,9 +64,11 @@ export function isBinaryStl(b: Uint8Array): boolean {
 
 /**
  * True when the bytes begin (after blanks) with the keyword `solid` and the
- * first 512 bytes are text (tab, CR, LF or printable ASCII): an ASCII STL. A
- * binary file whose header says "solid" has non-text bytes in its count or
- * facets (float32 data), and its size is checked first anyway.
+ * first 512 bytes hold no control byte other than blanks (UTF-8 text, such
+ * as a solid name with accents, passes): an ASCII STL. A binary file whose
+ * header says "solid" has control bytes in its facet count or facets (the
+ * high byte of any count below 16.7 million is 0; float32 data has zero
+ * bytes), and its size is checked first anyway.
  */
 export function looksLikeAsciiStl(b: Uint8Array): boolean {
   let p = 0;
@@ -75,7 +77,7 @@ export function looksLikeAsciiStl(b: Uint8Array): boolean {
   const end = Math.min(b.length, p + 512);
   for (let q = p; q < end; q++) {
     const c = b[q]!;
-    if (!(c === 9 || c === 10 || c === 13 || (c >= 32 && c < 127))) return false;
+    if ((c < 32 && !isBlank(c)) || c === 127) return false;
   }
   return true;
 }

@@ -116,6 +116,7 @@ describe('binary and ASCII STL cube', () => {
     ['ASCII', new TextEncoder().encode(asciiStl(facets))],
     ['ASCII, CRLF, tabs, upper case', new TextEncoder().encode(asciiStl(facets, { eol: '\r\n', indent: '\t \t', upper: true }))],
     ['ASCII with blank lines, no name, BOM', new TextEncoder().encode('\ufeff' + asciiStl(facets, { eol: '\n\n', name: '' }))],
+    ['ASCII with a UTF-8 solid name', new TextEncoder().encode(asciiStl(facets, { name: 'Träger PX-7 Ø12' }))],
     ['ASCII, two solids one after the other', new TextEncoder().encode(asciiStl(facets.slice(0, 5), { name: 'a' }) + asciiStl(facets.slice(5), { name: 'b' }))],
   ];
   for (const [label, bytes] of variants) {
