@@ -136,7 +136,7 @@ export class HeatSolver {
    */
   static prepare(mesh: IntrinsicMesh, opts: HeatOptions = {}): HeatSolver {
     const t0 = performance.now();
-    if (opts.factorExecutor && mesh.topology.nv >= opts.factorExecutor.minSize) opts.factorExecutor.warm?.(); // threads load during the remesh
+    if (mesh.topology.nv >= (opts.factorExecutor?.minSize ?? Infinity)) opts.factorExecutor?.warm?.(); // threads load during the remesh
     const { m, boundary, work, h, epsilon, flips, flipsCapped, inserted, refineCapped } = heatTriangulation(mesh, opts);
     const t1 = performance.now();
     const tw = work.topology;

@@ -145,7 +145,8 @@ export class CholeskyFactor {
    * the others run on the executor's threads.
    */
   static factorMany(mats: CscMatrix[], sym: CholeskySymbolic, opts: FactorManyOptions = {}): (CholeskyFactor | OrthodromeError)[] {
-    const ex = opts.executor;
+    // an executor copied to another thread (structured clone) loses its methods: factor here then
+    const ex = typeof opts.executor?.start === 'function' ? opts.executor : null;
     const one = (A: CscMatrix): CholeskyFactor | OrthodromeError => {
       try {
         return CholeskyFactor.factor(A, sym, opts);
