@@ -79,7 +79,9 @@ export interface WaypointOptions {
    */
   method?: PathMethod;
   /**
-   * x, y, z per vertex. With them every flip leg is checked (flip/verify.ts): window
+   * x, y, z per vertex, the positions the edge lengths were measured from (the check and the
+   * bound rest on the straight 3D distance being at most the surface distance, which holds
+   * only then). With them every flip leg is checked (flip/verify.ts): window
    * propagation on the faces within the ellipsoid |x − a| + |x − b| ≤ its length, which holds
    * every shorter path, proves it shortest or finds the shorter one, when that region has at
    * most `verifyFaces` faces. Without them a flip leg is a geodesic only; beyond that, a geodesic
