@@ -19,3 +19,12 @@ are not modelled). Verify every toolpath in your CAM system, simulate before
 cutting, and follow your shop's safety procedures, machine limits and the
 applicable standards and codes; a qualified person must approve a path before
 it is run.`;
+
+/** For walking times, routes and isochrones. */
+export const WALKING_CAUTION = `
+Caution for walking times: times come from a speed model applied to the mesh
+as given. They are estimates for planning, not safety assessments. Weather,
+daylight, snow and ice, ground and vegetation, loads, group size, fitness and
+health change everything, and a route the model finds may cross ground that is
+dangerous, closed or private. Check on the ground, allow wide margins, follow
+local rules and defer to qualified guides, rangers and rescue services.`;

@@ -13,6 +13,7 @@ import { registerIsolines } from './commands/isolines.js';
 import { registerOffset } from './commands/offset.js';
 import { registerStraight } from './commands/straight.js';
 import { registerScore } from './commands/score.js';
+import { registerTravel } from './commands/travel.js';
 import { EXIT_INPUT, reportError } from './run.js';
 
 const program = new Command();
@@ -34,6 +35,7 @@ registerIsolines(program);
 registerOffset(program);
 registerStraight(program);
 registerScore(program);
+registerTravel(program);
 registerDemo(program);
 
 try {

@@ -16,6 +16,9 @@
 export * from './core.js';
 export { loadSurface, type LoadOptions } from './api/load.js';
 export { writeFileAtomic } from './io/atomic.js';
+// walking time on terrain (`orthodrome travel`): pace models, Steiner-graph fields and routes, DEM GeoTIFF, GPX, map CRS
+// (geotiff and proj4 are loaded on first use)
+export * from './travel/api.js';
 // batch scoring (`orthodrome score`): Node entry only, so the browser bundle does not carry the rules schema library;
 // the rest of it (metric catalogue, rules, result rows, manifests, landmarks) is the `orthodrome/score` subpath (src/score/index.ts)
 export { scoreSurface, type ScoreOptions, type SurfaceScore } from './score/index.js';
