@@ -43,5 +43,6 @@ export function registerScore(program: Command): void {
     .description('join the results of the shards of one run into one report, checking that no mesh is missing or duplicated')
     .argument('<parts...>', 'results files of the shards (each with its .plan.json beside it)')
     .option('-o, --output <file>', 'merged report, .csv or .jsonl (written atomically)')
-    .action(action(async (parts: string[], o: { output?: string }) => runMerge(parts, o.output)));
+    // `-o` after `merge` may be taken by `score`'s own -o (commander reads a parent's options anywhere): accept either
+    .action(action(async (parts: string[], o: { output?: string }) => runMerge(parts, o.output ?? (score.opts() as { output?: string }).output)));
 }
