@@ -20,6 +20,6 @@ export { pathPolyline, pathLength } from '../geodesic/path.js';
 export {
   prepareDistance, checkEdgeLengths, MAX_LENGTH, type DistanceSolver, type DistanceResult, type DistanceOptions, type SolveOptions, type SolveProgress,
 } from '../geodesic/solver.js';
-export { shortestPathThrough, AUTO_FLIP_FACES, FLIP_VERIFY_FACES, type WaypointPath, type WaypointOptions, type PathMethod } from '../geodesic/waypoints.js';
+export { shortestPathThrough, AUTO_FLIP_FACES, FLIP_VERIFY_FACES, AUTO_PROVE_FACES, type WaypointPath, type WaypointOptions, type PathMethod } from '../geodesic/waypoints.js';
 export { flipGeodesicPath, BEND_TOLERANCE, type FlipPathResult } from '../geodesic/flip/index.js';
 export { verifyShortest, type VerifyResult } from '../geodesic/flip/verify.js';
