@@ -49,7 +49,7 @@ beforeAll(() => {
 
 /** `orthodrome score ARGS` from source in `dir`, with extra environment variables and standard input. */
 function score(args: string[], env: Record<string, string> = {}, input = ''): { code: number; stdout: string; stderr: string } {
-  const base = { ...process.env, ORTHODROME_DEBUG: '' };
+  const base: NodeJS.ProcessEnv = { ...process.env, ORTHODROME_DEBUG: '' };
   for (const k of ['JOB_COMPLETION_INDEX', 'ORTHODROME_SHARDS', 'SLURM_ARRAY_TASK_ID', 'SLURM_ARRAY_TASK_COUNT', 'SLURM_ARRAY_TASK_MIN']) delete base[k];
   const r = spawnSync(process.execPath, ['--import', TSX, repoPath('cli/orthodrome.ts'), 'score', ...args], {
     cwd: dir, encoding: 'utf8', input, timeout: 180_000, env: { ...base, ...env },
