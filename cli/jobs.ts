@@ -21,7 +21,7 @@ import {
   type DistanceMethod, type DistanceResult, type DistanceSolver, type PrepareOptions, type SolvableSurface, type SolveOptions, type SourceSet, type SurfacePoint,
 } from '../src/index.js';
 import { limitError } from '../src/errors.js';
-import { intrinsicFromPositions, type IntrinsicMesh } from '../src/api/metric.js';
+import { surfaceIntrinsic, type IntrinsicMesh } from '../src/api/metric.js';
 import type { Topology } from '../src/api/mesh.js';
 import { prepareExactGeometry, type ExactGeometry } from '../src/api/geodesic.js';
 import type { ProgressLine } from './progress.js';
@@ -162,7 +162,7 @@ export async function solveSets(
   const n = Math.min(jobs, sets.length);
   const { surface } = spec;
   const seams = surface.report.orientationSeams;
-  const mesh = spec.opts.mesh ?? intrinsicFromPositions(surface.topology, surface.positions);
+  const mesh = spec.opts.mesh ?? surfaceIntrinsic(surface); // a --metric's lengths when one is attached
   const topology = sharedFields(surface.topology);
   const edgeLength = toShared(mesh.edgeLength);
   const opts: PrepareOptions = { ...spec.opts };

@@ -8,11 +8,15 @@ import { loadSurface as openFile, isManifold, type Surface } from '../src/index.
 import { DEFAULT_MAX_INPUT_BYTES } from '../src/api/node.js';
 import { formatBytes, inputError, usageError } from '../src/errors.js';
 import { since } from './run.js';
+import { applyMetricOption } from './metric-option.js';
+import type { MetricReport } from '../src/api/metric.js';
 
 /** A loaded surface and how long it took. */
 export interface Loaded {
   surface: Surface;
   loadMs: number;
+  /** The `--metric` applied (edge lengths in it, attached to the surface), or null: lengths of the embedding. */
+  metric: MetricReport | null;
 }
 
 /**
@@ -66,11 +70,12 @@ function firstProblem(s: Surface): string {
  * splitting is refused (exit 2) with the first location, unless
  * `allowSplit` is set. `maxInputSize` is the `--max-input-size` text, if
  * given (input over it is a `LIMIT` error); `weldTolerance` the
- * `--weld-tolerance` text, if given.
+ * `--weld-tolerance` text, if given; `metric` and `metricTolerance` the
+ * `--metric` options, if given (cli/metric-option.ts).
  */
 export async function loadSurface(
   path: string,
-  opts: { requireManifold?: boolean; allowSplit?: boolean; maxInputSize?: string; weldTolerance?: string } = {},
+  opts: { requireManifold?: boolean; allowSplit?: boolean; maxInputSize?: string; weldTolerance?: string; metric?: string; metricTolerance?: string } = {},
 ): Promise<Loaded> {
   const t0 = performance.now();
   const maxInputBytes = opts.maxInputSize === undefined ? DEFAULT_MAX_INPUT_BYTES : parseByteSize(opts.maxInputSize, '--max-input-size');
@@ -79,5 +84,6 @@ export async function loadSurface(
   if (opts.requireManifold && !opts.allowSplit && !isManifold(surface)) {
     throw inputError(`${firstProblem(surface)}; see 'orthodrome inspect', or pass --split-nonmanifold to cut the mesh there`, path);
   }
-  return { surface, loadMs: since(t0) };
+  const metric = applyMetricOption(surface, opts.metric, opts.metricTolerance); // --metric: every measurement on `surface` uses it
+  return { surface, loadMs: since(t0), metric };
 }

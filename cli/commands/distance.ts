@@ -16,6 +16,7 @@ import { TIME_SCALE_RANGE } from '../../src/api/geodesic.js';
 import { usageError } from '../../src/errors.js';
 import { solveSets, type SolvedSets } from '../jobs.js';
 import { ProgressLine } from '../progress.js';
+import { metricOption, metricToleranceOption, metricJson, metricLines } from '../metric-option.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { describeField, summarizeField, type FieldSummary } from '../field-summary.js';
 
@@ -39,6 +40,8 @@ interface DistanceCliOptions {
   weldTolerance?: string;
   memoryBudget?: string;
   jobs?: string;
+  metric?: string;
+  metricTolerance?: string;
 }
 
 const collect = (v: string, prev: string[] = []) => [...prev, v];
@@ -75,6 +78,7 @@ export function registerDistance(program: Command): void {
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
     .addOption(maxInputSizeOption())
     .addOption(weldToleranceOption())
+    .addOption(metricOption()).addOption(metricToleranceOption())
     .addOption(memoryBudgetOption())
     .addHelpText('after', `\nDistances are in the mesh's own units; unreachable points get null (JSON) or an empty field (CSV).\n${TERRAIN_CAUTION}\n${MACHINING_CAUTION}`)
     .action(action(async (mesh: string, o: DistanceCliOptions) => runDistance(mesh, o)));
@@ -108,7 +112,7 @@ interface SetResult {
 async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number> {
   if (o.output) checkFieldOutput(o.output, [mesh]);
   const run = checkOptions(o);
-  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance });
+  const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance });
   const resolver = await pointLocator(surface, [...(o.from ?? []), ...(o.fromCurve ?? []), ...(o.to ?? [])]); // snapping code only for p: points
   const sets = sourceSets(mesh, surface, resolver, o);
   const targets: SurfacePoint[] = (o.to ?? []).map((s) => resolver.resolve(s, '--to'));
@@ -126,7 +130,7 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
   }
   const solveMs = results.reduce((a, r) => a + r.result.solveMs, 0);
   const timings = { load: loadMs, prepare: Math.round(solved.prepareMs * 100) / 100, solve: Math.round(solveMs * 100) / 100 };
-  process.stdout.write((o.json ? jsonReport(mesh, o, resolver, results, timings, solved) : textReport(mesh, o, surface, resolver, results, timings, run)) + '\n');
+  process.stdout.write((o.json ? jsonReport(mesh, o, resolver, results, timings, solved, metricJson(metric)) : [textReport(mesh, o, surface, resolver, results, timings, run), ...metricLines(metric)].join('\n')) + '\n');
   return 0;
 }
 
@@ -217,7 +221,7 @@ function setResult(
 
 /** The `--json` report. */
 function jsonReport(
-  mesh: string, o: DistanceCliOptions, resolver: PointResolver, results: SetResult[], timings: Record<string, number>, solved: SolvedSets,
+  mesh: string, o: DistanceCliOptions, resolver: PointResolver, results: SetResult[], timings: Record<string, number>, solved: SolvedSets, metric: ReturnType<typeof metricJson>,
 ): string {
   const one = (r: SetResult) => ({
     sources: r.sources,
@@ -226,7 +230,7 @@ function jsonReport(
     complete: r.result.complete && r.summary.stoppedBy === null, // graph reports complete at --max-distance too
     details: r.result.details,
   });
-  const base = { method: o.method, unit: 'mesh units', mesh, output: o.output ?? null };
+  const base = { method: o.method, unit: 'mesh units', ...metric, mesh, output: o.output ?? null };
   const snapped = resolver.landings.map((l) => ({ point: l.spec, surfacePoint: formatSurfacePoint(l.point), position: l.position, moved: l.distance }));
   const body = { ...(results.length === 1 ? { ...base, ...one(results[0]!) } : { ...base, sets: results.map(one) }), snapped };
   return toJson({ ...body, timings, prepare: solved.prepareDetails });

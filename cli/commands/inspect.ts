@@ -4,6 +4,7 @@ import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js
 import { inspectSurface, inspectProblems, type InspectReport } from '../../src/index.js';
 import { action, fmt, fmtCoord, toJson } from '../run.js';
 import { requireOption, parseRequirements, runGates, formatGates, failOnGates } from '../gates.js';
+import { metricOption, metricToleranceOption, metricJson, metricLines } from '../metric-option.js';
 
 /** Human-readable lines of an inspect report. */
 export function formatInspect(r: InspectReport): string {
@@ -58,14 +59,15 @@ export function registerInspect(program: Command): void {
     .option('--json', 'print the report as JSON (keys documented in the README)')
     .addOption(maxInputSizeOption())
     .addOption(weldToleranceOption())
+    .addOption(metricOption()).addOption(metricToleranceOption())
     .addOption(requireOption())
     .action(
-      action(async (mesh: string, opts: { json?: boolean; maxInputSize?: string; weldTolerance?: string; require?: string[] }) => {
+      action(async (mesh: string, opts: { json?: boolean; maxInputSize?: string; weldTolerance?: string; require?: string[]; metric?: string; metricTolerance?: string }) => {
         const reqs = parseRequirements(opts.require); // a typo is exit 2 before any work
-        const { surface } = await loadSurface(mesh, { maxInputSize: opts.maxInputSize, weldTolerance: opts.weldTolerance });
+        const { surface, metric } = await loadSurface(mesh, { maxInputSize: opts.maxInputSize, weldTolerance: opts.weldTolerance, metric: opts.metric, metricTolerance: opts.metricTolerance });
         const r = inspectSurface(surface);
         const gates = runGates(r, reqs);
-        process.stdout.write((opts.json ? toJson(reqs.length ? { ...r, requirements: gates } : r) : formatInspect(r) + formatGates(gates)) + '\n');
+        process.stdout.write((opts.json ? toJson({ ...r, ...metricJson(metric), ...(reqs.length ? { requirements: gates } : {}) }) : [formatInspect(r), ...metricLines(metric)].join('\n') + formatGates(gates)) + '\n');
         failOnGates(gates); // exit 1, each failed requirement with its measured value
       }),
     );

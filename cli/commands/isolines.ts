@@ -7,6 +7,7 @@
 import { readFile } from 'node:fs/promises';
 import { Command, Option } from 'commander';
 import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
+import { metricOption, metricToleranceOption, metricJson, metricLines } from '../metric-option.js';
 import { checkOutput } from '../output.js';
 import { action, fmt, toJson } from '../run.js';
 import { TERRAIN_CAUTION } from '../cautions.js';
@@ -27,6 +28,8 @@ export interface CurveCliOptions {
   splitNonmanifold?: boolean;
   maxInputSize?: string;
   weldTolerance?: string;
+  metric?: string;
+  metricTolerance?: string;
   memoryBudget?: string;
 }
 
@@ -125,6 +128,7 @@ export function registerIsolines(program: Command): void {
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh (curves end at the cuts)')
     .addOption(maxInputSizeOption())
     .addOption(weldToleranceOption())
+    .addOption(metricOption()).addOption(metricToleranceOption())
     .addOption(memoryBudgetOption())
     .addHelpText('after', `
 A vertex exactly on a level counts as above it. Curves are open where they reach the boundary,
@@ -142,7 +146,7 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
   const maxLevels = o.maxLevels !== undefined ? numberOption(o.maxLevels, '--max-levels', true) : undefined;
   if (hasSources(o) === (o.field !== undefined)) throw usageError('give either --from/--from-curve/--from-polyline (distances) or --field (a per-vertex field)');
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
-  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance });
+  const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance });
 
   let field: ScalarField;
   let solveMs = 0, prepareMs = 0;
@@ -165,7 +169,7 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
   const timings = { load: loadMs, prepare: round(prepareMs), solve: round(solveMs), curves: round(r.ms) };
   if (o.json) {
     process.stdout.write(toJson({
-      mesh, field: o.field ?? 'distance', method: o.field !== undefined ? null : o.method, unit: 'mesh units', levels: r.levels,
+      mesh, field: o.field ?? 'distance', method: o.field !== undefined ? null : o.method, unit: 'mesh units', ...metricJson(metric), levels: r.levels,
       curves: r.curves.map(curveJson),
       ...(r.bands ? { bands: r.bands.map((b) => ({ lower: b.lower, upper: b.upper, area: b.area, planArea: b.planArea, polygons: b.polygons })) } : {}),
       output: o.output ?? null, timings,
@@ -188,6 +192,7 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
   }
   L.push(`  timings: load ${fmt(timings.load, 4)} ms, prepare ${fmt(timings.prepare, 4)} ms, solve ${fmt(timings.solve, 4)} ms, curves ${fmt(timings.curves, 4)} ms`);
   if (o.output) L.push(`  wrote ${o.output}`);
+  L.push(...metricLines(metric), ...(metric ? ['  levels are distances in the metric; curve lengths and band areas are of the embedding (mesh coordinates)'] : []));
   process.stdout.write(L.join('\n') + '\n');
   return 0;
 }

@@ -5,6 +5,7 @@
  */
 import { Command, Option } from 'commander';
 import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
+import { metricOption, metricToleranceOption, metricJson, metricLines } from '../metric-option.js';
 import { action, fmt, toJson } from '../run.js';
 import { MACHINING_CAUTION, TERRAIN_CAUTION } from '../cautions.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
@@ -36,6 +37,7 @@ export function registerOffset(program: Command): void {
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh (curves end at the cuts)')
     .addOption(maxInputSizeOption())
     .addOption(weldToleranceOption())
+    .addOption(metricOption()).addOption(metricToleranceOption())
     .addOption(memoryBudgetOption())
     .addHelpText('after', `
 The offset is the level set at D of the on-surface distance from the sources, measured on the mesh
@@ -53,14 +55,14 @@ async function runOffset(mesh: string, o: OffsetCliOptions): Promise<number> {
   const D = numberOption(o.distance, '--distance', true);
   if (!hasSources(o)) throw usageError('give at least one --from, --from-curve or --from-polyline');
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
-  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance });
+  const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance });
   const resolver = await pointLocator(surface);
   const r = surfaceOffset(surface, await sourceSet(mesh, surface, resolver, o), D, { method: o.method, memoryBudget });
   if (o.output) await writeCurveFile(o.output, r.curves);
   const round = (x: number) => Math.round(x * 100) / 100;
   const timings = { load: loadMs, prepare: round(r.timings.prepare), solve: round(r.timings.solve), curves: round(r.timings.curves) };
   if (o.json) {
-    process.stdout.write(toJson({ mesh, method: o.method, unit: 'mesh units', distance: D, curves: r.curves.map(curveJson), output: o.output ?? null, timings }) + '\n');
+    process.stdout.write(toJson({ mesh, method: o.method, unit: 'mesh units', ...metricJson(metric), distance: D, curves: r.curves.map(curveJson), output: o.output ?? null, timings }) + '\n');
     return 0;
   }
   const L: string[] = [`${mesh}: offset at ${fmt(D, 9)} mesh units (${o.method} distance): ${r.curves.length} curve(s)`];
@@ -69,6 +71,7 @@ async function runOffset(mesh: string, o: OffsetCliOptions): Promise<number> {
   if (r.curves.length === 0) L.push('  nothing on the surface lies at that distance from the sources');
   L.push(`  timings: load ${fmt(timings.load, 4)} ms, prepare ${fmt(timings.prepare, 4)} ms, solve ${fmt(timings.solve, 4)} ms, curves ${fmt(timings.curves, 4)} ms`);
   if (o.output) L.push(`  wrote ${o.output}`);
+  L.push(...metricLines(metric), ...(metric ? ['  the offset distance is in the metric; curve lengths are of the embedding (mesh coordinates)'] : []));
   L.push('  estimates for planning: verify on the machine before cutting; follow the shop\'s procedures and licensed practice');
   process.stdout.write(L.join('\n') + '\n');
   return 0;

@@ -5,6 +5,7 @@
  */
 import type { Command } from 'commander';
 import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
+import { metricOption, metricToleranceOption } from '../metric-option.js';
 import { checkOutput } from '../output.js';
 import { action, fmt, fmtCoord, since, toJson } from '../run.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
@@ -25,6 +26,8 @@ interface StraightCliOptions {
   splitNonmanifold?: boolean;
   maxInputSize?: string;
   weldTolerance?: string;
+  metric?: string;
+  metricTolerance?: string;
 }
 
 const usage = (detail: string, location?: string) => new OrthodromeError('USAGE', detail, location);
@@ -61,6 +64,7 @@ export function registerStraight(program: Command): void {
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh (the line then stops at a cut as at the boundary)')
     .addOption(maxInputSizeOption())
     .addOption(weldToleranceOption())
+    .addOption(metricOption()).addOption(metricToleranceOption())
     .addHelpText(
       'after',
       `
@@ -95,7 +99,7 @@ async function runStraight(mesh: string, o: StraightCliOptions): Promise<number>
     if (!(Number.isInteger(maxSteps) && maxSteps >= 1)) throw usage(`--max-steps must be a whole number of faces ≥ 1, got '${o.maxSteps}'`);
   }
 
-  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance });
+  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance });
   const resolver = await pointLocator(surface);
   const start = resolver.resolve(o.from, '--from');
   const t0 = performance.now();

@@ -14,3 +14,9 @@ export {
 export { gaussianCurvature, meanCurvature, gaussBonnetResidual, type Curvature } from '../metric/curvature.js';
 export { intrinsicDelaunay, type DelaunayOptions, type DelaunayResult } from '../metric/delaunay.js';
 export { mollify, type Mollified } from '../metric/mollify.js';
+// user metrics (`--metric`): edge lengths in a metric of the user's, attached to a surface so every solver and report uses them
+export {
+  parseMetricSpec, attachMetric, attachedMetric, metricName, metricLengths, surfaceIntrinsic, compileExpression, gaussLegendre, quadratureEdgeLengths,
+  METRIC_KINDS, FIELD_LAYOUTS, DEFAULT_LENGTH_TOLERANCE,
+  type UserMetric, type ParseMetricOptions, type MetricReport, type MetricLengthOptions, type AppliedMetric, type MetricTarget, type CompiledExpression,
+} from '../metric/user/index.js';

@@ -6,7 +6,8 @@
  * derived parts go away with it.
  */
 import type { Topology } from '../mesh/topology.js';
-import { intrinsicFromPositions, type IntrinsicMesh } from '../metric/intrinsic.js';
+import type { IntrinsicMesh } from '../metric/intrinsic.js';
+import { surfaceIntrinsic } from '../metric/user/surface-metric.js';
 import { orientationCover, type OrientationCover } from '../geodesic/cover.js';
 import { splitGroups } from '../query/copies.js';
 
@@ -34,11 +35,11 @@ function partsOf(s: SolvableSurface): Parts {
   return p;
 }
 
-/** The intrinsic mesh of `s` (edge lengths from its positions), made once; `given` is adopted when it is for this topology. */
+/** The intrinsic mesh of `s` (edge lengths of its attached user metric, else from its positions), made once; `given` is adopted when it is for this topology. */
 export function intrinsicOf(s: SolvableSurface, given?: IntrinsicMesh): IntrinsicMesh {
   const p = partsOf(s);
   if (given && given.topology === s.topology) p.mesh ??= given;
-  return (p.mesh ??= intrinsicFromPositions(s.topology, s.positions));
+  return (p.mesh ??= surfaceIntrinsic(s));
 }
 
 /** The orientation double cover of `s`, or null when `s` is orientable (no seams); made once. */

@@ -9,6 +9,7 @@ import { shortestPathThrough, type PathMethod, type WaypointPath } from '../geod
 import { coverPathThrough } from '../geodesic/cover.js';
 import { pathPolyline } from '../geodesic/path.js';
 import { coverOf, groupsOf, intrinsicOf, type SolvableSurface } from './parts.js';
+import { attachedMetric } from '../metric/user/surface-metric.js';
 
 /** Options of {@link shortestPath}. */
 export interface PathOptions {
@@ -47,7 +48,8 @@ export function shortestPath(s: SolvableSurface, stops: (SurfacePoint | SurfaceP
         ...memoryBudget,
         pinches: groupsOf(s),
         method: opts.method ?? 'auto',
-        positions: s.positions,
+        // the flip legs' proof (verify.ts) holds for lengths of the positions only: not under a user metric
+        ...(attachedMetric(s) ? {} : { positions: s.positions }),
         ...(opts.verifyFaces !== undefined ? { verifyFaces: opts.verifyFaces } : {}),
       });
   return { ...route, polyline: pathPolyline(route.path, s.topology, s.positions) };

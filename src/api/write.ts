@@ -13,6 +13,7 @@ import { toCsv, writeVertexCsv } from '../io/csv.js';
 import { colorize } from '../io/colormap.js';
 import { toJson } from '../io/json.js';
 import type { SurfaceRoute } from './path.js';
+import { attachedMetric } from '../metric/user/surface-metric.js';
 
 /** A named per-vertex column with its unit. */
 export interface VertexColumn {
@@ -59,6 +60,7 @@ export function encodeVertexColumns(s: Surface, columns: VertexColumn[], format:
   const cols = columns.map((c) => ({ ...c, values: toInputVertices(s, c.values) }));
   const P = s.data.positions;
   const n = P.length / 3;
+  const user = attachedMetric(s)?.report.metric; // lengths measured in a user metric say so
   if (format === 'ply') {
     const vertexProps = cols.map((c) => ({
       name: c.name,
@@ -75,7 +77,7 @@ export function encodeVertexColumns(s: Surface, columns: VertexColumn[], format:
       {
         format: opts.plyAscii ? 'ascii' : 'binary',
         ...(colors ? { colors } : {}),
-        comment: opts.comment ?? `orthodrome: ${cols.map((c) => `${c.name} [${c.unit}]`).join(', ')}; colours from ${colorCol?.name ?? 'none'}`,
+        comment: (opts.comment ?? `orthodrome: ${cols.map((c) => `${c.name} [${c.unit}]`).join(', ')}; colours from ${colorCol?.name ?? 'none'}`) + (user ? `; metric ${user}` : ''),
       },
     );
   }
@@ -87,7 +89,7 @@ export function encodeVertexColumns(s: Surface, columns: VertexColumn[], format:
       y[i] = P[3 * i + 1]!;
       z[i] = P[3 * i + 2]!;
     }
-    return writeVertexCsv([
+    return (user ? `# metric: ${user}\n` : '') + writeVertexCsv([
       { name: 'vertex', values: id },
       { name: 'x', values: x },
       { name: 'y', values: y },
@@ -95,7 +97,7 @@ export function encodeVertexColumns(s: Surface, columns: VertexColumn[], format:
       ...cols.map((c) => ({ name: c.name, values: c.values })),
     ]);
   }
-  const obj: Record<string, unknown> = { vertices: n, units: Object.fromEntries(cols.map((c) => [c.name, c.unit])) };
+  const obj: Record<string, unknown> = { vertices: n, ...(user ? { metric: user } : {}), units: Object.fromEntries(cols.map((c) => [c.name, c.unit])) };
   for (const c of cols) obj[c.name] = c.values;
   return toJson(obj, 0) + '\n';
 }

@@ -36,6 +36,7 @@
  * `LIMIT` error naming `maxSteps`.
  */
 import { intrinsicFromPositions, type IntrinsicMesh } from '../metric/intrinsic.js';
+import { attachedMetric } from '../metric/user/surface-metric.js';
 import type { Topology } from '../mesh/topology.js';
 import { checkSurfacePoint, canonicalSurfacePoint, surfacePointPosition, type SurfacePoint } from '../mesh/surface-point.js';
 import { usageError, limitError, numericError } from '../errors.js';
@@ -154,6 +155,8 @@ export function straightestLine(surface: StraightSurface, start: SurfacePoint, o
   const { topology: t, positions } = surface;
   if (positions.length !== 3 * t.nv) throw usageError(`expected ${3 * t.nv} coordinates (x, y, z per vertex), got ${positions.length}`, 'positions');
   if (options.mesh && options.mesh.topology !== t) throw usageError('the edge lengths given (mesh) are for another topology', 'mesh');
+  const user = attachedMetric(surface);
+  if (user) throw usageError(`a straightest line unfolds the embedding's faces (positions), so it cannot walk in the metric ${user.report.metric}; drop --metric`);
   const p = checkSurfacePoint(start, t, 'start');
   const length = options.length;
   if (!(typeof length === 'number' && Number.isFinite(length) && length > 0)) throw usageError(`length must be a positive number of mesh units, got ${length}`);

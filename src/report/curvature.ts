@@ -3,7 +3,7 @@
  * for the statistics; boundary vertices carry the turning instead).
  */
 import type { Surface } from '../mesh/surface.js';
-import { intrinsicFromPositions } from '../metric/intrinsic.js';
+import { surfaceIntrinsic, attachedMetric } from '../metric/user/surface-metric.js';
 import { gaussianCurvature, meanCurvature, gaussBonnetResidual } from '../metric/curvature.js';
 import { components } from '../mesh/components.js';
 import { glueSeams } from '../mesh/seams.js';
@@ -57,10 +57,11 @@ function stat(values: Float64Array, mask: Uint8Array, active: (v: number) => boo
 /** Computes curvature per topology vertex and its summary. */
 export function curvatureSummary(s: Surface): CurvatureResult {
   const t = s.topology;
-  const im = intrinsicFromPositions(t, s.positions);
+  const im = surfaceIntrinsic(s); // a user metric's lengths when one is attached
   const seams = s.report.orientationSeams;
   const c = gaussianCurvature(im, seams);
   const H = meanCurvature(im, s.positions, c.vertexArea, c.boundary, seams);
+  if (attachedMetric(s)) H.fill(NaN); // mean curvature belongs to the embedding: not defined by a user metric
   const chi = components(t, seams).info.reduce((a, x) => a + x.eulerCharacteristic, 0);
   const copy = seams.length > 0 ? glueSeams(t, seams).rep : null;
   const used = (v: number) => t.vertexHalfedge[v]! >= 0;

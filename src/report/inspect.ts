@@ -24,7 +24,7 @@
 import type { Surface } from '../mesh/surface.js';
 import { components } from '../mesh/components.js';
 import { boundaryLoops, namedBoundaryLoops } from '../mesh/boundary.js';
-import { intrinsicFromPositions } from '../metric/intrinsic.js';
+import { surfaceIntrinsic } from '../metric/user/surface-metric.js';
 import { cornerAngles, faceAreas } from '../metric/triangle.js';
 import { gaussianCurvature, gaussBonnetResidual } from '../metric/curvature.js';
 import type { NonManifoldEdge, DuplicateFace } from '../mesh/build.js';
@@ -160,7 +160,7 @@ export function inspectSurface(s: Surface): InspectReport {
   const t = s.topology;
   const seams = s.report.orientationSeams;
   const comps = components(t, seams);
-  const im = intrinsicFromPositions(t, s.positions);
+  const im = surfaceIntrinsic(s); // a user metric's lengths when one is attached
   const ang = cornerAngles(im);
   const A = faceAreas(im);
   const curv = gaussianCurvature(im, seams);

@@ -1,0 +1,16 @@
+/**
+ * User-supplied metrics (`--metric SPEC`): the spec's text → a metric →
+ * edge lengths (quadrature, checked, repaired) → attached to a surface, so
+ * every solver and report measures in it. See `spec.ts` for the spec forms.
+ *
+ * @packageDocumentation
+ */
+export { parseMetricSpec, METRIC_KINDS, type UserMetric, type ParseMetricOptions } from './spec.js';
+export { compileExpression, EXPRESSION_FUNCTIONS, type CompiledExpression } from './expression.js';
+export { gaussLegendre, type GaussRule } from './gauss-legendre.js';
+export { quadratureEdgeLengths, DEFAULT_LENGTH_TOLERANCE, type QuadratureResult } from './edge-lengths.js';
+export { FIELD_LAYOUTS } from './field.js';
+export {
+  metricLengths, attachMetric, attachedMetric, surfaceIntrinsic, metricName,
+  type MetricTarget, type MetricLengthOptions, type MetricReport, type AppliedMetric,
+} from './surface-metric.js';

@@ -1,0 +1,156 @@
+/**
+ * A user metric on a surface: its edge lengths (quadrature of the metric,
+ * or given), checked and repaired, and the record of which metric a
+ * surface is measured in.
+ *
+ * Lengths from a metric need not satisfy the triangle inequality on every
+ * face (a metric that changes fast across a face, or lengths given
+ * directly). Such faces are counted, and the lengths are repaired by
+ * intrinsic mollification (Sharp & Crane, "A Laplacian for Nonmanifold
+ * Triangle Meshes", CGF 39(5), 2020, §4.5; `metric/mollify.ts`): one
+ * constant ε added to every edge, the smallest that leaves every face a
+ * margin δ. The heat and exact methods then both see the repaired lengths.
+ *
+ * "The metric is the interface": {@link attachMetric} records the repaired
+ * intrinsic mesh beside the surface object (a WeakMap), and everything that
+ * makes a surface's intrinsic mesh asks {@link surfaceIntrinsic} first, so
+ * every command measures in the user's metric. Positions still place points
+ * (`p:X,Y,Z` snapping) and map results back to 3D.
+ */
+import type { Topology } from '../../mesh/topology.js';
+import type { PropertyColumn } from '../../io/mesh-data.js';
+import { intrinsicFromPositions, meanEdgeLength, triangleInequalityViolations, type IntrinsicMesh } from '../intrinsic.js';
+import { mollify, DEFAULT_MOLLIFY_DELTA } from '../mollify.js';
+import { usageError } from '../../errors.js';
+import type { UserMetric } from './spec.js';
+import { expressionSpeed } from './speed.js';
+import { fieldSpeed } from './field.js';
+import { lengthsFromCsv } from './lengths-file.js';
+import { quadratureEdgeLengths, DEFAULT_LENGTH_TOLERANCE } from './edge-lengths.js';
+
+/** What a surface needs to take a user metric (a whole `Surface` will do). */
+export interface MetricTarget {
+  topology: Topology;
+  positions: Float64Array;
+  data: { name: string; vertexProps: PropertyColumn[] };
+  report: { orientationSeams: Int32Array };
+}
+
+/** Options of {@link metricLengths}. */
+export interface MetricLengthOptions {
+  /** Relative tolerance of each edge length's quadrature (default 1e-10). */
+  tolerance?: number;
+  /** Mollification margin δ as a fraction of the mean edge length (default 1e-5). */
+  mollifyDelta?: number;
+}
+
+/** What applying a user metric found and did. Every length measured in it should carry `metric`. */
+export interface MetricReport {
+  /** The metric as given (e.g. `conformal:1/y`). */
+  metric: string;
+  /** Its kind. */
+  kind: UserMetric['kind'];
+  /** Edges measured. */
+  edges: number;
+  /** Relative tolerance asked of each edge length (null: lengths given directly). */
+  toleranceAsked: number | null;
+  /** Largest estimated relative error of an edge length (0: exact; null: lengths given). */
+  toleranceReached: number | null;
+  /** Edges whose quadrature stayed above the tolerance. */
+  edgesAboveTolerance: number;
+  /** Metric evaluations made by the quadrature. */
+  evaluations: number;
+  /** Faces failing the triangle inequality under the metric, before repair. */
+  triangleInequalityViolations: number;
+  /** Length added to every edge by mollification, mesh units (0: none needed). */
+  mollifyEpsilon: number;
+  /** The margin δ every face keeps after repair, mesh units. */
+  mollifyDelta: number;
+  /** ε relative to the shortest edge before repair (the largest relative change of a length). */
+  largestRelativeChange: number;
+  /** Mean edge length under the metric (after repair), mesh units. */
+  meanEdgeLength: number;
+}
+
+/** A surface's lengths under a user metric and their report. */
+export interface AppliedMetric {
+  /** The repaired intrinsic mesh. */
+  mesh: IntrinsicMesh;
+  /** What was found and done. */
+  report: MetricReport;
+}
+
+/**
+ * The edge lengths of `s` under `metric`, checked (positive definiteness where
+ * evaluated: `INPUT` naming the point and edge) and repaired (triangle
+ * inequality by mollification). Does not attach them to `s` ({@link attachMetric}).
+ */
+export function metricLengths(s: MetricTarget, metric: UserMetric, opts: MetricLengthOptions = {}): AppliedMetric {
+  const t = s.topology;
+  const ms = { positions: s.positions, vertexOrigin: t.vertexOrigin, name: s.data.name };
+  const tol = opts.tolerance ?? DEFAULT_LENGTH_TOLERANCE;
+  if (!(tol > 0 && tol < 1)) throw usageError(`the metric tolerance must lie in (0, 1), got ${tol}`);
+  let lengths: Float64Array;
+  let quad: { toleranceAsked: number | null; toleranceReached: number | null; edgesAboveTolerance: number; evaluations: number };
+  if (metric.kind === 'lengths') {
+    lengths = lengthsFromCsv(t, metric.text, metric.file);
+    quad = { toleranceAsked: null, toleranceReached: null, edgesAboveTolerance: 0, evaluations: 0 };
+  } else {
+    const speed = metric.kind === 'field' ? fieldSpeed(ms, s.data.vertexProps, metric.name, metric.label) : expressionSpeed(ms, metric);
+    const q = quadratureEdgeLengths(t, speed, tol);
+    lengths = q.lengths;
+    quad = q;
+  }
+  const raw: IntrinsicMesh = { topology: t, edgeLength: lengths };
+  const violations = triangleInequalityViolations(raw);
+  let shortest = Infinity;
+  for (let e = 0; e < lengths.length; e++) if (lengths[e]! < shortest) shortest = lengths[e]!;
+  const m = mollify(raw, opts.mollifyDelta ?? DEFAULT_MOLLIFY_DELTA);
+  const report: MetricReport = {
+    metric: metric.label,
+    kind: metric.kind,
+    edges: t.ne,
+    ...quad,
+    triangleInequalityViolations: violations,
+    mollifyEpsilon: m.epsilon,
+    mollifyDelta: m.delta,
+    largestRelativeChange: m.epsilon > 0 ? (shortest > 0 ? m.epsilon / shortest : Infinity) : 0,
+    meanEdgeLength: meanEdgeLength(m.mesh),
+  };
+  return { mesh: m.mesh, report };
+}
+
+const attached = new WeakMap<object, AppliedMetric>();
+
+/**
+ * Measures `s` in `metric` from now on: computes {@link metricLengths} and
+ * records them beside `s`, so every solver and report on `s` uses them.
+ * Call it right after loading, before anything is measured. A surface that
+ * is not orientable (solved on its double cover, built from positions) is a
+ * `USAGE` error, as is attaching a second metric.
+ */
+export function attachMetric(s: MetricTarget, metric: UserMetric, opts: MetricLengthOptions = {}): MetricReport {
+  if (attached.has(s)) throw usageError(`the surface already has the metric ${attached.get(s)!.report.metric}`);
+  if (s.report.orientationSeams.length > 0) {
+    throw usageError(`a user metric on a non-orientable surface is not supported (it is solved on its double cover, measured from positions)`, s.data.name);
+  }
+  const applied = metricLengths(s, metric, opts);
+  attached.set(s, applied);
+  return applied.report;
+}
+
+/** The metric attached to `s` by {@link attachMetric}, or undefined (measured from positions). */
+export function attachedMetric(s: object): AppliedMetric | undefined {
+  return attached.get(s);
+}
+
+/** The intrinsic mesh of `s`: its attached user metric's, else the Euclidean lengths of its positions. */
+export function surfaceIntrinsic(s: { topology: Topology; positions: Float64Array }): IntrinsicMesh {
+  const a = attached.get(s);
+  return a && a.mesh.topology === s.topology ? a.mesh : intrinsicFromPositions(s.topology, s.positions);
+}
+
+/** The name of the metric `s` is measured in: the user's spec, or `euclidean` (lengths of the embedding). */
+export function metricName(s: object): string {
+  return attached.get(s)?.report.metric ?? 'euclidean';
+}
