@@ -172,7 +172,7 @@ export async function runScore(args: string[], o: ScoreOpts): Promise<number> {
       `${fresh} scored in ${formatDuration(secs)}${fresh && secs > 0 ? ` (${(fresh / secs).toFixed(fresh / secs >= 10 ? 0 : 2)} meshes/s, ${threads} worker${threads === 1 ? '' : 's'})` : ''}` +
       `${log && log.kept.size ? `, ${log.kept.size} kept from before (--resume)` : ''}`,
   );
-  say.push(`  metric groups: ${groups.join(', ')}; per-mesh limits: ${timeLimitS ? `${timeLimitS} s` : 'no time limit'}, ${formatBytes(memoryLimit)} memory estimate`);
+  say.push(`  metric groups: ${groups.join(', ')}; per-mesh limits: time ${timeLimitS ? `${timeLimitS} s` : 'none'} (--time-limit), memory estimate ${formatBytes(memoryLimit)} (--mesh-memory)`);
   say.push(...summaryLines(rows, columns, rules));
   if (out !== undefined) say.push(`  results: ${out} (plan: ${planPath(out)})`);
   process.stdout.write(say.join('\n') + '\n');

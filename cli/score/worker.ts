@@ -36,6 +36,8 @@ function message(e: unknown, file: string): { error: string; limit: boolean } {
   if (e instanceof RangeError && /allocation failed|Array buffer allocation|Invalid (typed )?array length/i.test(text)) {
     return { error: `${file}: out of memory while scoring (${text}); lower --jobs or raise --mesh-memory only if the machine has the memory`, limit: true };
   }
+  // the exact method's budget is --mesh-memory here, not distance's --memory-budget
+  if (limit && /--memory-budget/.test(text)) text = text.replace(/--memory-budget/g, '--mesh-memory');
   return { error: text.includes(file) ? text : `${file}: ${text}`, limit };
 }
 
