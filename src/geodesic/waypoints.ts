@@ -16,7 +16,7 @@ import { DEFAULT_MAX_PINCH_SOLVES } from './pinch.js';
 import { prepareExactGeometry } from './exact/geometry.js';
 import { commonFaces, inFaceDistance } from '../metric/face-points.js';
 import { flipGeodesicPath } from './flip/index.js';
-import { verifyShortest } from './flip/verify.js';
+import { verifyShortest, lengthsFromPositions } from './flip/verify.js';
 
 /** How the legs of a path are found: see {@link WaypointOptions.method}. */
 export type PathMethod = 'auto' | 'flip' | 'windows';
@@ -159,8 +159,11 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint |
   let length = 0;
   const method = opts.method ?? 'auto';
   if (method !== 'auto' && method !== 'flip' && method !== 'windows') throw usageError(`unknown path method '${String(method)}' (auto, flip or windows)`, 'path');
-  // auto flips only where it can prove each leg (positions given); otherwise windows, as before
-  const flips = !opts.pinches?.length && (method === 'flip' || (method === 'auto' && mesh.topology.nf >= AUTO_FLIP_FACES && opts.positions !== undefined));
+  // positions serve the check only when the lengths are theirs (not a metric of the user's own)
+  const big = mesh.topology.nf >= AUTO_FLIP_FACES;
+  const positions = opts.positions && (method === 'flip' || (method === 'auto' && big)) && lengthsFromPositions(mesh, opts.positions) ? opts.positions : undefined;
+  // auto flips only where it can check each leg (positions that gave the lengths); otherwise windows, as before
+  const flips = !opts.pinches?.length && (method === 'flip' || (method === 'auto' && big && positions !== undefined));
   let geometry: ReturnType<typeof prepareExactGeometry> | undefined; // made on the first window leg
   for (let i = 0; i + 1 < stops.length; i++) {
     const run = (from: SurfacePoint[], targets?: SurfacePoint[]) => exactDistance(mesh, { points: from, curves: [] }, {
@@ -172,11 +175,11 @@ export function shortestPathThrough(mesh: IntrinsicMesh, stops0: (SurfacePoint |
     if (f && f.status === 'ok') {
       p = f.path; how = 'flip'; proven = p.length === 0; // a point to itself: nothing is shorter
       if (!proven) excess = undefined;
-      if (opts.positions && p.length > 0) {
+      if (positions && p.length > 0) {
         const limit = opts.verifyFaces ?? (method === 'auto' ? AUTO_PROVE_FACES : FLIP_VERIFY_FACES);
         let v: ReturnType<typeof verifyShortest>;
         try {
-          v = verifyShortest(mesh, opts.positions, a[0]!, b[0]!, p.length, limit, opts.memoryBudget);
+          v = verifyShortest(mesh, positions, a[0]!, b[0]!, p.length, limit, opts.memoryBudget);
         } catch (err) {
           if (!isOrthodromeError(err) || err.code !== 'LIMIT') throw err;
           throw limitError(`${err.detail}; this was the proof that a path found by edge flips is the shortest: a smaller face limit on the proof (--prove-limit) returns the geodesic unproven, with its certified bound, instead`, err.location);

@@ -84,6 +84,21 @@ describe('bump between two nearly equal routes: the flip start is on the longer 
   });
 });
 
+describe('a metric of the user\'s own: the chord says nothing, so nothing is claimed from it', () => {
+  it('lengths halved (not those of the positions): the longer flip path is neither proven nor bounded; auto uses windows', () => {
+    const { m, P, a, b } = bumpPlate(0.015);
+    const half: IntrinsicMesh = { topology: m.topology, edgeLength: m.edgeLength.map((l) => l / 2) };
+    const exact = shortestPathThrough(half, [V(a), V(b)], { method: 'windows' }).length;
+    // with the chord of the positions, L/2 would look shorter than the chord and pass as proven
+    const r = shortestPathThrough(half, [V(a), V(b)], { method: 'flip', positions: P });
+    expect(r.legs[0]!.method).toBe('flip');
+    expect(r.length).toBeGreaterThan(exact * (1 + 1e-3)); // the wrong side, as on the true plate
+    expect(r.legs[0]!.proven).toBe(false);
+    expect(r.legs[0]!.excessBound).toBeUndefined();
+    expect(r.excessBound).toBe(Infinity);
+  });
+});
+
 describe('chord bound', () => {
   it('on a flat plate a straight flip path is proven by the chord alone (the segment is shortest: elementary)', () => {
     const s = flatGrid(30, 30, 3, 3, 0.3, 5);

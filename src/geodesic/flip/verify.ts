@@ -164,3 +164,21 @@ export function chordExcess(L: number, chord: number): number {
   const c = chord * (1 - 1e-12);
   return c > 0 ? Math.max(0, (L - c) / c) : Infinity;
 }
+
+/**
+ * True when every edge length of `mesh` is the straight distance between its ends in
+ * `positions` (to 1e-12 relative: the rounding of computing it again). Only then is every face
+ * congruent to its 3D triangle, so that the chord bounds the surface distance from below and the
+ * check above and {@link chordExcess} hold; a metric of the user's own (lengths not from these
+ * positions) fails it, and its flip legs are neither proven nor bounded this way.
+ */
+export function lengthsFromPositions(mesh: IntrinsicMesh, positions: Float64Array): boolean {
+  const t = mesh.topology, L = mesh.edgeLength, P = positions;
+  if (P.length < 3 * t.nv) return false;
+  for (let e = 0; e < t.ne; e++) {
+    const h = t.edgeHalfedge[e]!, u = 3 * t.tri[h]!, v = 3 * t.tri[next(h)]!;
+    const d = Math.hypot(P[u]! - P[v]!, P[u + 1]! - P[v + 1]!, P[u + 2]! - P[v + 2]!);
+    if (!(Math.abs(L[e]! - d) <= 1e-12 * d)) return false;
+  }
+  return true;
+}
