@@ -53,6 +53,12 @@ export interface PaceModel {
   seconds(dx: number, dh: number): number;
   /** Speed on flat ground, km/h (over the horizontal distance). */
   readonly flatKmh: number;
+  /**
+   * A lower bound of the seconds per horizontal metre over every slope (the
+   * fastest pace the model allows): a search skips a step whose bound
+   * cannot improve a time, without evaluating the model.
+   */
+  readonly minSecondsPerMeter: number;
 }
 
 /** One row of a speed table: slope as rise over run (dh/dx) and speed in km/h. */
@@ -95,15 +101,17 @@ export function paceModel(name: string, opts: PaceOptions = {}): PaceModel {
   // tan(90°) is finite in floating point: treat 90 as no limit
   const maxGrade = maxSlopeDeg >= 90 ? Infinity : Math.tan((maxSlopeDeg * Math.PI) / 180);
   let perMeter: (grade: number) => number;
-  let flatKmh: number;
+  let flatKmh: number, minPerMeter: number;
   switch (name) {
     case 'tobler':
       perMeter = (g) => S_PER_M_AT_1KMH / toblerKmh(g);
       flatKmh = toblerKmh(0);
+      minPerMeter = S_PER_M_AT_1KMH / 6; // at dh/dx = −0.05
       break;
     case 'naismith':
       perMeter = naismithSecondsPerMeter;
       flatKmh = 5;
+      minPerMeter = S_PER_M_AT_1KMH / 5 - 2 * Math.tan((12 * Math.PI) / 180); // the gentle-descent rule at its steepest (12°)
       break;
     case 'table': {
       const rows = [...(opts.table ?? [])].sort((a, b) => a.grade - b.grade);
@@ -113,23 +121,28 @@ export function paceModel(name: string, opts: PaceOptions = {}): PaceModel {
         return kmh > 0 ? S_PER_M_AT_1KMH / kmh : Infinity;
       };
       flatKmh = interpolate(rows, 0);
+      const fastest = Math.max(...rows.map((r) => r.kmh)); // linear pieces peak at a row
+      minPerMeter = fastest > 0 ? S_PER_M_AT_1KMH / fastest : Infinity;
       break;
     }
     default:
       throw usageError(`unknown speed model '${name}' (use ${PACE_MODELS.join(', ')})`);
   }
-  return {
-    name: name as PaceModelName,
-    maxSlopeDeg,
-    flatKmh,
-    seconds(dx: number, dh: number): number {
-      if (!(dx > 0)) return dh === 0 ? 0 : Infinity; // a vertical step is a cliff
-      const g = dh / dx;
-      if (Math.abs(g) > maxGrade) return Infinity;
-      const s = dx * perMeter(g);
-      return s >= 0 ? s : Infinity; // NaN (overflow) → blocked, never out
-    },
+  const general = (dx: number, dh: number): number => {
+    if (!(dx > 0)) return dh === 0 ? 0 : Infinity; // a vertical step is a cliff
+    const g = dh / dx;
+    if (Math.abs(g) > maxGrade) return Infinity;
+    const s = dx * perMeter(g);
+    return s >= 0 ? s : Infinity; // NaN (overflow) → blocked, never out
   };
+  // Tobler's function written out (the hot loop calls this for every arc): dx · 3.6/6 · e^{3.5|g+0.05|}
+  const tobler = (dx: number, dh: number): number => {
+    if (!(dx > 0)) return dh === 0 ? 0 : Infinity;
+    const g = dh / dx;
+    if (Math.abs(g) > maxGrade) return Infinity;
+    return dx * 0.6 * Math.exp(3.5 * Math.abs(g + 0.05)); // overflow gives Infinity, never NaN (dx > 0)
+  };
+  return { name: name as PaceModelName, maxSlopeDeg, flatKmh, minSecondsPerMeter: minPerMeter, seconds: name === 'tobler' ? tobler : general };
 }
 
 /** Speed at `g` by linear interpolation in `rows` (sorted); 0 outside the table. */

@@ -132,6 +132,7 @@ export function runTravelSearch(
 ): SearchResult {
   const { dist, pred, done, toTarget, to, mult } = state;
   const { ha, hb, hz } = g;
+  const minPace = pace.minSecondsPerMeter;
   dist.fill(Infinity);
   pred.fill(-1);
   done.fill(0);
@@ -156,10 +157,11 @@ export function runTravelSearch(
     for (let i = 0; i < n; i++) {
       const w = to[i]!;
       if (done[w]) continue;
-      const da = ha[w]! - au, db = hb[w]! - bu;
-      const s = pace.seconds(Math.sqrt(da * da + db * db), hz[w]! - zu);
+      const da = ha[w]! - au, db = hb[w]! - bu, dx = Math.sqrt(da * da + db * db), m = mult[i]!;
+      if (du + dx * minPace * m >= dist[w]!) continue; // even the fastest pace would not improve w
+      const s = pace.seconds(dx, hz[w]! - zu);
       relaxed++;
-      const nd = du + (s === 0 ? 0 : s * mult[i]!);
+      const nd = du + (s === 0 ? 0 : s * m);
       if (nd < dist[w]! && nd <= maxSeconds) { dist[w] = nd; pred[w] = u; heap.push(w); }
     }
   }
