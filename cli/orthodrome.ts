@@ -1,19 +1,10 @@
 #!/usr/bin/env node
 /**
  * The `orthodrome` command line: parses arguments and calls the library.
- * Each command lives in cli/commands/ and stays thin.
+ * Each command lives in cli/commands/ and stays thin; only the one being
+ * run is loaded.
  */
 import { Command, CommanderError } from 'commander';
-import { registerInspect } from './commands/inspect.js';
-import { registerCurvature } from './commands/curvature.js';
-import { registerDemo } from './commands/demo.js';
-import { registerDistance } from './commands/distance.js';
-import { registerPath } from './commands/path.js';
-import { registerIsolines } from './commands/isolines.js';
-import { registerOffset } from './commands/offset.js';
-import { registerStraight } from './commands/straight.js';
-import { registerScore } from './commands/score.js';
-import { registerTravel } from './commands/travel.js';
 import { EXIT_INPUT, reportError } from './run.js';
 
 const program = new Command();
@@ -27,16 +18,25 @@ program
     outputError: (str, write) => write(`orthodrome: ${str.replace(/^error: /, '')}`),
   });
 
-registerInspect(program);
-registerCurvature(program);
-registerDistance(program);
-registerPath(program);
-registerIsolines(program);
-registerOffset(program);
-registerStraight(program);
-registerScore(program);
-registerTravel(program);
-registerDemo(program);
+/**
+ * Each command's module, in the order help lists them. Only the command being run is loaded
+ * (every command for help, a typo or no command): a run does not pay for the others' libraries.
+ */
+type Register = (program: Command) => void;
+const COMMANDS: [string, () => Promise<Register>][] = [
+  ['inspect', async () => (await import('./commands/inspect.js')).registerInspect],
+  ['curvature', async () => (await import('./commands/curvature.js')).registerCurvature],
+  ['distance', async () => (await import('./commands/distance.js')).registerDistance],
+  ['path', async () => (await import('./commands/path.js')).registerPath],
+  ['isolines', async () => (await import('./commands/isolines.js')).registerIsolines],
+  ['offset', async () => (await import('./commands/offset.js')).registerOffset],
+  ['straight', async () => (await import('./commands/straight.js')).registerStraight],
+  ['score', async () => (await import('./commands/score.js')).registerScore],
+  ['travel', async () => (await import('./commands/travel.js')).registerTravel],
+  ['demo', async () => (await import('./commands/demo.js')).registerDemo],
+];
+const asked = COMMANDS.filter(([name]) => name === process.argv[2]);
+for (const [, load] of asked.length ? asked : COMMANDS) (await load())(program);
 
 try {
   await program.parseAsync(process.argv);

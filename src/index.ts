@@ -19,6 +19,7 @@ export { writeFileAtomic } from './io/atomic.js';
 // walking time on terrain (`orthodrome travel`): pace models, Steiner-graph fields and routes, DEM GeoTIFF, GPX, map CRS
 // (geotiff and proj4 are loaded on first use)
 export * from './travel/api.js';
-// batch scoring (`orthodrome score`): Node entry only, so the browser bundle does not carry the rules schema library;
-// the rest of it (metric catalogue, rules, result rows, manifests, landmarks) is the `orthodrome/score` subpath (src/score/index.ts)
-export { scoreSurface, type ScoreOptions, type SurfaceScore } from './score/index.js';
+// batch scoring (`orthodrome score`): the rest of it (metric catalogue, rules, result rows, manifests, landmarks) is the
+// `orthodrome/score` subpath (src/score/index.ts); imported from its own module so that the root does not load the rules
+// schema library (zod, about 3 MB of heap) for every command
+export { scoreSurface, type ScoreOptions, type SurfaceScore } from './score/score-mesh.js';
