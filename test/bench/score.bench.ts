@@ -1,0 +1,95 @@
+/**
+ * `orthodrome score` throughput (issue 12): meshes per second on a folder of
+ * 200 generated meshes of 2k–50k faces (40 with `--quick`), face counts
+ * log-uniform and shapes alternating between a bumpy heightfield and a torus,
+ * seeded (rng 12), written as binary PLY into a temporary folder.
+ *
+ * Cases, each one process of the CLI (from source through tsx, or the built
+ * CLI named by ORTHODROME_CLI, e.g. dist/cli/orthodrome.js, which is what
+ * users run), default metric groups, no output file:
+ * - `jobs1`, `jobs2`: the whole folder with `--jobs 1` and `--jobs 2`;
+ *   `speedup_2_workers` = jobs2 rate / jobs1 rate (goal ≥ 1.8 on 2 cores);
+ * - `process_per_mesh`: one `score FILE --jobs 1` process per mesh, on every
+ *   10th mesh (a subset with the same size spread), timed end to end;
+ *   `vs_process_per_mesh` = jobs2 rate / that rate (goal ≥ 10).
+ * One run each (a run is tens of seconds); the machine may be shared, so
+ * read the ratios, not the absolute rates. The results of jobs1 and jobs2
+ * are compared row by row (the same scores, whatever the worker count).
+ */
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { createRequire } from 'node:module';
+import { emit, quick } from './harness.js';
+import { writePly } from '../../src/io/write-ply.js';
+import { rng, terrain, torus, type Shape } from '../fixtures/shapes.js';
+
+const BENCH = 'score';
+const root = resolve(dirname(fileURLToPath(import.meta.url)), '../..');
+const built = process.env.ORTHODROME_CLI;
+/** tsx's loader by URL: the runs' working directory is the temporary folder, where a bare `tsx` would not resolve. */
+const TSX = pathToFileURL(createRequire(import.meta.url).resolve('tsx')).href;
+
+function cli(args: string[], cwd: string): { ms: number; code: number; stdout: string; stderr: string } {
+  const node = built ? [resolve(built), ...args] : ['--import', TSX, join(root, 'cli/orthodrome.ts'), ...args];
+  const t0 = performance.now();
+  const r = spawnSync(process.execPath, node, { cwd, encoding: 'utf8', env: { ...process.env, ORTHODROME_DEBUG: '' }, maxBuffer: 1 << 28 });
+  return { ms: performance.now() - t0, code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
+}
+
+/** A mesh of about `faces` faces: a bumpy heightfield (even i) or a torus (odd i). */
+function meshOf(i: number, faces: number, r: () => number): Shape {
+  if (i % 2 === 0) {
+    const n = Math.max(2, Math.round(Math.sqrt(faces / 2)));
+    const a = 1 + r(), b = 1 + r();
+    return terrain(n, n, 100, 100, (x, y) => 8 * Math.sin(x / (7 * a)) * Math.cos(y / (9 * b)) + 2 * Math.sin((x + y) / 3));
+  }
+  const nv = Math.max(3, Math.round(Math.sqrt(faces / 8)));
+  return torus(4 * nv, nv, 2 + r(), 0.5 + 0.3 * r());
+}
+
+const count = quick() ? 40 : 200;
+const dir = mkdtempSync(join(tmpdir(), 'orthodrome-score-bench-'));
+try {
+  const r = rng(12);
+  const files: string[] = [];
+  let totalFaces = 0;
+  for (let i = 0; i < count; i++) {
+    const target = Math.round(2000 * Math.exp(r() * Math.log(25))); // log-uniform in [2k, 50k]
+    const s = meshOf(i, target, r);
+    const nf = s.triangles.length / 3;
+    totalFaces += nf;
+    const name = `m${String(i).padStart(3, '0')}.ply`;
+    writeFileSync(join(dir, name), writePly({ positions: s.positions, faceIndices: s.triangles, faceOffsets: Uint32Array.from({ length: nf + 1 }, (_, f) => 3 * f) }));
+    files.push(name);
+  }
+  const extra = { meshes: count, faces_total: totalFaces, cli: built ? 'built' : 'source (tsx)' };
+  const rate = (n: number, ms: number) => (1000 * n) / ms;
+
+  const runs: Record<string, number> = {};
+  for (const jobs of [1, 2]) {
+    const out = `jobs${jobs}.csv`;
+    const x = cli(['score', '.', '--jobs', String(jobs), '--quiet', '-o', out], dir);
+    if (x.code !== 0) throw new Error(`score --jobs ${jobs} exited ${x.code}: ${x.stderr.split('\n')[0]}`);
+    runs[`jobs${jobs}`] = rate(count, x.ms);
+    emit({ bench: BENCH, case: `jobs${jobs}`, metric: 'meshes_per_s', value: runs[`jobs${jobs}`]!, unit: 'meshes/s', wall_ms: x.ms, ...extra });
+  }
+  const same = readFileSync(join(dir, 'jobs1.csv'), 'utf8') === readFileSync(join(dir, 'jobs2.csv'), 'utf8');
+  emit({ bench: BENCH, case: 'jobs2', metric: 'speedup_2_workers', value: runs.jobs2! / runs.jobs1!, unit: 'x', goal: 1.8, same_results: same });
+
+  const subset = files.filter((_, i) => i % 10 === 0);
+  let ms = 0;
+  for (const f of subset) {
+    const x = cli(['score', f, '--jobs', '1', '--quiet'], dir);
+    if (x.code !== 0) throw new Error(`score ${f} exited ${x.code}: ${x.stderr.split('\n')[0]}`);
+    ms += x.ms;
+  }
+  const perProcess = rate(subset.length, ms);
+  emit({ bench: BENCH, case: 'process_per_mesh', metric: 'meshes_per_s', value: perProcess, unit: 'meshes/s', meshes_timed: subset.length, wall_ms: ms, ...extra });
+  emit({ bench: BENCH, case: 'jobs2', metric: 'vs_process_per_mesh', value: runs.jobs2! / perProcess, unit: 'x', goal: 10 });
+  emit({ bench: BENCH, case: 'jobs1', metric: 'vs_process_per_mesh', value: runs.jobs1! / perProcess, unit: 'x' });
+} finally {
+  rmSync(dir, { recursive: true, force: true });
+}
