@@ -25,7 +25,8 @@
  * settles in stage 0 and this is one sweep over the faces.
  */
 import type { Topology } from '../mesh/topology.js';
-import type { FaceGeometry } from '../metric/laplacian.js';
+import type { IntrinsicMesh } from '../metric/intrinsic.js';
+import { faceGeometry, type FaceGeometry } from '../metric/laplacian.js';
 import { next } from '../mesh/topology.js';
 
 /** Workspaces and per-mesh data for {@link assembleDivergence}. */
@@ -78,6 +79,18 @@ export function relayFaces(geom: FaceGeometry): Float64Array {
     out[q + 4] = geom.area[f]!;
   }
   return out;
+}
+
+/**
+ * The face data of {@link relayFaces} for a mesh and the largest hat-gradient
+ * component (for {@link heatCeiling}); the full face geometry is dropped
+ * here, before the factorizations allocate.
+ */
+export function relayGeometry(mesh: IntrinsicMesh): { faces: Float64Array; maxGrad: number } {
+  const geom = faceGeometry(mesh);
+  let maxGrad = 0;
+  for (let i = 0; i < geom.grad.length; i++) maxGrad = Math.max(maxGrad, Math.abs(geom.grad[i]!));
+  return { faces: relayFaces(geom), maxGrad };
 }
 
 /**

@@ -51,14 +51,14 @@ import { analyzeCholesky, CholeskyFactor } from '../linalg/index.js';
 import { meanEdgeLength } from '../metric/intrinsic.js';
 import { heatTriangulation, MAX_SEPARATE_CURVES, type HeatOptions, type HeatStats, type HeatSolveStats } from './heat-setup.js';
 import {
-  edgePattern, cotanLaplacian, lumpedMass, faceGeometry, combine, constrainRows, patternMatrix,
+  edgePattern, cotanLaplacian, lumpedMass, combine, constrainRows, patternMatrix,
 } from '../metric/laplacian.js';
 import { components } from '../mesh/components.js';
 import { boundaryVertexMask } from '../mesh/boundary.js';
 import { tail } from '../mesh/topology.js';
 import { addSourceHeat, sourceValue, sourceDirichlet } from './heat-sources.js';
 import { pinnedPoisson, factorShiftedPoisson, SourcePoisson } from './heat-poisson.js';
-import { assembleDivergence, heatCeiling, relayFaces, type RelayWork } from './heat-relay.js';
+import { assembleDivergence, heatCeiling, relayGeometry, type RelayWork } from './heat-relay.js';
 import { usageError, numericError, isOrthodromeError } from '../errors.js';
 import { HeatStep, maskIndices, type HeatStepParts } from './heat-step.js';
 
@@ -146,7 +146,7 @@ export class HeatSolver {
 
     const p = edgePattern(work.topology);
     const Lv = cotanLaplacian(work, p), Mv = lumpedMass(work);
-    const geom = faceGeometry(work);
+    const { faces, maxGrad } = relayGeometry(work); // packed face data only: the full face geometry is not kept (peak memory)
     const comp = components(work.topology);
     const onBoundary = boundaryVertexMask(work.topology);
     // rows without area (isolated vertices, or only zero-area faces) are fixed to u = 0
@@ -163,9 +163,8 @@ export class HeatSolver {
     const heatDiag = new Float64Array(tw.nv);
     for (let v = 0; v < tw.nv; v++) heatDiag[v] = A[p.diagSlot[v]!]!;
     constrainRows(p, A, inactive);
-    let maxDiag = 0, maxGrad = 0;
+    let maxDiag = 0;
     for (let v = 0; v < tw.nv; v++) maxDiag = Math.max(maxDiag, A[p.diagSlot[v]!]!);
-    for (let i = 0; i < geom.grad.length; i++) maxGrad = Math.max(maxGrad, Math.abs(geom.grad[i]!));
     // the two or three matrices, then their factorizations (independent: an executor runs them at once)
     const mats = [patternMatrix(p, A)];
     const fixedD = new Uint8Array(tw.nv);
@@ -194,7 +193,7 @@ export class HeatSolver {
       ordering: sym.ordering, meanEdgeLength: h, stepEdgeLength: hStep, timeStep: step, poissonShifted: shifted,
     };
     return new HeatSolver(mesh, work, stats, {
-      boundaryMode: boundary, faces: relayFaces(geom), inactive, minMass, heatCeiling: heatCeiling(maxGrad, maxDiag), vertexComponent: comp.vertexComponent, componentCount: comp.count,
+      boundaryMode: boundary, faces, inactive, minMass, heatCeiling: heatCeiling(maxGrad, maxDiag), vertexComponent: comp.vertexComponent, componentCount: comp.count,
       onBoundary, blocked, heatN, heatD, poisson, p, Lv, step, heatDiag, fixedD, fixedList: maskIndices(fixedD),
       sourcePoisson: new SourcePoisson(p, sym, Lv, inactive, comp.vertexComponent, comp.count),
     });
