@@ -59,6 +59,23 @@ export class ScoreProgress {
     return performance.now() - this.t0;
   }
 
+  private timer: ReturnType<typeof setInterval> | undefined;
+
+  /** On a terminal, redraws the bar every second too, so rate and ETA move while a long mesh runs. */
+  start(): void {
+    if (this.quiet || !this.stream.isTTY) return;
+    this.timer = setInterval(() => this.draw(true), 1000);
+    this.timer.unref();
+  }
+
+  private draw(force: boolean): void {
+    const t = performance.now();
+    if (!force && t - this.last < 100 && this.counts.done < this.counts.total) return;
+    this.last = t;
+    this.shown = true;
+    this.stream.write(`\r${formatBar(this.counts, this.elapsed(), Math.max(20, (this.stream.columns || 80) - 1))}\x1b[K`);
+  }
+
   /** One mesh finished. */
   record(file: string, status: RowStatus, note: string): void {
     const c = this.counts;
@@ -66,11 +83,7 @@ export class ScoreProgress {
     c[status]++;
     if (this.quiet) return;
     if (this.stream.isTTY) {
-      const t = performance.now();
-      if (t - this.last < 100 && c.done < c.total) return;
-      this.last = t;
-      this.shown = true;
-      this.stream.write(`\r${formatBar(c, this.elapsed(), Math.max(20, (this.stream.columns || 80) - 1))}\x1b[K`);
+      this.draw(false);
     } else {
       this.stream.write(`score ${c.done}/${c.total} ${status} ${file}${note ? `: ${note}` : ''}\n`);
     }
@@ -78,6 +91,8 @@ export class ScoreProgress {
 
   /** Erases the bar (call however the run ends). */
   done(): void {
+    if (this.timer) clearInterval(this.timer);
+    this.timer = undefined;
     if (this.shown) this.stream.write('\r\x1b[K');
     this.shown = false;
   }

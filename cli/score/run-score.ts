@@ -120,6 +120,7 @@ export async function runScore(args: string[], o: ScoreOpts): Promise<number> {
   const todo = mine.filter((x) => !log?.kept.has(x.file));
 
   const progress = new ScoreProgress(process.stderr, mine.length, o.quiet === true);
+  progress.start();
   const threads = Math.max(1, Math.min(jobs, todo.length));
   const pool = todo.length ? new ScorePool(threads, timeLimitS * 1000) : null;
   const settingsOf = new Map(plan.files.map((f) => [f.file, f.settings]));
