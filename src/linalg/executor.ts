@@ -27,8 +27,10 @@ export interface FactorJob {
 
 /**
  * Outcome of a job: bad = −1 (done), the permuted column of a failed pivot
- * (with its value), or −2 when the thread failed or stalled (the caller then
- * factors the matrix itself).
+ * (with its value), −2 when the job was taken back before any thread
+ * started it (its storage untouched), or −3 when the thread failed or
+ * stalled (its storage may still be written). For −2 and −3 the caller
+ * factors the matrix itself.
  */
 export interface FactorJobResult {
   readonly bad: number;

@@ -169,9 +169,10 @@ export class CholeskyFactor {
     const out = here();
     for (const { f, wait } of remote) {
       const r = wait();
-      if (r.bad === -2) {
-        // the thread failed (or stalled): factor here instead
-        out.push(one(mats[out.length]!));
+      if (r.bad === -2 || r.bad === -3) {
+        // taken back before a thread started it: factor here into the same storage;
+        // the thread failed or stalled: factor here into fresh storage
+        out.push(r.bad === -2 ? f.refactorOr(mats[out.length]!) : one(mats[out.length]!));
         continue;
       }
       f.pivot[0] = r.pivot;
@@ -262,6 +263,17 @@ export class CholeskyFactor {
           if (Alower.rowIdx[p] === j) minPivot[pinv[j]!] = this.pivotTolerance * Math.abs(Ax[p]!);
         }
       }
+    }
+  }
+
+  /** refactor(A), or its `NUMERIC` error as a value. */
+  private refactorOr(A: CscMatrix): CholeskyFactor | OrthodromeError {
+    try {
+      this.refactor(A);
+      return this;
+    } catch (e) {
+      if (e instanceof Error && (e as OrthodromeError).code === 'NUMERIC') return e as OrthodromeError;
+      throw e;
     }
   }
 

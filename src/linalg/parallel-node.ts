@@ -9,9 +9,10 @@
  * job has four status words: state, failed column, heartbeat (the
  * supernode being factored + 1, multifrontal.ts) and a spare. A job still
  * PENDING when the caller is free is taken back and factored by the caller
- * (work stealing), so three factorizations on two threads cost about two.
- * A worker that fails, or whose heartbeat stops for `stallMs`, is given up
- * (result bad = −2): the caller then factors that matrix itself.
+ * (work stealing: result bad = −2, the job's storage untouched), so three
+ * factorizations on two threads cost about two. A worker that fails, or
+ * whose heartbeat stops for `stallMs`, is given up (bad = −3): the caller
+ * then factors that matrix itself, in fresh storage.
  *
  * Workers start on the first job and stay (unref'd, so they never keep the
  * process alive) until {@link NodeFactorExecutor.close}.
@@ -158,7 +159,7 @@ export class NodeFactorExecutor implements FactorExecutor {
     // not started yet: take it back (the worker skips a job it cannot claim)
     if (this.#steal && Atomics.compareExchange(status, S_STATE, PENDING, CLAIMED_HERE) === PENDING) {
       this.counts.takenBack++;
-      return { bad: -2, pivot: 0 };
+      return { bad: -2, pivot: 0 };  // never touched: the caller may use its storage
     }
     let beat = Atomics.load(status, S_HEARTBEAT), since = performance.now();
     for (;;) {
@@ -169,7 +170,7 @@ export class NodeFactorExecutor implements FactorExecutor {
       }
       if (state === FAILED) {
         this.counts.failed++;
-        return { bad: -2, pivot: 0 };
+        return { bad: -3, pivot: 0 };
       }
       Atomics.wait(status, S_STATE, state, 250);
       const b = Atomics.load(status, S_HEARTBEAT);
@@ -180,7 +181,7 @@ export class NodeFactorExecutor implements FactorExecutor {
         this.#drop(worker);
         void worker.terminate();
         this.counts.failed++;
-        return { bad: -2, pivot: 0 };
+        return { bad: -3, pivot: 0 }; // the thread may still write to the job's storage
       }
     }
   }

@@ -56,6 +56,25 @@ describe('factorizations on worker threads', () => {
     expect(executor.counts.failed).toBe(0);
   });
 
+  it('are taken back by the caller when no worker has started them, with the same bits', async () => {
+    // a fresh executor: its worker is still loading when this thread is done with the first matrix
+    const fresh = new NodeFactorExecutor({ minSize: 0, threads: 1 });
+    try {
+      const A = gridLaplacianLower(30, 30, 0.01, true, 5);
+      const mats = [A, scaledDiagonal(A, 2), scaledDiagonal(A, 4)];
+      const sym = analyzeCholesky(A);
+      const par = CholeskyFactor.factorMany(mats, sym, { executor: fresh });
+      const ser = CholeskyFactor.factorMany(mats, sym);
+      expect(fresh.counts.takenBack).toBeGreaterThanOrEqual(1);
+      expect(fresh.counts.takenBack + fresh.counts.remote).toBe(2);
+      for (let k = 0; k < 3; k++) {
+        expect(sameBits((par[k] as CholeskyFactor).lowerFactor().values, (ser[k] as CholeskyFactor).lowerFactor().values)).toBe(true);
+      }
+    } finally {
+      await fresh.close();
+    }
+  });
+
   it('report a matrix that is not positive definite like the serial factorization', () => {
     const A = gridLaplacianLower(60, 60, 0.01, true, 3);
     // a negative diagonal entry at one vertex: the pivot fails at that column
