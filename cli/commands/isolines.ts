@@ -97,10 +97,12 @@ export function checkCurveOutput(path: string, mesh: string): void {
 }
 
 /** Writes curves (and band polygons, GeoJSON only) to `path` by extension, atomically. */
-export async function writeCurveFile(path: string, curves: SurfaceCurve[], polygons: CurvePolygon[] = []): Promise<void> {
+export async function writeCurveFile(path: string, curves: SurfaceCurve[], polygons: CurvePolygon[] = [], metric?: string): Promise<void> {
   const format = curveFormatOf(path)!;
-  const plain = curves.map((c) => ({ level: c.level, closed: c.closed, length: c.length, points: c.points }));
-  await writeFileAtomic(path, writeCurves(format, plain, { units: 'mesh units', ...(format === 'geojson' ? { polygons } : {}) }));
+  // under --metric the levels are distances in it, the coordinates and curve lengths those of the embedding: the file says so
+  const plain = curves.map((c) => ({ level: c.level, closed: c.closed, length: c.length, points: c.points, ...(metric ? { properties: { metric } } : {}) }));
+  const units = metric ? `mesh units (levels measured in the metric ${metric}; coordinates and lengths of the embedding)` : 'mesh units';
+  await writeFileAtomic(path, writeCurves(format, plain, { units, ...(format === 'geojson' ? { polygons } : {}) }));
 }
 
 /** A curve as `--json` prints it. */
@@ -165,7 +167,7 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
     ...(maxLevels !== undefined ? { maxLevels } : {}),
     bands: Boolean(o.bands),
   });
-  if (o.output) await writeCurveFile(o.output, r.curves, (r.bands ?? []).flatMap(bandPolygons));
+  if (o.output) await writeCurveFile(o.output, r.curves, (r.bands ?? []).flatMap(bandPolygons), metric?.metric);
   const timings = { load: loadMs, prepare: round(prepareMs), solve: round(solveMs), curves: round(r.ms) };
   if (o.json) {
     process.stdout.write(toJson({

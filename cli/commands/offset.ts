@@ -58,7 +58,7 @@ async function runOffset(mesh: string, o: OffsetCliOptions): Promise<number> {
   const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance });
   const resolver = await pointLocator(surface);
   const r = surfaceOffset(surface, await sourceSet(mesh, surface, resolver, o), D, { method: o.method, memoryBudget });
-  if (o.output) await writeCurveFile(o.output, r.curves);
+  if (o.output) await writeCurveFile(o.output, r.curves, [], metric?.metric);
   const round = (x: number) => Math.round(x * 100) / 100;
   const timings = { load: loadMs, prepare: round(r.timings.prepare), solve: round(r.timings.solve), curves: round(r.timings.curves) };
   if (o.json) {

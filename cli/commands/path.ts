@@ -86,10 +86,10 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
     const leg = route.legs.findIndex((l) => !Number.isFinite(l.length));
     throw usageError(`no path on the surface from ${specs[leg] ?? o.from} to ${specs[leg + 1] ?? o.from}: the points lie on different components`, mesh);
   }
-  const facts = routeFacts(route, specs, resolver, loadMs, solveMs);
+  const facts = { ...metricJson(metric), ...routeFacts(route, specs, resolver, loadMs, solveMs) };
   if (o.output) await writeRoute(o.output, route, facts, specs, Boolean(o.closed));
   if (o.json) {
-    process.stdout.write(toJson({ mesh, ...metricJson(metric), ...facts, output: o.output ?? null }) + '\n');
+    process.stdout.write(toJson({ mesh, ...facts, output: o.output ?? null }) + '\n');
   } else {
     process.stdout.write([textReport(mesh, o, route, facts, resolver, proveLimit), ...metricLines(metric)].join('\n') + '\n');
   }
@@ -128,11 +128,12 @@ const excessText = (x: number | null): string => (x === null ? 'no bound on how 
 async function writeRoute(path: string, route: SurfaceRoute, facts: RouteFacts, waypoints: string[], closed: boolean): Promise<void> {
   const ext = outputFormat(path);
   if (ext === '.obj' || ext === '.csv') {
-    await writeFileAtomic(path, encodeRoute(route, ext === '.obj' ? 'obj' : 'csv'));
+    const user = 'metric' in facts && facts.metric !== 'euclidean' ? `# metric: ${String(facts.metric)}\n` : ''; // lengths in a --metric say so
+    await writeFileAtomic(path, (ext === '.csv' ? user : '') + encodeRoute(route, ext === '.obj' ? 'obj' : 'csv'));
   } else if (ext === '.geojson') {
     const gj = {
       type: 'Feature',
-      properties: { length: route.length, unit: 'mesh units', closed, waypoints },
+      properties: { length: route.length, unit: 'mesh units', ...('metric' in facts ? { metric: facts.metric } : {}), closed, waypoints },
       geometry: { type: 'LineString', coordinates: facts.points },
     };
     await writeFileAtomic(path, toJson(gj, 0) + '\n');

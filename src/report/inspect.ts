@@ -24,7 +24,7 @@
 import type { Surface } from '../mesh/surface.js';
 import { components } from '../mesh/components.js';
 import { boundaryLoops, namedBoundaryLoops } from '../mesh/boundary.js';
-import { surfaceIntrinsic } from '../metric/user/surface-metric.js';
+import { surfaceIntrinsic, attachedMetric } from '../metric/user/surface-metric.js';
 import { cornerAngles, faceAreas } from '../metric/triangle.js';
 import { gaussianCurvature, gaussBonnetResidual } from '../metric/curvature.js';
 import type { NonManifoldEdge, DuplicateFace } from '../mesh/build.js';
@@ -257,6 +257,7 @@ export function inspectSurface(s: Surface): InspectReport {
 /** The first {@link LISTED_LOOPS} boundary loops by id, with file vertex indices. */
 function loopList(s: Surface): BoundaryLoopInfo[] {
   const origin = s.topology.vertexOrigin, P = s.positions;
+  const user = attachedMetric(s)?.mesh.edgeLength; // under a user metric a loop's length is measured in it (ids stay those of the embedding)
   return namedBoundaryLoops(s.topology, P, s.report.orientationSeams)
     .slice(0, LISTED_LOOPS)
     .map((l) => {
@@ -264,7 +265,7 @@ function loopList(s: Surface): BoundaryLoopInfo[] {
       return {
         id: l.id,
         vertices: l.vertices.length,
-        length: l.length,
+        length: user ? l.halfedges.reduce((a, h) => a + user[s.topology.edgeOf[h]!]!, 0) : l.length,
         boundingBox: { min: l.min, max: l.max },
         point: { vertex: origin[r]!, position: [P[3 * r]!, P[3 * r + 1]!, P[3 * r + 2]!] },
         vertexList: Array.from(l.vertices, (v) => origin[v]!),

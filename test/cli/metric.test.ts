@@ -1,0 +1,89 @@
+/**
+ * End-to-end checks of `--metric`: every measuring command takes it, says
+ * which metric measured its lengths (JSON `metric`, a comment line in CSV
+ * files, a GeoJSON property), and refuses what it cannot do, on one line
+ * with exit code 2. Closed forms: the hyperbolic half-plane (ln(y₂/y₁) on a
+ * vertical: Beardon, The Geometry of Discrete Groups, §7.2 — from memory),
+ * a constant tensor on a plane (√(Δᵀ G Δ): a linear change of coordinates).
+ */
+import { beforeAll, describe, expect, it } from 'vitest';
+import { mkdtempSync, writeFileSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { runCli } from './run-cli.js';
+import { flatGrid, objText } from '../fixtures/shapes.js';
+
+let dir = '';
+const n = 8; // grid over [−1, 1] × [0.5, 2.5], vertex (i, j) = j·(n+1) + i
+const v = (i: number, j: number) => `v:${j * (n + 1) + i}`;
+
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'orthodrome-metric-'));
+  const g = flatGrid(n, n, 2, 2);
+  for (let k = 0; k < g.positions.length; k += 3) {
+    g.positions[k] -= 1;
+    g.positions[k + 1] += 0.5;
+  }
+  writeFileSync(join(dir, 'hp.obj'), objText(g));
+  writeFileSync(join(dir, 'g.json'), JSON.stringify({ tensor: [[2, 0.7, 0], [0.7, 1, 0], [0, 0, 4]] }));
+  // lengths: twice the Euclidean length of every edge, except one diagonal made far too long (breaks its two triangles)
+  const rows = ['a,b,length'];
+  const seen = new Set<string>();
+  for (let k = 0; k < g.triangles.length; k += 3) {
+    for (let c = 0; c < 3; c++) {
+      const a = g.triangles[k + c]!, b = g.triangles[k + ((c + 1) % 3)]!;
+      const key = a < b ? `${a},${b}` : `${b},${a}`;
+      if (seen.has(key)) continue;
+      seen.add(key);
+      const d = Math.hypot(g.positions[3 * a]! - g.positions[3 * b]!, g.positions[3 * a + 1]! - g.positions[3 * b + 1]!);
+      rows.push(`${key},${key === '40,50' ? 10 : 2 * d}`);
+    }
+  }
+  writeFileSync(join(dir, 'len.csv'), rows.join('\n') + '\n');
+});
+
+describe('--metric', () => {
+  it('distance: conformal:1/y gives ln(y₂/y₁) on a vertical; JSON and the CSV file name the metric', () => {
+    const out = join(dir, 'd.csv');
+    const r = runCli(['distance', join(dir, 'hp.obj'), '--from', v(4, 0), '--to', v(4, n), '--metric', 'conformal:1/y', '--json', '-o', out]);
+    expect(r.code, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j.metric).toBe('conformal:1/y');
+    expect(j.metricReport.triangleInequalityViolations).toBe(0);
+    expect(j.metricReport.toleranceReached).toBeLessThan(1e-10);
+    expect(Math.abs(j.targets[0].distance - Math.log(5))).toBeLessThan(1e-9);
+    expect(readFileSync(out, 'utf8').split('\n')[0]).toBe('# metric: conformal:1/y');
+  });
+  it('path: a constant tensor from a JSON file gives √(Δᵀ G Δ); the GeoJSON says which metric', () => {
+    const out = join(dir, 'p.geojson');
+    const r = runCli(['path', join(dir, 'hp.obj'), '--from', v(0, 0), '--to', v(n, 5), '--metric', `tensor:${join(dir, 'g.json')}`, '--json', '-o', out]);
+    expect(r.code, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout);
+    const d = [2, (2 * 5) / n];
+    expect(Math.abs(j.length - Math.sqrt(2 * d[0]! ** 2 + 2 * 0.7 * d[0]! * d[1]! + d[1]! ** 2))).toBeLessThan(1e-9);
+    expect(j.metric).toBe(`tensor:${join(dir, 'g.json')}`);
+    expect(JSON.parse(readFileSync(out, 'utf8')).properties.metric).toBe(j.metric);
+  });
+  it('inspect: a lengths file is used as given (edges ×2 → area ×4), its broken triangles counted and repaired', () => {
+    const r = runCli(['inspect', join(dir, 'hp.obj'), '--metric', `lengths:${join(dir, 'len.csv')}`, '--json']);
+    expect(r.code, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j.metricReport.triangleInequalityViolations).toBe(2); // the two triangles on edge 40–50
+    expect(j.metricReport.mollifyEpsilon).toBeGreaterThan(0);
+    // the plane is 2 × 2; doubled lengths give 4× the area, less the two broken triangles, plus the repair's share (loose bound)
+    expect(j.area).toBeGreaterThan(4 * 4 * 0.9);
+    expect(j.metric).toBe(`lengths:${join(dir, 'len.csv')}`);
+  });
+  it('refusals are one line, exit 2: a bad expression (column marked), a metric that is not positive definite, straight', () => {
+    const bad = runCli(['curvature', join(dir, 'hp.obj'), '--metric', 'conformal:1/yy']);
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toBe("orthodrome: --metric conformal: unknown name 'yy' (variables and constants: x, y, z, pi, e) at column 3: 1/‸yy\n");
+    const npd = runCli(['curvature', join(dir, 'hp.obj'), '--metric', 'conformal:y-1']);
+    expect(npd.code).toBe(2);
+    expect(npd.stderr).toMatch(/^orthodrome: .*hp\.obj: the metric conformal:y-1 is not positive definite at \([-\d., ]+\) on the edge between vertices \d+ and \d+: the factor is -?[\d.e-]+\n$/);
+    const st = runCli(['straight', join(dir, 'hp.obj'), '--from', v(4, 4), '--heading', '0', '--length', '0.5', '--metric', 'conformal:1/y']);
+    expect(st.code).toBe(2);
+    expect(st.stderr).toContain('cannot walk in the metric conformal:1/y');
+    expect(st.stderr.trim().split('\n')).toHaveLength(1);
+  });
+});
