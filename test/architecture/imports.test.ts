@@ -136,8 +136,8 @@ describe('the root export', () => {
     // common practice: a package's root names are its documented surface; internals go to subpaths
     expect(Object.keys(root).sort()).toEqual([
       'OrthodromeError', 'boundarySources', 'curvatureSummary', 'encodeRoute', 'encodeVertexColumns', 'fieldStats', 'formatSurfacePoint',
-      'inspectProblems', 'inspectSurface', 'isManifold', 'isOrthodromeError', 'loadSurface', 'measureDistances', 'openSurface', 'pointLocator',
-      'prepareDistances', 'scoreSurface', 'shortestPath', 'straightestLine', 'surfaceIsolines', 'surfaceOffset', 'writeCurves', 'writeFileAtomic',
+      'inspectProblems', 'inspectSurface', 'isManifold', 'isOrthodromeError', 'loadSurface', 'measureDistances', 'openSurface', 'openTerrain', 'pointLocator',
+      'prepareDistances', 'scoreSurface', 'shortestPath', 'straightestLine', 'surfaceIsolines', 'surfaceOffset', 'travelField', 'travelRoute', 'writeCurves', 'writeFileAtomic',
     ]);
   });
 });
