@@ -23,8 +23,18 @@ const exportSources = new Map(
     .map(([k, v]) => [k, (v as { default: string }).default.replace(/^\.\/dist\//, '').replace(/\.js$/, '.ts')]),
 );
 
-/** Folder of a source file as a node of the folder graph; a file directly in src/ is a node of its own. */
-const folderOf = (f: string): string => (dirname(f) === 'src' ? f : dirname(f));
+/**
+ * The entry files: the targets of the package.json exports (src/index.ts, src/core.ts, the subpath
+ * indexes), except src/errors.ts, a leaf module that every layer uses and that is exported as it is.
+ */
+const entryFiles = new Set([...exportSources.values()].filter((f) => f !== 'src/errors.ts'));
+
+/**
+ * Folder of a source file as a node of the folder graph. A file directly in src/ and an entry file (a
+ * subpath index such as src/api/mesh.ts or src/curves/index.ts) are nodes of their own: entries sit on
+ * top of the graph and re-export from anywhere below.
+ */
+const folderOf = (f: string): string => (dirname(f) === 'src' || entryFiles.has(f) ? f : dirname(f));
 
 const where = (f: string, e: ImportEdge) => `${f}:${e.line} imports '${e.spec}'`;
 
@@ -52,6 +62,15 @@ describe('import cycles', () => {
   it('no two files of src/ and cli/ import each other, directly or through others (type-only imports count)', () => {
     const found = cycles(graph.keys(), (f) => graph.get(f)!.map((e) => e.target).filter((t): t is string => t !== null && graph.has(t)));
     expect(found, `file cycles:\n${found.map((c) => c.join(' → ')).join('\n')}`).toEqual([]);
+  });
+
+  it('the entries are on top: no file under src/ imports one, except an entry (src/index.ts re-exports src/core.ts)', () => {
+    const bad: string[] = [];
+    for (const [f, es] of graph) {
+      if (!f.startsWith('src/') || entryFiles.has(f)) continue;
+      for (const e of es) if (e.target && entryFiles.has(e.target)) bad.push(where(f, e));
+    }
+    expect(bad, bad.join('\n')).toEqual([]);
   });
 
   it('no two folders of src/ import each other (data flows one way: io → mesh → metric → solvers → reports → api)', () => {
