@@ -16,9 +16,10 @@
 export * from './core.js';
 export { loadSurface, type LoadOptions } from './api/load.js';
 export { writeFileAtomic } from './io/atomic.js';
-// walking time on terrain (`orthodrome travel`): pace models, Steiner-graph fields and routes, DEM GeoTIFF, GPX, map CRS
-// (geotiff and proj4 are loaded on first use)
-export * from './travel/api.js';
+// walking time on terrain (`orthodrome travel`): terrain from bytes (DEM GeoTIFF or mesh), times from sources, fastest
+// routes; pace models and the Steiner graph are in `orthodrome/geodesic`, GeoTIFF, GPX and map files in `orthodrome/io`
+export { openTerrain, type Terrain, type TerrainOptions } from './travel/terrain.js';
+export { travelField, travelRoute, type TravelOptions, type TravelField, type TravelRouteResult } from './travel/index.js';
 // batch scoring (`orthodrome score`): the rest of it (metric catalogue, rules, result rows, manifests, landmarks) is the
 // `orthodrome/score` subpath (src/score/index.ts); imported from its own module so that the root does not load the rules
 // schema library (zod, about 3 MB of heap) for every command

@@ -11,11 +11,13 @@ import { checkOutput, outputFormat, writeVertexColumns } from '../output.js';
 import { action, fmt, since, toJson } from '../run.js';
 import { WALKING_CAUTION } from '../cautions.js';
 import {
-  openTerrain, travelField, travelRoute, routeConvergence, surfaceIsolines, pointLocator, formatSurfacePoint, writeFileAtomic, parsePaceTable, parseUpAxis,
-  parseEpsg, toWgs84, travelGeoJson, routeGpx, routeProfileCsv, writeFieldTiff, formatDuration, PACE_MODELS, MAX_STEINER_K,
-  type Surface, type DemGrid, type TravelOptions, type TravelField, type TravelRouteResult, type MapCrs, type LonLat, type IsolineResult,
+  openTerrain, travelField, travelRoute, surfaceIsolines, pointLocator, formatSurfacePoint, writeFileAtomic,
+  type Surface, type TravelOptions, type TravelField, type TravelRouteResult, type IsolineResult,
 } from '../../src/index.js';
-import { toInputVertices } from '../../src/api/io.js';
+import { routeConvergence, parsePaceTable, parseUpAxis, PACE_MODELS, MAX_STEINER_K } from '../../src/api/geodesic.js';
+import {
+  toInputVertices, parseEpsg, toWgs84, travelGeoJson, routeGpx, routeProfileCsv, writeFieldTiff, formatDuration, type DemGrid, type MapCrs, type LonLat,
+} from '../../src/api/io.js';
 import { DEFAULT_MAX_INPUT_BYTES } from '../../src/api/node.js';
 import { inputError, limitError, usageError } from '../../src/errors.js';
 

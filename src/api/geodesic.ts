@@ -23,3 +23,5 @@ export {
 export { shortestPathThrough, AUTO_FLIP_FACES, FLIP_VERIFY_FACES, AUTO_PROVE_FACES, type WaypointPath, type WaypointOptions, type PathMethod } from '../geodesic/waypoints.js';
 export { flipGeodesicPath, BEND_TOLERANCE, type FlipPathResult } from '../geodesic/flip/index.js';
 export { verifyShortest, type VerifyResult } from '../geodesic/flip/verify.js';
+// walking time on terrain (src/travel): pace models, the Steiner graph, fields, routes and their convergence
+export * from '../travel/index.js';

@@ -23,3 +23,8 @@ export {
   type Curve, type CurvePoints, type CurvePolygon, type CurveProperty, type CurveFormat, type CurveWriteOptions,
 } from '../io/write-curves.js';
 export { toInputVertices } from './write.js';
+// terrain files: DEM GeoTIFF in and fields out, GPX 1.1 routes, map coordinate systems (geotiff and proj4 load on first use)
+export { parseDem, writeFieldTiff, isTiff, pixelPosition, type Dem, type DemGrid, type FieldTiffOptions } from '../io/geotiff.js';
+export { writeGpx, xmlEscape, type GpxPoint, type GpxRoute, type GpxOptions } from '../io/gpx.js';
+export { toWgs84, crsMember, parseEpsg, CRS_MEMBER, type MapCrs } from '../travel/map-crs.js';
+export { formatDuration, travelGeoJson, routeProfileCsv, routeGpx, type LonLat, type TravelMapParts, type TravelMapOptions, type Isochrone, type IsochroneBand } from '../travel/outputs.js';

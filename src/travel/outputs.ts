@@ -5,8 +5,6 @@
  * longitude/latitude (RFC 7946 §4) through a transform; the route as GPX
  * 1.1; the route's profile as CSV; and durations as h:mm:ss.
  */
-import type { SurfaceCurve } from '../curves/isolines.js';
-import type { Band } from '../curves/bands.js';
 import { curvesToGeoJson, type Curve, type CurvePolygon } from '../io/write-curves.js';
 import { toCsv } from '../io/csv.js';
 import { writeGpx, type GpxPoint } from '../io/gpx.js';
@@ -25,14 +23,40 @@ export function formatDuration(seconds: number): string {
   return `${h}:${String(m).padStart(2, '0')}:${String(r).padStart(2, '0')}`;
 }
 
+/** An isochrone: an isoline of the travel-time field (as `surfaceIsolines` gives it). */
+export interface Isochrone {
+  /** Seconds. */
+  level: number;
+  /** True when closed (the last point repeats the first). */
+  closed: boolean;
+  /** Length, mesh units. */
+  length: number;
+  /** Positions [x, y, z]. */
+  points: readonly (readonly number[])[];
+}
+
+/** A band between two isochrones (as `surfaceIsolines` gives it with bands). */
+export interface IsochroneBand {
+  /** Seconds at its lower and upper edge. */
+  lower: number;
+  /** See {@link lower}. */
+  upper: number;
+  /** Area on the surface and in plan view, mesh units². */
+  area: number;
+  /** See {@link area}. */
+  planArea: number;
+  /** Its polygons: outer ring and holes, each closed. */
+  polygons: { outer: readonly (readonly number[])[]; holes: readonly (readonly number[])[][] }[];
+}
+
 /** What goes into a travel GeoJSON file. */
 export interface TravelMapParts {
   /** The route, if any. */
   route?: TravelRoute | null;
   /** Isochrones (levels in seconds). */
-  isochrones?: SurfaceCurve[];
+  isochrones?: Isochrone[];
   /** Bands between isochrones (levels in seconds). */
-  bands?: Band[];
+  bands?: IsochroneBand[];
 }
 
 /** Options of {@link travelGeoJson}. */

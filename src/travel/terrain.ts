@@ -1,9 +1,12 @@
 /**
  * Opening terrain from bytes: a DEM GeoTIFF (io/geotiff.ts) becomes a grid
  * mesh with its grid and coordinate system kept; any other bytes are a mesh
- * file (OBJ, PLY, STL) opened as usual, without a grid. Browser-safe.
+ * file (OBJ, PLY, STL) opened as `openSurface` does, without a grid.
+ * Browser-safe.
  */
-import { openSurface, type OpenOptions, type Surface } from '../api/surface.js';
+import { parseMesh } from '../io/sniff.js';
+import { surfaceFromMeshData, type Surface } from '../mesh/surface.js';
+import type { BuildOptions } from '../mesh/build.js';
 import { isTiff, parseDem, type DemGrid } from '../io/geotiff.js';
 
 /** A terrain surface and, for a DEM, its raster grid. */
@@ -14,13 +17,22 @@ export interface Terrain {
   grid: DemGrid | null;
 }
 
+/** Options of {@link openTerrain}: as `openSurface`'s. */
+export interface TerrainOptions {
+  /** Repairs while building the half-edge topology. */
+  build?: BuildOptions;
+  /** STL: the weld tolerance of facet corners, mesh units. */
+  weldTolerance?: number;
+}
+
 /**
  * The terrain in `bytes` (`name` labels errors): a GeoTIFF DEM when the bytes
  * start like a TIFF file, else a mesh file. Bad input is an `INPUT` error
  * naming `name`.
  */
-export async function openTerrain(bytes: Uint8Array, name: string, opts: OpenOptions = {}): Promise<Terrain> {
-  if (!isTiff(bytes)) return { surface: openSurface(bytes, name, opts), grid: null };
-  const dem = await parseDem(bytes, name);
-  return { surface: openSurface(dem.data, name, opts), grid: dem.grid };
+export async function openTerrain(bytes: Uint8Array, name: string, opts: TerrainOptions = {}): Promise<Terrain> {
+  const data = isTiff(bytes)
+    ? await parseDem(bytes, name)
+    : { data: parseMesh(bytes, name, opts.weldTolerance !== undefined ? { weldTolerance: opts.weldTolerance } : {}), grid: null };
+  return { surface: surfaceFromMeshData(data.data, opts.build ?? {}), grid: data.grid };
 }
