@@ -19,12 +19,14 @@ import { readResults, resultFormatOf, type ReadRow } from '../../src/score/index
 import { inputError, usageError } from '../../src/errors.js';
 import { planPath, readPlan, resultsText, type ScorePlan } from './log.js';
 import { countRows, summaryLines } from './summary.js';
+import { checkOutput } from '../output.js';
 
 /** Merges `parts` into `out` (see the module comment); returns the exit code. */
 export async function runMerge(parts: string[], out: string | undefined): Promise<number> {
   if (out === undefined) throw usageError('score merge: name the merged report with -o OUT.csv or -o OUT.jsonl');
   if (parts.length === 0) throw usageError('score merge: name the parts to merge');
   const format = resultFormatOf(out, '-o');
+  checkOutput(out, ['.csv', '.jsonl'], parts);
   const seenPart = new Set<string>();
   let first: ScorePlan | null = null, firstPart = '';
   const byShard = new Map<number, string>();

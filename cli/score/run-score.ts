@@ -21,6 +21,7 @@ import {
 import { DEFAULT_MAX_INPUT_BYTES } from '../../src/api/node.js';
 import { formatBytes, inputError, usageError } from '../../src/errors.js';
 import { parseByteSize } from '../load.js';
+import { checkOutput } from '../output.js';
 import { expandInputs, type ScoreInput } from './inputs.js';
 import { parseShard, shardOf, type Shard } from './shard.js';
 import { ResultLog, listHash, planPath, resultsText, type ScorePlan } from './log.js';
@@ -100,6 +101,8 @@ export async function runScore(args: string[], o: ScoreOpts): Promise<number> {
   const groups = orderGroups([...parseGroups(o.metrics), ...groupsOfRules(rules)]);
   if (args.length === 0) throw usageError('score: name the meshes: files, folders, globs, - (a list on standard input) or a manifest .csv');
   const inputs = expandInputs(args, process.cwd(), () => readFileSync(0, 'utf8'));
+  // the results file: its folder exists and is writable, and it is none of the inputs named (a manifest, say)
+  if (out !== undefined) checkOutput(out, ['.csv', '.jsonl'], args.filter((a) => a !== '-' && !/[*?[\]{}]/.test(a)));
 
   // the plan: this shard's meshes, each with the hash of the settings that make its row
   const settings = { format: SCORE_FORMAT, groups, heatSamples: groups.includes('heat') ? heatSamples : null, rules };
