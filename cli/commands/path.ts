@@ -129,7 +129,7 @@ async function writeRoute(path: string, route: SurfaceRoute, facts: RouteFacts, 
   const ext = outputFormat(path);
   if (ext === '.obj' || ext === '.csv') {
     const user = 'metric' in facts && facts.metric !== 'euclidean' ? `# metric: ${String(facts.metric)}\n` : ''; // lengths in a --metric say so
-    await writeFileAtomic(path, (ext === '.csv' ? user : '') + encodeRoute(route, ext === '.obj' ? 'obj' : 'csv'));
+    await writeFileAtomic(path, ext === '.csv' ? user + (encodeRoute(route, 'csv') as string) : encodeRoute(route, 'obj'));
   } else if (ext === '.geojson') {
     const gj = {
       type: 'Feature',
