@@ -11,6 +11,7 @@
 import type { Surface } from '../mesh/surface.js';
 import type { SurfacePoint } from '../mesh/surface-point.js';
 import { checkSurfacePoint } from '../mesh/surface-point.js';
+import { next } from '../mesh/topology.js';
 import { inputError, usageError } from '../errors.js';
 import { paceModel, type PaceModel, type PaceRow } from './pace.js';
 import { SteinerGraph, type SteinerSpacing } from './steiner-graph.js';
@@ -131,8 +132,8 @@ export function approximationOf(g: SteinerGraph, spacing: SteinerSpacing): Trave
   let maxLen = 0;
   const t = g.t;
   for (let e = 0; e < t.ne; e++) {
-    const h = t.edgeHalfedge[e]!, u = t.tri[h]!, w = t.tri[h % 3 === 2 ? h - 2 : h + 1]!;
-    const len = Math.hypot(g.ha[w]! - g.ha[u]!, g.hb[w]! - g.hb[u]!, g.hz[w]! - g.hz[u]!);
+    const h = t.edgeHalfedge[e]!, u = t.tri[h]!, w = t.tri[next(h)]!;
+    const F = g.frame, len = Math.hypot(F[3 * w]! - F[3 * u]!, F[3 * w + 1]! - F[3 * u + 1]!, F[3 * w + 2]! - F[3 * u + 2]!);
     if (len > maxLen) maxLen = len;
   }
   return { k: g.k, spacing, relativeGap: rel, maxGapMeters: rel * maxLen, nodes: g.nodeCount };
@@ -157,7 +158,7 @@ export function travelField(s: Surface, sources: readonly SurfacePoint[], opts: 
     const h = eh[e]!;
     let lo = 0, vlo = dist[tri[h]!]!;
     for (let j = 0; j <= k; j++) {
-      const hi = j < k ? params[j]! : 1, vhi = j < k ? dist[nv + e * k + j]! : dist[tri[h % 3 === 2 ? h - 2 : h + 1]!]!;
+      const hi = j < k ? params[j]! : 1, vhi = j < k ? dist[nv + e * k + j]! : dist[tri[next(h)]!]!;
       if (x <= hi) {
         if (!Number.isFinite(vlo) || !Number.isFinite(vhi)) return x - lo < hi - x ? vlo : vhi;
         return hi > lo ? vlo + ((x - lo) / (hi - lo)) * (vhi - vlo) : vlo;

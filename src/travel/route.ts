@@ -85,7 +85,8 @@ export function fastestRoute(g: SteinerGraph, pace: PaceModel, state: TravelStat
   let t0 = 0;
   for (let i = 0; i + 1 < stops.length; i++) {
     const a = stops[i]!, b = stops[i + 1]!;
-    const r = runTravelSearch(g, pace, state, pointSeeds(g, pace, a, true), pointSeeds(g, pace, b, false));
+    const goal = pointFrame(g, b);
+    const r = runTravelSearch(g, pace, state, pointSeeds(g, pace, a, true), pointSeeds(g, pace, b, false), Infinity, [goal[0], goal[1]]);
     work.relaxed += state.relaxed;
     work.settled += state.settled;
     const direct = directStep(g, pace, a, b);

@@ -80,18 +80,19 @@ export class SteinerGraph {
   readonly nodeCount: number;
   /** Parameters of the Steiner points along an edge (ascending). */
   readonly params: Float64Array;
-  /** Horizontal coordinates (metres) and height (metres) per node. */
-  readonly ha: Float64Array;
-  /** See {@link ha}. */
-  readonly hb: Float64Array;
-  /** See {@link ha}. */
-  readonly hz: Float64Array;
+  /**
+   * Per node, interleaved (one cache line holds a node's three): horizontal
+   * coordinates a, b and the height, metres: `frame[3u], frame[3u+1], frame[3u+2]`.
+   */
+  readonly frame: Float64Array;
   /** Multiplier per face (null: all 1). */
   readonly faceMult: Float64Array | null;
   /** Multiplier of arcs along each edge: the smallest positive multiplier of its faces, 0 when none (null: all 1). */
   readonly edgeMult: Float64Array | null;
   /** Largest number of arcs out of one node (the size of the scratch buffers). */
   readonly maxDegree: number;
+  /** The smallest positive multiplier (1 without multipliers; Infinity when every face is impassable). */
+  readonly minMultiplier: number;
 
   /** @param t - the topology; @param positions - x, y, z per topology vertex (mesh units) */
   constructor(readonly t: Topology, readonly positions: Float64Array, opts: SteinerOptions = {}) {
@@ -112,27 +113,26 @@ export class SteinerGraph {
     a[0]! /= na; a[1]! /= na; a[2]! /= na;
     const b = [up[1] * a[2]! - up[2] * a[1]!, up[2] * a[0]! - up[0] * a[2]!, up[0] * a[1]! - up[1] * a[0]!];
     const n = this.nodeCount;
-    this.ha = new Float64Array(n);
-    this.hb = new Float64Array(n);
-    this.hz = new Float64Array(n);
+    const F = (this.frame = new Float64Array(3 * n));
     const P = positions;
     for (let v = 0; v < t.nv; v++) {
       const x = P[3 * v]!, y = P[3 * v + 1]!, z = P[3 * v + 2]!;
-      this.ha[v] = scale * (x * a[0]! + y * a[1]! + z * a[2]!);
-      this.hb[v] = scale * (x * b[0]! + y * b[1]! + z * b[2]!);
-      this.hz[v] = scale * (x * up[0] + y * up[1] + z * up[2]);
+      F[3 * v] = scale * (x * a[0]! + y * a[1]! + z * a[2]!);
+      F[3 * v + 1] = scale * (x * b[0]! + y * b[1]! + z * b[2]!);
+      F[3 * v + 2] = scale * (x * up[0] + y * up[1] + z * up[2]);
     }
     for (let e = 0; e < t.ne; e++) {
       const h = t.edgeHalfedge[e]!, u = t.tri[h]!, w = t.tri[next(h)]!;
       for (let j = 0; j < k; j++) {
         const s = this.params[j]!, m = t.nv + e * k + j;
-        this.ha[m] = (1 - s) * this.ha[u]! + s * this.ha[w]!;
-        this.hb[m] = (1 - s) * this.hb[u]! + s * this.hb[w]!;
-        this.hz[m] = (1 - s) * this.hz[u]! + s * this.hz[w]!;
+        for (let d = 0; d < 3; d++) F[3 * m + d] = (1 - s) * F[3 * u + d]! + s * F[3 * w + d]!;
       }
     }
     const fm = opts.faceMultipliers ?? null;
     this.faceMult = fm;
+    let minMult = fm ? Infinity : 1;
+    if (fm) for (let f = 0; f < fm.length; f++) if (fm[f]! > 0 && fm[f]! < minMult) minMult = fm[f]!;
+    this.minMultiplier = minMult;
     if (fm) {
       const em = new Float64Array(t.ne);
       for (let e = 0; e < t.ne; e++) {

@@ -11,6 +11,8 @@ import { meshFromTriangles } from '../../src/io/mesh-data.js';
 import { naismithSecondsPerMeter, paceModel, parsePaceTable, parseUpAxis, routeConvergence, steinerParams, toblerKmh, travelField, travelRoute } from '../../src/travel/index.js';
 import { terrain } from '../fixtures/shapes.js';
 import type { SurfacePoint } from '../../src/mesh/surface-point.js';
+import { SteinerGraph } from '../../src/travel/steiner-graph.js';
+import { pointFrame, pointSeeds, runTravelSearch, travelState } from '../../src/travel/travel-time.js';
 
 const v = (vertex: number): SurfacePoint => ({ kind: 'vertex', vertex });
 /** Tobler 1993: seconds to walk horizontal distance dx rising dh. */
@@ -169,5 +171,23 @@ describe('routes and fields', () => {
     expect(r.legs[0]!.meters + r.legs[1]!.meters).toBeCloseTo(r.meters, 9);
     expect(r.legs[0]!.seconds).toBeCloseTo(toblerSeconds(100, 5), 6); // along the row: grade 0.05 (Tobler 1993)
     expect(r.cumulativeSeconds.at(-1)).toBeCloseTo(r.seconds, 9);
+  });
+
+  it('A* with the plan-distance bound gives the times of plain Dijkstra (Hart, Nilsson & Raphael 1968), settling fewer nodes', () => {
+    const s = hill(16, 160, (x, y) => 8 * Math.sin(x / 23) * Math.cos(y / 17) + 0.02 * x, (f) => 1 + (f % 7) / 4);
+    const mult = Float64Array.from(s.data.faceProps[0]!.values);
+    for (const model of ['tobler', 'naismith'] as const) {
+      const pace = paceModel(model, { maxSlopeDeg: 25 });
+      const g = new SteinerGraph(s.topology, s.positions, { k: 3, faceMultipliers: mult });
+      const st = travelState(g);
+      const a: SurfacePoint = { kind: 'face', face: 3, bary: [0.2, 0.3, 0.5] }, b: SurfacePoint = { kind: 'edge', edge: 700, t: 0.4 };
+      const plain = runTravelSearch(g, pace, st, pointSeeds(g, pace, a, true), pointSeeds(g, pace, b, false));
+      const settledPlain = st.settled;
+      const goal = pointFrame(g, b);
+      const star = runTravelSearch(g, pace, st, pointSeeds(g, pace, a, true), pointSeeds(g, pace, b, false), Infinity, [goal[0], goal[1]]);
+      expect(Number.isFinite(plain.seconds)).toBe(true);
+      expect(Math.abs(star.seconds - plain.seconds)).toBeLessThanOrEqual(1e-9 * plain.seconds);
+      expect(st.settled).toBeLessThan(settledPlain);
+    }
   });
 });
