@@ -10,6 +10,7 @@ import { loadSurface, maxInputSizeOption, parseByteSize, weldToleranceOption } f
 import { checkOutput, outputFormat, writeVertexColumns } from '../output.js';
 import { action, fmt, since, toJson } from '../run.js';
 import { WALKING_CAUTION } from '../cautions.js';
+import { memoryBudgetBytes } from '../memory-budget.js';
 import {
   openTerrain, travelField, travelRoute, surfaceIsolines, pointLocator, formatSurfacePoint, writeFileAtomic,
   type Surface, type TravelOptions, type TravelField, type TravelRouteResult, type IsolineResult,
@@ -52,6 +53,7 @@ interface TravelCliOptions {
   splitNonmanifold?: boolean;
   maxInputSize?: string;
   weldTolerance?: string;
+  memoryBudget?: string;
 }
 
 /** Registers the command. */
@@ -82,6 +84,7 @@ export function registerTravel(program: Command): void {
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
     .addOption(maxInputSizeOption())
     .addOption(weldToleranceOption())
+    .option('--memory-budget <size>', 'memory the Steiner graph and its search may use, e.g. 512M or 4G (default: a quarter of the memory, at most 2 GiB; about 61 bytes per vertex and Steiner point); a run that would need more stops with exit 3')
     .addHelpText('after', `
 Times print as h:mm:ss. Each step's time depends on its own slope, so A→B and
 B→A differ. Routes are real routes on the mesh (straight steps inside faces):
@@ -119,6 +122,7 @@ async function runTravel(mesh: string, o: TravelCliOptions): Promise<number> {
     model, k, spacing: o.spacing, up: parseUpAxis(o.up),
     ...(o.maxSlope !== undefined ? { maxSlopeDeg: num(o.maxSlope, '--max-slope', 1e-9, 90)! } : {}),
     ...(o.faceCost ? { faceMultipliers: o.faceCost } : {}),
+    memoryBudget: memoryBudgetBytes(o.memoryBudget),
   };
   if (o.speedTable) opts.table = parsePaceTable(await readText(o.speedTable), o.speedTable);
   else if (model === 'table') throw usageError('--model table needs --speed-table FILE.csv');

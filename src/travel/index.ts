@@ -12,7 +12,7 @@ import type { Surface } from '../mesh/surface.js';
 import type { SurfacePoint } from '../mesh/surface-point.js';
 import { checkSurfacePoint } from '../mesh/surface-point.js';
 import { next } from '../mesh/topology.js';
-import { inputError, usageError } from '../errors.js';
+import { formatBytes, inputError, limitError, usageError } from '../errors.js';
 import { paceModel, type PaceModel, type PaceRow } from './pace.js';
 import { SteinerGraph, type SteinerSpacing } from './steiner-graph.js';
 import { pointSeeds, runTravelSearch, travelState } from './travel-time.js';
@@ -40,7 +40,12 @@ export interface TravelOptions {
   up?: [number, number, number];
   /** Per-face time multipliers: the name of a face property of the mesh file (PLY), or values per file face; 0 = impassable. */
   faceMultipliers?: string | Float64Array;
+  /** Bytes the graph and the search may use (default unlimited); more is a `LIMIT` error before anything is allocated. */
+  memoryBudget?: number;
 }
+
+/** Bytes per graph node: coordinates (24), time (8), predecessor (4), settled flag (1), target step (8), queue (8), A* key (8). */
+export const BYTES_PER_NODE = 61;
 
 /** The discretisation used: what bounds the approximation. */
 export interface TravelApproximation {
@@ -110,6 +115,14 @@ export function faceMultipliersOf(s: Surface, spec: string | Float64Array | unde
 
 function setup(s: Surface, opts: TravelOptions): { g: SteinerGraph; pace: PaceModel; ms: number } {
   const t0 = performance.now();
+  const k = opts.k ?? 3, t = s.topology;
+  const need = (t.nv + t.ne * (Number.isInteger(k) && k >= 0 ? k : 0)) * BYTES_PER_NODE + 8 * t.nf;
+  if (opts.memoryBudget !== undefined && need > opts.memoryBudget) {
+    throw limitError(
+      `the Steiner graph needs about ${formatBytes(need)} (${t.nv + t.ne * k} nodes: ${k} per edge), over the memory budget of ${formatBytes(opts.memoryBudget)}; raise --memory-budget or lower --steiner`,
+      s.data.name,
+    );
+  }
   const pace = paceModel(opts.model ?? 'tobler', {
     ...(opts.maxSlopeDeg !== undefined ? { maxSlopeDeg: opts.maxSlopeDeg } : {}),
     ...(opts.table ? { table: opts.table } : {}),

@@ -190,4 +190,12 @@ describe('routes and fields', () => {
       expect(st.settled).toBeLessThan(settledPlain);
     }
   });
+
+  it('a graph over the memory budget is a LIMIT error naming the options, before any allocation', () => {
+    const s = hill(n, size, () => 0);
+    let err: unknown;
+    try { travelField(s, [v(0)], { k: 5, memoryBudget: 1000 }); } catch (e) { err = e; }
+    expect((err as { code?: string }).code).toBe('LIMIT'); // common practice: a resource limit is not bad input
+    expect(String(err)).toMatch(/--memory-budget.*--steiner/);
+  });
 });
