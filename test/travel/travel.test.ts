@@ -198,4 +198,16 @@ describe('routes and fields', () => {
     expect((err as { code?: string }).code).toBe('LIMIT'); // common practice: a resource limit is not bad input
     expect(String(err)).toMatch(/--memory-budget.*--steiner/);
   });
+
+  it('the up axis: the incline turned so that +y is up gives the same times with up = +y (rotation invariance)', () => {
+    const s = hill(n, size, (x, y) => 0.1 * x + 0.03 * y);
+    const P = s.data.positions, R = new Float64Array(P.length);
+    for (let i = 0; i < P.length; i += 3) { R[i] = P[i]!; R[i + 1] = P[i + 2]!; R[i + 2] = -P[i + 1]!; } // rotation by −90° about x: +z → +y
+    const turned = openSurface(meshFromTriangles(R, s.data.faceIndices, 'turned'), 'turned');
+    const stops = [v(vid(n, 1, 2)), v(vid(n, 9, 8))];
+    const a = travelRoute(s, stops, { k: 3 }), b = travelRoute(turned, stops, { k: 3, up: [0, 1, 0] });
+    expect(b.seconds).toBeCloseTo(a.seconds, 6);
+    expect(b.ascent).toBeCloseTo(a.ascent, 6);
+    expect(travelRoute(turned, stops, { k: 3 }).seconds).not.toBeCloseTo(a.seconds, 1); // with +z up the ground is a wall
+  });
 });
