@@ -31,12 +31,13 @@ export const AUTO_FLIP_FACES = 50_000;
 export const FLIP_VERIFY_FACES = 50_000;
 
 /**
- * Default of `WaypointOptions.verifyFaces` with `method: 'auto'`: a proof on up to this many faces
- * takes about a second on rough terrain (window propagation: 4.4–5.4 s for the 396k-face region
- * of a 1M-face noisy terrain corner to corner, 11–14 µs per region face) and a few hundred MB, so
- * `auto` proves every leg whose region is no larger and returns the rest with their certified bound.
+ * Default of `WaypointOptions.verifyFaces` with `method: 'auto'`. The proof costs window
+ * propagation on the region: measured on noisy terrain, 4.4–5.4 s for the 396k-face region of a
+ * 1M-face mesh corner to corner (quiet machine), 6.3 s for the 75.6k-face region of a 200k-face
+ * one (loaded machine), so 10–80 µs per region face. Up to 50k faces that is a few seconds at
+ * most; larger regions are returned with their certified bound (raise `verifyFaces` to prove).
  */
-export const AUTO_PROVE_FACES = 100_000;
+export const AUTO_PROVE_FACES = 50_000;
 
 /** A path through waypoints with per-point bookkeeping. */
 export interface WaypointPath {
