@@ -3,13 +3,13 @@
  * straight edge, by adaptive Gauss–Legendre quadrature (Abramowitz & Stegun
  * 25.4.29; nodes from `gauss-legendre.ts`).
  *
- * On each interval the 8-point rule over the whole interval is compared
+ * On each interval the 5-point rule (exact to degree 9) over the whole interval is compared
  * with the sum over its two halves; when they differ by more than the
  * interval's share of the target, both halves are refined the same way
  * (recursive bisection, e.g. Davis & Rabinowitz, Methods of Numerical
  * Integration, 1984, §6.1 — from memory). The halves' sum is kept, and the
  * difference is the error estimate (conservative: for a smooth integrand the
- * halves are accurate to O(h¹⁶)). Each edge's estimate relative to its
+ * halves are accurate to O(h¹⁰)). Each edge's estimate relative to its
  * length is the tolerance reached; the largest over the mesh is reported.
  */
 import type { Topology } from '../../mesh/topology.js';
@@ -22,7 +22,7 @@ export const DEFAULT_LENGTH_TOLERANCE = 1e-10;
 
 /** Deepest bisection of one edge (2^20 pieces): beyond it the estimate is reported as reached. */
 const MAX_DEPTH = 20;
-const RULE_POINTS = 8;
+const RULE_POINTS = 5;
 
 /** Edge lengths and how well they were computed. */
 export interface QuadratureResult {

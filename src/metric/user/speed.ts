@@ -71,7 +71,7 @@ export function notPositiveDefinite(s: MetricSurface, label: string, p: ArrayLik
 /** The speed of a `tensor`, `conformal` or `form` metric on `s` (a `field` or `lengths` metric has its own module). */
 export function expressionSpeed(s: MetricSurface, m: Exclude<UserMetric, { kind: 'field' | 'lengths' }>): EdgeSpeed {
   const P = s.positions;
-  let va = 0, vb = 0;
+  let va = 0, vb = 0, dLength = 0;
   const a = new Float64Array(3), d = new Float64Array(3), p = new Float64Array(3);
   const vars = new Float64Array(4);
   const setEdge = (u: number, w: number): void => {
@@ -81,6 +81,7 @@ export function expressionSpeed(s: MetricSurface, m: Exclude<UserMetric, { kind:
       a[k] = P[3 * u + k]!;
       d[k] = P[3 * w + k]! - a[k]!;
     }
+    dLength = Math.sqrt(d[0]! * d[0]! + d[1]! * d[1]! + d[2]! * d[2]!);
   };
   const point = (t: number): void => {
     for (let k = 0; k < 3; k++) p[k] = a[k]! + t * d[k]!;
@@ -94,7 +95,7 @@ export function expressionSpeed(s: MetricSurface, m: Exclude<UserMetric, { kind:
         point(t);
         const lambda = f(p);
         if (!(lambda > 0 && Number.isFinite(lambda))) throw notPositiveDefinite(s, m.label, p, va, vb, `the factor is ${lambda}`);
-        return lambda * Math.hypot(d[0]!, d[1]!, d[2]!);
+        return lambda * dLength;
       },
     };
   }
