@@ -30,8 +30,15 @@ function workerFilename(): string {
 export class ScorePool {
   private readonly pool: Tinypool;
 
-  constructor(readonly threads: number, private readonly timeLimitMs: number) {
-    this.pool = new Tinypool({ filename: workerFilename(), minThreads: threads, maxThreads: threads, idleTimeout: 60_000 });
+  /**
+   * @param threads - worker threads
+   * @param timeLimitMs - per-task time limit (0: none)
+   * @param memoryLimit - per-mesh memory limit, bytes: each thread's JavaScript heap is capped at it (within
+   *   256 MiB … 4 GiB), so a heap that runs away ends that thread (an error row), not the whole run
+   */
+  constructor(readonly threads: number, private readonly timeLimitMs: number, memoryLimit: number) {
+    const heapMb = Math.round(Math.min(4096, Math.max(256, memoryLimit / 2 ** 20)));
+    this.pool = new Tinypool({ filename: workerFilename(), minThreads: threads, maxThreads: threads, idleTimeout: 60_000, resourceLimits: { maxOldGenerationSizeMb: heapMb } });
   }
 
   /** Scores one mesh; never rejects: a timeout or a dead thread is an error reply. */

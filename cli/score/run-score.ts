@@ -125,7 +125,7 @@ export async function runScore(args: string[], o: ScoreOpts): Promise<number> {
   const progress = new ScoreProgress(process.stderr, mine.length, o.quiet === true);
   progress.start();
   const threads = Math.max(1, Math.min(jobs, todo.length));
-  const pool = todo.length ? new ScorePool(threads, timeLimitS * 1000) : null;
+  const pool = todo.length ? new ScorePool(threads, timeLimitS * 1000, memoryLimit) : null;
   const settingsOf = new Map(plan.files.map((f) => [f.file, f.settings]));
   try {
     for (const row of log?.kept.values() ?? []) progress.record(row.file, row.status, 'scored before (--resume)');

@@ -10,8 +10,8 @@
 import type { Surface } from '../mesh/surface.js';
 import { inspectSurface } from '../report/inspect.js';
 import { curvatureSummary } from '../report/curvature.js';
-import { intrinsicFromPositions } from '../metric/intrinsic.js';
 import { prepareDistances } from '../api/distance.js';
+import { intrinsicOf } from '../api/parts.js';
 import type { DistanceSolver } from '../geodesic/solver.js';
 import { metricsOf, type MetricGroup, type Metrics } from './catalog.js';
 import { triangleQuality } from './quality.js';
@@ -71,7 +71,7 @@ export async function scoreSurface(s: Surface, opts: ScoreOptions): Promise<Surf
     });
   }
   if (g.has('quality')) {
-    const q = triangleQuality(intrinsicFromPositions(s.topology, s.positions));
+    const q = triangleQuality(intrinsicOf(s)); // the surface's edge lengths, made once and shared with the solvers
     Object.assign(out, {
       aspectRatioP50: finite(q.aspectRatioP50), aspectRatioP90: finite(q.aspectRatioP90), aspectRatioP99: finite(q.aspectRatioP99),
       aspectRatioMax: finite(q.aspectRatioMax), nonDelaunayEdges: q.nonDelaunayEdges, nonDelaunayFraction: finite(q.nonDelaunayFraction),
