@@ -13,6 +13,8 @@
  * const f = CholeskyFactor.factor(A, sym);   // throws NUMERIC if not SPD
  * f.solve(b, x);                             // x = A⁻¹ b, no allocation
  * f.refactor(A2);                            // same pattern, new values
+ * const [fa, fb] = CholeskyFactor.factorPair(A, B, sym);  // B shares A's blocks where they agree
+ * CholeskyFactor.factorMany([A, B, C], sym, { executor }); // some on other threads (Node: parallel-node.ts)
  * ```
  */
 export type { CscMatrix } from './csc.js';
@@ -29,6 +31,7 @@ export type { Ordering, CholeskySymbolic, AnalyzeOptions, CholeskyMethod } from 
 export type { SupernodalStructure } from './supernodes.js';
 export { analyzeCholesky, DEFAULT_ORDERING } from './symbolic.js';
 export { CholeskyFactor } from './numeric.js';
-export type { FactorOptions } from './numeric.js';
+export type { FactorOptions, FactorManyOptions } from './numeric.js';
+export type { FactorExecutor, FactorJob, FactorJobResult } from './executor.js';
 export { lowerSolve, lowerTransposeSolve } from './solve.js';
 export { supernodalLowerSolve, supernodalLowerTransposeSolve } from './solve-supernodal.js';
