@@ -11,6 +11,7 @@ const { isPositiveDefinite } = speedModule;
 import { lengthsFromCsv } from '../../src/metric/user/lengths-file.js';
 import { quadratureEdgeLengths } from '../../src/metric/user/edge-lengths.js';
 import { openSurface } from '../../src/index.js';
+import { metricLengths } from '../../src/metric/user/surface-metric.js';
 import { meshFromTriangles } from '../../src/io/mesh-data.js';
 import { OrthodromeError } from '../../src/errors.js';
 
@@ -123,6 +124,50 @@ describe('edge lengths', () => {
       expect(Math.abs(q.lengths[e]! - want)).toBeLessThan(1e-12 * want);
     }
     expect(q.toleranceReached).toBeLessThan(1e-12);
+  });
+  it('adaptive refinement reaches the tolerance on a kinked integrand: λ = 1 + |x − 0.3| on a unit edge gives 1 + (0.3² + 0.7²)/2 (calculus)', () => {
+    const s = openSurface(meshFromTriangles(new Float64Array([0, 0, 0, 1, 0, 0, 0, 1, 0]), [0, 1, 2], 'kink'));
+    const m = parseMetricSpec('conformal:1 + abs(x - 0.3)');
+    if (m.kind !== 'conformal') throw new Error('kind');
+    const q = quadratureEdgeLengths(s.topology, speedModule.expressionSpeed({ positions: s.positions, vertexOrigin: s.topology.vertexOrigin, name: 'kink' }, m), 1e-10);
+    const t = s.topology;
+    let found = false;
+    for (let e = 0; e < t.ne; e++) {
+      const h = t.edgeHalfedge[e]!, a = t.tri[h]!, b = t.tri[h % 3 === 2 ? h - 2 : h + 1]!;
+      if (s.positions[3 * a + 1] !== 0 || s.positions[3 * b + 1] !== 0) continue; // the edge along y = 0
+      expect(Math.abs(q.lengths[e]! - 1.29)).toBeLessThan(1e-10 * 1.29);
+      found = true;
+    }
+    expect(found).toBe(true);
+    expect(q.evaluations).toBeGreaterThan(3 * 15); // the kinked edge was split (a smooth edge takes 15)
+    expect(q.toleranceReached).toBeLessThanOrEqual(1e-10);
+  });
+  it('field:NAME reads per-vertex factors and tensors, interpolated linearly along edges (a linear λ integrates to its mean, calculus)', () => {
+    const data = meshFromTriangles(new Float64Array([0, 0, 0, 2, 0, 0, 0, 1, 0]), [0, 1, 2], 'f.ply');
+    data.vertexProps = [
+      { name: 'c', type: 'float64', values: new Float64Array([1, 1.5, 2]) },
+      ...['xx', 'xy', 'xz', 'yy', 'yz', 'zz'].map((k, i) => ({ name: `g_${k}`, type: 'float64' as const, values: new Float64Array(3).fill([4, 0, 0, 1, 0, 1][i]!) })),
+    ];
+    const s = openSurface(data);
+    const byEnds = (L: Float64Array) => {
+      const out: Record<string, number> = {};
+      const t = s.topology;
+      for (let e = 0; e < t.ne; e++) {
+        const h = t.edgeHalfedge[e]!, a = t.tri[h]!, b = t.tri[h % 3 === 2 ? h - 2 : h + 1]!;
+        out[[a, b].sort().join('-')] = L[e]!;
+      }
+      return out;
+    };
+    const c = byEnds(metricLengths(s, parseMetricSpec('field:c')).mesh.edgeLength);
+    expect(c['0-1']).toBeCloseTo(2 * 1.25, 12); // |d| = 2, mean factor (1 + 1.5)/2; the triangle stays valid (no mollification)
+    expect(c['0-2']).toBeCloseTo(1 * 1.5, 12);
+    expect(c['1-2']).toBeCloseTo(Math.sqrt(5) * 1.75, 12);
+    const g = byEnds(metricLengths(s, parseMetricSpec('field:g')).mesh.edgeLength);
+    expect(g['0-1']).toBeCloseTo(4, 12); // √(4·2²)
+    expect(g['1-2']).toBeCloseTo(Math.sqrt(4 * 4 + 1), 12);
+    expect(err(() => metricLengths(s, parseMetricSpec('field:nope'))).message).toContain('has no vertex properties nope_xx');
+    data.vertexProps[0]!.values[2] = -1;
+    expect(err(() => metricLengths(openSurface(data), parseMetricSpec('field:c'))).message).toMatch(/not positive definite at vertex 2 \(0, 1, 0\): c = -1/);
   });
   it('a lengths file gives every edge; a missing edge or a non-edge is INPUT naming the line', () => {
     const s = tri();
