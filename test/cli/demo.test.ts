@@ -16,6 +16,7 @@ describe('demo', () => {
     expect(r.code).toBe(0);
     expect(readdirSync(out).sort()).toEqual([
       'cup-curvature.csv', 'cup-cut-path.obj', 'cup-edge-distance.csv', 'cup-trim-line-8mm.obj', 'knoll-curvature.ply', 'knoll-distance.ply', 'knoll-isolines-25m.geojson',
+      'knoll-walk-isochrones-1min.geojson', 'knoll-walk-profile.csv', 'knoll-walk-route.geojson', 'knoll-walk-route.gpx',
     ]);
     expect(r.stdout).toMatch(/Gauss–Bonnet residual -?\d(\.\d+)?e-1\d rad/);
     // heat vs exact on the hillside: the printed mean difference stays within the heat method's usual ~1–2 %
