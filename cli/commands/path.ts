@@ -147,7 +147,7 @@ function textReport(mesh: string, o: PathCliOptions, route: SurfaceRoute, facts:
   const what = facts.proven ? 'shortest path' : `geodesic path (locally shortest, not proven shortest; ${excessText(facts.excessBound)})`;
   const L = [`${mesh}: ${what} ${fmt(route.length, 9)} mesh units, ${facts.points.length} points, ${route.legs.length} leg(s), method ${METHOD_TEXT[facts.method]}`];
   for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map(fmtCoord).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
-  facts.legs.forEach((l, i) => L.push(`  leg ${i + 1}: ${l.from} → ${l.to}: ${fmt(l.length, 9)} (${l.method}${l.proven ? '' : `; not proven: a shorter path could run through more than --prove-limit ${proveLimit ?? (o.pathMethod === 'flip' ? FLIP_VERIFY_FACES : AUTO_PROVE_FACES)} faces; ${excessText(l.excessBound)}`})`));
+  facts.legs.forEach((l, i) => L.push(`  leg ${i + 1}: ${l.from} → ${l.to}: ${fmt(l.length, 9)} (${l.method}${l.proven ? '' : l.excessBound === null ? '; not proven: the edge lengths are not those of the coordinates (a metric of your own), so the straight-line check does not apply; use --path-method windows for the shortest path' : `; not proven: a shorter path could run through more than --prove-limit ${proveLimit ?? (o.pathMethod === 'flip' ? FLIP_VERIFY_FACES : AUTO_PROVE_FACES)} faces; ${excessText(l.excessBound)}`})`));
   L.push(`  timings: load ${fmt(facts.timings.load, 4)} ms, solve ${fmt(facts.timings.solve, 4)} ms`);
   if (o.output) L.push(`  wrote ${o.output}`);
   return L.join('\n');
