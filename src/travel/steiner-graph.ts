@@ -52,8 +52,11 @@ export interface SteinerOptions {
 export const MAX_STEINER_K = 64;
 
 /**
- * Parameters of k Steiner points on [0, 1]: uniform j/(k+1), or geometric
- * (1/2, 1/4, 1/8, … towards each end: 1/2, 1/4, 3/4 for k = 3).
+ * Parameters of k Steiner points on [0, 1]: uniform j/(k+1), or geometric:
+ * distances from the nearer end doubling towards the middle (d, 2d, 4d, …),
+ * with the middle point 1/2 for odd k (1/8, 1/4, 1/2, 3/4, 7/8 for k = 5) and
+ * for even k a middle gap equal to the largest distance (1/6, 1/3, 2/3, 5/6
+ * for k = 4).
  */
 export function steinerParams(k: number, spacing: SteinerSpacing): Float64Array {
   const t = new Float64Array(k);
@@ -61,12 +64,13 @@ export function steinerParams(k: number, spacing: SteinerSpacing): Float64Array 
     for (let j = 0; j < k; j++) t[j] = (j + 1) / (k + 1);
     return t;
   }
-  const out: number[] = [];
-  if (k % 2 === 1) out.push(0.5);
-  for (let i = 0; out.length < k; i++) {
-    const d = 2 ** -(i + 2);
+  const m = k >> 1, out: number[] = [];
+  const far = k % 2 === 1 ? 0.25 : 1 / 3; // the largest distance from an end
+  for (let i = 0; i < m; i++) {
+    const d = far * 2 ** -(m - 1 - i);
     out.push(d, 1 - d);
   }
+  if (k % 2 === 1) out.push(0.5);
   return Float64Array.from(out.sort((a, b) => a - b));
 }
 

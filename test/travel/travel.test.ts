@@ -68,9 +68,11 @@ describe('pace models', () => {
     expect(() => parseUpAxis('0,0,0')).toThrow(/--up/);
   });
 
-  it('Steiner parameters: uniform j/(k+1); geometric halving towards the ends', () => {
+  it('Steiner parameters: uniform j/(k+1) (Lanthier et al. 2001); geometric, doubling from the ends towards the middle (our rule)', () => {
     expect([...steinerParams(3, 'uniform')]).toEqual([0.25, 0.5, 0.75]);
-    expect([...steinerParams(4, 'geometric')]).toEqual([0.125, 0.25, 0.75, 0.875]);
+    expect([...steinerParams(5, 'geometric')]).toEqual([0.125, 0.25, 0.5, 0.75, 0.875]);
+    const even = [...steinerParams(4, 'geometric')];
+    [1 / 6, 1 / 3, 2 / 3, 5 / 6].forEach((x, i) => expect(even[i]).toBeCloseTo(x, 15));
   });
 });
 
