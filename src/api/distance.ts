@@ -60,7 +60,7 @@ export function boundarySources(s: SolvableSurface): SurfacePoint[][] {
  */
 export function prepareDistances(s: SolvableSurface, method: DistanceMethod, opts: PrepareOptions = {}): DistanceSolver {
   const { mesh, ...o } = opts;
-  const cover = coverOf(s);
+  const cover = coverOf(s, mesh);
   const inner = cover ? prepareCoverDistance(cover, method, o) : prepareDistance(intrinsicOf(s, mesh), method, o);
   return throughPinches(inner, groupsOf(s), o.maxDistance !== undefined ? { maxDistance: o.maxDistance } : {});
 }

@@ -7,7 +7,7 @@
  */
 import type { Topology } from '../mesh/topology.js';
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
-import { surfaceIntrinsic } from '../metric/user/surface-metric.js';
+import { surfaceIntrinsic, attachedMetric } from '../metric/user/surface-metric.js';
 import { orientationCover, type OrientationCover } from '../geodesic/cover.js';
 import { splitGroups } from '../query/copies.js';
 
@@ -42,12 +42,16 @@ export function intrinsicOf(s: SolvableSurface, given?: IntrinsicMesh): Intrinsi
   return (p.mesh ??= surfaceIntrinsic(s));
 }
 
-/** The orientation double cover of `s`, or null when `s` is orientable (no seams); made once. */
-export function coverOf(s: SolvableSurface): OrientationCover | null {
+/**
+ * The orientation double cover of `s`, or null when `s` is orientable (no seams); made once. Its lengths are
+ * those of `given` (e.g. a worker's shared lengths) or of an attached user metric, else of the positions.
+ */
+export function coverOf(s: SolvableSurface, given?: IntrinsicMesh): OrientationCover | null {
   const p = partsOf(s);
   if (p.cover === undefined) {
     const seams = s.report.orientationSeams;
-    p.cover = seams.length ? orientationCover(s.topology, s.positions, seams) : null;
+    const lengths = (given && given.topology === s.topology ? given : attachedMetric(s)?.mesh)?.edgeLength;
+    p.cover = seams.length ? orientationCover(s.topology, s.positions, seams, lengths) : null;
   }
   return p.cover;
 }

@@ -53,9 +53,12 @@ export interface OrientationCover {
 
 /**
  * Builds the orientation double cover of `t` glued along `seams`
- * (`BuildReport.orientationSeams`). `positions` are x, y, z per vertex of `t`.
+ * (`BuildReport.orientationSeams`). `positions` are x, y, z per vertex of `t`;
+ * `edgeLength`, when given, is the base's length per edge (a user metric),
+ * which each cover edge takes from the base edge below it (the covering map
+ * is a local isometry); without it the lengths come from the positions.
  */
-export function orientationCover(t: Topology, positions: Float64Array, seams: Int32Array): OrientationCover {
+export function orientationCover(t: Topology, positions: Float64Array, seams: Int32Array, edgeLength?: Float64Array): OrientationCover {
   const nv = t.nv, nf = t.nf;
   // cover vertices before gluing: (v, sheet) ↦ v + sheet·nv; a seam pair h0 ∥ h1 joins sheet 0's h0
   // with sheet 1's h1 (reversed there, so the two run opposite ways) and sheet 1's h0 with sheet 0's h1
@@ -94,7 +97,7 @@ export function orientationCover(t: Topology, positions: Float64Array, seams: In
   }
   const coverFace = new Int32Array(2 * nf).fill(-1);
   for (let F = 0; F < ct.nf; F++) coverFace[ct.faceOrigin[F]!] = F;
-  const mesh = intrinsicFromPositions(ct, positions2);
+  const mesh = edgeLength ? { topology: ct, edgeLength: liftLengths(t, ct, nf, edgeLength, cls) } : intrinsicFromPositions(ct, positions2);
   const vertexLifts = (v: number): number[] => [...new Set([cls(v, 0), cls(v, 1)])].flatMap((c) => overClass.get(c) ?? []);
 
   /** The lifts of barycentric point `bary` of base face f, sheet 0 first. */
@@ -218,4 +221,23 @@ export function coverPathThrough(cover: OrientationCover, stops: (SurfacePoint |
     cumulative: r.cumulative,
     faces: r.faces.map(cover.baseFace),
   };
+}
+
+/**
+ * Cover edge lengths from base edge lengths: a cover edge of cover face F lies
+ * over the edge of base face f = `faceOrigin[F] mod nf` (sheet 1 when
+ * `faceOrigin[F] ≥ nf`) whose ends lift, on that sheet (`cls`), to the glued
+ * vertices at its own ends.
+ */
+function liftLengths(t: Topology, ct: Topology, nf: number, base: Float64Array, cls: (v: number, sheet: number) => number): Float64Array {
+  const out = new Float64Array(ct.ne);
+  for (let H = 0; H < ct.tri.length; H++) {
+    const o = ct.faceOrigin[(H / 3) | 0]!, f = o % nf, sheet = o >= nf ? 1 : 0;
+    const a = ct.vertexOrigin[ct.tri[H]!]!, b = ct.vertexOrigin[ct.tri[H % 3 === 2 ? H - 2 : H + 1]!]!;
+    for (let k = 0; k < 3; k++) {
+      const h = 3 * f + k, p = cls(t.tri[h]!, sheet), q = cls(t.tri[k === 2 ? h - 2 : h + 1]!, sheet);
+      if ((p === a && q === b) || (p === b && q === a)) out[ct.edgeOf[H]!] = base[t.edgeOf[h]!]!;
+    }
+  }
+  return out;
 }

@@ -141,3 +141,26 @@ describe('a metric that breaks the triangle inequality', () => {
     expect(() => attachMetric(s2, parseMetricSpec('form:1;2;1'))).toThrow(/not positive definite/);
   });
 });
+
+describe('a non-orientable surface', () => {
+  it('a Möbius strip (solved on its double cover) in conformal:2 measures twice its Euclidean distances, across the seam too (scaling, common practice)', () => {
+    const n = 24, P: number[] = [], T: number[] = [];
+    for (let i = 0; i < n; i++) {
+      const t = (2 * Math.PI * i) / n;
+      for (const w of [-0.3, 0.3]) P.push((1 + w * Math.cos(t / 2)) * Math.cos(t), (1 + w * Math.cos(t / 2)) * Math.sin(t), w * Math.sin(t / 2));
+    }
+    for (let i = 0; i < n; i++) {
+      const a = 2 * i, b = a + 1;
+      let c = 2 * ((i + 1) % n), d = c + 1;
+      if (i === n - 1) [c, d] = [d, c]; // the half twist
+      T.push(a, c, d, a, d, b);
+    }
+    const make = () => openSurface(meshFromTriangles(new Float64Array(P), T, 'moebius'));
+    const plain = make(), scaled = make();
+    expect(plain.report.orientationSeams.length).toBeGreaterThan(0);
+    attachMetric(scaled, parseMetricSpec('conformal:2'));
+    const src = { points: [{ kind: 'vertex' as const, vertex: 0 }], curves: [] };
+    const a = measureDistances(plain, src).field.distance, b = measureDistances(scaled, src).field.distance;
+    for (let v = 0; v < a.length; v++) expect(Math.abs(b[v]! - 2 * a[v]!)).toBeLessThan(1e-12);
+  });
+});

@@ -125,15 +125,12 @@ const attached = new WeakMap<object, AppliedMetric>();
 /**
  * Measures `s` in `metric` from now on: computes {@link metricLengths} and
  * records them beside `s`, so every solver and report on `s` uses them.
- * Call it right after loading, before anything is measured. A surface that
- * is not orientable (solved on its double cover, built from positions) is a
- * `USAGE` error, as is attaching a second metric.
+ * Call it right after loading, before anything is measured (a non-orientable
+ * surface's double cover takes these lengths too). Attaching a second metric
+ * is a `USAGE` error.
  */
 export function attachMetric(s: MetricTarget, metric: UserMetric, opts: MetricLengthOptions = {}): MetricReport {
   if (attached.has(s)) throw usageError(`the surface already has the metric ${attached.get(s)!.report.metric}`);
-  if (s.report.orientationSeams.length > 0) {
-    throw usageError(`a user metric on a non-orientable surface is not supported (it is solved on its double cover, measured from positions)`, s.data.name);
-  }
   const applied = metricLengths(s, metric, opts);
   attached.set(s, applied);
   return applied.report;
