@@ -50,6 +50,10 @@ describe('--metric', () => {
     const j = JSON.parse(r.stdout);
     expect(j.metric).toBe('conformal:1/y');
     expect(j.metricReport.triangleInequalityViolations).toBe(0);
+    expect(Object.keys(j.metricReport)).toEqual([
+      'metric', 'kind', 'edges', 'toleranceAsked', 'toleranceReached', 'edgesAboveTolerance', 'evaluations',
+      'triangleInequalityViolations', 'mollifyEpsilon', 'mollifyDelta', 'largestRelativeChange', 'meanEdgeLength',
+    ]); // the documented keys (README), no per-edge arrays
     expect(j.metricReport.toleranceReached).toBeLessThan(1e-10);
     expect(Math.abs(j.targets[0].distance - Math.log(5))).toBeLessThan(1e-9);
     expect(readFileSync(out, 'utf8').split('\n')[0]).toBe('# metric: conformal:1/y');

@@ -97,8 +97,8 @@ export function metricLengths(s: MetricTarget, metric: UserMetric, opts: MetricL
     quad = { toleranceAsked: null, toleranceReached: null, edgesAboveTolerance: 0, evaluations: 0 };
   } else {
     const speed = metric.kind === 'field' ? fieldSpeed(ms, s.data.vertexProps, metric.name, metric.label) : expressionSpeed(ms, metric);
-    const q = quadratureEdgeLengths(t, speed, tol);
-    lengths = q.lengths;
+    const { lengths: l, ...q } = quadratureEdgeLengths(t, speed, tol);
+    lengths = l;
     quad = q;
   }
   const raw: IntrinsicMesh = { topology: t, edgeLength: lengths };
