@@ -13,11 +13,13 @@
  *   10th mesh (a subset with the same size spread), timed end to end;
  *   `vs_process_per_mesh` = jobs2 rate / that rate (goal ≥ 10).
  * One run each (a run is tens of seconds); the machine may be shared, so
- * read the ratios, not the absolute rates. The results of jobs1 and jobs2
+ * read the ratios, not the absolute rates; `cpu_efficiency_2_workers` (CPU
+ * time with 1 worker over CPU time with 2, from GNU time) says what two idle
+ * cores would give even when the wall-time ratio cannot. The results of jobs1 and jobs2
  * are compared row by row (the same scores, whatever the worker count).
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -32,11 +34,16 @@ const built = process.env.ORTHODROME_CLI;
 /** tsx's loader by URL: the runs' working directory is the temporary folder, where a bare `tsx` would not resolve. */
 const TSX = pathToFileURL(createRequire(import.meta.url).resolve('tsx')).href;
 
-function cli(args: string[], cwd: string): { ms: number; code: number; stdout: string; stderr: string } {
-  const node = built ? [resolve(built), ...args] : ['--import', TSX, join(root, 'cli/orthodrome.ts'), ...args];
+const gnuTime = existsSync('/usr/bin/time');
+
+/** Runs the CLI: wall time, CPU time (user + system, s; NaN without GNU time), exit code, output. */
+function cli(args: string[], cwd: string): { ms: number; cpuS: number; code: number; stdout: string; stderr: string } {
+  const node = [process.execPath, ...(built ? [resolve(built), ...args] : ['--import', TSX, join(root, 'cli/orthodrome.ts'), ...args])];
+  const cmd = gnuTime ? ['/usr/bin/time', '-f', 'cpu-s %U %S', ...node] : node;
   const t0 = performance.now();
-  const r = spawnSync(process.execPath, node, { cwd, encoding: 'utf8', env: { ...process.env, ORTHODROME_DEBUG: '' }, maxBuffer: 1 << 28 });
-  return { ms: performance.now() - t0, code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
+  const r = spawnSync(cmd[0]!, cmd.slice(1), { cwd, encoding: 'utf8', env: { ...process.env, ORTHODROME_DEBUG: '' }, maxBuffer: 1 << 28 });
+  const m = /cpu-s ([\d.]+) ([\d.]+)/.exec(r.stderr);
+  return { ms: performance.now() - t0, cpuS: m ? Number(m[1]) + Number(m[2]) : NaN, code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
 }
 
 /** A mesh of about `faces` faces: a bumpy heightfield (even i) or a torus (odd i). */
@@ -68,16 +75,20 @@ try {
   const extra = { meshes: count, faces_total: totalFaces, cli: built ? 'built' : 'source (tsx)' };
   const rate = (n: number, ms: number) => (1000 * n) / ms;
 
-  const runs: Record<string, number> = {};
+  const runs: Record<string, number> = {}, cpu: Record<string, number> = {};
   for (const jobs of [1, 2]) {
     const out = `jobs${jobs}.csv`;
     const x = cli(['score', '.', '--jobs', String(jobs), '--quiet', '-o', out], dir);
     if (x.code !== 0) throw new Error(`score --jobs ${jobs} exited ${x.code}: ${x.stderr.split('\n')[0]}`);
     runs[`jobs${jobs}`] = rate(count, x.ms);
-    emit({ bench: BENCH, case: `jobs${jobs}`, metric: 'meshes_per_s', value: runs[`jobs${jobs}`]!, unit: 'meshes/s', wall_ms: x.ms, ...extra });
+    cpu[`jobs${jobs}`] = x.cpuS;
+    emit({ bench: BENCH, case: `jobs${jobs}`, metric: 'meshes_per_s', value: runs[`jobs${jobs}`]!, unit: 'meshes/s', wall_ms: x.ms, cpu_s: x.cpuS, ...extra });
   }
   const same = readFileSync(join(dir, 'jobs1.csv'), 'utf8') === readFileSync(join(dir, 'jobs2.csv'), 'utf8');
   emit({ bench: BENCH, case: 'jobs2', metric: 'speedup_2_workers', value: runs.jobs2! / runs.jobs1!, unit: 'x', goal: 1.8, same_results: same });
+  // CPU time of the whole run, 1 worker over 2: 1 means the second worker adds no work (its start-up, the split);
+  // on a machine shared with other jobs this, not the wall-time ratio, says what 2 idle cores would give (at most 2 × it)
+  emit({ bench: BENCH, case: 'jobs2', metric: 'cpu_efficiency_2_workers', value: cpu.jobs1! / cpu.jobs2!, unit: 'ratio' });
 
   const subset = files.filter((_, i) => i % 10 === 0);
   let ms = 0;
