@@ -44,6 +44,8 @@ export interface PaceModel {
   readonly name: PaceModelName;
   /** The steepest passable slope in degrees (90 when unlimited). */
   readonly maxSlopeDeg: number;
+  /** Its tangent (rise over run; Infinity when unlimited). */
+  readonly maxGrade: number;
   /**
    * Seconds to walk a straight step of horizontal length `dx` ≥ 0 (metres)
    * rising by `dh` (metres; negative downhill). 0 for a step of no length,
@@ -75,6 +77,18 @@ export interface PaceOptions {
   maxSlopeDeg?: number;
   /** The table of model `table` (sorted by grade here). */
   table?: PaceRow[];
+}
+
+/**
+ * Seconds of a straight step under Tobler's function, written out for the
+ * search's inner loop: dx · 3.6/6 · e^{3.5·|dh/dx + 0.05|}; 0 for no step,
+ * Infinity for a vertical step or one steeper than `maxGrade` (never NaN).
+ */
+export function toblerStepSeconds(dx: number, dh: number, maxGrade: number): number {
+  if (!(dx > 0)) return dh === 0 ? 0 : Infinity;
+  const g = dh / dx;
+  if (Math.abs(g) > maxGrade) return Infinity;
+  return dx * 0.6 * Math.exp(3.5 * Math.abs(g + 0.05)); // overflow gives Infinity (dx > 0)
 }
 
 /** Tobler's hiking function (Tobler 1993): speed in km/h at rise over run `grade`. */
@@ -135,14 +149,8 @@ export function paceModel(name: string, opts: PaceOptions = {}): PaceModel {
     const s = dx * perMeter(g);
     return s >= 0 ? s : Infinity; // NaN (overflow) → blocked, never out
   };
-  // Tobler's function written out (the hot loop calls this for every arc): dx · 3.6/6 · e^{3.5|g+0.05|}
-  const tobler = (dx: number, dh: number): number => {
-    if (!(dx > 0)) return dh === 0 ? 0 : Infinity;
-    const g = dh / dx;
-    if (Math.abs(g) > maxGrade) return Infinity;
-    return dx * 0.6 * Math.exp(3.5 * Math.abs(g + 0.05)); // overflow gives Infinity, never NaN (dx > 0)
-  };
-  return { name: name as PaceModelName, maxSlopeDeg, flatKmh, minSecondsPerMeter: minPerMeter, seconds: name === 'tobler' ? tobler : general };
+  const tobler = (dx: number, dh: number): number => toblerStepSeconds(dx, dh, maxGrade);
+  return { name: name as PaceModelName, maxSlopeDeg, maxGrade, flatKmh, minSecondsPerMeter: minPerMeter, seconds: name === 'tobler' ? tobler : general };
 }
 
 /** Speed at `g` by linear interpolation in `rows` (sorted); 0 outside the table. */

@@ -15,7 +15,7 @@ import type { SurfacePoint } from '../mesh/surface-point.js';
 import { facesOfPoint } from '../metric/face-points.js';
 import { next } from '../mesh/topology.js';
 import type { SteinerGraph } from './steiner-graph.js';
-import type { PaceModel } from './pace.js';
+import { toblerStepSeconds, type PaceModel } from './pace.js';
 
 /** A node with a time: seconds from the source to the node, or from the node to the target. */
 export interface TravelSeed {
@@ -145,6 +145,7 @@ export function runTravelSearch(
   const { dist, pred, done, toTarget, to, mult } = state;
   const F = g.frame;
   const minPace = pace.minSecondsPerMeter;
+  const tobler = pace.name === 'tobler', maxGrade = pace.maxGrade; // the default model called directly (inlined)
   dist.fill(Infinity);
   pred.fill(-1);
   done.fill(0);
@@ -180,7 +181,7 @@ export function runTravelSearch(
       if (done[w]) continue;
       const o = 3 * w, da = F[o]! - au, db = F[o + 1]! - bu, dx = Math.sqrt(da * da + db * db), m = mult[i]!;
       if (du + dx * minPace * m >= dist[w]!) continue; // even the fastest pace would not improve w
-      const s = pace.seconds(dx, F[o + 2]! - zu);
+      const s = tobler ? toblerStepSeconds(dx, F[o + 2]! - zu, maxGrade) : pace.seconds(dx, F[o + 2]! - zu);
       relaxed++;
       const nd = du + (s === 0 ? 0 : s * m);
       if (nd < dist[w]! && nd <= maxSeconds) {

@@ -14,9 +14,12 @@
  *   15, uniform: each halves the gap, so the times can only fall), on the
  *   smallest size: the convergence curve.
  *
+ * - `cpu_ratio_vs_dijkstra`: the same ratio in CPU time of this process
+ *   (user + system, medians of 3), steadier than wall time on a shared machine.
+ *
  * Sizes: ~100k faces (`--quick`) and ~1M faces; `TRAVEL_CASE=1m` runs one.
  */
-import { emit, timeMedian, timeEdgeDijkstra, peakRssMB, quick } from './harness.js';
+import { emit, median, timeMedian, timeEdgeDijkstra, edgeDijkstra, meshEdgeList, peakRssMB, quick } from './harness.js';
 import { openSurface } from '../../src/api/surface.js';
 import { meshFromTriangles } from '../../src/io/mesh-data.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
@@ -37,6 +40,11 @@ async function runCase(name: string, faces: number, convergence: boolean): Promi
   const dij = await timeEdgeDijkstra(m, centre, runs);
   emit({ bench: BENCH, case: name, metric: 'dijkstra_ms', value: dij.ms, unit: 'ms', ...extra });
   const src = [{ kind: 'vertex' as const, vertex: centre }];
+  const cpu = (fn: () => unknown) => { const c0 = process.cpuUsage(); fn(); const d = process.cpuUsage(c0); return (d.user + d.system) / 1000; };
+  const el = meshEdgeList(m);
+  const cpuDij = median([0, 1, 2].map(() => cpu(() => edgeDijkstra(el.n, el.ea, el.eb, el.elen, centre))));
+  const cpuField = median([0, 1, 2].map(() => cpu(() => travelField(s, src, { k: 3 }))));
+  emit({ bench: BENCH, case: name, metric: 'travel_field_cpu_ms', value: cpuField, unit: 'ms', dijkstra_cpu_ms: cpuDij, cpu_ratio_vs_dijkstra: cpuField / cpuDij, ...extra });
   const f = await timeMedian(() => travelField(s, src, { k: 3 }), runs, 1);
   emit({
     bench: BENCH, case: name, metric: 'travel_field_ms', value: f.ms, unit: 'ms', ratio_vs_dijkstra: f.ms / dij.ms,
