@@ -99,9 +99,9 @@ export function checkCurveOutput(path: string, mesh: string): void {
 /** Writes curves (and band polygons, GeoJSON only) to `path` by extension, atomically. */
 export async function writeCurveFile(path: string, curves: SurfaceCurve[], polygons: CurvePolygon[] = [], metric?: string): Promise<void> {
   const format = curveFormatOf(path)!;
-  // under --metric the levels are distances in it, the coordinates and curve lengths those of the embedding: the file says so
+  // under --metric the levels and curve lengths are measured in it, the coordinates are those of the embedding: the file says so
   const plain = curves.map((c) => ({ level: c.level, closed: c.closed, length: c.length, points: c.points, ...(metric ? { properties: { metric } } : {}) }));
-  const units = metric ? `mesh units (levels measured in the metric ${metric}; coordinates and lengths of the embedding)` : 'mesh units';
+  const units = metric ? `mesh units (levels and lengths measured in the metric ${metric}; coordinates of the embedding)` : 'mesh units';
   await writeFileAtomic(path, writeCurves(format, plain, { units, ...(format === 'geojson' ? { polygons } : {}) }));
 }
 
@@ -194,7 +194,7 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
   }
   L.push(`  timings: load ${fmt(timings.load, 4)} ms, prepare ${fmt(timings.prepare, 4)} ms, solve ${fmt(timings.solve, 4)} ms, curves ${fmt(timings.curves, 4)} ms`);
   if (o.output) L.push(`  wrote ${o.output}`);
-  L.push(...metricLines(metric), ...(metric ? ['  levels are distances in the metric; curve lengths and band areas are of the embedding (mesh coordinates)'] : []));
+  L.push(...metricLines(metric), ...(metric ? ['  levels and curve lengths are in the metric; band areas are of the embedding (mesh coordinates)'] : []));
   process.stdout.write(L.join('\n') + '\n');
   return 0;
 }

@@ -71,7 +71,7 @@ async function runOffset(mesh: string, o: OffsetCliOptions): Promise<number> {
   if (r.curves.length === 0) L.push('  nothing on the surface lies at that distance from the sources');
   L.push(`  timings: load ${fmt(timings.load, 4)} ms, prepare ${fmt(timings.prepare, 4)} ms, solve ${fmt(timings.solve, 4)} ms, curves ${fmt(timings.curves, 4)} ms`);
   if (o.output) L.push(`  wrote ${o.output}`);
-  L.push(...metricLines(metric), ...(metric ? ['  the offset distance is in the metric; curve lengths are of the embedding (mesh coordinates)'] : []));
+  L.push(...metricLines(metric), ...(metric ? ['  the offset distance and curve lengths are in the metric; points are positions of the embedding'] : []));
   L.push('  estimates for planning: verify on the machine before cutting; follow the shop\'s procedures and licensed practice');
   process.stdout.write(L.join('\n') + '\n');
   return 0;

@@ -9,6 +9,7 @@ import type { Topology } from '../mesh/topology.js';
 import { usageError } from '../errors.js';
 import { chooseLevels, isolines, DEFAULT_MAX_LEVELS, type LevelOptions, type ScalarField, type SurfaceCurve } from './isolines.js';
 import { bands, bandLevels, type Band } from './bands.js';
+import { measureCurvesInMetric } from '../metric/user/surface-metric.js';
 
 /** Options of {@link surfaceIsolines}: the levels, and whether bands are wanted. */
 export interface IsolineOptions extends LevelOptions {
@@ -42,7 +43,7 @@ export interface IsolineResult {
 export function surfaceIsolines(s: { topology: Topology; positions: Float64Array }, field: ScalarField, opts: IsolineOptions): IsolineResult {
   const t0 = performance.now();
   const levels = chooseLevels(field.values, opts);
-  const curves = isolines(s.topology, s.positions, field, levels);
+  const curves = measureCurvesInMetric(s, isolines(s.topology, s.positions, field, levels)); // a user metric's lengths, if one is attached
   let b: Band[] | null = null;
   if (opts.bands) {
     const edges = opts.every !== undefined ? bandLevels(field.values, opts.every, opts.maxLevels ?? DEFAULT_MAX_LEVELS) : levels;

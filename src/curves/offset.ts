@@ -20,6 +20,7 @@
 import type { DistanceResult } from '../geodesic/solver.js';
 import { measureDistances, type MeasureOptions, type Measurement, type SolvableSurface } from '../api/distance.js';
 import { intrinsicOf } from '../api/parts.js';
+import { measureCurvesInMetric } from '../metric/user/surface-metric.js';
 import { usageError } from '../errors.js';
 import { isolines, type ScalarField, type SurfaceCurve } from './isolines.js';
 
@@ -67,6 +68,6 @@ export function surfaceOffset(s: SolvableSurface, sources: SourceSet, distance: 
   for (let e = 0; e < mesh.edgeLength.length; e++) if (mesh.edgeLength[e]! > longest) longest = mesh.edgeLength[e]!;
   const m = measureDistances(s, sources, { ...opts, mesh, method, ...(method !== 'heat' ? { maxDistance: (distance + longest) * (1 + 1e-9) } : {}) });
   const c0 = performance.now();
-  const curves = isolines(s.topology, s.positions, distanceScalarField(m), [distance]);
+  const curves = measureCurvesInMetric(s, isolines(s.topology, s.positions, distanceScalarField(m), [distance])); // a user metric's lengths, if one is attached
   return { curves, measurement: m, timings: { prepare: m.prepareMs, solve: m.solveMs, curves: performance.now() - c0 } };
 }

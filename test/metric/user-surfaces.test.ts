@@ -164,3 +164,19 @@ describe('a non-orientable surface', () => {
     for (let v = 0; v < a.length; v++) expect(Math.abs(b[v]! - 2 * a[v]!)).toBeLessThan(1e-12);
   });
 });
+
+describe('curves under a user metric', () => {
+  it('isolines and offsets report lengths in the metric: in conformal:2 the level-L curve is the plain level-L/2 curve, twice as long (scaling, common practice)', async () => {
+    const { surfaceIsolines, surfaceOffset } = await import('../../src/index.js');
+    const { distanceScalarField } = await import('../../src/curves/index.js');
+    const n = 16, plain = plane(n, 0, 0, 1, 1), scaled = plane(n, 0, 0, 1, 1);
+    attachMetric(scaled, parseMetricSpec('conformal:2'));
+    const src = { points: [vertexAt(n, 8, 8)], curves: [] };
+    const a = surfaceIsolines(plain, distanceScalarField(measureDistances(plain, src)), { levels: [0.3] });
+    const b = surfaceIsolines(scaled, distanceScalarField(measureDistances(scaled, src)), { levels: [0.6] });
+    expect(a.curves).toHaveLength(1);
+    expect(Math.abs(b.curves[0]!.length - 2 * a.curves[0]!.length)).toBeLessThan(1e-9);
+    const o = surfaceOffset(scaled, src, 0.6);
+    expect(Math.abs(o.curves[0]!.length - 2 * a.curves[0]!.length)).toBeLessThan(1e-9);
+  });
+});

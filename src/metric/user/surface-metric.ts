@@ -19,6 +19,8 @@
  */
 import type { Topology } from '../../mesh/topology.js';
 import type { PropertyColumn } from '../../io/mesh-data.js';
+import type { SurfacePoint } from '../../mesh/surface-point.js';
+import { chainLength } from '../face-points.js';
 import { intrinsicFromPositions, meanEdgeLength, triangleInequalityViolations, type IntrinsicMesh } from '../intrinsic.js';
 import { mollify, DEFAULT_MOLLIFY_DELTA } from '../mollify.js';
 import { usageError } from '../../errors.js';
@@ -150,4 +152,16 @@ export function surfaceIntrinsic(s: { topology: Topology; positions: Float64Arra
 /** The name of the metric `s` is measured in: the user's spec, or `euclidean` (lengths of the embedding). */
 export function metricName(s: object): string {
   return attached.get(s)?.report.metric ?? 'euclidean';
+}
+
+/**
+ * Under an attached user metric, sets each curve's `length` to its length in
+ * the metric (the sum of its straight pieces over the faces they cross, laid
+ * out from the metric's edge lengths: `chainLength`); without one, leaves the
+ * curves as they are (lengths of the embedding). Returns `curves`.
+ */
+export function measureCurvesInMetric<C extends { length: number; surfacePoints: SurfacePoint[] }>(s: object, curves: C[]): C[] {
+  const a = attached.get(s);
+  if (a) for (const c of curves) c.length = chainLength(a.mesh, c.surfacePoints);
+  return curves;
 }
