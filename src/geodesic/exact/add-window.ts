@@ -3,18 +3,23 @@
  * Kirsanov, Gortler & Hoppe, ACM TOG 24(3), 2005, with the vertex filter of
  * Xin & Wang, ACM TOG 28(4), 2009):
  *
- * 1. {@link filterByVertices}: clamp to the edge, drop a window that even at
- *    its far end is beaten through an end vertex, and cut a prefix/suffix
- *    where it is (proof in propagate.ts's module comment);
- * 2. {@link trimOnEdge}: trim it against the windows already on the edge
- *    (either side) and queued ones against it (trim.ts);
- * 3. {@link mergeInto}: a queued window with the same image and σ that
- *    touches it grows instead (flat regions stay one window);
- * 4. {@link insertWindow}: store it, keeping the edge's list sorted by b0,
- *    and queue it by its smallest distance.
+ * 1. filter: clamp to the edge, drop a window that even at its far end is
+ *    beaten through an end vertex, and cut a prefix/suffix where it is
+ *    ({@link cutBehindA}, {@link cutBehindB}; proof in propagate.ts's module
+ *    comment);
+ * 2. trim: against the windows already on the edge (either side), and
+ *    queued ones against it (trim.ts);
+ * 3. merge: a queued window with the same image and σ that touches it grows
+ *    instead ({@link mergeInto}; flat regions stay one window);
+ * 4. insert: store it, keeping the edge's list sorted by b0, and queue it by
+ *    its smallest distance.
  *
- * The phases hand the window's interval over through the run's scratch
- * (`ExactState.scratch`), so nothing here keeps module state.
+ * Phases 1, 2 and 4 run on every window and stay in the body of
+ * {@link addWindow}, each under its heading: as separate functions they cost
+ * 8–10% of a whole-mesh run (measured, A/B in one process: calls V8 does not
+ * inline in this hot path). The rare branches (partial cuts, merging) are
+ * functions. Working space comes from the run's scratch (`ExactState.scratch`),
+ * so nothing here keeps module state.
  */
 import type { ExactState } from './state.js';
 import { next } from '../../mesh/topology.js';
@@ -40,81 +45,32 @@ const MERGE = 1e-11;
  * planar window (sx, sy = direction, σ = offset; see windows.ts).
  */
 export function addWindow(s: ExactState, h: number, b0: number, b1: number, sx: number, sy: number, sigma: number, parent: number, flat = 0): number {
+  // 1. filter: clamp to the edge, then the vertex-distance test against both end vertices
   const L = s.hl[h]!;
   if (b0 < 0) b0 = 0;
   if (b1 > L) b1 = L;
   if (!(b1 - b0 > REL * L)) return -1;
   if (!flat && !(sy <= 0)) sy = 0; // rounding (or NaN) guard: image never above the edge
-  const sc = s.scratch;
-  if (!filterByVertices(s, h, b0, b1, sx, sy, sigma, flat)) return -1;
-  const tolI = MERGE * (L + Math.abs(sx) + Math.abs(sy) + Math.abs(sigma));
-  if (!trimOnEdge(s, h, sc.b0, sc.b1, sx, sy, sigma, flat, tolI)) return -1;
-  b0 = sc.b0; b1 = sc.b1;
-  if (!(b1 - b0 > REL * L)) return -1;
-  const key = keyOf(flat, sx, sy, sigma, b0, b1);
-  if (key > s.maxDistance) {
-    s.capped = true;
-    return -1;
-  }
-  const W = s.win;
-  if (W.count >= W.room && !W.makeRoom()) {
-    s.overflow = true; // the budget, the window cap or the allocator refused (W.budget.tripped says which)
-    return -1;
-  }
-  if (s.prune && sc.mergeable) {
-    const o = mergeInto(s, h, b0, b1, sx, sy, sigma, parent, flat, key, tolI);
-    if (o >= 0) return o;
-  }
-  return insertWindow(s, h, b0, b1, sx, sy, sigma, parent, flat, key, sc.pred);
-}
-
-/**
- * Phase 1: the vertex-distance filter. False when the window is useless;
- * otherwise its interval, cut where an end vertex beats it, is in
- * `s.scratch.b0`, `b1`.
- */
-function filterByVertices(s: ExactState, h: number, b0: number, b1: number, sx: number, sy: number, sigma: number, flat: number): boolean {
-  const L = s.hl[h]!, t = s.t;
+  const t = s.t;
   const A = t.tri[h]!, B = t.tri[next1(h)]!;
   const v1 = value(flat, sx, sy, sigma, b1);
   const v0 = value(flat, sx, sy, sigma, b0);
   const prune = s.prune;
   const dA = prune ? s.dist[A]! : Infinity, dB = prune ? s.dist[B]! : Infinity;
-  if (v1 > (dA + b1) * (1 + REL) || v0 > (dB + (L - b0)) * (1 + REL)) return false;
-  // partial cut: g_A(y) = σ + |I − y| − d(A) − y is non-increasing, so where it is > 0 is a prefix;
-  // its zero solves √((y−sx)² + sy²) = y + k, k = d(A) − σ: y* = (sx² + sy² − k²) / (2(k + sx))
-  if (!flat && v0 > (dA + b0) * (1 + REL)) {
-    const k = dA - sigma, den = 2 * (k + sx);
-    const y = den > 0 ? (sx * sx + sy * sy - k * k) / den : NaN;
-    if (y > b0 && y < b1) b0 = y;
-  }
-  // mirrored for B: g_B(y) = σ + |I − y| − d(B) − (L − y) is non-decreasing, > 0 on a suffix
-  if (!flat && v1 > (dB + (L - b1)) * (1 + REL)) {
-    const k = dB - sigma, mx = L - sx, den = 2 * (k + mx);
-    const y = den > 0 ? L - (mx * mx + sy * sy - k * k) / den : NaN;
-    if (y > b0 && y < b1) b1 = y;
-  }
-  s.scratch.b0 = b0;
-  s.scratch.b1 = b1;
-  return true;
-}
+  if (v1 > (dA + b1) * (1 + REL) || v0 > (dB + (L - b0)) * (1 + REL)) return -1;
+  if (!flat && v0 > (dA + b0) * (1 + REL)) b0 = cutBehindA(sx, sy, sigma, dA, b0, b1);
+  if (!flat && v1 > (dB + (L - b1)) * (1 + REL)) b1 = cutBehindB(sx, sy, sigma, dB, L, b0, b1);
 
-/**
- * Phase 2: trims the new window N = [b0, b1] against the windows already on
- * h and on its twin (mirrored frame) and, in the first pass, queued ones
- * against N; passes repeat while N shrinks (a cut can expose an overlap with
- * another window). False when N dies; otherwise `s.scratch` holds N's
- * interval, whether a queued window on h could absorb N (`mergeable`, noted
- * in the first pass: trimming only ever removes windows) and the last live
- * window on h starting at or before N's b0 (`pred`, the insertion point).
- *
- * Lists are sorted by b0 (each in its own frame), so a scan stops at the
- * first window starting past N; a trim or merge can leave a window slightly
- * out of order, which only costs pruning.
- */
-function trimOnEdge(s: ExactState, h: number, b0: number, b1: number, sx: number, sy: number, sigma: number, flat: number, tolI: number): boolean {
-  const L = s.hl[h]!, W = s.win, g = s.t.twin[h]!, prune = s.prune, sc = s.scratch, out = sc.pair, work = sc.trim;
+  // 2. trim N against the windows already on this edge (either side) and, in the first pass, queued
+  // ones against N; passes repeat while N shrinks (a cut can expose an overlap with another window).
+  // Lists are sorted by b0 (each in its own frame), so a scan stops at the first window starting
+  // past N; a trim or merge can leave a window slightly out of order, which only costs pruning.
+  const W = s.win, g = t.twin[h]!, out = s.scratch.pair, work = s.scratch.trim;
+  const tolI = MERGE * (L + Math.abs(sx) + Math.abs(sy) + Math.abs(sigma));
+  // merging needs a queued window on h with N's image and σ; the first pass notes whether one
+  // exists (trimming only ever removes windows), so the merge scan below runs only then
   let mergeable = flat !== 0 || !prune;
+  // last live window on h with b0 ≤ N's b0, found in the first pass (N's b0 only grows after it)
   let pred = -1;
   for (let pass = 0, changed = !flat && prune; changed && pass < 8; pass++) {
     changed = false;
@@ -142,7 +98,7 @@ function trimOnEdge(s: ExactState, h: number, b0: number, b1: number, sx: number
               W.state[o] = WIN_DEAD;
               if (before < 0) W.heHead[e] = W.nextOnHe[o]!;
               else W.nextOnHe[before] = W.nextOnHe[o]!;
-              if (r & 1) return false;
+              if (r & 1) return -1;
               if (out[0] !== b0 || out[1] !== b1) changed = true;
               b0 = out[0]!; b1 = out[1]!;
               continue;
@@ -150,7 +106,7 @@ function trimOnEdge(s: ExactState, h: number, b0: number, b1: number, sx: number
             if (side === 0) { W.b0[o] = out[2]!; W.b1[o] = out[3]!; }
             else { W.b0[o] = L - out[3]!; W.b1[o] = L - out[2]!; }
           }
-          if (r & 1) return false;
+          if (r & 1) return -1;
           if (out[0] !== b0 || out[1] !== b1) changed = true;
           b0 = out[0]!; b1 = out[1]!;
         }
@@ -159,8 +115,60 @@ function trimOnEdge(s: ExactState, h: number, b0: number, b1: number, sx: number
       }
     }
   }
-  sc.b0 = b0; sc.b1 = b1; sc.mergeable = mergeable; sc.pred = pred;
-  return true;
+  if (!(b1 - b0 > REL * L)) return -1;
+  const key = keyOf(flat, sx, sy, sigma, b0, b1);
+  if (key > s.maxDistance) {
+    s.capped = true;
+    return -1;
+  }
+  if (W.count >= W.room && !W.makeRoom()) {
+    s.overflow = true; // the budget, the window cap or the allocator refused (W.budget.tripped says which)
+    return -1;
+  }
+
+  // 3. merge into a queued window on this half-edge with the same image and σ that touches N
+  if (prune && mergeable) {
+    const o = mergeInto(s, h, b0, b1, sx, sy, sigma, parent, flat, key, tolI);
+    if (o >= 0) return o;
+  }
+
+  // 4. insert, keeping h's list sorted: after the last window starting at or before b0
+  if (W.heCount[h]! >= s.maxPerEdge) {
+    s.diverged = 'edge'; // windows piling up on one edge: the run is not converging (guard.ts)
+    s.divergedAt = h;
+    return -1;
+  }
+  let at = -1;
+  if (prune) {
+    at = pred;
+    for (let o = at < 0 ? W.heHead[h]! : W.nextOnHe[at]!; o >= 0 && W.b0[o]! <= b0; o = W.nextOnHe[o]!) at = o;
+  }
+  const w = W.add(h, b0, b1, sx, sy, sigma, parent, flat, at);
+  s.wq.push(key, w);
+  return w;
+}
+
+/**
+ * Partial cut at A: g_A(y) = σ + |I − y| − d(A) − y is non-increasing, so
+ * where it is > 0 (the window is beaten through A) is a prefix; its zero
+ * solves √((y − sx)² + sy²) = y + k, k = d(A) − σ:
+ * y* = (sx² + sy² − k²) / (2(k + sx)). Returns the new start of [b0, b1]
+ * (b0 when y* is not inside).
+ */
+function cutBehindA(sx: number, sy: number, sigma: number, dA: number, b0: number, b1: number): number {
+  const k = dA - sigma, den = 2 * (k + sx);
+  const y = den > 0 ? (sx * sx + sy * sy - k * k) / den : NaN;
+  return y > b0 && y < b1 ? y : b0;
+}
+
+/**
+ * Partial cut at B, mirrored: g_B(y) = σ + |I − y| − d(B) − (L − y) is
+ * non-decreasing, > 0 on a suffix. Returns the new end of [b0, b1].
+ */
+function cutBehindB(sx: number, sy: number, sigma: number, dB: number, L: number, b0: number, b1: number): number {
+  const k = dB - sigma, mx = L - sx, den = 2 * (k + mx);
+  const y = den > 0 ? L - (mx * mx + sy * sy - k * k) / den : NaN;
+  return y > b0 && y < b1 ? y : b1;
 }
 
 /**
@@ -186,30 +194,4 @@ function mergeInto(
     return o;
   }
   return -1;
-}
-
-/**
- * Phase 4: stores N on h after window `pred` (the last starting at or before
- * b0, found by the trim; the list is scanned on from there) and queues it.
- * Returns its id, or −1 when h already holds more windows than a converging
- * run makes (the run is then stopped: guard.ts).
- */
-function insertWindow(
-  s: ExactState, h: number, b0: number, b1: number, sx: number, sy: number, sigma: number, parent: number, flat: number, key: number, pred: number,
-): number {
-  const W = s.win;
-  if (W.heCount[h]! >= s.maxPerEdge) {
-    s.diverged = 'edge'; // windows piling up on one edge: the run is not converging (guard.ts)
-    s.divergedAt = h;
-    return -1;
-  }
-  // keep h's list sorted: insert after the last window starting at or before b0
-  let at = -1;
-  if (s.prune) {
-    at = pred;
-    for (let o = at < 0 ? W.heHead[h]! : W.nextOnHe[at]!; o >= 0 && W.b0[o]! <= b0; o = W.nextOnHe[o]!) at = o;
-  }
-  const w = W.add(h, b0, b1, sx, sy, sigma, parent, flat, at);
-  s.wq.push(key, w);
-  return w;
 }

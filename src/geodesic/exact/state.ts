@@ -26,14 +26,6 @@ export interface ExactScratch {
   fanT: Float64Array;
   /** A point in a face frame (evaluate.ts). */
   readonly point: number[];
-  /** addWindow's interval between its phases (add-window.ts). */
-  b0: number;
-  /** End of that interval. */
-  b1: number;
-  /** Whether a queued window on the edge may absorb the new one (add-window.ts). */
-  mergeable: boolean;
-  /** The window the new one is inserted after (add-window.ts). */
-  pred: number;
 }
 
 /** A point source off the vertices, or a segment of a curve source: the faces holding it and its coordinates in each. */
@@ -158,7 +150,6 @@ export function createState(
     wedge: true,
     scratch: {
       pair: new Float64Array(4), trim: new TrimWork(), fanH: new Int32Array(64), fanT: new Float64Array(64), point: [0, 0],
-      b0: 0, b1: 0, mergeable: false, pred: -1,
     },
   };
   // per-vertex arrays of this run (dist, viaType, viaId, settled, pseudo) and the shared geometry
