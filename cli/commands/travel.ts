@@ -256,26 +256,16 @@ async function writeOutput(
   const ext = outputFormat(out);
   if (ext === '.geojson') return writeFileAtomic(out, travelGeoJson({ route: r, isochrones: iso?.curves ?? [], bands: iso?.bands ?? [] }, { crs, lonLat: geoLonLat }));
   if (ext === '.gpx') {
-    const stops = r!.surfacePoints.length ? stopsOf(r!, specs) : [];
-    return writeFileAtomic(out, routeGpx(r!, lonLat!, `route ${specs.join(' → ')}`, stops));
+    return writeFileAtomic(out, routeGpx(r!, lonLat!, `route ${specs.join(' → ')}`, stopsOf(r!, specs)));
   }
   if (ext === '.csv' && r) return writeFileAtomic(out, routeProfileCsv(r));
   if (ext === '.tif' || ext === '.tiff') return writeFileAtomic(out, await writeFieldTiff(grid!, toInputVertices(s, field!.seconds)));
   return writeVertexColumns(out, s, [{ name: 'seconds', unit: 's', values: field!.seconds, plyFill: -1 }]);
 }
 
-/** The stops of a route as GPX waypoints: its first and last points and the waypoints, by position. */
+/** The stops of a route as GPX waypoints, named by their specs. */
 function stopsOf(r: TravelRouteResult, specs: string[]) {
-  const idx = [0, ...r.legs.map((_, i) => legEnd(r, i))];
-  return idx.map((p, i) => ({ x: r.points[p]![0], y: r.points[p]![1], ele: r.elevation[p]!, name: specs[i] ?? `stop ${i}` }));
-}
-
-/** Index of the last point of leg i (where the cumulative time reaches the legs' sum). */
-function legEnd(r: TravelRouteResult, i: number): number {
-  const t = r.legs.slice(0, i + 1).reduce((a, l) => a + l.seconds, 0);
-  let best = 0;
-  r.cumulativeSeconds.forEach((c, j) => { if (Math.abs(c - t) < Math.abs(r.cumulativeSeconds[best]! - t)) best = j; });
-  return best;
+  return r.stopIndex.map((p, i) => ({ x: r.points[p]![0], y: r.points[p]![1], ele: r.elevation[p]!, name: specs[i] ?? `stop ${i}` }));
 }
 
 /**

@@ -54,6 +54,8 @@ export interface TravelRoute {
   elevation: number[];
   /** Per leg (between consecutive stops): seconds and metres. */
   legs: { seconds: number; meters: number }[];
+  /** Index in `points` of each stop (the start, the waypoints, the end). */
+  stopIndex: number[];
   /** Arcs relaxed and nodes settled, summed over the legs. */
   work: { relaxed: number; settled: number };
 }
@@ -117,9 +119,9 @@ function describeRoute(
 ): TravelRoute {
   const out: TravelRoute = {
     seconds: secs[secs.length - 1]!, meters: 0, horizontalMeters: 0, ascent: 0, descent: 0, steepest: null,
-    points: [], surfacePoints: [], cumulativeSeconds: [], cumulativeMeters: [], elevation: [], legs, work,
+    points: [], surfacePoints: [], cumulativeSeconds: [], cumulativeMeters: [], elevation: [], legs, stopIndex: [0], work,
   };
-  const along: number[] = [];
+  const along: number[] = [], outIndex: number[] = [];
   let prev: [number, number, number] | null = null;
   for (let i = 0; i < pts.length; i++) {
     const f = pointFrame(g, pts[i]!);
@@ -144,8 +146,10 @@ function describeRoute(
       out.cumulativeMeters.push(out.meters);
       out.elevation.push(f[2]);
     }
+    outIndex.push(out.points.length - 1);
     prev = f;
   }
+  for (const e of legEnds) out.stopIndex.push(outIndex[e]!);
   let from = 0;
   legs.forEach((l, i) => {
     l.meters = along[legEnds[i]!]! - along[from]!;

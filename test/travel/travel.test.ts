@@ -173,6 +173,9 @@ describe('routes and fields', () => {
     expect(r.legs[0]!.meters + r.legs[1]!.meters).toBeCloseTo(r.meters, 9);
     expect(r.legs[0]!.seconds).toBeCloseTo(toblerSeconds(100, 5), 6); // along the row: grade 0.05 (Tobler 1993)
     expect(r.cumulativeSeconds.at(-1)).toBeCloseTo(r.seconds, 9);
+    expect(r.stopIndex).toHaveLength(3);
+    expect(r.points[r.stopIndex[1]!]).toEqual([100, 0, 5]); // the waypoint v(10, 0): x = 100, z = 0.05·100
+    expect(r.cumulativeSeconds[r.stopIndex[1]!]).toBeCloseTo(r.legs[0]!.seconds, 9);
   });
 
   it('A* with the plan-distance bound gives the times of plain Dijkstra (Hart, Nilsson & Raphael 1968), settling fewer nodes', () => {
