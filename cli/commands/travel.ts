@@ -167,7 +167,7 @@ async function runTravel(mesh: string, o: TravelCliOptions): Promise<number> {
       ...facts,
       ...(r ? {
         seconds: r.seconds, duration: formatDuration(r.seconds), meters: r.meters, horizontalMeters: r.horizontalMeters, ascent: r.ascent, descent: r.descent,
-        steepest: r.steepest, legs: r.legs, points: r.points, cumulativeSeconds: r.cumulativeSeconds, convergence: convergence ? [{ k, seconds: r.seconds }, ...convergence] : null,
+        steepest: r.steepest, steepestSustained: r.steepestSustained, legs: r.legs, points: r.points, cumulativeSeconds: r.cumulativeSeconds, convergence: convergence ? [{ k, seconds: r.seconds }, ...convergence] : null,
       } : {}),
       ...(field ? { field: fieldStats(field.seconds) } : {}),
       ...(iso ? { isochrones: isoJson(iso) } : {}),
@@ -179,7 +179,8 @@ async function runTravel(mesh: string, o: TravelCliOptions): Promise<number> {
   for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)}, moved ${fmt(l.distance, 4)} mesh units`);
   if (r) {
     L.push(`  route ${specs.join(' → ')}: ${formatDuration(r.seconds)} (${fmt(r.seconds, 6)} s), ${fmt(r.meters, 6)} m on the ground (${fmt(r.horizontalMeters, 6)} m in plan), ascent ${fmt(r.ascent, 5)} m, descent ${fmt(r.descent, 5)} m`);
-    if (r.steepest) L.push(`  steepest stretch ${fmt(Math.abs(r.steepest.degrees), 3)}° ${r.steepest.degrees >= 0 ? 'uphill' : 'downhill'}, ${fmt(r.steepest.meters, 4)} m long, from ${fmt(r.steepest.at, 5)} m`);
+    const dir = (d: number) => (d >= 0 ? 'uphill' : 'downhill');
+    if (r.steepestSustained) L.push(`  steepest stretch ${fmt(Math.abs(r.steepestSustained.degrees), 3)}° ${dir(r.steepestSustained.degrees)} on average over ${fmt(r.steepestSustained.meters, 4)} m from ${fmt(r.steepestSustained.at, 5)} m; steepest single step ${fmt(Math.abs(r.steepest!.degrees), 3)}° ${dir(r.steepest!.degrees)} (${fmt(r.steepest!.meters, 3)} m)`);
     if (r.legs.length > 1) r.legs.forEach((l, i) => L.push(`  leg ${i + 1}: ${formatDuration(l.seconds)}, ${fmt(l.meters, 6)} m`));
     if (convergence) L.push(`  convergence: ${[{ k, seconds: r.seconds }, ...convergence].map((c) => `k=${c.k} ${formatDuration(c.seconds)} (${fmt(c.seconds, 7)} s)`).join(', ')}`);
   }

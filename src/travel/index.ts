@@ -20,7 +20,7 @@ import { fastestRoute, type TravelRoute } from './route.js';
 
 export { paceModel, parsePaceTable, parseUpAxis, toblerKmh, naismithSecondsPerMeter, PACE_MODELS, type PaceModel, type PaceModelName, type PaceRow, type PaceOptions } from './pace.js';
 export { SteinerGraph, steinerParams, MAX_STEINER_K, type SteinerSpacing, type SteinerOptions } from './steiner-graph.js';
-export type { TravelRoute, SteepestStretch } from './route.js';
+export { SUSTAINED_METERS, type TravelRoute, type SteepestStretch } from './route.js';
 
 /** Options of {@link travelField} and {@link travelRoute}. */
 export interface TravelOptions {

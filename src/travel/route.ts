@@ -28,6 +28,9 @@ export interface SteepestStretch {
   meters: number;
 }
 
+/** Length on the ground over which the steepest sustained slope of a route is measured, metres. */
+export const SUSTAINED_METERS = 10;
+
 /** A walking route on the surface. */
 export interface TravelRoute {
   /** Total time, seconds. */
@@ -40,8 +43,15 @@ export interface TravelRoute {
   ascent: number;
   /** See {@link ascent}. */
   descent: number;
-  /** The steepest step (by absolute slope); null for a route of no length. */
+  /** The steepest single straight step (by absolute slope); null for a route of no length. */
   steepest: SteepestStretch | null;
+  /**
+   * The steepest sustained stretch: the mean slope (rise over plan distance)
+   * of the stretch of at least {@link SUSTAINED_METERS} on the ground that is
+   * steepest, starting at a point of the route (the whole route when shorter);
+   * null for a route of no length.
+   */
+  steepestSustained: SteepestStretch | null;
   /** Positions in mesh units, in order (consecutive copies removed). */
   points: [number, number, number][];
   /** Where each point lies on the surface. */
@@ -118,10 +128,10 @@ function describeRoute(
   g: SteinerGraph, pts: SurfacePoint[], secs: number[], legs: { seconds: number; meters: number }[], legEnds: number[], work: { relaxed: number; settled: number },
 ): TravelRoute {
   const out: TravelRoute = {
-    seconds: secs[secs.length - 1]!, meters: 0, horizontalMeters: 0, ascent: 0, descent: 0, steepest: null,
+    seconds: secs[secs.length - 1]!, meters: 0, horizontalMeters: 0, ascent: 0, descent: 0, steepest: null, steepestSustained: null,
     points: [], surfacePoints: [], cumulativeSeconds: [], cumulativeMeters: [], elevation: [], legs, stopIndex: [0], work,
   };
-  const along: number[] = [], outIndex: number[] = [];
+  const along: number[] = [], outIndex: number[] = [], plan: number[] = [0];
   let prev: [number, number, number] | null = null;
   for (let i = 0; i < pts.length; i++) {
     const f = pointFrame(g, pts[i]!);
@@ -145,11 +155,23 @@ function describeRoute(
       out.cumulativeSeconds.push(secs[i]!);
       out.cumulativeMeters.push(out.meters);
       out.elevation.push(f[2]);
+      if (out.points.length > 1) plan.push(out.horizontalMeters);
     }
     outIndex.push(out.points.length - 1);
     prev = f;
   }
   for (const e of legEnds) out.stopIndex.push(outIndex[e]!);
+  // steepest sustained: from each point, the first point at least SUSTAINED_METERS further along (two pointers)
+  const M = out.cumulativeMeters, Z = out.elevation, np = M.length;
+  for (let i = 0, j = 0; i < np - 1 && out.meters > 0; i++) {
+    if (j <= i) j = i + 1;
+    while (j < np - 1 && M[j]! - M[i]! < SUSTAINED_METERS) j++;
+    if (M[j]! - M[i]! < SUSTAINED_METERS && i > 0) break; // the rest is shorter than the stretch
+    const dx = plan[j]! - plan[i]!, dz = Z[j]! - Z[i]!;
+    const deg = (Math.atan2(dz, dx) * 180) / Math.PI;
+    const best = out.steepestSustained;
+    if (!best || Math.abs(deg) > Math.abs(best.degrees)) out.steepestSustained = { degrees: deg, at: M[i]!, meters: M[j]! - M[i]! };
+  }
   let from = 0;
   legs.forEach((l, i) => {
     l.meters = along[legEnds[i]!]! - along[from]!;

@@ -103,6 +103,9 @@ describe('routes and fields', () => {
     expect(down.descent).toBeCloseTo(10, 9);
     expect(up.meters).toBeCloseTo(Math.hypot(100, 10), 9);
     expect(up.steepest!.degrees).toBeCloseTo((Math.atan(0.1) * 180) / Math.PI, 9);
+    expect(up.steepestSustained!.degrees).toBeCloseTo((Math.atan(0.1) * 180) / Math.PI, 9); // a uniform grade: every stretch has it
+    expect(up.steepestSustained!.meters).toBeGreaterThanOrEqual(10);
+    expect(down.steepestSustained!.degrees).toBeCloseTo(-(Math.atan(0.1) * 180) / Math.PI, 9);
   });
 
   it('above the slope limit the route zig-zags, every step within the limit, no faster than the limit slope allows', () => {
