@@ -9,7 +9,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { Option } from 'commander';
-import type { Surface } from '../src/index.js';
+import { pointLocator, shortestPath, type Surface } from '../src/index.js';
 import { attachMetric, parseMetricSpec, type MetricReport } from '../src/api/metric.js';
 import { inputError, usageError } from '../src/errors.js';
 import { fmt } from './run.js';
@@ -78,12 +78,13 @@ export const CLIMB_METRIC = 'tensor:1,0,0,1,0,16';
  * `to` measured plainly and in {@link CLIMB_METRIC}, with the 3D length and
  * the height climbed of each, printed through `say`. A planner reads off
  * how much longer the gentler route is and how much climbing it saves.
+ * `load` loads the hillside with the `--metric` spec given (none: plain).
  */
-export async function demoClimbingMetric(file: string, from: string, to: string, say: (s: string) => void): Promise<void> {
-  const { loadSurface } = await import('./load.js');
-  const { pointLocator, shortestPath } = await import('../src/index.js');
+export async function demoClimbingMetric(
+  load: (metric: string | undefined) => Promise<{ surface: Surface; metric: MetricReport | null }>, from: string, to: string, say: (s: string) => void,
+): Promise<void> {
   const route = async (metric: string | undefined) => {
-    const { surface, metric: report } = await loadSurface(file, { requireManifold: true, ...(metric ? { metric } : {}) });
+    const { surface, metric: report } = await load(metric);
     const points = await pointLocator(surface);
     const r = shortestPath(surface, [points.resolve(from, 'start'), points.resolve(to, 'end')]);
     const P = r.polyline;

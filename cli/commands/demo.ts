@@ -90,7 +90,7 @@ export function registerDemo(program: Command): void {
         const bandPolys = iso.bands!.flatMap((b) => b.polygons.map((p) => ({ rings: [p.outer, ...p.holes], properties: { levelFrom: b.lower, levelTo: b.upper, area: b.area, planArea: b.planArea } })));
         await writeFileAtomic(kiFile, writeCurves('geojson', iso.curves, { units: 'm', polygons: bandPolys }));
         say(`  isolines every 25 m of walking distance: ${iso.curves.length} curves at ${iso.levels.join(', ')} m, bands with plan areas ${iso.bands!.map((b) => fmt(b.planArea, 4)).join(', ')} m² → ${rel(kiFile)}`);
-        await demoClimbingMetric(rel(join(dir, 'ostrel-knoll.obj')), 'p:431220,6170440', 'p:431300,6170540', say); // a user metric (--metric): west gate → north stile
+        await demoClimbingMetric((metric) => loadSurface(rel(join(dir, 'ostrel-knoll.obj')), { requireManifold: true, metric }), 'p:431220,6170440', 'p:431300,6170540', say); // a user metric (--metric): west gate → north stile
         await demoWalkingTimes(rel(join(dir, 'ostrel-knoll.obj')), rel(out), say); // walking times, isochrones, route as GeoJSON and GPX (travel)
         say('  (planning aid only: see the terrain caution below)\n');
 
