@@ -34,6 +34,8 @@ import { exactDistance } from '../exact/index.js';
 import { pointSources } from '../shared/sources.js';
 import { surfacePointPosition } from '../../mesh/surface-point.js';
 
+const sq = (x: number, y: number, z: number): number => x * x + y * y + z * z;
+
 /** Result of {@link verifyShortest}. */
 export interface VerifyResult {
   /**
@@ -71,12 +73,10 @@ export function verifyShortest(mesh: IntrinsicMesh, positions: Float64Array, A: 
   for (let f = 0; f < t.nf; f++) {
     const i = 3 * t.tri[3 * f]!, j = 3 * t.tri[3 * f + 1]!, k = 3 * t.tri[3 * f + 2]!;
     const cx = (P[i]! + P[j]! + P[k]!) / 3, cy = (P[i + 1]! + P[j + 1]! + P[k + 1]!) / 3, cz = (P[i + 2]! + P[j + 2]! + P[k + 2]!) / 3;
-    const r = Math.max(
-      Math.hypot(P[i]! - cx, P[i + 1]! - cy, P[i + 2]! - cz),
-      Math.hypot(P[j]! - cx, P[j + 1]! - cy, P[j + 2]! - cz),
-      Math.hypot(P[k]! - cx, P[k + 1]! - cy, P[k + 2]! - cz),
-    );
-    const fc = Math.hypot(cx - ax, cy - ay, cz - az) + Math.hypot(cx - bx, cy - by, cz - bz);
+    // (square roots of sums of squares: Math.hypot is several times slower, and the 1e-9 slack
+    // in `bound` is far above their rounding)
+    const r = Math.sqrt(Math.max(sq(P[i]! - cx, P[i + 1]! - cy, P[i + 2]! - cz), sq(P[j]! - cx, P[j + 1]! - cy, P[j + 2]! - cz), sq(P[k]! - cx, P[k + 1]! - cy, P[k + 2]! - cz)));
+    const fc = Math.sqrt(sq(cx - ax, cy - ay, cz - az)) + Math.sqrt(sq(cx - bx, cy - by, cz - bz));
     if (!(fc - 2 * r > bound)) {
       faces.push(f);
       if (faces.length > maxFaces) return { status: 'skipped', faces: faces.length, excess };
