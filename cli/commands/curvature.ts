@@ -28,9 +28,10 @@ export function registerCurvature(program: Command): void {
           await writeVertexColumns(opts.output, surface, [
             { name: 'angleDefect', unit: 'rad', values: c.angleDefect },
             { name: 'gaussianCurvature', unit: '1/units²', values: c.gaussianCurvature },
-            { name: 'meanCurvature', unit: '1/units', values: c.meanCurvature },
+            // mean curvature belongs to the embedding: not written under a user metric
+            ...(metric ? [] : [{ name: 'meanCurvature', unit: '1/units', values: c.meanCurvature }]),
             { name: 'boundary', unit: 'flag', values: Float64Array.from(c.boundary), flag: true },
-          ], { plyAscii: opts.ascii, colorBy: 'meanCurvature' });
+          ], { plyAscii: opts.ascii, colorBy: metric ? 'gaussianCurvature' : 'meanCurvature' });
         }
         const s = c.summary;
         if (opts.json) {
