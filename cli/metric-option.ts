@@ -61,7 +61,9 @@ export function metricLines(r: MetricReport | null | undefined): string[] {
   if (!r) return [];
   const q = r.toleranceReached === null
     ? 'lengths as given'
-    : `edge lengths by Gauss–Legendre quadrature to ${fmt(r.toleranceReached, 2)} relative (asked ${fmt(r.toleranceAsked!, 2)}${r.edgesAboveTolerance ? `; ${r.edgesAboveTolerance} edge(s) above it` : ''})`;
+    : r.toleranceReached === 0 && r.evaluations === r.edges
+      ? 'edge lengths exact (the metric is constant along each edge)'
+      : `edge lengths by Gauss–Legendre quadrature to ${fmt(r.toleranceReached, 2)} relative (asked ${fmt(r.toleranceAsked!, 2)}${r.edgesAboveTolerance ? `; ${r.edgesAboveTolerance} edge(s) above it` : ''})`;
   const repair = r.triangleInequalityViolations
     ? `${r.triangleInequalityViolations} triangle(s) failed the triangle inequality: repaired by mollification, ${fmt(r.mollifyEpsilon, 4)} mesh units added to every edge (up to ${fmt(100 * r.largestRelativeChange, 3)}% of an edge)`
     : r.mollifyEpsilon > 0
