@@ -45,7 +45,7 @@ async function runCase(name: string, make: () => Shape, opts: HeatOptions): Prom
 
   const executor = factorThreads > 0 ? new NodeFactorExecutor({ threads: factorThreads }) : null;
   const t0 = performance.now();
-  executor?.warm(); // as a caller would: the workers load while the mesh is remeshed and ordered
+  // prepare starts the executor's workers itself when the mesh is above its threshold (they load during the remesh)
   const solver = HeatSolver.prepare(mesh, { ...opts, factorExecutor: executor });
   const prepareMs = performance.now() - t0;
   const counts = executor ? { ...executor.counts } : null;
