@@ -10,7 +10,7 @@
  * - `path_ms`: flips alone (`method: 'flip'`, no positions: no check at all).
  * - `path_auto_ms`: the CLI's default (`auto` with positions): the flips, then
  *   the ellipsoid check (flip/verify.ts), which proves the leg by window
- *   propagation when its region has at most FLIP_VERIFY_FACES faces and
+ *   propagation when its region has at most AUTO_PROVE_FACES (50k) faces and
  *   otherwise returns it with its certified bound (`excess_bound`, from the
  *   3D chord; `proven` says which).
  * - `path_proven_ms` (up to the 1M mesh, one run): the full proof
