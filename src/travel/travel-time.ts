@@ -177,14 +177,14 @@ export function runTravelSearch(
     const n = g.arcs(u, to, mult);
     const au = F[3 * u]!, bu = F[3 * u + 1]!, zu = F[3 * u + 2]!;
     for (let i = 0; i < n; i++) {
-      const w = to[i]!;
-      if (done[w]) continue;
+      const w = to[i]!, dw = dist[w]!;
+      if (dw <= du) continue; // settled, or already as early (steps take no negative time)
       const o = 3 * w, da = F[o]! - au, db = F[o + 1]! - bu, dx = Math.sqrt(da * da + db * db), m = mult[i]!;
-      if (du + dx * minPace * m >= dist[w]!) continue; // even the fastest pace would not improve w
+      if (du + dx * minPace * m >= dw) continue; // even the fastest pace would not improve w
       const s = tobler ? toblerStepSeconds(dx, F[o + 2]! - zu, maxGrade) : pace.seconds(dx, F[o + 2]! - zu);
       relaxed++;
       const nd = du + (s === 0 ? 0 : s * m);
-      if (nd < dist[w]! && nd <= maxSeconds) {
+      if (nd < dw && nd <= maxSeconds) {
         dist[w] = nd;
         pred[w] = u;
         if (key !== dist) key[w] = nd + h(w);
