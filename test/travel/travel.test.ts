@@ -218,4 +218,18 @@ describe('routes and fields', () => {
     expect(b.ascent).toBeCloseTo(a.ascent, 6);
     expect(travelRoute(turned, stops, { k: 3 }).seconds).not.toBeCloseTo(a.seconds, 1); // with +z up the ground is a wall
   });
+
+  it('face multipliers from a PLY face property: a 1 × 2 strip whose second square is marked 2 (off-path) takes 1 + 2 times as long', () => {
+    // ASCII PLY with a face property after the index list (the PLY format, common practice): two 10 m squares, two triangles each
+    const ply = [
+      'ply', 'format ascii 1.0', 'element vertex 6', 'property double x', 'property double y', 'property double z',
+      'element face 4', 'property list uchar int vertex_indices', 'property float cost', 'end_header',
+      '0 0 0', '10 0 0', '20 0 0', '0 10 0', '10 10 0', '20 10 0',
+      '3 0 1 4 1', '3 0 4 3 1', '3 1 2 5 2', '3 1 5 4 2', '',
+    ].join('\n');
+    const s = openSurface(new TextEncoder().encode(ply), 'strip.ply');
+    // along the bottom edge y = 0: 10 m at ×1, then 10 m at ×2 (boundary edges belong to one face each)
+    const r = travelRoute(s, [v(0), v(2)], { faceMultipliers: 'cost', k: 3 });
+    expect(r.seconds).toBeCloseTo(3 * toblerSeconds(10, 0), 6);
+  });
 });
