@@ -23,8 +23,8 @@
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { Topology } from '../mesh/topology.js';
 import type { SourceSet } from './sources.js';
-import type { SurfacePoint } from '../query/surface-point.js';
-import { checkSurfacePoint } from '../query/surface-point.js';
+import type { SurfacePoint } from '../mesh/surface-point.js';
+import { checkSurfacePoint } from '../mesh/surface-point.js';
 import { next } from '../mesh/topology.js';
 import { usageError } from '../errors.js';
 import { layoutFace, pointSegmentDistance } from '../metric/layout.js';

@@ -32,7 +32,7 @@ import type { IntrinsicMesh } from '../../metric/intrinsic.js';
 import type { Topology } from '../../mesh/topology.js';
 import { next, prev } from '../../mesh/topology.js';
 import { angleOpposite, triangleArea, unfoldedDiagonal } from '../../metric/triangle.js';
-import type { SurfacePoint } from '../../query/surface-point.js';
+import type { SurfacePoint } from '../../mesh/surface-point.js';
 
 /** An input mesh under flips, with a direction per half-edge (see the module comment). */
 export class FlipTriangulation {
