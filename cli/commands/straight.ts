@@ -57,7 +57,7 @@ export function registerStraight(program: Command): void {
     .option('--plan', 'measure --heading on the map instead: clockwise from the reference\'s horizontal direction seen from above (+z), like a compass bearing; the first step is the tangent direction straight above or below it')
     .option('--toward <x,y,z>', 'first step toward this point: the chord from the start projected onto the tangent plane at the start')
     .requiredOption('--length <length>', 'length to walk on the surface, in mesh units')
-    .option('--reference <x,y,z>', 'direction of heading 0, projected onto the tangent plane at the start (default 0,1,0: +y); refused where it is normal to the surface')
+    .option('--reference <x,y,z>', 'direction of heading 0, projected onto the tangent plane at the start (default 0,1,0: +y); refused within 10° of the surface normal there')
     .option('--max-steps <faces>', 'most faces the line may cross (default: 64 + 8 × length / shortest edge, at most 10000000)')
     .option('-o, --output <file>', 'write the line as a curve file: .obj (l polyline), .geojson (LineString with z, mesh coordinates; properties length, requestedLength, stoppedAtBoundary, heading), .csv (curve,level,closed,length,point,x,y,z) or .json ({"units", "curves"}); add .gz to compress')
     .option('--json', 'print the result as JSON')

@@ -12,8 +12,8 @@ export { surfaceOffset, distanceScalarField, type OffsetOptions, type OffsetResu
 export { isolines, chooseLevels, finiteRange, polylineLength, DEFAULT_MAX_LEVELS, type SurfaceCurve, type ScalarField, type LevelOptions } from './isolines.js';
 export { bands, bandLevels, planArea, type Band, type BandPolygon, type BandOptions } from './bands.js';
 export { fieldFromCsv, vertexProperty, toTopologyVertices } from './field-input.js';
-export { parsePolylines, polylineSources } from './polyline-source.js';
+export { parsePolylines, readPolylines, polylineSources, type PolylineFile } from './polyline-source.js';
 export {
-  straightestLine, defaultMaxSteps, DEFAULT_REFERENCE, REFERENCE_TOLERANCE, MAX_DEFAULT_STEPS,
+  straightestLine, defaultMaxSteps, DEFAULT_REFERENCE, REFERENCE_TOLERANCE, REFERENCE_MIN_ANGLE, MAX_DEFAULT_STEPS,
   type StraightestOptions, type StraightestLine, type StraightSurface,
 } from './straightest.js';

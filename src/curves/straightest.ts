@@ -16,8 +16,8 @@
  *   as seen from the side the tangent plane's normal points to (with +y as
  *   north and normals up, 90° is +x, east: a compass bearing). The
  *   reference is the projection of `reference` (default +y) onto the
- *   tangent plane; a reference within {@link REFERENCE_TOLERANCE} of the
- *   normal has no usable projection and is refused (`USAGE`): give another.
+ *   tangent plane; a reference within {@link REFERENCE_MIN_ANGLE}° of the
+ *   normal has no trustworthy projection and is refused (`USAGE`): give another.
  *   With `plan`, the bearing is a map (compass) bearing instead: clockwise
  *   seen from above (+z) from the reference's horizontal direction, and the
  *   first step is the tangent direction straight above or below that
@@ -46,8 +46,21 @@ import { tangentNormal, walkStartOf, unit, projectOut, cross, type Vec3 } from '
 /** The default reference direction of a heading: +y (north on a map grid). */
 export const DEFAULT_REFERENCE: Readonly<Vec3> = [0, 1, 0];
 
-/** A reference whose projection on the tangent plane is shorter than this (times its length) is refused: it is normal to the surface. */
-export const REFERENCE_TOLERANCE = 1e-6;
+/**
+ * Smallest angle, in degrees, between the reference and the tangent plane's
+ * normal: a reference closer to the normal is refused (`USAGE`). Why 10°: a
+ * heading is measured from the reference's projection on the tangent plane,
+ * and tilting the normal by a small δ turns that projection by up to about
+ * δ·cot γ, γ the angle between reference and normal (differentiate the
+ * projection r − (r·n)n). Normals of scanned or faceted surfaces wobble by a
+ * degree or more from one vertex to the next, so near the normal the heading
+ * would be decided by that noise: at γ = 10° the amplification is cot 10° ≈
+ * 5.7 (a 1° wobble moves heading 0 by under 6°); at 1° it would be 57.
+ */
+export const REFERENCE_MIN_ANGLE = 10;
+
+/** A reference whose projection on the tangent plane is shorter than this (times its length, sin {@link REFERENCE_MIN_ANGLE}) is refused: it is (nearly) normal to the surface. */
+export const REFERENCE_TOLERANCE = Math.sin((REFERENCE_MIN_ANGLE * Math.PI) / 180);
 
 /** Upper end of the default step bound (faces crossed). */
 export const MAX_DEFAULT_STEPS = 10_000_000;
@@ -179,7 +192,7 @@ export function straightestLine(surface: StraightSurface, start: SurfacePoint, o
   let d: Vec3;
   if (options.heading !== undefined && !options.plan) {
     if (!ref || !left) {
-      throw usageError(`the reference direction (${refIn.join(', ')}) is normal to the surface at the start (its projection on the tangent plane is below ${REFERENCE_TOLERANCE} of its length); give another reference`, 'reference');
+      throw usageError(`the reference direction (${refIn.join(', ')}) is nearly normal to the surface at the start (${fmtAngle(refIn, n)}° from the normal, at least ${REFERENCE_MIN_ANGLE}° needed: nearer, the heading's zero would be decided by the normal's noise); give another reference`, 'reference');
     }
     const a = (options.heading * Math.PI) / 180, c = Math.cos(a), s = Math.sin(a);
     // clockwise seen from the normal's side: d = cos α · ref − sin α · (n × ref)
@@ -255,4 +268,11 @@ function planBearingOf(d: Vec3, ref: Vec3): number | undefined {
   if (!r || !(dh > REFERENCE_TOLERANCE)) return undefined;
   // the horizontal frame: r and ẑ × r = (−r_y, r_x, 0), 90° counter-clockwise of r seen from +z
   return bearing([d[0], d[1], 0], r, [-r[1], r[0], 0]);
+}
+
+/** Angle in degrees between a direction and a unit normal (either side: 0–90), rounded to 0.1°. */
+function fmtAngle(r: Vec3, n: Vec3): string {
+  const l = Math.hypot(...r);
+  const c = l > 0 ? Math.abs(r[0] * n[0] + r[1] * n[1] + r[2] * n[2]) / l : 1;
+  return (Math.round((Math.acos(Math.min(1, c)) * 1800) / Math.PI) / 10).toString();
 }

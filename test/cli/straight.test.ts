@@ -63,6 +63,7 @@ describe('straight', () => {
       [['--from', 'v:5', '--length', '1'], /exactly one of --heading and --toward/],
       [['--from', 'v:5', '--toward', '1,2', '--length', '1'], /--toward must be three numbers/],
       [['--from', 'v:60', '--heading', '10', '--reference', '0,0,1', '--length', '1'], /--reference.*normal to the surface/],
+      [['--from', 'v:60', '--heading', '10', '--reference', '0.05,0,1', '--length', '1'], /--reference.*nearly normal to the surface at the start \(2.9° from the normal/], // atan 0.05 = 2.86° (elementary)
       [['--from', 'v:5', '--heading', '180', '--length', '1'], /leaves the surface at once/], // v:5 lies on the side y = 0
     ];
     for (const [args, msg] of cases) {

@@ -56,6 +56,25 @@ describe('bad options are USAGE errors', () => {
   });
 });
 
+describe('a reference near the normal is refused (REFERENCE_MIN_ANGLE = 10°)', () => {
+  // the threshold is a choice of this project (heading 0 turns by about δ·cot γ for a normal tilted by δ,
+  // γ the reference's angle from the normal: differentiating r − (r·n)n; common practice to bound it)
+  const { S } = build(flatGrid(4, 4)); // the z = 0 plane, normal +z
+  const p: SurfacePoint = { kind: 'face', face: 9, bary: [0.2, 0.3, 0.5] };
+  const tilt = (deg: number): [number, number, number] => [Math.sin((deg * Math.PI) / 180), 0, Math.cos((deg * Math.PI) / 180)];
+  it('5° from the normal: USAGE, naming the angle', () => {
+    let err: unknown;
+    try { straightestLine(S, p, { length: 0.1, heading: 0, reference: tilt(5) }); } catch (e) { err = e; }
+    expect((err as OrthodromeError).code).toBe('USAGE');
+    expect((err as OrthodromeError).message).toMatch(/5° from the normal, at least 10° needed/);
+  });
+  it('15° from the normal: accepted, heading 0 along the projection +x (elementary: the projection of (sin 15°, 0, cos 15°) on z = 0)', () => {
+    const r = straightestLine(S, p, { length: 0.1, heading: 0, reference: tilt(15) });
+    expect(Math.abs(r.direction[0] - 1)).toBeLessThan(1e-12);
+    expect(Math.abs(r.direction[1])).toBeLessThan(1e-12);
+  });
+});
+
 describe('boundary vertices', () => {
   const { S } = build(flatGrid(4, 4)); // v:12 = (0.5, 0.5), v:24 = (1, 1); cells (2, 2) and (3, 3) have the diagonal along y = x
   it('a line into a corner stops there: length = distance to the corner (elementary), end = that vertex', () => {
