@@ -13,7 +13,7 @@ import { action, fmt, toJson } from '../run.js';
 import { TERRAIN_CAUTION } from '../cautions.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { boundarySources, measureDistances, pointLocator, surfaceIsolines, writeCurves, writeFileAtomic, type Band, type CurvePolygon, type DistanceMethod, type PointResolver, type SourceSet, type Surface } from '../../src/index.js';
-import { parsePolylines, polylineSources, distanceScalarField, fieldFromCsv, vertexProperty, toTopologyVertices, DEFAULT_MAX_LEVELS, type ScalarField, type SurfaceCurve } from '../../src/curves/index.js';
+import { readPolylines, polylineSources, distanceScalarField, fieldFromCsv, vertexProperty, toTopologyVertices, DEFAULT_MAX_LEVELS, type ScalarField, type SurfaceCurve } from '../../src/curves/index.js';
 import { curveFormatOf, CURVE_FORMATS } from '../../src/api/io.js';
 import { usageError } from '../../src/errors.js';
 
@@ -86,7 +86,7 @@ export async function sourceSet(mesh: string, surface: Surface, resolver: PointR
     } catch (e) {
       throw usageError(`cannot read the polyline file (${(e as NodeJS.ErrnoException).code ?? 'error'})`, file);
     }
-    set.curves.push(...(await polylineSources(surface, parsePolylines(text, file, format))));
+    set.curves.push(...(await polylineSources(surface, readPolylines(text, file, format))));
   }
   return set;
 }

@@ -66,7 +66,22 @@ export function closestOnTriangle(
   const denom = va + vb + vc;
   if (!(Math.abs(denom) > 0)) return [1, 0, 0]; // zero-area triangle: its first corner
   const v = vb / denom, w = vc / denom;
-  return [1 - v - w, v, w];
+  return clampRounding(1 - v - w, v, w);
+}
+
+/**
+ * Barycentric coordinates of a point inside its face, as computed: a
+ * coordinate that came out negative by rounding alone (within 8 machine
+ * epsilons, e.g. 1 − v − w = −1.1e−16 for a point on the edge opposite)
+ * becomes 0 and the rest are rescaled to sum to 1. Larger negatives are
+ * left for checkSurfacePoint to refuse.
+ */
+function clampRounding(a: number, b: number, c: number): [number, number, number] {
+  const tol = -8 * Number.EPSILON;
+  if (!(a < 0 || b < 0 || c < 0) || a < tol || b < tol || c < tol) return [a, b, c];
+  a = Math.max(a, 0); b = Math.max(b, 0); c = Math.max(c, 0);
+  const s = a + b + c;
+  return [a / s, b / s, c / s];
 }
 
 /** Finds nearest surface points; build once per mesh, query many times. */
