@@ -65,8 +65,10 @@ describe('factorizations on worker threads', () => {
       const sym = analyzeCholesky(A);
       const par = CholeskyFactor.factorMany(mats, sym, { executor: fresh });
       const ser = CholeskyFactor.factorMany(mats, sym);
-      expect(fresh.counts.takenBack).toBeGreaterThanOrEqual(1);
+      // each job ran exactly once, here or there (usually here: a worker takes far longer to load
+      // than this thread takes for 900 unknowns; no assertion on which, that would be a timing test)
       expect(fresh.counts.takenBack + fresh.counts.remote).toBe(2);
+      expect(fresh.counts.failed).toBe(0);
       for (let k = 0; k < 3; k++) {
         expect(sameBits((par[k] as CholeskyFactor).lowerFactor().values, (ser[k] as CholeskyFactor).lowerFactor().values)).toBe(true);
       }
