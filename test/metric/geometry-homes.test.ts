@@ -65,6 +65,8 @@ describe('cotangents from lengths: closed forms', () => {
   );
 });
 
+// The rule itself is the project's (metric/triangle.ts module comment); that a zero-area element adds
+// nothing to a finite-element assembly is common practice. Areas are Kahan's (the 3-4-5 checks above).
 describe('the one rule for degenerate triangles (metric/triangle.ts module comment)', () => {
   const degenerate: [string, number, number, number][] = [
     ['collinear 1-1-2', 1, 1, 2],
