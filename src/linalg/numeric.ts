@@ -5,9 +5,10 @@
  * symbolic analysis.
  */
 import type { CscMatrix } from './csc.js';
-import type { CholeskySymbolic } from './symbolic.js';
+import { scatterValues, type CholeskySymbolic } from './symbolic.js';
 import { upLookingFactor } from './simplicial.js';
 import { multifrontalFactor, multifrontalWork } from './multifrontal.js';
+import { blocksToCsc } from './supernodes.js';
 import { affectedBlocks, multifrontalPair } from './multifrontal-pair.js';
 import { supernodalLowerSolve, supernodalLowerTransposeSolve } from './solve-supernodal.js';
 import type { MultifrontalWork } from './multifrontal.js';
@@ -240,30 +241,7 @@ export class CholeskyFactor {
    * analysed one.
    */
   private load(Alower: CscMatrix, Cx: Float64Array, minPivot: Float64Array | null): void {
-    const sym = this.symbolic;
-    const { n, inputColPtr, inputRowIdx, valueMap } = sym;
-    if (Alower.n !== n) throw usageError(`refactor: matrix is ${Alower.n}×${Alower.n}, analysis was for ${n}×${n}`);
-    const nz = inputColPtr[n]!;
-    if (Alower.colPtr !== inputColPtr || Alower.rowIdx !== inputRowIdx) {
-      for (let j = 0; j <= n; j++) {
-        if (Alower.colPtr[j] !== inputColPtr[j]) throw usageError(`refactor: pattern differs from the analysed one at column ${j}`);
-      }
-      for (let p = 0; p < nz; p++) {
-        if (Alower.rowIdx[p] !== inputRowIdx[p]) throw usageError(`refactor: pattern differs from the analysed one at entry ${p}`);
-      }
-    }
-    const Ax = Alower.values;
-    for (let p = 0; p < nz; p++) Cx[valueMap[p]!] = Ax[p]!;
-    if (minPivot !== null) {
-      // floor_k = τ·|A_kk| in the permuted numbering (missing diagonal: 0)
-      minPivot.fill(0);
-      const { pinv } = sym;
-      for (let j = 0; j < n; j++) {
-        for (let p = Alower.colPtr[j]!; p < Alower.colPtr[j + 1]!; p++) {
-          if (Alower.rowIdx[p] === j) minPivot[pinv[j]!] = this.pivotTolerance * Math.abs(Ax[p]!);
-        }
-      }
-    }
+    scatterValues(this.symbolic, Alower, Cx, minPivot, this.pivotTolerance);
   }
 
   /** refactor(A), or its `NUMERIC` error as a value. */
@@ -366,25 +344,6 @@ export class CholeskyFactor {
     if (!sym.supernodal) {
       return { n, colPtr: sym.lColPtr.slice(), rowIdx: this.Li.slice(), values: this.Lx.slice() };
     }
-    const { nsuper, superStart, rowPtr, rows, valPtr } = sym.supernodal;
-    const colPtr = new Int32Array(n + 1);
-    const ri: number[] = [];
-    const vx: number[] = [];
-    for (let s = 0; s < nsuper; s++) {
-      const f = superStart[s]!, nc = superStart[s + 1]! - f;
-      const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
-      for (let k = 0; k < nc; k++) {
-        for (let r = k; r < nr; r++) {
-          const o = this.own === null || this.own[s]! < 0 ? valPtr[s]! : this.own[s]!;
-          const Lb = this.own === null || this.own[s]! >= 0 ? this.Lx : this.base!;
-          const v = Lb[r < nc ? o + ((r * (r + 1)) >> 1) + k : o + ((nc * (nc + 1)) >> 1) + (r - nc) * nc + k]!;
-          if (v === 0 && r !== k) continue;
-          ri.push(rows[r0 + r]!);
-          vx.push(v);
-        }
-        colPtr[f + k + 1] = ri.length;
-      }
-    }
-    return { n, colPtr, rowIdx: Int32Array.from(ri), values: Float64Array.from(vx) };
+    return blocksToCsc(sym.supernodal, this.Lx, this.own, this.base);
   }
 }

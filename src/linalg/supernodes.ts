@@ -29,6 +29,7 @@
  * its children's patterns (Struct(L_s) = Struct(C_s) ∪ ⋃ Struct(L_c) \ …).
  */
 import { limitError } from '../errors.js';
+import type { CscMatrix } from './csc.js';
 
 /** Supernode partition, patterns and workspace sizes. */
 export interface SupernodalStructure {
@@ -244,6 +245,37 @@ function valueLayout(superStart: Int32Array, rowPtr: Int32Array, tree: SuperTree
   }
   valPtr[nsuper] = v;
   return { valPtr, stackSize: peak };
+}
+
+/**
+ * L as CSC (rows sorted, diagonal first, explicit zeros of the block storage
+ * dropped) from supernode blocks: block s at valPtr[s] in Lx, or, for a
+ * factor that shares blocks (multifrontal-pair.ts), at own[s] in Lx and at
+ * valPtr[s] in base where own[s] < 0. Allocates; for inspection and tests.
+ */
+export function blocksToCsc(sn: SupernodalStructure, Lx: Float64Array, own: Int32Array | null = null, base: Float64Array | null = null): CscMatrix {
+  const { nsuper, superStart, rowPtr, rows, valPtr } = sn;
+  const n = superStart[nsuper]!;
+  const colPtr = new Int32Array(n + 1);
+  const ri: number[] = [];
+  const vx: number[] = [];
+  for (let s = 0; s < nsuper; s++) {
+    const f = superStart[s]!, nc = superStart[s + 1]! - f;
+    const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
+    const shared = own !== null && own[s]! < 0;
+    const o = own === null || shared ? valPtr[s]! : own[s]!;
+    const Lb = shared ? base! : Lx;
+    for (let k = 0; k < nc; k++) {
+      for (let r = k; r < nr; r++) {
+        const v = Lb[r < nc ? o + ((r * (r + 1)) >> 1) + k : o + ((nc * (nc + 1)) >> 1) + (r - nc) * nc + k]!;
+        if (v === 0 && r !== k) continue;
+        ri.push(rows[r0 + r]!);
+        vx.push(v);
+      }
+      colPtr[f + k + 1] = ri.length;
+    }
+  }
+  return { n, colPtr, rowIdx: Int32Array.from(ri), values: Float64Array.from(vx) };
 }
 
 function growInt(a: Int32Array): Int32Array {

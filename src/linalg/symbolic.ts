@@ -180,6 +180,37 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
   };
 }
 
+/**
+ * Checks that `Alower` has the analysed pattern (`USAGE` naming the first
+ * difference otherwise), scatters its values into C's order (Cx) and, when
+ * `minPivot` is given, sets the pivot floors τ·|A_kk| in the permuted
+ * numbering (missing diagonal: 0).
+ */
+export function scatterValues(sym: CholeskySymbolic, Alower: CscMatrix, Cx: Float64Array, minPivot: Float64Array | null, tau: number): void {
+  const { n, inputColPtr, inputRowIdx, valueMap } = sym;
+  if (Alower.n !== n) throw usageError(`refactor: matrix is ${Alower.n}×${Alower.n}, analysis was for ${n}×${n}`);
+  const nz = inputColPtr[n]!;
+  if (Alower.colPtr !== inputColPtr || Alower.rowIdx !== inputRowIdx) {
+    for (let j = 0; j <= n; j++) {
+      if (Alower.colPtr[j] !== inputColPtr[j]) throw usageError(`refactor: pattern differs from the analysed one at column ${j}`);
+    }
+    for (let p = 0; p < nz; p++) {
+      if (Alower.rowIdx[p] !== inputRowIdx[p]) throw usageError(`refactor: pattern differs from the analysed one at entry ${p}`);
+    }
+  }
+  const Ax = Alower.values;
+  for (let p = 0; p < nz; p++) Cx[valueMap[p]!] = Ax[p]!;
+  if (minPivot !== null) {
+    minPivot.fill(0);
+    const { pinv } = sym;
+    for (let j = 0; j < n; j++) {
+      for (let p = Alower.colPtr[j]!; p < Alower.colPtr[j + 1]!; p++) {
+        if (Alower.rowIdx[p] === j) minPivot[pinv[j]!] = tau * Math.abs(Ax[p]!);
+      }
+    }
+  }
+}
+
 function inversePermutation(perm: Int32Array): Int32Array {
   const pinv = new Int32Array(perm.length);
   for (let k = 0; k < perm.length; k++) pinv[perm[k]!] = k;
