@@ -19,6 +19,7 @@ import { formatInspect } from './inspect.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
 import { demoClimbingMetric } from '../metric-option.js';
 import { demoWalkingTimes } from './travel.js';
+import { demoScore } from '../score/demo.js';
 
 
 function meshDir(): string {
@@ -122,6 +123,7 @@ export function registerDemo(program: Command): void {
         await writeFileAtomic(ctFile, writeCurves('obj', trim.curves, { units: 'mm', comment: 'PX-7 trim line 8 mm inside the flange rim (planning estimate)' }));
         say(`  trim line 8 mm on the surface inside the flange rim: ${trim.curves.map((c) => `${c.closed ? 'closed' : 'open'}, ${fmt(c.length, 6)} mm`).join('; ')} → ${rel(ctFile)}`);
         say(`  exact shortest cut path hole edge → wall top → flange rim: ${fmt(route.length, 6)} mm (legs ${route.legs.map((l) => fmt(l.length, 5)).join(' + ')} mm), ${route.path.points.length} points → ${rel(cpFile)}`);
+        await demoScore(rel(join(dir, 'score-demo')), rel(out), say); // 5. batch scoring of four parts with gates: one fails (exit 1 reported, not passed on)
         say(TERRAIN_CAUTION);
         say(MACHINING_CAUTION);
       }),
