@@ -30,9 +30,9 @@ export { formatSurfacePoint } from './mesh/surface-point.js';
 export { pointLocator, type PointResolver, type Landing } from './api/locate.js';
 
 // distances
-export type { SourceSet } from './geodesic/sources.js';
-export type { DistanceField, DistanceMethod } from './geodesic/field.js';
-export { fieldStats } from './geodesic/field.js';
+export type { SourceSet } from './geodesic/shared/sources.js';
+export type { DistanceField, DistanceMethod } from './geodesic/shared/field.js';
+export { fieldStats } from './geodesic/shared/field.js';
 export type { DistanceSolver, DistanceResult, DistanceOptions, SolveOptions, SolveProgress } from './geodesic/solver.js';
 export type { HeatOptions } from './geodesic/heat.js';
 export {

@@ -11,8 +11,8 @@
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { SurfacePoint } from '../mesh/surface-point.js';
-import { boundaryCurves, type SourceSet } from '../geodesic/sources.js';
-import type { DistanceMethod } from '../geodesic/field.js';
+import { boundaryCurves, type SourceSet } from '../geodesic/shared/sources.js';
+import type { DistanceMethod } from '../geodesic/shared/field.js';
 import { prepareDistance, type DistanceOptions, type DistanceResult, type DistanceSolver, type SolveOptions } from '../geodesic/solver.js';
 import { prepareCoverDistance } from '../geodesic/cover.js';
 import { throughPinches } from '../geodesic/pinch.js';

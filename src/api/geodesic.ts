@@ -6,9 +6,9 @@
  *
  * @packageDocumentation
  */
-export type { DistanceField, DistanceMethod, SurfacePath } from '../geodesic/field.js';
-export { fieldStats } from '../geodesic/field.js';
-export { pointSources, boundaryCurves, type SourceSet } from '../geodesic/sources.js';
+export type { DistanceField, DistanceMethod, SurfacePath } from '../geodesic/shared/field.js';
+export { fieldStats } from '../geodesic/shared/field.js';
+export { pointSources, boundaryCurves, type SourceSet } from '../geodesic/shared/sources.js';
 export { HeatSolver, TIME_SCALE_RANGE, type HeatOptions, type HeatStats, type HeatSolveStats } from '../geodesic/heat.js';
 export { graphDistance, graphValueAt, type GraphOptions } from '../geodesic/graph.js';
 export { orientationCover, prepareCoverDistance, coverPathThrough, type OrientationCover } from '../geodesic/cover.js';

@@ -30,9 +30,6 @@ import { usageError } from '../errors.js';
 import { layoutFace, pointSegmentDistance } from '../metric/layout.js';
 import { pointInLayout, facesOfPoint, commonFaces } from '../metric/face-points.js';
 
-/** Re-exported for existing importers; the home is shared/edge-dijkstra.ts. */
-export { IndexedMinHeap, runEdgeDijkstra } from './shared/edge-dijkstra.js';
-
 /** Options of {@link graphDistance}. */
 export interface GraphOptions {
   /** Stop expanding beyond this distance (mesh units); farther vertices stay Infinity. */

@@ -22,7 +22,7 @@
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { Topology } from '../mesh/topology.js';
-import type { SourceSet } from './sources.js';
+import type { SourceSet } from './shared/sources.js';
 import type { SurfacePoint } from '../mesh/surface-point.js';
 import { checkSurfacePoint } from '../mesh/surface-point.js';
 import { next } from '../mesh/topology.js';

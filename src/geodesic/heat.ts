@@ -44,8 +44,8 @@
  * the whole factor.
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
-import type { DistanceField } from './field.js';
-import type { SourceSet } from './sources.js';
+import type { DistanceField } from './shared/field.js';
+import type { SourceSet } from './shared/sources.js';
 import type { SurfacePoint } from '../mesh/surface-point.js';
 import { analyzeCholesky, CholeskyFactor } from '../linalg/index.js';
 import { meanEdgeLength } from '../metric/intrinsic.js';

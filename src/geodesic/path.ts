@@ -3,7 +3,7 @@
  */
 import type { Topology } from '../mesh/topology.js';
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
-import type { SurfacePath } from './field.js';
+import type { SurfacePath } from './shared/field.js';
 import type { SurfacePoint } from '../mesh/surface-point.js';
 import { surfacePointPosition } from '../mesh/surface-point.js';
 import { commonFaces, chainLength } from '../metric/face-points.js';

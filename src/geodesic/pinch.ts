@@ -16,7 +16,7 @@
  * extra solve per pinch point that the sources reach.
  */
 import type { SurfacePoint } from '../mesh/surface-point.js';
-import type { SourceSet } from './sources.js';
+import type { SourceSet } from './shared/sources.js';
 import { limitError } from '../errors.js';
 import type { DistanceResult, DistanceSolver, SolveOptions } from './solver.js';
 

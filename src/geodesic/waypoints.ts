@@ -10,7 +10,7 @@ import type { SurfacePoint } from '../mesh/surface-point.js';
 import { checkSurfacePoint, formatSurfacePoint } from '../mesh/surface-point.js';
 import { isOrthodromeError, limitError, usageError } from '../errors.js';
 import { checkEdgeLengths } from './solver.js';
-import type { SurfacePath } from './field.js';
+import type { SurfacePath } from './shared/field.js';
 import { exactDistance, type ExactResult } from './exact/index.js';
 import { DEFAULT_MAX_PINCH_SOLVES } from './pinch.js';
 import { prepareExactGeometry } from './exact/geometry.js';

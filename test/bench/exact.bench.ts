@@ -28,7 +28,7 @@ import { intrinsicFromPositions, meanEdgeLength, type IntrinsicMesh } from '../.
 import { exactDistance, type ExactResult } from '../../src/geodesic/exact/index.js';
 import { prepareExactGeometry } from '../../src/geodesic/exact/geometry.js';
 import { EventQueue } from '../../src/geodesic/exact/queue.js';
-import { pointSources } from '../../src/geodesic/sources.js';
+import { pointSources } from '../../src/geodesic/shared/sources.js';
 import { isOrthodromeError } from '../../src/errors.js';
 import { rng, type Shape } from '../fixtures/shapes.js';
 import { jitteredTerrain, bumpySphere, USER_MESHES } from './meshes.js';

@@ -12,7 +12,7 @@ import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { HeatSolver } from '../../src/geodesic/heat.js';
 import { prepareDistance } from '../../src/geodesic/solver.js';
-import { boundaryCurves, type SourceSet } from '../../src/geodesic/sources.js';
+import { boundaryCurves, type SourceSet } from '../../src/geodesic/shared/sources.js';
 import { icosphere, flatGrid, terrain, fanDisc, rng, type Shape } from '../fixtures/shapes.js';
 import { twoHolePlate } from '../fixtures/holed-plates.js';
 import { terrainBlock } from '../fixtures/blocks.js';

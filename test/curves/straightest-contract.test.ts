@@ -8,7 +8,7 @@ import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import { straightestLine, type StraightestOptions } from '../../src/curves/straightest.js';
 import { OrthodromeError } from '../../src/errors.js';
-import type { SurfacePoint } from '../../src/query/surface-point.js';
+import type { SurfacePoint } from '../../src/mesh/surface-point.js';
 import { flatGrid, cylinder, type Shape } from '../fixtures/shapes.js';
 
 function build(s: Shape) {

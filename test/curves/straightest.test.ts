@@ -9,8 +9,8 @@ import { test, fc } from '@fast-check/vitest';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { straightestLine, type StraightestLine } from '../../src/curves/straightest.js';
-import type { SurfacePoint } from '../../src/query/surface-point.js';
-import { surfacePointPosition } from '../../src/query/surface-point.js';
+import type { SurfacePoint } from '../../src/mesh/surface-point.js';
+import { surfacePointPosition } from '../../src/mesh/surface-point.js';
 import { flatGrid, icosphere, cylinder, randomFlat, terrain, rng, type Shape } from '../fixtures/shapes.js';
 
 const TOL = 1e-9;

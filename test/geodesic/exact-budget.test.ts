@@ -22,7 +22,7 @@ import { markPseudoSources } from '../../src/geodesic/exact/pseudo-sources.js';
 import { seedSources } from '../../src/geodesic/exact/seed.js';
 import { runEvents } from '../../src/geodesic/exact/propagate.js';
 import { RunBudget, BLOCK, SAMPLE, WINDOW_BYTES } from '../../src/geodesic/exact/budget.js';
-import { pointSources } from '../../src/geodesic/sources.js';
+import { pointSources } from '../../src/geodesic/shared/sources.js';
 import { isOrthodromeError, type OrthodromeError } from '../../src/errors.js';
 import { flatGrid, terrain } from '../fixtures/shapes.js';
 import type { Shape } from '../fixtures/shapes.js';

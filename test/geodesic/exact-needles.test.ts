@@ -19,7 +19,7 @@ import type { IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { exactDistance } from '../../src/geodesic/exact/index.js';
 import { prepareExactGeometry } from '../../src/geodesic/exact/geometry.js';
 import { graphDistance } from '../../src/geodesic/graph.js';
-import { pointSources } from '../../src/geodesic/sources.js';
+import { pointSources } from '../../src/geodesic/shared/sources.js';
 import { isOrthodromeError } from '../../src/errors.js';
 import { createState } from '../../src/geodesic/exact/state.js';
 import { markPseudoSources } from '../../src/geodesic/exact/pseudo-sources.js';

@@ -16,7 +16,7 @@ import { seedSources } from '../../src/geodesic/exact/seed.js';
 import { runEvents } from '../../src/geodesic/exact/propagate.js';
 import type { ExactState } from '../../src/geodesic/exact/state.js';
 import { evaluateInFace } from '../../src/geodesic/exact/evaluate.js';
-import type { SourceSet } from '../../src/geodesic/sources.js';
+import type { SourceSet } from '../../src/geodesic/shared/sources.js';
 import { icosphere, terrain, rng } from '../fixtures/shapes.js';
 import type { Shape } from '../fixtures/shapes.js';
 

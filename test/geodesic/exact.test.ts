@@ -14,10 +14,10 @@ import { intrinsicFromPositions, intrinsicFromLengths } from '../../src/metric/i
 import type { IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { exactDistance } from '../../src/geodesic/exact/index.js';
 import { graphDistance } from '../../src/geodesic/graph.js';
-import { pointSources } from '../../src/geodesic/sources.js';
+import { pointSources } from '../../src/geodesic/shared/sources.js';
 import { isSurfacePath, pathLength, pathPolyline } from '../../src/geodesic/path.js';
-import { surfacePointPosition } from '../../src/query/surface-point.js';
-import type { SurfacePoint } from '../../src/query/surface-point.js';
+import { surfacePointPosition } from '../../src/mesh/surface-point.js';
+import type { SurfacePoint } from '../../src/mesh/surface-point.js';
 import { isOrthodromeError } from '../../src/errors.js';
 import { flatGrid, icosphere, terrain, transform, rng, randomFlat } from '../fixtures/shapes.js';
 import type { Shape } from '../fixtures/shapes.js';

@@ -18,7 +18,7 @@ import { flipGeodesicPath } from '../../src/geodesic/flip/index.js';
 import { chordExcess } from '../../src/geodesic/flip/verify.js';
 import { shortestPathThrough } from '../../src/geodesic/waypoints.js';
 import { pathLength, isSurfacePath } from '../../src/geodesic/path.js';
-import type { SurfacePoint } from '../../src/query/surface-point.js';
+import type { SurfacePoint } from '../../src/mesh/surface-point.js';
 import { flatGrid } from '../fixtures/shapes.js';
 
 const V = (vertex: number): SurfacePoint => ({ kind: 'vertex', vertex });

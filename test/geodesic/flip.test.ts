@@ -15,10 +15,10 @@ import { shortestEdgePath } from '../../src/geodesic/flip/start-path.js';
 import { tracePath } from '../../src/geodesic/flip/trace.js';
 import { shortenPath, BEND_TOLERANCE } from '../../src/geodesic/flip/flipout.js';
 import { graphDistance } from '../../src/geodesic/graph.js';
-import { pointSources } from '../../src/geodesic/sources.js';
+import { pointSources } from '../../src/geodesic/shared/sources.js';
 import { shortestPathThrough, AUTO_FLIP_FACES } from '../../src/geodesic/waypoints.js';
 import { pathLength, isSurfacePath, pathPolyline } from '../../src/geodesic/path.js';
-import type { SurfacePoint } from '../../src/query/surface-point.js';
+import type { SurfacePoint } from '../../src/mesh/surface-point.js';
 import { flatGrid, icosphere, rng, type Shape } from '../fixtures/shapes.js';
 import { runCli } from '../cli/run-cli.js';
 

@@ -1,8 +1,9 @@
 import { describe, it, expect } from 'vitest';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
-import { graphDistance, IndexedMinHeap } from '../../src/geodesic/graph.js';
-import { pointSources, boundaryCurves } from '../../src/geodesic/sources.js';
+import { graphDistance } from '../../src/geodesic/graph.js';
+import { IndexedMinHeap } from '../../src/geodesic/shared/edge-dijkstra.js';
+import { pointSources, boundaryCurves } from '../../src/geodesic/shared/sources.js';
 import { flatGrid, icosphere, rng } from '../fixtures/shapes.js';
 
 function meshOf(s: { positions: Float64Array; triangles: Uint32Array }) {

@@ -3,7 +3,7 @@ import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, meanEdgeLength, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { HeatSolver } from '../../src/geodesic/heat.js';
 import { isOrthodromeError } from '../../src/errors.js';
-import type { SourceSet } from '../../src/geodesic/sources.js';
+import type { SourceSet } from '../../src/geodesic/shared/sources.js';
 import { flatGrid, icosphere, terrain, transform, rng, type Shape } from '../fixtures/shapes.js';
 
 function meshOf(s: Shape, nv = s.positions.length / 3): IntrinsicMesh {

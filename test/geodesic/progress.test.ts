@@ -10,7 +10,7 @@ import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import { exactDistance } from '../../src/geodesic/exact/index.js';
 import { prepareDistance, type SolveProgress } from '../../src/geodesic/solver.js';
-import { pointSources } from '../../src/geodesic/sources.js';
+import { pointSources } from '../../src/geodesic/shared/sources.js';
 import { flatGrid } from '../fixtures/shapes.js';
 import { fractalHeightfield } from '../bench/meshes.js';
 

@@ -22,11 +22,11 @@ import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import type { IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { forEachOutgoing, next } from '../../src/mesh/topology.js';
 import { prepareDistance } from '../../src/geodesic/solver.js';
-import type { DistanceMethod } from '../../src/geodesic/field.js';
+import type { DistanceMethod } from '../../src/geodesic/shared/field.js';
 import { exactDistance } from '../../src/geodesic/exact/index.js';
-import { pointSources, type SourceSet } from '../../src/geodesic/sources.js';
+import { pointSources, type SourceSet } from '../../src/geodesic/shared/sources.js';
 import { PointResolver } from '../../src/query/resolve.js';
-import type { SurfacePoint } from '../../src/query/surface-point.js';
+import type { SurfacePoint } from '../../src/mesh/surface-point.js';
 import { flatGrid, terrain, rng, randomFlat } from '../fixtures/shapes.js';
 import type { Shape } from '../fixtures/shapes.js';
 

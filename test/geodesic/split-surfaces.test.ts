@@ -25,11 +25,11 @@ import { PointResolver } from '../../src/query/resolve.js';
 import { prepareDistance } from '../../src/geodesic/solver.js';
 import { coverPathThrough, orientationCover, prepareCoverDistance } from '../../src/geodesic/cover.js';
 import { pathPolyline } from '../../src/geodesic/path.js';
-import { surfacePointPosition, type SurfacePoint } from '../../src/query/surface-point.js';
-import { pointSources } from '../../src/geodesic/sources.js';
+import { surfacePointPosition, type SurfacePoint } from '../../src/mesh/surface-point.js';
+import { pointSources } from '../../src/geodesic/shared/sources.js';
 import { shortestPathThrough } from '../../src/geodesic/waypoints.js';
 import { throughPinches } from '../../src/geodesic/pinch.js';
-import type { DistanceMethod } from '../../src/geodesic/field.js';
+import type { DistanceMethod } from '../../src/geodesic/shared/field.js';
 
 describe('split vertices: a source on a split vertex seeds every copy', () => {
   it('bow-tie: a path through the shared vertex uses both copies (length: two unit edges, closed form)', () => {

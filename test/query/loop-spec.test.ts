@@ -17,7 +17,7 @@ import { describe, expect, it } from 'vitest';
 import { meshFromTriangles } from '../../src/io/mesh-data.js';
 import { surfaceFromMeshData } from '../../src/mesh/surface.js';
 import { isOrthodromeError } from '../../src/errors.js';
-import { boundaryCurves } from '../../src/geodesic/sources.js';
+import { boundaryCurves } from '../../src/geodesic/shared/sources.js';
 import { measureDistances, boundarySources } from '../../src/api/distance.js';
 import { isLoopSpec, parseLoopSpec, resolveLoopSpec, loopCurves } from '../../src/query/loop-spec.js';
 import { namedBoundaryLoops } from '../../src/mesh/boundary.js';

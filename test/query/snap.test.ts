@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { SurfaceLocator, closestOnTriangle } from '../../src/query/snap.js';
 import { PointResolver } from '../../src/query/resolve.js';
-import { parsePointSpec, formatSurfacePoint, surfacePointPosition } from '../../src/query/surface-point.js';
+import { parsePointSpec, formatSurfacePoint, surfacePointPosition } from '../../src/mesh/surface-point.js';
 import { buildTopology } from '../../src/mesh/build.js';
 import { flatGrid, icosphere, rng } from '../fixtures/shapes.js';
 

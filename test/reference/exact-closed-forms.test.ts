@@ -7,9 +7,9 @@ import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import type { IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { exactDistance } from '../../src/geodesic/exact/index.js';
-import { pointSources } from '../../src/geodesic/sources.js';
-import { surfacePointPosition } from '../../src/query/surface-point.js';
-import type { SurfacePoint } from '../../src/query/surface-point.js';
+import { pointSources } from '../../src/geodesic/shared/sources.js';
+import { surfacePointPosition } from '../../src/mesh/surface-point.js';
+import type { SurfacePoint } from '../../src/mesh/surface-point.js';
 import { flatGrid, cylinder, rng } from '../fixtures/shapes.js';
 import { subdivide, type V3 } from '../fixtures/subdivide.js';
 

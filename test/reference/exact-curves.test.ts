@@ -10,10 +10,10 @@ import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import type { IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { exactDistance } from '../../src/geodesic/exact/index.js';
-import { boundaryCurves } from '../../src/geodesic/sources.js';
+import { boundaryCurves } from '../../src/geodesic/shared/sources.js';
 import { isSurfacePath } from '../../src/geodesic/path.js';
-import { surfacePointPosition } from '../../src/query/surface-point.js';
-import type { SurfacePoint } from '../../src/query/surface-point.js';
+import { surfacePointPosition } from '../../src/mesh/surface-point.js';
+import type { SurfacePoint } from '../../src/mesh/surface-point.js';
 import { flatGrid, cylinder, rng } from '../fixtures/shapes.js';
 import type { Shape } from '../fixtures/shapes.js';
 

@@ -9,7 +9,7 @@ import { Geodesic } from 'geographiclib-geodesic';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import { exactDistance } from '../../src/geodesic/exact/index.js';
-import { pointSources } from '../../src/geodesic/sources.js';
+import { pointSources } from '../../src/geodesic/shared/sources.js';
 import { icosphere, spheroid } from '../fixtures/shapes.js';
 
 const DEG = 180 / Math.PI;

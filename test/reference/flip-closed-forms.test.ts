@@ -14,13 +14,13 @@ import { describe, it, expect } from 'vitest';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { exactDistance } from '../../src/geodesic/exact/index.js';
-import { pointSources } from '../../src/geodesic/sources.js';
+import { pointSources } from '../../src/geodesic/shared/sources.js';
 import { flipGeodesicPath } from '../../src/geodesic/flip/index.js';
 import { pathLength, isSurfacePath } from '../../src/geodesic/path.js';
 import { shortestPathThrough } from '../../src/geodesic/waypoints.js';
 import { flatGrid, cylinder, rng } from '../fixtures/shapes.js';
 import { delaunay } from '../fixtures/holed-plates.js';
-import { canonicalSurfacePoint, surfacePointPosition, type SurfacePoint } from '../../src/query/surface-point.js';
+import { canonicalSurfacePoint, surfacePointPosition, type SurfacePoint } from '../../src/mesh/surface-point.js';
 import { subdivide, type V3 } from '../fixtures/subdivide.js';
 
 const TOL = 1e-9;

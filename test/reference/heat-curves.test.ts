@@ -3,7 +3,7 @@ import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import { HeatSolver } from '../../src/geodesic/heat.js';
 import { next } from '../../src/mesh/topology.js';
-import type { SurfacePoint } from '../../src/query/surface-point.js';
+import type { SurfacePoint } from '../../src/mesh/surface-point.js';
 import { flatGrid } from '../fixtures/shapes.js';
 
 describe('heat method from curves through face interiors', () => {

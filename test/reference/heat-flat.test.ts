@@ -2,8 +2,8 @@ import { describe, it, expect } from 'vitest';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { HeatSolver, type HeatOptions } from '../../src/geodesic/heat.js';
-import { boundaryCurves, type SourceSet } from '../../src/geodesic/sources.js';
-import { surfacePointPosition } from '../../src/query/surface-point.js';
+import { boundaryCurves, type SourceSet } from '../../src/geodesic/shared/sources.js';
+import { surfacePointPosition } from '../../src/mesh/surface-point.js';
 import { flatGrid, cylinder, type Shape } from '../fixtures/shapes.js';
 
 function meshOf(s: Shape): IntrinsicMesh {

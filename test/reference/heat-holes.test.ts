@@ -2,7 +2,7 @@ import { describe, it, expect } from 'vitest';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions } from '../../src/metric/intrinsic.js';
 import { HeatSolver, type HeatOptions } from '../../src/geodesic/heat.js';
-import { boundaryCurves } from '../../src/geodesic/sources.js';
+import { boundaryCurves } from '../../src/geodesic/shared/sources.js';
 import { annulus, twoHolePlate, type HoledPlate } from '../fixtures/holed-plates.js';
 
 /**
