@@ -2,7 +2,10 @@
  * The results file of a `score` run as an append-only log, and its plan.
  *
  * While the run goes, each mesh's record is appended whole and flushed to
- * disk (write, then fsync) before the next: a run killed at any moment, even
+ * disk (write, then fsync) before the next is written; the writes go one
+ * after another on libuv's thread pool, so the main thread hands the
+ * workers their next meshes while a record is being flushed (`close` waits
+ * for the last). A run killed at any moment, even
  * by SIGKILL, leaves every finished mesh on disk and at most one torn last
  * record, which `--resume` recognises (no line end), cuts off and scores
  * again. (The project's temp-file-and-rename rule is for whole-file outputs;
@@ -16,7 +19,7 @@
  * a hash of the whole input list: `score merge` reads it to prove that no
  * mesh is missing or duplicated.
  */
-import { closeSync, existsSync, fsyncSync, ftruncateSync, openSync, readFileSync, writeSync } from 'node:fs';
+import { closeSync, existsSync, fsync, fsyncSync, ftruncateSync, openSync, readFileSync, write, writeSync } from 'node:fs';
 import { createHash } from 'node:crypto';
 import { writeFileAtomic } from '../../src/index.js';
 import { readResults, csvHeader, sortRows, encodeRow, type ReadRow, type ResultFormat, type ScoreRow } from '../../src/score/index.js';
@@ -118,11 +121,44 @@ export class ResultLog {
     fsyncSync(this.fd);
   }
 
-  /** Appends one mesh's record and flushes it to disk. */
+  /** The queued appends: each starts when the one before has been written and flushed. */
+  private pending: Promise<void> = Promise.resolve();
+  /** The first failed append (reported by `close`; later records are not written). */
+  private failure: Error | null = null;
+
+  /** Writes `b` at `pos` and flushes it, off the main thread. */
+  private appendAsync(b: Buffer, pos: number): Promise<void> {
+    return new Promise<void>((resolve, reject) => {
+      const step = (off: number): void => {
+        if (off >= b.length) {
+          fsync(this.fd, (e) => (e ? reject(e) : resolve()));
+          return;
+        }
+        write(this.fd, b, off, b.length - off, pos + off, (e, n) => (e ? reject(e) : step(off + n)));
+      };
+      step(0);
+    });
+  }
+
+  /**
+   * Appends one mesh's record and flushes it to disk: queued behind the
+   * records before it (see the module comment), so this returns at once.
+   */
   write(row: ScoreRow): void {
     const raw = encodeRow(row, this.plan.columns, this.format);
-    this.append(raw);
+    const b = Buffer.from(raw, 'utf8');
+    const pos = this.size;
+    this.size += b.length;
+    this.pending = this.pending.then(() => (this.failure ? undefined : this.appendAsync(b, pos))).catch((e: Error) => {
+      this.failure ??= e;
+    });
     this.fresh.set(row.file, { file: row.file, raw });
+  }
+
+  /** Waits until every record written so far is on disk; throws the first write error. */
+  async flush(): Promise<void> {
+    await this.pending;
+    if (this.failure) throw this.failure; // as the synchronous write would have thrown it
   }
 
   /** Records for the final file: the kept and the fresh ones, one per planned file (fresh wins). */
@@ -137,7 +173,11 @@ export class ResultLog {
 
   /** Closes the log; when `complete`, rewrites the file sorted and whole (atomically). */
   async close(complete: boolean): Promise<void> {
-    closeSync(this.fd);
+    try {
+      await this.flush();
+    } finally {
+      closeSync(this.fd);
+    }
     if (complete) await writeFileAtomic(this.out, resultsText(this.plan.columns, this.format, this.records()));
   }
 }

@@ -5,9 +5,11 @@
  * data (the message, and whether a limit was reached), so one mesh's failure
  * is one error row and the worker goes on to the next.
  */
-import { loadSurface, scoreSurface, isOrthodromeError } from '../../src/index.js';
-import { estimateScoreBytes, type MetricGroup, type LandmarkSpec, type Metrics, type LandmarkResult } from '../../src/score/index.js';
-import { formatBytes } from '../../src/errors.js';
+// the narrow subpaths (orthodrome/node, /score, /errors), not the root: a worker thread loads only what scoring needs
+// (the solvers come on first use, score-mesh.ts), which is start-up paid once per thread
+import { loadSurface } from '../../src/api/node.js';
+import { scoreSurface, estimateScoreBytes, type MetricGroup, type LandmarkSpec, type Metrics, type LandmarkResult } from '../../src/score/index.js';
+import { formatBytes, isOrthodromeError } from '../../src/errors.js';
 
 /** One mesh to score. */
 export interface ScoreTask {

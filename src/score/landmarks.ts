@@ -16,8 +16,6 @@
  */
 import { usageError } from '../errors.js';
 import type { Surface } from '../mesh/surface.js';
-import { pointLocator } from '../api/locate.js';
-import { prepareDistances } from '../api/distance.js';
 import type { DistanceSolver } from '../geodesic/solver.js';
 
 /** One landmark pair as given. */
@@ -87,8 +85,9 @@ export function formatLandmarks(specs: LandmarkSpec[]): string {
  */
 export async function measureLandmarks(s: Surface, specs: LandmarkSpec[], exact?: DistanceSolver, memoryBudget?: number): Promise<LandmarkResult[]> {
   if (specs.length === 0) return [];
-  const loc = await pointLocator(s);
-  const solver = exact ?? prepareDistances(s, 'exact', memoryBudget !== undefined ? { memoryBudget } : {});
+  // loaded on first use: a score run without landmark pairs never loads the point locator or the solvers
+  const loc = await (await import('../api/locate.js')).pointLocator(s);
+  const solver = exact ?? (await import('../api/distance.js')).prepareDistances(s, 'exact', memoryBudget !== undefined ? { memoryBudget } : {});
   const points = specs.map((l) => ({ from: loc.resolve(l.from, `landmark ${l.name} (from)`), to: loc.resolve(l.to, `landmark ${l.name} (to)`) }));
   const byFrom = new Map<string, number[]>();
   for (let i = 0; i < specs.length; i++) {

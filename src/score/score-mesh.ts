@@ -5,12 +5,13 @@
  * The health group is the `inspect` report (report/inspect.ts) flattened;
  * quality is quality.ts; curvature is the `curvature` summary
  * (report/curvature.ts); landmarks, diameter and the heat error share one
- * exact solver per mesh (window propagation, prepared once).
+ * exact solver per mesh (window propagation, prepared once). The solvers
+ * are imported on first use, so a run of the linear groups (or landmarks
+ * without pairs) never loads them: less start-up for each worker thread.
  */
 import type { Surface } from '../mesh/surface.js';
 import { inspectSurface } from '../report/inspect.js';
 import { curvatureSummary } from '../report/curvature.js';
-import { prepareDistances } from '../api/distance.js';
 import { intrinsicOf } from '../api/parts.js';
 import type { DistanceSolver } from '../geodesic/solver.js';
 import { metricsOf, type MetricGroup, type Metrics } from './catalog.js';
@@ -50,7 +51,8 @@ export async function scoreSurface(s: Surface, opts: ScoreOptions): Promise<Surf
   const out: Metrics = {};
   const budget = opts.memoryBudget !== undefined ? { memoryBudget: opts.memoryBudget } : {};
   let exact: DistanceSolver | undefined;
-  const exactSolver = (): DistanceSolver => (exact ??= prepareDistances(s, 'exact', budget));
+  const solvers = () => import('../api/distance.js');
+  const exactSolver = async (): Promise<DistanceSolver> => (exact ??= (await solvers()).prepareDistances(s, 'exact', budget));
 
   if (g.has('health')) {
     const r = inspectSurface(s);
@@ -90,13 +92,13 @@ export async function scoreSurface(s: Surface, opts: ScoreOptions): Promise<Surf
   let landmarks: LandmarkResult[] = [];
   if (g.has('landmarks')) {
     const specs = opts.landmarks ?? [];
-    landmarks = specs.length ? await measureLandmarks(s, specs, exactSolver()) : [];
+    landmarks = specs.length ? await measureLandmarks(s, specs, await exactSolver()) : [];
     const x = landmarkExtremes(landmarks);
     Object.assign(out, { landmarkCount: specs.length, landmarkMaxAbsDeviation: finite(x.maxAbs), landmarkMaxRelDeviation: finite(x.maxRel) });
   }
   const main = g.has('diameter') || g.has('heat') ? mainComponentVertices(s.topology, s.report.orientationSeams) : new Int32Array(0);
   if (g.has('diameter')) {
-    const d = main.length ? twoSweepDiameter(exactSolver(), main) : null;
+    const d = main.length ? twoSweepDiameter(await exactSolver(), main) : null;
     const file = (v: number) => s.topology.vertexOrigin[v]!;
     Object.assign(out, {
       diameterLowerBound: d ? finite(d.lowerBound) : null, diameterFrom: d ? file(d.from) : null, diameterTo: d ? file(d.to) : null,
@@ -104,7 +106,7 @@ export async function scoreSurface(s: Surface, opts: ScoreOptions): Promise<Surf
   }
   if (g.has('heat')) {
     const sources = sampleVertices(main, opts.heatSamples ?? DEFAULT_HEAT_SAMPLES);
-    const e = sources.length ? heatError(prepareDistances(s, 'heat', budget), exactSolver(), sources) : null;
+    const e = sources.length ? heatError((await solvers()).prepareDistances(s, 'heat', budget), await exactSolver(), sources) : null;
     Object.assign(out, { heatSamples: e ? e.samples : 0, heatErrorMax: e ? finite(e.max) : null, heatErrorMean: e ? finite(e.mean) : null });
   }
   // every metric of the groups is present, in catalogue order
