@@ -24,7 +24,25 @@ import { limitError } from '../src/errors.js';
 import { surfaceIntrinsic, type IntrinsicMesh } from '../src/api/metric.js';
 import type { Topology } from '../src/api/mesh.js';
 import { prepareExactGeometry, type ExactGeometry } from '../src/api/geodesic.js';
+import { NodeFactorExecutor } from '../src/api/node.js';
 import type { ProgressLine } from './progress.js';
+
+let factorExecutor: NodeFactorExecutor | null = null;
+
+/**
+ * The process's one executor for the heat method's factorizations (worker
+ * threads from FACTOR_THREADS_MIN_SIZE unknowns; bit-identical results).
+ * Test-only: ORTHODROME_TEST_FACTOR_MIN_SIZE=N lowers that threshold to N and
+ * turns off taking jobs back, so a small test mesh is factored on a thread.
+ */
+export function factorThreads(): NodeFactorExecutor {
+  if (!factorExecutor) {
+    const test = process.env.ORTHODROME_TEST_FACTOR_MIN_SIZE;
+    const n = test ? Number(test) : NaN;
+    factorExecutor = Number.isInteger(n) && n >= 0 ? new NodeFactorExecutor({ minSize: n, steal: false }) : new NodeFactorExecutor();
+  }
+  return factorExecutor;
+}
 
 /** Everything needed to prepare the same solver in any thread. */
 export interface SolverSpec {
@@ -169,6 +187,7 @@ export async function solveSets(
   delete opts.mesh;
   delete opts.exactGeometry;
   delete opts.progress; // a function cannot cross to a worker; the line counts finished sets instead
+  if (opts.heat?.factorExecutor) opts.heat = { ...opts.heat, factorExecutor: null }; // nor can an executor: each worker factors on its own thread
   if (opts.memoryBudget !== undefined) opts.memoryBudget = Math.floor(opts.memoryBudget / n);
   let geometry: WorkerInit['geometry'] = null;
   if (spec.method === 'exact' && seams.length === 0) {

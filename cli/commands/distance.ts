@@ -14,7 +14,7 @@ import {
 } from '../../src/index.js';
 import { TIME_SCALE_RANGE } from '../../src/api/geodesic.js';
 import { usageError } from '../../src/errors.js';
-import { solveSets, type SolvedSets } from '../jobs.js';
+import { factorThreads, solveSets, type SolvedSets } from '../jobs.js';
 import { ProgressLine } from '../progress.js';
 import { metricOption, metricToleranceOption, metricJson, metricLines } from '../metric-option.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
@@ -178,7 +178,8 @@ function solverOptions(o: DistanceCliOptions, run: RunOptions): DistanceOptions 
   const opts: DistanceOptions = { memoryBudget: run.memoryBudget };
   if (run.maxDistance !== undefined) opts.maxDistance = run.maxDistance;
   if (o.method === 'heat') {
-    opts.heat = { intrinsicDelaunay: o.intrinsicDelaunay, mollify: o.mollify, refine: o.refine };
+    // factorizations on worker threads from FACTOR_THREADS_MIN_SIZE unknowns (jobs.ts drops it for --jobs workers)
+    opts.heat = { intrinsicDelaunay: o.intrinsicDelaunay, mollify: o.mollify, refine: o.refine, factorExecutor: factorThreads() };
     if (run.timeScale !== undefined) opts.heat.timeScale = run.timeScale;
     if (o.heatBoundary) opts.heat.boundary = o.heatBoundary;
   }
@@ -199,7 +200,10 @@ async function solveAll(
     opts.progress = (p) => line.update(p.stage === 'prepare' ? { label: `${o.method}: preparing`, share: undefined } : { label: `${o.method} distance`, share: p.share });
   }
   try {
-    return await solveSets({ surface, method: o.method, opts }, sets, { targets, fieldNeeded }, targets.flatMap((p) => resolver.copies(p)), run.jobs, line);
+    const solved = await solveSets({ surface, method: o.method, opts }, sets, { targets, fieldNeeded }, targets.flatMap((p) => resolver.copies(p)), run.jobs, line);
+    // heat: how many factorizations ran on another thread (JSON `prepare.factorThreadJobs`)
+    if (opts.heat?.factorExecutor) solved.prepareDetails = { ...solved.prepareDetails, factorThreadJobs: factorThreads().counts.remote };
+    return solved;
   } finally {
     line.done();
   }

@@ -12,6 +12,7 @@ import { checkOutput } from '../output.js';
 import { action, fmt, toJson } from '../run.js';
 import { TERRAIN_CAUTION } from '../cautions.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
+import { factorThreads } from '../jobs.js';
 import { boundarySources, measureDistances, pointLocator, surfaceIsolines, writeCurves, writeFileAtomic, type Band, type CurvePolygon, type DistanceMethod, type PointResolver, type SourceSet, type Surface } from '../../src/index.js';
 import { readPolylines, polylineSources, distanceScalarField, fieldFromCsv, vertexProperty, toTopologyVertices, DEFAULT_MAX_LEVELS, type ScalarField, type SurfaceCurve } from '../../src/curves/index.js';
 import { curveFormatOf, CURVE_FORMATS } from '../../src/api/io.js';
@@ -157,7 +158,7 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
     field = { values: toTopologyVertices(surface.topology, await readField(o.field, surface)) };
   } else {
     resolver = await pointLocator(surface);
-    const m = measureDistances(surface, await sourceSet(mesh, surface, resolver, o), { method: o.method, memoryBudget });
+    const m = measureDistances(surface, await sourceSet(mesh, surface, resolver, o), { method: o.method, memoryBudget, ...(o.method === 'heat' ? { heat: { factorExecutor: factorThreads() } } : {}) });
     field = distanceScalarField(m);
     solveMs = m.solveMs;
     prepareMs = m.prepareMs;

@@ -9,6 +9,7 @@ import { metricOption, metricToleranceOption, metricJson, metricLines } from '..
 import { action, fmt, toJson } from '../run.js';
 import { MACHINING_CAUTION, TERRAIN_CAUTION } from '../cautions.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
+import { factorThreads } from '../jobs.js';
 import { pointLocator, surfaceOffset } from '../../src/index.js';
 import { usageError } from '../../src/errors.js';
 import {
@@ -57,7 +58,7 @@ async function runOffset(mesh: string, o: OffsetCliOptions): Promise<number> {
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
   const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance });
   const resolver = await pointLocator(surface);
-  const r = surfaceOffset(surface, await sourceSet(mesh, surface, resolver, o), D, { method: o.method, memoryBudget });
+  const r = surfaceOffset(surface, await sourceSet(mesh, surface, resolver, o), D, { method: o.method, memoryBudget, ...(o.method === 'heat' ? { heat: { factorExecutor: factorThreads() } } : {}) });
   if (o.output) await writeCurveFile(o.output, r.curves, [], metric?.metric);
   const round = (x: number) => Math.round(x * 100) / 100;
   const timings = { load: loadMs, prepare: round(r.timings.prepare), solve: round(r.timings.solve), curves: round(r.timings.curves) };
