@@ -72,8 +72,6 @@ export class SourcePoisson {
   private readonly blocked: Uint8Array;
   private readonly rhs: Float64Array;
   private readonly gb: Float64Array;
-  /** Time of the last factorization, ms (0 when the cached one was reused). */
-  lastFactorMs = 0;
 
   constructor(
     private readonly p: EdgePattern, private readonly sym: CholeskySymbolic, private readonly Lv: Float64Array,
@@ -86,11 +84,12 @@ export class SourcePoisson {
 
   /**
    * φ with φ_v = g_v where fixed[v] and L φ = b on the other active rows.
-   * Throws `NUMERIC` when L_FF cannot be factored.
+   * Throws `NUMERIC` when L_FF cannot be factored. Returns the time this call
+   * spent factoring, ms (0 when the cached factor was reused).
    */
-  solve(fixed: Uint8Array, g: Float64Array, b: Float64Array, phi: Float64Array): void {
+  solve(fixed: Uint8Array, g: Float64Array, b: Float64Array, phi: Float64Array): number {
     const { p, blocked, rhs, inactive, comp } = this;
-    this.lastFactorMs = 0;
+    let factorMs = 0;
     if (!this.factor || !sameMask(this.key!, fixed)) {
       const t0 = performance.now();
       this.factor = null;
@@ -107,13 +106,14 @@ export class SourcePoisson {
       constrainRows(p, P, blocked);
       this.factor = CholeskyFactor.factor(patternMatrix(p, P), this.sym);
       this.key = fixed.slice();
-      this.lastFactorMs = performance.now() - t0;
+      factorMs = performance.now() - t0;
     }
     rhs.set(b);
     const gb = this.gb.fill(0);
     for (let v = 0; v < p.n; v++) if (fixed[v] && !inactive[v]) gb[v] = g[v]!;
     liftDirichlet(p, this.Lv, 1, blocked, gb, rhs);
     this.factor.solve(rhs, phi);
+    return factorMs;
   }
 }
 

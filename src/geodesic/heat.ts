@@ -19,7 +19,7 @@
  * from the source then keep their relative accuracy down to the double range
  * (~e^-708), which on a mesh means about 600 edge rings from the source at
  * m = 1 (the heat decays like e^(−r/√t)); beyond that the heat underflows,
- * ∇u = 0 and those faces are counted in `lastSolve.flatFaces`.
+ * ∇u = 0 and those faces are counted in `flatFaces` of the stats `solve` returns.
  *
  * Boundaries: 'neumann', 'dirichlet' or 'average' (default, the paper's
  * recommendation: the mean of the two); the Dirichlet data are 0 except at
@@ -90,11 +90,6 @@ export class HeatSolver {
   readonly triangulation: IntrinsicMesh;
   /** Preparation figures. */
   readonly stats: HeatStats;
-  /**
-   * Figures of the last distance() call.
-   * @deprecated Use {@link HeatSolver.solve}, which returns the figures of that very call.
-   */
-  lastSolve: HeatSolveStats = { solveMs: 0, flatFaces: 0, relayStages: 0, sourceFactorMs: 0 };
 
   private readonly parts: HeatParts;
   private readonly relay: RelayWork;
@@ -241,7 +236,6 @@ export class HeatSolver {
       if (part !== phi) for (let v = 0; v < nv; v++) if (part[v]! < phi[v]!) phi[v] = part[v]!;
     }
     stats.solveMs = performance.now() - t0;
-    this.lastSolve = stats;
     const nIn = this.mesh.topology.nv;
     return { field: { method: 'heat', distance: phi.length === nIn ? phi : phi.slice(0, nIn), sources: [...sources.points, ...sources.curves.flat()] }, stats };
   }
@@ -270,13 +264,12 @@ export class HeatSolver {
       sourceDirichlet(this.mesh, sources, this.fixed, this.gD);
       const sp = this.parts.sourcePoisson;
       try {
-        sp.solve(this.fixed, this.gD, b, phi);
+        stats.sourceFactorMs += sp.solve(this.fixed, this.gD, b, phi);
         held = true;
       } catch (e) {
         // L_FF singular (free vertices joined to the sources only through faces without area): shift instead
         if (!isOrthodromeError(e) || e.code !== 'NUMERIC') throw e;
       }
-      stats.sourceFactorMs += sp.lastFactorMs;
     }
     if (held) {
       for (const p of sources.points) seen(p, 0);

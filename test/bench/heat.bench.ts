@@ -53,15 +53,15 @@ async function runCase(name: string, make: () => Shape, opts: HeatOptions): Prom
   const st = solver.stats;
   // typical source (centre: every vertex within ~700 rings, one heat stage), and
   // varied sources (corners and boundary points; may need relay stages on the largest meshes)
-  const centreSolve = await timeMedian(() => solver.distance({ points: [{ kind: 'vertex', vertex: centre }], curves: [] }), runs, 1);
-  const centreStats = solver.lastSolve;
+  const centreSolve = await timeMedian(() => solver.solve({ points: [{ kind: 'vertex', vertex: centre }], curves: [] }), runs, 1);
+  const centreStats = centreSolve.result.stats;
   let k = 0;
   const sources = [0, (nv / 3) | 0, (2 * nv / 3) | 0, nv - 1, (nv / 7) | 0];
   let maxStages = 0;
   const solve = await timeMedian(() => {
-    const r = solver.distance({ points: [{ kind: 'vertex', vertex: sources[k++ % sources.length]! }], curves: [] });
-    maxStages = Math.max(maxStages, solver.lastSolve.relayStages);
-    return r;
+    const r = solver.solve({ points: [{ kind: 'vertex', vertex: sources[k++ % sources.length]! }], curves: [] });
+    maxStages = Math.max(maxStages, r.stats.relayStages);
+    return r.field;
   }, runs, 1);
 
   // sanity: heat distance should be within a few percent of (and mostly below) the graph distance
