@@ -15,7 +15,8 @@ import { markPseudoSources } from '../../src/geodesic/exact/pseudo-sources.js';
 import { seedSources } from '../../src/geodesic/exact/seed.js';
 import { runEvents } from '../../src/geodesic/exact/propagate.js';
 import type { ExactState } from '../../src/geodesic/exact/state.js';
-import { evaluateInFace } from '../../src/geodesic/exact/evaluate.js';
+import { evaluateInFace, type Evaluation } from '../../src/geodesic/exact/evaluate.js';
+import { EVAL_NONE } from '../../src/geodesic/exact/codes.js';
 import type { SourceSet } from '../../src/geodesic/shared/sources.js';
 import { icosphere, terrain, rng } from '../fixtures/shapes.js';
 import type { Shape } from '../fixtures/shapes.js';
@@ -35,7 +36,7 @@ function compare(m: IntrinsicMesh, sources: SourceSet, seed: number): number {
   const scale = Math.max(...ref.dist.filter(Number.isFinite));
   for (let v = 0; v < m.topology.nv; v++) expect(Math.abs(r.field.distance[v]! - ref.dist[v]!)).toBeLessThanOrEqual(1e-9 * scale);
   const rand = rng(seed);
-  const ev = { value: 0, kind: 0, id: 0, x: 0 };
+  const ev: Evaluation = { value: 0, kind: EVAL_NONE, id: 0, x: 0 };
   for (let i = 0; i < 30; i++) {
     const f = Math.floor(rand() * m.topology.nf);
     const b0 = rand(), b1 = rand() * (1 - b0);
@@ -104,7 +105,7 @@ describe('exact distance: saddles emit only into their shadow wedge', () => {
     const on = runPruned(m, src, true), off = runPruned(m, src, false);
     const scale = Math.max(...off.dist.filter(Number.isFinite));
     for (let v = 0; v < m.topology.nv; v++) expect(Math.abs(on.dist[v]! - off.dist[v]!)).toBeLessThanOrEqual(1e-12 * scale);
-    const rand = rng(seed), a = { value: 0, kind: 0, id: 0, x: 0 }, b = { value: 0, kind: 0, id: 0, x: 0 };
+    const rand = rng(seed), a: Evaluation = { value: 0, kind: EVAL_NONE, id: 0, x: 0 }, b: Evaluation = { value: 0, kind: EVAL_NONE, id: 0, x: 0 };
     for (let i = 0; i < 30; i++) {
       const f = Math.floor(rand() * m.topology.nf);
       const b0 = rand(), b1 = rand() * (1 - b0);

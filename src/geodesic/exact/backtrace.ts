@@ -70,7 +70,7 @@ export function tracePath(
   let guard = 8 * (t.nf + t.nv) + 16;
   const ev: Evaluation = { value: 0, kind: EVAL_NONE, id: 0, x: 0 };
   const b = [0, 0, 0];
-  let kind: EvalKind | number = best.kind, id = best.id, x = best.x;
+  let kind: EvalKind = best.kind, id = best.id, x = best.x;
   const P = [0, 0];
   const seen = new Set<number>();
   while (--guard > 0) {

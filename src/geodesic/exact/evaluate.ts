@@ -20,7 +20,7 @@ export interface Evaluation {
   /** Distance (Infinity when nothing reaches the face). */
   value: number;
   /** What the best candidate is (EVAL_ constants, codes.ts): a window, a corner vertex, a point root, or none. */
-  kind: EvalKind | number;
+  kind: EvalKind;
   /** Window id, vertex id or index into `pointRoots`. */
   id: number;
   /** For a window: the crossing on its half-edge, as a distance from the half-edge's tail. */
