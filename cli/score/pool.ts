@@ -35,11 +35,15 @@ export class ScorePool {
    * @param timeLimitMs - per-task time limit (0: none)
    * @param memoryLimit - per-mesh memory limit, bytes: each thread's JavaScript heap is capped at it (within
    *   256 MiB … 4 GiB), so a heap that runs away ends that thread (an error row), not the whole run
+   * @param heapMb - that cap in MiB instead (tests give a small one to run a thread out of heap for real)
    */
-  constructor(readonly threads: number, private readonly timeLimitMs: number, memoryLimit: number) {
-    const heapMb = Math.round(Math.min(4096, Math.max(256, memoryLimit / 2 ** 20)));
-    this.pool = new Tinypool({ filename: workerFilename(), minThreads: threads, maxThreads: threads, idleTimeout: 60_000, resourceLimits: { maxOldGenerationSizeMb: heapMb } });
+  constructor(readonly threads: number, private readonly timeLimitMs: number, memoryLimit: number, heapMb?: number) {
+    this.heapMb = heapMb ?? Math.round(Math.min(4096, Math.max(256, memoryLimit / 2 ** 20)));
+    this.pool = new Tinypool({ filename: workerFilename(), minThreads: threads, maxThreads: threads, idleTimeout: 60_000, resourceLimits: { maxOldGenerationSizeMb: this.heapMb } });
   }
+
+  /** Each thread's JavaScript heap cap (old generation), MiB. */
+  readonly heapMb: number;
 
   /** Scores one mesh; never rejects: a timeout or a dead thread is an error reply. */
   async run(task: ScoreTask): Promise<ScoreReply> {
@@ -54,7 +58,11 @@ export class ScorePool {
       const code = (e as { code?: unknown }).code;
       const oom = code === 'ERR_WORKER_OUT_OF_MEMORY';
       const msg = e instanceof Error ? e.message.split('\n')[0] : String(e);
-      return { ok: false, limit: oom, error: `${task.file}: ${oom ? 'the worker thread ran out of memory; lower --jobs or --mesh-memory' : `the worker thread stopped: ${msg}`}` };
+      // the thread that ran out is gone; tinypool starts a fresh one for the next mesh
+      const why = oom
+        ? `the worker thread ran out of JavaScript heap (capped at ${this.heapMb} MiB per thread by --mesh-memory); raise --mesh-memory if the machine has the memory (and lower --jobs to make room)`
+        : `the worker thread stopped: ${msg}`;
+      return { ok: false, limit: oom, error: `${task.file}: ${why}` };
     } finally {
       if (timer) clearTimeout(timer);
     }
