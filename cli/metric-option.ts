@@ -10,7 +10,7 @@
 import { readFileSync } from 'node:fs';
 import { Option } from 'commander';
 import { pointLocator, shortestPath, type Surface } from '../src/index.js';
-import { attachMetric, parseMetricSpec, type MetricReport } from '../src/api/metric.js';
+import { attachMetric, parseMetricSpec, metricCautions, type MetricReport } from '../src/api/metric.js';
 import { inputError, usageError } from '../src/errors.js';
 import { fmt } from './run.js';
 
@@ -48,7 +48,19 @@ export function applyMetricOption(surface: Surface, spec: string | undefined, to
   const tol = tolerance === undefined ? undefined : Number(tolerance);
   if (tol !== undefined && !(tol > 0 && tol < 1)) throw usageError(`--metric-tolerance must be a number in (0, 1), got '${tolerance}'`);
   const metric = parseMetricSpec(spec, { readText });
-  return attachMetric(surface, metric, tol === undefined ? {} : { tolerance: tol });
+  const report = attachMetric(surface, metric, tol === undefined ? {} : { tolerance: tol });
+  for (const c of metricCautions(report)) process.stderr.write(`orthodrome: caution: ${c.message}\n`); // the repair caution: every command
+  return report;
+}
+
+/**
+ * Under a user metric, the cautions that concern `method` alone (the heat
+ * method: a metric too rough for the mesh, or any varying metric), one line
+ * each on stderr; the repair caution was given by {@link applyMetricOption}.
+ */
+export function warnMetricMethod(r: MetricReport | null | undefined, method: string): void {
+  if (!r) return;
+  for (const c of metricCautions(r, method)) if (c.kind !== 'repair') process.stderr.write(`orthodrome: caution: ${c.message}\n`);
 }
 
 /** The `metric` entry of a JSON report: `euclidean`, or the spec with what was found and repaired. */

@@ -16,7 +16,7 @@ import { TIME_SCALE_RANGE } from '../../src/api/geodesic.js';
 import { usageError } from '../../src/errors.js';
 import { factorThreads, solveSets, type SolvedSets } from '../jobs.js';
 import { ProgressLine } from '../progress.js';
-import { metricOption, metricToleranceOption, metricJson, metricLines } from '../metric-option.js';
+import { metricOption, metricToleranceOption, metricJson, metricLines, warnMetricMethod } from '../metric-option.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { describeField, summarizeField, type FieldSummary } from '../field-summary.js';
 
@@ -113,6 +113,7 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
   if (o.output) checkFieldOutput(o.output, [mesh]);
   const run = checkOptions(o);
   const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance });
+  warnMetricMethod(metric, o.method); // the heat method under a varying or rough metric: a caution on stderr
   const resolver = await pointLocator(surface, [...(o.from ?? []), ...(o.fromCurve ?? []), ...(o.to ?? [])]); // snapping code only for p: points
   const sets = sourceSets(mesh, surface, resolver, o);
   const targets: SurfacePoint[] = (o.to ?? []).map((s) => resolver.resolve(s, '--to'));

@@ -7,7 +7,7 @@
 import { readFile } from 'node:fs/promises';
 import { Command, Option } from 'commander';
 import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
-import { metricOption, metricToleranceOption, metricJson, metricLines } from '../metric-option.js';
+import { metricOption, metricToleranceOption, metricJson, metricLines, warnMetricMethod } from '../metric-option.js';
 import { checkOutput } from '../output.js';
 import { action, fmt, toJson } from '../run.js';
 import { TERRAIN_CAUTION } from '../cautions.js';
@@ -150,6 +150,7 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
   if (hasSources(o) === (o.field !== undefined)) throw usageError('give either --from/--from-curve/--from-polyline (distances) or --field (a per-vertex field)');
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
   const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance });
+  if (o.field === undefined) warnMetricMethod(metric, o.method); // the heat method under a varying or rough metric: a caution on stderr
 
   let field: ScalarField;
   let solveMs = 0, prepareMs = 0;

@@ -5,7 +5,7 @@
  */
 import { Command, Option } from 'commander';
 import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
-import { metricOption, metricToleranceOption, metricJson, metricLines } from '../metric-option.js';
+import { metricOption, metricToleranceOption, metricJson, metricLines, warnMetricMethod } from '../metric-option.js';
 import { action, fmt, toJson } from '../run.js';
 import { MACHINING_CAUTION, TERRAIN_CAUTION } from '../cautions.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
@@ -57,6 +57,7 @@ async function runOffset(mesh: string, o: OffsetCliOptions): Promise<number> {
   if (!hasSources(o)) throw usageError('give at least one --from, --from-curve or --from-polyline');
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
   const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance });
+  warnMetricMethod(metric, o.method); // the heat method under a varying or rough metric: a caution on stderr
   const resolver = await pointLocator(surface);
   const r = surfaceOffset(surface, await sourceSet(mesh, surface, resolver, o), D, { method: o.method, memoryBudget, ...(o.method === 'heat' ? { heat: { factorExecutor: factorThreads() } } : {}) });
   if (o.output) await writeCurveFile(o.output, r.curves, [], metric?.metric);

@@ -17,6 +17,6 @@ export { mollify, type Mollified } from '../metric/mollify.js';
 // user metrics (`--metric`): edge lengths in a metric of the user's, attached to a surface so every solver and report uses them
 export {
   parseMetricSpec, attachMetric, attachedMetric, metricName, metricLengths, surfaceIntrinsic, compileExpression, gaussLegendre, quadratureEdgeLengths,
-  METRIC_KINDS, FIELD_LAYOUTS, DEFAULT_LENGTH_TOLERANCE,
+  METRIC_KINDS, FIELD_LAYOUTS, DEFAULT_LENGTH_TOLERANCE, metricCautions, isConstantMetric, ROUGH_SPEED_RATIO, ROUGH_EDGE_SHARE, LARGE_REPAIR, type MetricCaution,
   type UserMetric, type ParseMetricOptions, type MetricReport, type MetricLengthOptions, type AppliedMetric, type MetricTarget, type CompiledExpression,
 } from '../metric/user/index.js';

@@ -11,7 +11,7 @@ import { mkdtempSync, writeFileSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runCli } from './run-cli.js';
-import { flatGrid, objText } from '../fixtures/shapes.js';
+import { flatGrid, objText, rng } from '../fixtures/shapes.js';
 
 let dir = '';
 const n = 8; // grid over [−1, 1] × [0.5, 2.5], vertex (i, j) = j·(n+1) + i
@@ -51,12 +51,13 @@ describe('--metric', () => {
     expect(j.metric).toBe('conformal:1/y');
     expect(j.metricReport.triangleInequalityViolations).toBe(0);
     expect(Object.keys(j.metricReport)).toEqual([
-      'metric', 'kind', 'edges', 'toleranceAsked', 'toleranceReached', 'edgesAboveTolerance', 'evaluations',
+      'metric', 'kind', 'edges', 'toleranceAsked', 'toleranceReached', 'edgesAboveTolerance', 'evaluations', 'largestSpeedRatio', 'roughEdgeShare',
       'triangleInequalityViolations', 'mollifyEpsilon', 'mollifyDelta', 'largestRelativeChange', 'meanEdgeLength',
     ]); // the documented keys (README), no per-edge arrays
     expect(j.metricReport.toleranceReached).toBeLessThan(1e-10);
     expect(Math.abs(j.targets[0].distance - Math.log(5))).toBeLessThan(1e-9);
     expect(readFileSync(out, 'utf8').split('\n')[0]).toBe('# metric: conformal:1/y');
+    expect(r.stderr).toBe(''); // a smooth metric, the exact method: no caution
   });
   it('path: a constant tensor from a JSON file gives √(Δᵀ G Δ); the GeoJSON says which metric', () => {
     const out = join(dir, 'p.geojson');
@@ -77,6 +78,31 @@ describe('--metric', () => {
     // the plane is 2 × 2; doubled lengths give 4× the area, less the two broken triangles, plus the repair's share (loose bound)
     expect(j.area).toBeGreaterThan(4 * 4 * 0.9);
     expect(j.metric).toBe(`lengths:${join(dir, 'len.csv')}`);
+    // the repair changed an edge by far more than 1%: results are not those of the lengths given (src/metric/user/roughness.ts)
+    expect(r.stderr).toMatch(/^orthodrome: caution: the repair of the metric lengths:.* changed edge lengths by up to [\d.]+%: results are those of the repaired lengths, not of the metric; refine the mesh or smooth the metric\n$/);
+  });
+  it('--method heat under a metric too rough for the mesh (a cost of 1 or 8 at random per vertex) says so on stderr, one line per caution, and still answers (exit 0)', () => {
+    const m = 12, r0 = rng(7), V: string[] = [], F: string[] = [];
+    for (let j = 0; j <= m; j++) for (let i = 0; i <= m; i++) V.push(`${i / m} ${j / m} 0 ${r0() < 0.3 ? 8 : 1}`);
+    const tris = flatGrid(m, m).triangles;
+    for (let k = 0; k < tris.length; k += 3) F.push(`3 ${tris[k]} ${tris[k + 1]} ${tris[k + 2]}`);
+    const ply = ['ply', 'format ascii 1.0', `element vertex ${V.length}`, 'property double x', 'property double y', 'property double z', 'property double cost',
+      `element face ${F.length}`, 'property list uchar int vertex_indices', 'end_header', ...V, ...F].join('\n') + '\n';
+    writeFileSync(join(dir, 'rough.ply'), ply);
+    const args = ['distance', join(dir, 'rough.ply'), '--from', 'v:0', '--to', `v:${V.length - 1}`, '--metric', 'field:cost', '--json'];
+    const heat = runCli([...args, '--method', 'heat']);
+    expect(heat.code, heat.stderr).toBe(0);
+    const lines = heat.stderr.trim().split('\n');
+    expect(lines).toHaveLength(2);
+    expect(lines[0]).toMatch(/^orthodrome: caution: the repair of the metric field:cost changed edge lengths by up to/);
+    expect(lines[1]).toMatch(/^orthodrome: caution: the metric field:cost changes by more than 1\.5× along [\d.]+% of the edges \(up to [\d.]+×\): too rough for the heat method on this mesh .*use --method exact/);
+    expect(Number.isFinite(JSON.parse(heat.stdout).targets[0].distance)).toBe(true);
+    const exact = runCli([...args, '--method', 'exact']);
+    expect(exact.code, exact.stderr).toBe(0);
+    expect(exact.stderr.trim().split('\n')).toEqual([lines[0]]); // the repair concerns every method; the heat caution only heat
+    const smooth = runCli(['distance', join(dir, 'hp.obj'), '--from', v(4, 0), '--to', v(4, n), '--metric', 'conformal:1/y', '--method', 'heat']);
+    expect(smooth.code, smooth.stderr).toBe(0);
+    expect(smooth.stderr).toMatch(/^orthodrome: caution: the heat method's accuracy figures are for the lengths of the mesh; under the varying metric conformal:1\/y .*check with --method exact\n$/);
   });
   it('refusals are one line, exit 2: a bad expression (column marked), a metric that is not positive definite, straight', () => {
     const bad = runCli(['curvature', join(dir, 'hp.obj'), '--metric', 'conformal:1/yy']);

@@ -2,11 +2,11 @@
  * User metrics measured through the facade, against closed forms: the
  * hyperbolic upper half-plane, a constant tensor, a cylinder and a sphere
  * given by their first fundamental forms, and a metric that breaks the
- * triangle inequality (repaired, then heat and exact agree).
+ * triangle inequality (counted and repaired).
  */
 import { describe, expect, it } from 'vitest';
 import { openSurface, measureDistances, shortestPath, curvatureSummary, type Surface } from '../../src/index.js';
-import { attachMetric, parseMetricSpec } from '../../src/api/metric.js';
+import { attachMetric, attachedMetric, parseMetricSpec, triangleInequalityViolations } from '../../src/api/metric.js';
 import { meshFromTriangles } from '../../src/io/mesh-data.js';
 import { flatGrid, rng } from '../fixtures/shapes.js';
 
@@ -106,33 +106,21 @@ describe('surfaces given by their first fundamental form (form:E;F;G over x, y)'
 });
 
 describe('a metric that breaks the triangle inequality', () => {
-  it('is counted and repaired by mollification; then heat and exact agree as well as on an equally rough metric that needed no repair', () => {
-    // a per-vertex cost factor that jumps between neighbours (a walking-time-like rough cost, common practice in terrain analysis)
-    const heatError = (high: number, share: number) => {
-      const n = 30, r = rng(7);
-      const lambda = new Float64Array((n + 1) ** 2).map(() => (r() < share ? high : 1));
-      const s = plane(n, 0, 0, 1, 1, [{ name: 'cost', values: lambda }]);
-      const rep = attachMetric(s, parseMetricSpec('field:cost'));
-      const src = { points: [vertexAt(n, 0, 0)], curves: [] };
-      const ex = measureDistances(s, src, { method: 'exact' }).field.distance;
-      const he = measureDistances(s, src, { method: 'heat' }).field.distance;
-      let sum = 0, cnt = 0;
-      for (let v = 0; v < ex.length; v++) {
-        expect(Number.isFinite(he[v]!) && Number.isFinite(ex[v]!)).toBe(true);
-        if (!(ex[v]! > 4 * rep.meanEdgeLength)) continue; // README's accuracy table: vertices at least a few h from the source
-        sum += Math.abs(he[v]! - ex[v]!) / ex[v]!;
-        cnt++;
-      }
-      return { rep, mean: sum / cnt };
-    };
-    const broken = heatError(8, 0.3), smooth = heatError(2, 0.5);
-    expect(broken.rep.triangleInequalityViolations).toBeGreaterThan(300); // 654 of 1800 faces (measured)
-    expect(broken.rep.mollifyEpsilon).toBeGreaterThan(0);
-    expect(smooth.rep.triangleInequalityViolations).toBe(0);
-    // a metric this rough at the mesh scale costs heat about 10–15% either way (measured: 14.7% repaired, 10.4% with no repair
-    // needed), against 1–3% on smooth meshes (README accuracy table): the repair does not make it worse than the roughness does
-    expect(broken.mean).toBeLessThan(0.2);
-    expect(broken.mean).toBeLessThan(2 * smooth.mean);
+  it('is counted and repaired by mollification: the repaired lengths make valid triangles and both methods return finite distances (how far heat is from exact there: user-roughness.test.ts)', () => {
+    // a per-vertex cost factor of 1 or 8 at random (a walking-time-like rough cost)
+    const n = 30, r = rng(7);
+    const lambda = new Float64Array((n + 1) ** 2).map(() => (r() < 0.3 ? 8 : 1));
+    const s = plane(n, 0, 0, 1, 1, [{ name: 'cost', values: lambda }]);
+    const rep = attachMetric(s, parseMetricSpec('field:cost'));
+    expect(rep.triangleInequalityViolations).toBeGreaterThan(300); // 654 of 1800 faces (measured)
+    expect(rep.mollifyEpsilon).toBeGreaterThan(0);
+    const repaired = attachedMetric(s)!.mesh;
+    expect(triangleInequalityViolations(repaired)).toBe(0);
+    const src = { points: [vertexAt(n, 0, 0)], curves: [] };
+    for (const method of ['exact', 'heat'] as const) {
+      const d = measureDistances(s, src, { method }).field.distance;
+      expect(d.every((x) => Number.isFinite(x) && x >= 0)).toBe(true);
+    }
   });
   it('a metric that is not positive definite is an INPUT error naming the point and the edge', () => {
     const s = plane(4, -1, -1, 2, 2);

@@ -11,6 +11,12 @@
  * difference is the error estimate (conservative: for a smooth integrand the
  * halves are accurate to O(h¹⁰)). Each edge's estimate relative to its
  * length is the tolerance reached; the largest over the mesh is reported.
+ *
+ * The same evaluations say how fast the metric changes at the scale of the
+ * mesh: per edge, the ratio of the largest to the smallest speed met along
+ * it (1 for a metric constant along the edge, → 1 as a smooth metric is
+ * sampled by finer edges; `speedRatio`, summarised in the metric report and
+ * judged in `roughness.ts`).
  */
 import type { Topology } from '../../mesh/topology.js';
 import { next } from '../../mesh/topology.js';
@@ -36,17 +42,26 @@ export interface QuadratureResult {
   edgesAboveTolerance: number;
   /** Metric evaluations made. */
   evaluations: number;
+  /** Per edge, the ratio of the largest to the smallest speed evaluated along it (1: constant along the edge). */
+  speedRatio: Float64Array;
 }
 
 /** The length of every edge of `t` under `speed`, each to relative tolerance `tol`. */
 export function quadratureEdgeLengths(t: Topology, speed: EdgeSpeed, tol = DEFAULT_LENGTH_TOLERANCE): QuadratureResult {
   const { nodes, weights } = gaussLegendre(RULE_POINTS);
   const lengths = new Float64Array(t.ne);
+  const speedRatio = new Float64Array(t.ne).fill(1);
   let evaluations = 0, worst = 0, above = 0;
+  let lowest = Infinity, highest = 0; // speeds met along the current edge
   const rule = (lo: number, hi: number): number => {
     const w = hi - lo;
     let s = 0;
-    for (let i = 0; i < RULE_POINTS; i++) s += weights[i]! * speed.at(lo + w * nodes[i]!);
+    for (let i = 0; i < RULE_POINTS; i++) {
+      const v = speed.at(lo + w * nodes[i]!);
+      if (v < lowest) lowest = v;
+      if (v > highest) highest = v;
+      s += weights[i]! * v;
+    }
     evaluations += RULE_POINTS;
     return s * w;
   };
@@ -70,6 +85,8 @@ export function quadratureEdgeLengths(t: Topology, speed: EdgeSpeed, tol = DEFAU
       evaluations++;
       continue;
     }
+    lowest = Infinity;
+    highest = 0;
     const whole = rule(0, 1);
     err = 0;
     // the target is relative to the length; a tiny absolute floor keeps zero-length edges from refining forever
@@ -78,6 +95,7 @@ export function quadratureEdgeLengths(t: Topology, speed: EdgeSpeed, tol = DEFAU
     const rel = value > 0 ? err / value : 0;
     if (rel > worst) worst = rel;
     if (rel > tol) above++;
+    if (lowest > 0 && highest > lowest) speedRatio[e] = highest / lowest;
   }
-  return { lengths, toleranceAsked: tol, toleranceReached: worst, edgesAboveTolerance: above, evaluations };
+  return { lengths, toleranceAsked: tol, toleranceReached: worst, edgesAboveTolerance: above, evaluations, speedRatio };
 }

@@ -14,3 +14,4 @@ export {
   metricLengths, attachMetric, attachedMetric, surfaceIntrinsic, metricName,
   type MetricTarget, type MetricLengthOptions, type MetricReport, type AppliedMetric,
 } from './surface-metric.js';
+export { metricCautions, isConstantMetric, ROUGH_SPEED_RATIO, ROUGH_EDGE_SHARE, LARGE_REPAIR, type MetricCaution } from './roughness.js';

@@ -29,6 +29,7 @@ import { expressionSpeed } from './speed.js';
 import { fieldSpeed } from './field.js';
 import { lengthsFromCsv } from './lengths-file.js';
 import { quadratureEdgeLengths, DEFAULT_LENGTH_TOLERANCE } from './edge-lengths.js';
+import { ROUGH_SPEED_RATIO } from './roughness.js';
 
 /** What a surface needs to take a user metric (a whole `Surface` will do). */
 export interface MetricTarget {
@@ -62,6 +63,15 @@ export interface MetricReport {
   edgesAboveTolerance: number;
   /** Metric evaluations made by the quadrature. */
   evaluations: number;
+  /**
+   * Largest ratio between the metric's speeds at two points of one edge
+   * (largest / smallest met by the quadrature; 1: constant along every edge;
+   * null: lengths given). Far above 1, the metric changes at the scale of
+   * the edges and the heat method is inaccurate (`roughness.ts`).
+   */
+  largestSpeedRatio: number | null;
+  /** Share of the edges along which the speed changes by more than `ROUGH_SPEED_RATIO` (1.5×); null: lengths given. */
+  roughEdgeShare: number | null;
   /** Faces failing the triangle inequality under the metric, before repair. */
   triangleInequalityViolations: number;
   /** Length added to every edge by mollification, mesh units (0: none needed). */
@@ -93,15 +103,21 @@ export function metricLengths(s: MetricTarget, metric: UserMetric, opts: MetricL
   const tol = opts.tolerance ?? DEFAULT_LENGTH_TOLERANCE;
   if (!(tol > 0 && tol < 1)) throw usageError(`the metric tolerance must lie in (0, 1), got ${tol}`);
   let lengths: Float64Array;
-  let quad: { toleranceAsked: number | null; toleranceReached: number | null; edgesAboveTolerance: number; evaluations: number };
+  let quad: { toleranceAsked: number | null; toleranceReached: number | null; edgesAboveTolerance: number; evaluations: number; largestSpeedRatio: number | null; roughEdgeShare: number | null };
   if (metric.kind === 'lengths') {
     lengths = lengthsFromCsv(t, metric.text, metric.file);
-    quad = { toleranceAsked: null, toleranceReached: null, edgesAboveTolerance: 0, evaluations: 0 };
+    quad = { toleranceAsked: null, toleranceReached: null, edgesAboveTolerance: 0, evaluations: 0, largestSpeedRatio: null, roughEdgeShare: null };
   } else {
     const speed = metric.kind === 'field' ? fieldSpeed(ms, s.data.vertexProps, metric.name, metric.label) : expressionSpeed(ms, metric);
-    const { lengths: l, ...q } = quadratureEdgeLengths(t, speed, tol);
+    const { lengths: l, speedRatio, ...q } = quadratureEdgeLengths(t, speed, tol);
     lengths = l;
-    quad = q;
+    let largest = 1, rough = 0;
+    for (let e = 0; e < speedRatio.length; e++) {
+      const r = speedRatio[e]!;
+      if (r > largest) largest = r;
+      if (r > ROUGH_SPEED_RATIO) rough++;
+    }
+    quad = { ...q, largestSpeedRatio: largest, roughEdgeShare: t.ne ? rough / t.ne : 0 };
   }
   const raw: IntrinsicMesh = { topology: t, edgeLength: lengths };
   const violations = triangleInequalityViolations(raw);
