@@ -63,9 +63,14 @@ export function warnMetricMethod(r: MetricReport | null | undefined, method: str
   for (const c of metricCautions(r, method)) if (c.kind !== 'repair') process.stderr.write(`orthodrome: caution: ${c.message}\n`);
 }
 
-/** The `metric` entry of a JSON report: `euclidean`, or the spec with what was found and repaired. */
-export function metricJson(r: MetricReport | null | undefined): { metric: string; metricReport?: MetricReport } {
-  return r ? { metric: r.metric, metricReport: r } : { metric: 'euclidean' };
+/**
+ * The `metric` entries of a JSON report: `euclidean`, or the spec with what
+ * was found and repaired and the cautions it calls for (the stderr lines of
+ * {@link applyMetricOption} and {@link warnMetricMethod}; those about
+ * `method` only when it is given).
+ */
+export function metricJson(r: MetricReport | null | undefined, method?: string): { metric: string; metricReport?: MetricReport; metricCautions?: string[] } {
+  return r ? { metric: r.metric, metricReport: r, metricCautions: metricCautions(r, method).map((c) => c.message) } : { metric: 'euclidean' };
 }
 
 /** The text line about the metric (empty without one). */

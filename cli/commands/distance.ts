@@ -131,7 +131,7 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
   }
   const solveMs = results.reduce((a, r) => a + r.result.solveMs, 0);
   const timings = { load: loadMs, prepare: Math.round(solved.prepareMs * 100) / 100, solve: Math.round(solveMs * 100) / 100 };
-  process.stdout.write((o.json ? jsonReport(mesh, o, resolver, results, timings, solved, metricJson(metric)) : [textReport(mesh, o, surface, resolver, results, timings, run), ...metricLines(metric)].join('\n')) + '\n');
+  process.stdout.write((o.json ? jsonReport(mesh, o, resolver, results, timings, solved, metricJson(metric, o.method)) : [textReport(mesh, o, surface, resolver, results, timings, run), ...metricLines(metric)].join('\n')) + '\n');
   return 0;
 }
 

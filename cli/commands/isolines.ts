@@ -173,7 +173,7 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
   const timings = { load: loadMs, prepare: round(prepareMs), solve: round(solveMs), curves: round(r.ms) };
   if (o.json) {
     process.stdout.write(toJson({
-      mesh, field: o.field ?? 'distance', method: o.field !== undefined ? null : o.method, unit: 'mesh units', ...metricJson(metric), levels: r.levels,
+      mesh, field: o.field ?? 'distance', method: o.field !== undefined ? null : o.method, unit: 'mesh units', ...metricJson(metric, o.field !== undefined ? undefined : o.method), levels: r.levels,
       curves: r.curves.map(curveJson),
       ...(r.bands ? { bands: r.bands.map((b) => ({ lower: b.lower, upper: b.upper, area: b.area, planArea: b.planArea, polygons: b.polygons })) } : {}),
       output: o.output ?? null, timings,

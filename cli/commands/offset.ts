@@ -64,7 +64,7 @@ async function runOffset(mesh: string, o: OffsetCliOptions): Promise<number> {
   const round = (x: number) => Math.round(x * 100) / 100;
   const timings = { load: loadMs, prepare: round(r.timings.prepare), solve: round(r.timings.solve), curves: round(r.timings.curves) };
   if (o.json) {
-    process.stdout.write(toJson({ mesh, method: o.method, unit: 'mesh units', ...metricJson(metric), distance: D, curves: r.curves.map(curveJson), output: o.output ?? null, timings }) + '\n');
+    process.stdout.write(toJson({ mesh, method: o.method, unit: 'mesh units', ...metricJson(metric, o.method), distance: D, curves: r.curves.map(curveJson), output: o.output ?? null, timings }) + '\n');
     return 0;
   }
   const L: string[] = [`${mesh}: offset at ${fmt(D, 9)} mesh units (${o.method} distance): ${r.curves.length} curve(s)`];

@@ -58,6 +58,7 @@ describe('--metric', () => {
     expect(Math.abs(j.targets[0].distance - Math.log(5))).toBeLessThan(1e-9);
     expect(readFileSync(out, 'utf8').split('\n')[0]).toBe('# metric: conformal:1/y');
     expect(r.stderr).toBe(''); // a smooth metric, the exact method: no caution
+    expect(j.metricCautions).toEqual([]);
   });
   it('path: a constant tensor from a JSON file gives √(Δᵀ G Δ); the GeoJSON says which metric', () => {
     const out = join(dir, 'p.geojson');
@@ -96,10 +97,14 @@ describe('--metric', () => {
     expect(lines).toHaveLength(2);
     expect(lines[0]).toMatch(/^orthodrome: caution: the repair of the metric field:cost changed edge lengths by up to/);
     expect(lines[1]).toMatch(/^orthodrome: caution: the metric field:cost changes by more than 1\.5× along [\d.]+% of the edges \(up to [\d.]+×\): too rough for the heat method on this mesh .*use --method exact/);
-    expect(Number.isFinite(JSON.parse(heat.stdout).targets[0].distance)).toBe(true);
+    const hj = JSON.parse(heat.stdout);
+    expect(Number.isFinite(hj.targets[0].distance)).toBe(true);
+    expect(hj.metricCautions.map((c: string) => `orthodrome: caution: ${c}`)).toEqual(lines); // the same cautions for machines
+    expect(hj.metricReport.roughEdgeShare).toBeGreaterThan(0.2);
     const exact = runCli([...args, '--method', 'exact']);
     expect(exact.code, exact.stderr).toBe(0);
     expect(exact.stderr.trim().split('\n')).toEqual([lines[0]]); // the repair concerns every method; the heat caution only heat
+    expect(JSON.parse(exact.stdout).metricCautions).toHaveLength(1);
     const smooth = runCli(['distance', join(dir, 'hp.obj'), '--from', v(4, 0), '--to', v(4, n), '--metric', 'conformal:1/y', '--method', 'heat']);
     expect(smooth.code, smooth.stderr).toBe(0);
     expect(smooth.stderr).toMatch(/^orthodrome: caution: the heat method's accuracy figures are for the lengths of the mesh; under the varying metric conformal:1\/y .*check with --method exact\n$/);
