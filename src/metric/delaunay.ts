@@ -31,6 +31,7 @@ import type { Topology } from '../mesh/topology.js';
 import type { IntrinsicMesh } from './intrinsic.js';
 import { next, prev } from '../mesh/topology.js';
 import { triangleArea, unfoldedDiagonal, cotOpposite } from './triangle.js';
+import { FlipQuad } from '../mesh/edge-flip.js';
 
 /** Options of {@link intrinsicDelaunay}. */
 export interface DelaunayOptions {
@@ -103,6 +104,7 @@ export function intrinsicDelaunay(m: IntrinsicMesh, options: DelaunayOptions = {
   for (let e = 0; e < ne; e++) push(e);
 
   let flips = 0, skipped = 0, capped = false;
+  const quad = new FlipQuad();
   while (size > 0) {
     const e = ring[head]!;
     head = (head + 1) % ring.length;
@@ -111,7 +113,7 @@ export function intrinsicDelaunay(m: IntrinsicMesh, options: DelaunayOptions = {
     const h = edgeHalfedge[e]!, o = twin[h]!;
     if (o < 0 || edgeCotanSum(t, L, h) >= -tol) continue;
     if (flips >= maxFlips) { capped = true; break; }
-    if (!flip(t, L, h)) { skipped++; continue; }
+    if (!flip(t, L, h, quad)) { skipped++; continue; }
     flips++;
     push(edgeOf[next(h)]!); push(edgeOf[prev(h)]!);
     push(edgeOf[next(o)]!); push(edgeOf[prev(o)]!);
@@ -120,58 +122,23 @@ export function intrinsicDelaunay(m: IntrinsicMesh, options: DelaunayOptions = {
 }
 
 /**
- * Flips interior half-edge h in place (see the module sketch). Returns false,
- * changing nothing, when the flip is degenerate: the twin lies in the same
- * face, the new edge would be a loop, or a new face would have no area.
+ * Flips interior half-edge h in place (see the module sketch; the
+ * combinatorics are mesh/edge-flip.ts's). Returns false, changing nothing,
+ * when the flip is degenerate: the twin lies in the same face, the new edge
+ * would be a loop, an outer side is glued onto the quad, or a new face would
+ * have no area.
  */
-function flip(t: Topology, L: Float64Array, h: number): boolean {
-  const { tri, twin, edgeOf, edgeHalfedge: eh, vertexHalfedge: vh } = t;
-  const o = twin[h]!;
-  const f0 = (h / 3) | 0, f1 = (o / 3) | 0;
-  if (f0 === f1) return false;
-  const hn = next(h), hp = prev(h), on = next(o), op = prev(o);
-  const a = tri[h]!, b = tri[hn]!, c = tri[hp]!, d = tri[op]!;
-  if (c === d) return false;
-  const lab = L[edgeOf[h]!]!, lbc = L[edgeOf[hn]!]!, lca = L[edgeOf[hp]!]!;
-  const lad = L[edgeOf[on]!]!, ldb = L[edgeOf[op]!]!;
+function flip(t: Topology, L: Float64Array, h: number, q: FlipQuad): boolean {
+  if (!q.read(t, h)) return false;
+  const { edgeOf } = t;
+  const lab = L[edgeOf[h]!]!, lbc = L[edgeOf[q.hn]!]!, lca = L[edgeOf[q.hp]!]!;
+  const lad = L[edgeOf[q.on]!]!, ldb = L[edgeOf[q.op]!]!;
   const lcd = unfoldedDiagonal(lab, lbc, lca, lad, ldb);
   if (!(lcd > 0)) return false;
   if (!(triangleArea(lcd, lca, lad) > 0 && triangleArea(lcd, ldb, lbc) > 0)) return false;
-
-  const eHn = edgeOf[hn]!, eHp = edgeOf[hp]!, eOn = edgeOf[on]!, eOp = edgeOf[op]!;
-  const tHn = twin[hn]!, tHp = twin[hp]!, tOn = twin[on]!, tOp = twin[op]!;
-  // an outer side glued back onto the quad itself (possible after earlier flips) is left alone
-  if (inQuad(tHn, f0, f1) || inQuad(tHp, f0, f1) || inQuad(tOn, f0, f1) || inQuad(tOp, f0, f1)) return false;
-  // vertex anchors that point at a moving slot follow their directed edge
-  const fixA = vh[a] === h || vh[a] === on, fixB = vh[b] === o || vh[b] === hn;
-  const fixC = vh[c] === hp, fixD = vh[d] === op;
-
-  // face f0 = (d, c, a): h = d→c, hn = c→a (old hp), hp = a→d (old on)
-  tri[h] = d; tri[hn] = c; tri[hp] = a;
-  // face f1 = (c, d, b): o = c→d, on = d→b (old op), op = b→c (old hn)
-  tri[o] = c; tri[on] = d; tri[op] = b;
-  const relink = (slot: number, e: number, tw: number): void => {
-    edgeOf[slot] = e;
-    twin[slot] = tw;
-    if (tw >= 0) twin[tw] = slot;
-    eh[e] = slot;
-  };
-  relink(hn, eHp, tHp);
-  relink(hp, eOn, tOn);
-  relink(on, eOp, tOp);
-  relink(op, eHn, tHn);
+  q.rewire(t, t.vertexHalfedge);
   L[edgeOf[h]!] = lcd;
-  if (fixA) vh[a] = hp;
-  if (fixB) vh[b] = op;
-  if (fixC) vh[c] = hn;
-  if (fixD) vh[d] = on;
-  t.faceOrigin[f0] = -1;
-  t.faceOrigin[f1] = -1;
+  t.faceOrigin[(h / 3) | 0] = -1;
+  t.faceOrigin[(q.o / 3) | 0] = -1;
   return true;
-}
-
-/** True when half-edge tw (≥ 0) belongs to face f0 or f1. */
-function inQuad(tw: number, f0: number, f1: number): boolean {
-  const g = (tw / 3) | 0;
-  return tw >= 0 && (g === f0 || g === f1);
 }

@@ -31,6 +31,7 @@
 import type { IntrinsicMesh } from '../../metric/intrinsic.js';
 import type { Topology } from '../../mesh/topology.js';
 import { next, prev } from '../../mesh/topology.js';
+import { FlipQuad } from '../../mesh/edge-flip.js';
 import { angleOpposite, triangleArea, unfoldedDiagonal } from '../../metric/triangle.js';
 import type { SurfacePoint } from '../../mesh/surface-point.js';
 
@@ -56,6 +57,8 @@ export class FlipTriangulation {
   readonly anchor: Int32Array;
   /** Scratch for the unfolded quad of a flip (xc, yc, xd, yd). */
   private readonly unfold = new Float64Array(4);
+  /** Scratch for the quad of a flip (its slots and corners). */
+  private readonly quad = new FlipQuad();
   /** Number of flips made. */
   flips = 0;
   /** Current numbers of vertices, faces and edges (input ones first; insert.ts adds more). */
@@ -183,14 +186,9 @@ export class FlipTriangulation {
    * or a new face would have no area).
    */
   flip(h: number): boolean {
-    const { tri, twin, edgeOf, edgeHalfedge: eh, anchor, dir, length: L } = this;
-    const o = twin[h]!;
-    if (o < 0) return false;
-    const f0 = (h / 3) | 0, f1 = (o / 3) | 0;
-    if (f0 === f1) return false;
-    const hn = next(h), hp = prev(h), on = next(o), op = prev(o);
-    const a = tri[h]!, b = tri[hn]!, c = tri[hp]!, d = tri[op]!;
-    if (c === d) return false;
+    const { edgeOf, dir, length: L, quad: q } = this;
+    if (!q.read(this, h)) return false;
+    const { o, hn, hp, on, op, a, b, c, d } = q;
     const lab = L[edgeOf[h]!]!, lbc = L[edgeOf[hn]!]!, lca = L[edgeOf[hp]!]!;
     const lad = L[edgeOf[on]!]!, ldb = L[edgeOf[op]!]!;
     const u = this.unfold;
@@ -203,44 +201,22 @@ export class FlipTriangulation {
     if (!(xCross > 1e-12 * lab && xCross < (1 - 1e-12) * lab)) return false;
     const A2 = triangleArea(lcd, lca, lad), A3 = triangleArea(lcd, ldb, lbc);
     if (!(A2 > 1e-12 * lcd * lcd && A3 > 1e-12 * lcd * lcd)) return false;
-    const eHn = edgeOf[hn]!, eHp = edgeOf[hp]!, eOn = edgeOf[on]!, eOp = edgeOf[op]!;
-    const tHn = twin[hn]!, tHp = twin[hp]!, tOn = twin[on]!, tOp = twin[op]!;
-    if (inQuad(tHn, f0, f1) || inQuad(tHp, f0, f1) || inQuad(tOn, f0, f1) || inQuad(tOp, f0, f1)) return false;
     this.prepare(a); this.prepare(b); this.prepare(c); this.prepare(d);
     const dHn = dir[hn]!, dHp = dir[hp]!, dOn = dir[on]!, dOp = dir[op]!;
-    const fixA = anchor[a] === h || anchor[a] === on, fixB = anchor[b] === o || anchor[b] === hn;
-    const fixC = anchor[c] === hp, fixD = anchor[d] === op;
-
-    tri[h] = d; tri[hn] = c; tri[hp] = a;
-    tri[o] = c; tri[on] = d; tri[op] = b;
-    const relink = (slot: number, e: number, tw: number, dd: number): void => {
-      edgeOf[slot] = e;
-      twin[slot] = tw;
-      if (tw >= 0) twin[tw] = slot;
-      eh[e] = slot;
-      dir[slot] = dd;
-    };
-    relink(hn, eHp, tHp, dHp); // c→a
-    relink(hp, eOn, tOn, dOn); // a→d
-    relink(on, eOp, tOp, dOp); // d→b
-    relink(op, eHn, tHn, dHn); // b→c
+    q.rewire(this, this.anchor);
+    // the outer sides' directions move with them (FlipQuad.rewire's slot moves)
+    dir[hn] = dHp; // c→a
+    dir[hp] = dOn; // a→d
+    dir[on] = dOp; // d→b
+    dir[op] = dHn; // b→c
     L[edgeOf[h]!] = lcd;
     // d→c: from d→b, turn by the corner at d of (c, d, b), opposite side bc
     dir[h] = this.wrap(d, dOp + angleOpposite(lbc, lcd, ldb));
     // c→d: from c→a, turn by the corner at c of (d, c, a), opposite side ad
     dir[o] = this.wrap(c, dHp + angleOpposite(lad, lcd, lca));
-    if (fixA) anchor[a] = hp;
-    if (fixB) anchor[b] = op;
-    if (fixC) anchor[c] = hn;
-    if (fixD) anchor[d] = on;
     this.flips++;
     return true;
   }
 
 }
 
-/** True when half-edge tw (≥ 0) belongs to face f0 or f1. */
-function inQuad(tw: number, f0: number, f1: number): boolean {
-  const g = (tw / 3) | 0;
-  return tw >= 0 && (g === f0 || g === f1);
-}
