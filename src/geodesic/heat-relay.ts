@@ -27,6 +27,7 @@
 import type { Topology } from '../mesh/topology.js';
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import { faceGeometry, type FaceGeometry } from '../metric/laplacian.js';
+import { planarLength } from '../metric/layout.js';
 import { next } from '../mesh/topology.js';
 
 /** Workspaces and per-mesh data for {@link assembleDivergence}. */
@@ -199,7 +200,7 @@ function scatterStage(w: RelayWork, k: number, u: Float64Array, b: Float64Array,
       const big = Math.max(Math.abs(gx), Math.abs(gy));
       if (!(big > 0 && big < Infinity)) { flat++; continue; }
       const sx = gx / big, sy = gy / big;
-      const s = -area / Math.sqrt(sx * sx + sy * sy);
+      const s = -area / planarLength(sx, sy);
       ax = s * sx; ay = s * sy;
     }
     b[i0]! += ay * y0 - ax * c;

@@ -20,7 +20,7 @@
  * ending there must end in a face that holds the point.
  */
 import type { SurfacePoint } from '../../mesh/surface-point.js';
-import { next, prev } from '../../mesh/topology.js';
+import { next, prev, nextOutgoing } from '../../mesh/topology.js';
 import { angleOpposite } from '../../metric/triangle.js';
 import { layoutAlong, layoutFace } from '../../metric/layout.js';
 import type { FlipTriangulation } from './triangulation.js';
@@ -70,8 +70,8 @@ function rayStart(tri: FlipTriangulation, u: number, phi: number): RayStart | nu
     let g = start, acc = 0, c = 0;
     for (let n = 0; ; n++) {
       c = angleOpposite(L[T.edgeOf[next(g)]!]!, L[T.edgeOf[g]!]!, L[T.edgeOf[prev(g)]!]!);
-      const o = T.twin[prev(g)]!;
-      if (phi < acc + c || o < 0 || o === start || n > T.tri.length) break;
+      const o = nextOutgoing(T, start, g);
+      if (phi < acc + c || o < 0 || n > T.tri.length) break;
       acc += c;
       g = o;
     }
