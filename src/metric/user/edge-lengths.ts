@@ -15,13 +15,16 @@
  * The same evaluations say how fast the metric changes at the scale of the
  * mesh: per edge, the ratio of the largest to the smallest speed met along
  * it (1 for a metric constant along the edge, → 1 as a smooth metric is
- * sampled by finer edges; `speedRatio`, summarised in the metric report and
- * judged in `roughness.ts`).
+ * sampled by finer edges); the largest and the count of rough edges are
+ * reported, and judged in `roughness.ts`.
  */
 import type { Topology } from '../../mesh/topology.js';
 import { next } from '../../mesh/topology.js';
 import { gaussLegendre } from './gauss-legendre.js';
 import type { EdgeSpeed } from './speed.js';
+
+/** Speed ratio along one edge above which the edge counts as rough (`MetricReport.roughEdgeShare`; judged in roughness.ts). */
+export const ROUGH_SPEED_RATIO = 1.5;
 
 /** Default relative tolerance of each edge length. */
 export const DEFAULT_LENGTH_TOLERANCE = 1e-10;
@@ -42,16 +45,17 @@ export interface QuadratureResult {
   edgesAboveTolerance: number;
   /** Metric evaluations made. */
   evaluations: number;
-  /** Per edge, the ratio of the largest to the smallest speed evaluated along it (1: constant along the edge). */
-  speedRatio: Float64Array;
+  /** Largest ratio, over the edges, of the largest to the smallest speed evaluated along one edge (1: constant along every edge). */
+  largestSpeedRatio: number;
+  /** Edges along which that ratio exceeds {@link ROUGH_SPEED_RATIO}. */
+  roughEdges: number;
 }
 
 /** The length of every edge of `t` under `speed`, each to relative tolerance `tol`. */
 export function quadratureEdgeLengths(t: Topology, speed: EdgeSpeed, tol = DEFAULT_LENGTH_TOLERANCE): QuadratureResult {
   const { nodes, weights } = gaussLegendre(RULE_POINTS);
   const lengths = new Float64Array(t.ne);
-  const speedRatio = new Float64Array(t.ne).fill(1);
-  let evaluations = 0, worst = 0, above = 0;
+  let evaluations = 0, worst = 0, above = 0, largestRatio = 1, rough = 0;
   let lowest = Infinity, highest = 0; // speeds met along the current edge
   const rule = (lo: number, hi: number): number => {
     const w = hi - lo;
@@ -95,7 +99,9 @@ export function quadratureEdgeLengths(t: Topology, speed: EdgeSpeed, tol = DEFAU
     const rel = value > 0 ? err / value : 0;
     if (rel > worst) worst = rel;
     if (rel > tol) above++;
-    if (lowest > 0 && highest > lowest) speedRatio[e] = highest / lowest;
+    const ratio = lowest > 0 ? highest / lowest : 1;
+    if (ratio > largestRatio) largestRatio = ratio;
+    if (ratio > ROUGH_SPEED_RATIO) rough++;
   }
-  return { lengths, toleranceAsked: tol, toleranceReached: worst, edgesAboveTolerance: above, evaluations, speedRatio };
+  return { lengths, toleranceAsked: tol, toleranceReached: worst, edgesAboveTolerance: above, evaluations, largestSpeedRatio: largestRatio, roughEdges: rough };
 }

@@ -44,9 +44,10 @@
  * Lengths given directly carry no speed: only the repair tells.
  */
 import type { MetricReport } from './surface-metric.js';
+import { ROUGH_SPEED_RATIO } from './edge-lengths.js';
 
-/** Speed ratio along one edge above which the edge counts as rough (`MetricReport.roughEdgeShare`). */
-export const ROUGH_SPEED_RATIO = 1.5;
+export { ROUGH_SPEED_RATIO };
+
 
 /** Share of rough edges above which the metric is too rough for the mesh for the heat method. */
 export const ROUGH_EDGE_SHARE = 0.01;

@@ -29,7 +29,6 @@ import { expressionSpeed } from './speed.js';
 import { fieldSpeed } from './field.js';
 import { lengthsFromCsv } from './lengths-file.js';
 import { quadratureEdgeLengths, DEFAULT_LENGTH_TOLERANCE } from './edge-lengths.js';
-import { ROUGH_SPEED_RATIO } from './roughness.js';
 
 /** What a surface needs to take a user metric (a whole `Surface` will do). */
 export interface MetricTarget {
@@ -109,15 +108,9 @@ export function metricLengths(s: MetricTarget, metric: UserMetric, opts: MetricL
     quad = { toleranceAsked: null, toleranceReached: null, edgesAboveTolerance: 0, evaluations: 0, largestSpeedRatio: null, roughEdgeShare: null };
   } else {
     const speed = metric.kind === 'field' ? fieldSpeed(ms, s.data.vertexProps, metric.name, metric.label) : expressionSpeed(ms, metric);
-    const { lengths: l, speedRatio, ...q } = quadratureEdgeLengths(t, speed, tol);
+    const { lengths: l, roughEdges, ...q } = quadratureEdgeLengths(t, speed, tol);
     lengths = l;
-    let largest = 1, rough = 0;
-    for (let e = 0; e < speedRatio.length; e++) {
-      const r = speedRatio[e]!;
-      if (r > largest) largest = r;
-      if (r > ROUGH_SPEED_RATIO) rough++;
-    }
-    quad = { ...q, largestSpeedRatio: largest, roughEdgeShare: t.ne ? rough / t.ne : 0 };
+    quad = { ...q, roughEdgeShare: t.ne ? roughEdges / t.ne : 0 };
   }
   const raw: IntrinsicMesh = { topology: t, edgeLength: lengths };
   const violations = triangleInequalityViolations(raw);
