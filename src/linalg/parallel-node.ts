@@ -25,8 +25,9 @@ import type { CholeskySymbolic } from './symbolic.js';
 import type { SupernodalStructure } from './supernodes.js';
 import type { FactorExecutor, FactorJob, FactorJobResult } from './executor.js';
 
-/** Status word indices and states of a job (shared by the worker). */
+/** Status word indices of a job (shared by the worker). */
 export const S_STATE = 0, S_BAD = 1, S_HEARTBEAT = 2;
+/** Job states in the status word's S_STATE slot: queued, taken by a worker, done, failed, taken back by the calling thread. */
 export const PENDING = 0, RUNNING = 1, DONE = 2, FAILED = 3, CLAIMED_HERE = 4;
 
 /** What a worker receives: views on shared memory only. */

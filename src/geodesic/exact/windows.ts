@@ -37,6 +37,7 @@ import type { Topology } from '../../mesh/topology.js';
 import { RunBudget, WINDOW_BYTES } from './budget.js';
 import { WIN_QUEUED } from './codes.js';
 
+/** The exact solver's windows, struct-of-arrays, with per-half-edge lists and room granted by the run's budget (see the module comment). */
 export class WindowStore {
   /** Number of windows stored. */
   count = 0;
