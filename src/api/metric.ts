@@ -9,8 +9,9 @@ export type { IntrinsicMesh } from '../metric/intrinsic.js';
 export { intrinsicFromPositions, intrinsicFromLengths, edgeLengthsFromPositions, meanEdgeLength, triangleInequalityViolations } from '../metric/intrinsic.js';
 export {
   triangleArea, angleOpposite, cotOpposite, faceAreas, cornerAngles, halfedgeCotans, edgeCotanWeights,
-  barycentricVertexAreas, mixedVoronoiVertexAreas, COT_LIMIT, anglesOfSides,
+  COT_LIMIT, anglesOfSides,
 } from '../metric/triangle.js';
+export { barycentricVertexAreas, mixedVoronoiVertexAreas } from '../metric/vertex-areas.js';
 export { gaussianCurvature, meanCurvature, gaussBonnetResidual, type Curvature } from '../metric/curvature.js';
 export { intrinsicDelaunay, type DelaunayOptions, type DelaunayResult } from '../metric/delaunay.js';
 export { mollify, type Mollified } from '../metric/mollify.js';

@@ -38,7 +38,8 @@
 import type { IntrinsicMesh } from './intrinsic.js';
 import type { Topology } from '../mesh/topology.js';
 import { next } from '../mesh/topology.js';
-import { cornerAngles, halfedgeCotans, mixedVoronoiVertexAreas, triangleArea } from './triangle.js';
+import { cornerAngles, halfedgeCotans, triangleArea } from './triangle.js';
+import { mixedVoronoiVertexAreas } from './vertex-areas.js';
 import { boundaryVertexMask } from '../mesh/boundary.js';
 import { glueSeams } from '../mesh/seams.js';
 

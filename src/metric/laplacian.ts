@@ -33,7 +33,8 @@ import type { Topology } from '../mesh/topology.js';
 import type { IntrinsicMesh } from './intrinsic.js';
 import type { CscMatrix } from '../linalg/csc.js';
 import { next } from '../mesh/topology.js';
-import { triangleArea, faceCotans, boundedCot, placeThirdCorner, barycentricVertexAreas } from './triangle.js';
+import { triangleArea, faceCotans, boundedCot, placeThirdCorner } from './triangle.js';
+import { barycentricVertexAreas } from './vertex-areas.js';
 
 /**
  * Lower-triangle CSC pattern over the vertices of a topology: in column j the
@@ -171,7 +172,7 @@ export function cotanLaplacian(m: IntrinsicMesh, p: EdgePattern, out = new Float
 
 /**
  * Lumped (barycentric) mass: one third of each incident face's area per
- * vertex. The same function as triangle.ts's `barycentricVertexAreas` (one
+ * vertex. The same function as vertex-areas.ts's `barycentricVertexAreas` (one
  * home), under the name the heat method uses.
  */
 export const lumpedMass: typeof barycentricVertexAreas = barycentricVertexAreas;

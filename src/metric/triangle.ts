@@ -36,7 +36,7 @@
  * ({@link halfedgeCotans}, the cotangent Laplacian) also bound each one to
  * ±{@link COT_LIMIT}, which only angles within 1e-8 rad of 0 or π reach; the
  * Delaunay test reads the unbounded value. Mass is one third of the area per
- * corner ({@link barycentricVertexAreas}), so a zero-area face adds no mass.
+ * corner (vertex-areas.ts's `barycentricVertexAreas`), so a zero-area face adds no mass.
  *
  * Laying a triangle out from its lengths, one home ({@link placeThirdCorner}):
  * side AB of length l on the +x axis from the origin, C above it at
@@ -47,7 +47,6 @@
  * tail of half-edge h, so the angle opposite h is `angle[prev(h)]`.
  */
 import type { IntrinsicMesh } from './intrinsic.js';
-import { prev } from '../mesh/topology.js';
 
 /** Kahan's stable triangle area from three side lengths (0 when they do not form a triangle). */
 export function triangleArea(a: number, b: number, c: number): number {
@@ -248,57 +247,5 @@ export function edgeCotanWeights(m: IntrinsicMesh, out = new Float64Array(m.topo
   out.fill(0);
   const { edgeOf } = m.topology;
   for (let h = 0; h < cot.length; h++) out[edgeOf[h]!]! += 0.5 * cot[h]!;
-  return out;
-}
-
-/**
- * Vertex area: one third of the area of each incident face (the lumped,
- * barycentric mass matrix of the P1 finite elements; the library's one
- * lumped mass, also exported as `lumpedMass` from laplacian.ts).
- */
-export function barycentricVertexAreas(m: IntrinsicMesh, out = new Float64Array(m.topology.nv)): Float64Array {
-  const t = m.topology;
-  const A = faceAreas(m);
-  out.fill(0);
-  for (let f = 0; f < t.nf; f++) {
-    const a3 = A[f]! / 3;
-    out[t.tri[3 * f]!]! += a3;
-    out[t.tri[3 * f + 1]!]! += a3;
-    out[t.tri[3 * f + 2]!]! += a3;
-  }
-  return out;
-}
-
-/**
- * Mixed Voronoi vertex areas (Meyer, Desbrun, Schröder, Barr 2003): the
- * Voronoi share in non-obtuse triangles, A/2 at an obtuse corner and A/4 at the
- * other two corners of an obtuse triangle. They sum to the total area.
- */
-export function mixedVoronoiVertexAreas(m: IntrinsicMesh, out = new Float64Array(m.topology.nv)): Float64Array {
-  const t = m.topology;
-  const ang = cornerAngles(m);
-  const cot = halfedgeCotans(m);
-  const L = m.edgeLength;
-  out.fill(0);
-  const half = Math.PI / 2;
-  for (let f = 0; f < t.nf; f++) {
-    const h0 = 3 * f;
-    const [a, b, c] = sides(m, f);
-    const area = triangleArea(a, b, c);
-    let obtuse = -1;
-    for (let k = 0; k < 3; k++) if (ang[h0 + k]! > half) obtuse = k;
-    for (let k = 0; k < 3; k++) {
-      const h = h0 + k;
-      const v = t.tri[h]!;
-      if (obtuse < 0) {
-        // ⅛ (|h|² cot(opposite h) + |prev h|² cot(opposite prev h))
-        const hp = prev(h);
-        const lh = L[t.edgeOf[h]!]!, lp = L[t.edgeOf[hp]!]!;
-        out[v]! += 0.125 * (lh * lh * cot[h]! + lp * lp * cot[hp]!);
-      } else {
-        out[v]! += obtuse === k ? area / 2 : area / 4;
-      }
-    }
-  }
   return out;
 }

@@ -53,7 +53,7 @@ describe('one home for each helper', () => {
     ['cotOpposite', 'src/metric/triangle.ts'],
     ['faceCotans', 'src/metric/triangle.ts'],
     ['placeThirdCorner', 'src/metric/triangle.ts'],
-    ['barycentricVertexAreas', 'src/metric/triangle.ts'],
+    ['barycentricVertexAreas', 'src/metric/vertex-areas.ts'],
     ['lumpedMass', 'src/metric/laplacian.ts'],
     ['planarLength', 'src/metric/layout.ts'],
     ['layoutAlong', 'src/metric/layout.ts'],

@@ -12,7 +12,8 @@ import { icosphere, rng, terrain } from '../fixtures/shapes.js';
 import type { Shape } from '../fixtures/shapes.js';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, meanEdgeLength } from '../../src/metric/intrinsic.js';
-import { barycentricVertexAreas, edgeCotanWeights } from '../../src/metric/triangle.js';
+import { edgeCotanWeights } from '../../src/metric/triangle.js';
+import { barycentricVertexAreas } from '../../src/metric/vertex-areas.js';
 import type { CscMatrix } from '../../src/linalg/index.js';
 
 const ORDERINGS: Ordering[] = ['natural', 'nd', 'amd'];

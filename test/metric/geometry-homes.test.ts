@@ -9,9 +9,10 @@
 import { describe, expect, it } from 'vitest';
 import { fc, test } from '@fast-check/vitest';
 import {
-  cotOpposite, faceCotans, halfedgeCotans, anglesOfSides, placeThirdCorner, triangleArea, barycentricVertexAreas,
+  cotOpposite, faceCotans, halfedgeCotans, anglesOfSides, placeThirdCorner, triangleArea,
   faceAreas, COT_LIMIT, edgeCotanWeights,
 } from '../../src/metric/triangle.js';
+import { barycentricVertexAreas } from '../../src/metric/vertex-areas.js';
 import { lumpedMass, cotanLaplacian, edgePattern, faceGeometry } from '../../src/metric/laplacian.js';
 import { edgeCotanSum } from '../../src/metric/delaunay.js';
 import { layoutAlong, layoutFace, planarLength, pointSegmentDistance } from '../../src/metric/layout.js';

@@ -3,7 +3,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { fc, test } from '@fast-check/vitest';
-import { triangleArea, angleOpposite, cotOpposite, cornerAngles, faceAreas, mixedVoronoiVertexAreas, barycentricVertexAreas, anglesOfSides, unfoldedDiagonal } from '../../src/metric/triangle.js';
+import { triangleArea, angleOpposite, cotOpposite, cornerAngles, faceAreas, anglesOfSides, unfoldedDiagonal } from '../../src/metric/triangle.js';
+import { mixedVoronoiVertexAreas, barycentricVertexAreas } from '../../src/metric/vertex-areas.js';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, intrinsicFromLengths } from '../../src/metric/intrinsic.js';
 import { flatGrid, icosphere } from '../fixtures/shapes.js';
