@@ -159,8 +159,9 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
     field = { values: toTopologyVertices(surface.topology, await readField(o.field, surface)) };
   } else {
     resolver = await pointLocator(surface);
-    const m = measureDistances(surface, await sourceSet(mesh, surface, resolver, o), { method: o.method, memoryBudget, ...(o.method === 'heat' ? { heat: { factorExecutor: factorThreads() } } : {}) });
-    field = distanceScalarField(m);
+    const set = await sourceSet(mesh, surface, resolver, o);
+    const m = measureDistances(surface, set, { method: o.method, memoryBudget, ...(o.method === 'heat' ? { heat: { factorExecutor: factorThreads() } } : {}) });
+    field = distanceScalarField(m, surface, set); // exact: every crossing, curves bent in faces (exact-level.ts)
     solveMs = m.solveMs;
     prepareMs = m.prepareMs;
   }

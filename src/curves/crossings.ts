@@ -41,6 +41,16 @@ export interface ScalarField {
    * `edgeHalfedge[e]` (as in an edge surface point). Absent: linear between the vertex values.
    */
   alongEdge?: (edge: number, s: number) => number;
+  /**
+   * A distance field at any surface point (1-Lipschitz along the surface). With it and
+   * `edgeLength`, isolines find every crossing of a level on an edge, bend curves inside faces
+   * and close loops that cross no edge (exact-level.ts); bands keep the rule of this file.
+   */
+  at?: (p: SurfacePoint) => number;
+  /** Edge lengths in the metric the field measures (with `at`). */
+  edgeLength?: Float64Array;
+  /** Point sources of a distance field (with `at`): loops round them inside one face. */
+  pointSources?: readonly SurfacePoint[];
 }
 
 /** Relative width (in edge parameter) at which a crossing's root-find stops. */

@@ -23,6 +23,10 @@
  * (pinch) vertices have separate fans, and a curve passes through a vertex
  * only when that vertex lies exactly on the level.
  *
+ * A distance field known at every point (`at`, the exact method) goes to
+ * exact-level.ts instead: several crossings per edge, curves bent inside
+ * faces, loops inside one face.
+ *
  * Degenerate pieces: consecutive points at one position (crossings at a
  * vertex lying exactly on the level) are merged, and a curve of zero length
  * (the perturbed level set round a single vertex or edge lying exactly on
@@ -33,6 +37,7 @@ import { faceOf } from '../mesh/topology.js';
 import type { SurfacePoint } from '../mesh/surface-point.js';
 import { limitError, usageError } from '../errors.js';
 import { EdgeCrossings, type ScalarField } from './crossings.js';
+import { exactLevelCurves } from './exact-level.js';
 
 export type { ScalarField } from './crossings.js';
 
@@ -111,8 +116,18 @@ export function chooseLevels(values: Float64Array, o: LevelOptions): number[] {
  */
 export function isolines(t: Topology, positions: Float64Array, field: ScalarField, levels: readonly number[]): SurfaceCurve[] {
   if (field.values.length !== t.nv) throw usageError(`the field has ${field.values.length} values for ${t.nv} vertices`);
-  const cross = new EdgeCrossings(t, field, levels);
   const out: SurfaceCurve[] = [];
+  if (field.at && field.edgeLength) {
+    const pf = { values: field.values, at: field.at, edgeLength: field.edgeLength, ...(field.pointSources ? { pointSources: field.pointSources } : {}) };
+    for (const level of levels) {
+      for (const c of exactLevelCurves(t, positions, pf, level)) {
+        const length = polylineLength(c.points);
+        if (length > 0 && !(c.closed && c.points.length < 4)) out.push({ level, closed: c.closed, length, points: c.points, surfacePoints: c.surfacePoints });
+      }
+    }
+    return out;
+  }
+  const cross = new EdgeCrossings(t, field, levels);
   for (let i = 0; i < levels.length; i++) out.push(...levelCurves(cross, positions, i));
   return out;
 }

@@ -44,7 +44,7 @@ describe('isolines command', () => {
       expect(cs.length).toBe(1);
       expect(cs[0].closed).toBe(false);
       expect(Math.abs(cs[0].length - (Math.PI * L) / 2) / ((Math.PI * L) / 2)).toBeLessThan(0.01);
-      for (const p of cs[0].points) expect(Math.abs(Math.hypot(p[0], p[1]) - L)).toBeLessThan(1e-9); // exact crossings
+      for (const p of cs[0].points) expect(Math.abs(Math.hypot(p[0], p[1]) - L)).toBeLessThan(1e-10 * 30); // on the exact level (crossings and points bent inside faces), within 1e-10 of the mesh size
     }
     // closed form: quarter annuli of area π(r2² − r1²)/4 inside the square (elementary); all the bands tile the square, area W²
     const b1 = j.bands.find((b: { lower: number }) => b.lower === 2.5);

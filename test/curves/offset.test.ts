@@ -126,8 +126,9 @@ describe('offsets: closed forms', () => {
       }
       return Math.abs(curves[0]!.length - want);
     });
-    expect(errs[0]!).toBeLessThan(0.01 * want);
-    expect(errs[1]!).toBeLessThan(errs[0]!);
+    // the exact method bends the curve to the level inside faces (exact-level.ts): what is left at
+    // any resolution is the chord error, sagitta ≤ 3e-3 of each chord, under 1e-4 of the length (elementary)
+    for (const e of errs) expect(e).toBeLessThan(1e-4 * want);
   });
 
   it('refuses a distance that is not a positive number (USAGE)', () => {
