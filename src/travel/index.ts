@@ -44,8 +44,15 @@ export interface TravelOptions {
   memoryBudget?: number;
 }
 
-/** Bytes per graph node: coordinates (24), time (8), predecessor (4), settled flag (1), target step (8), queue (8), A* key (8). */
-export const BYTES_PER_NODE = 61;
+/**
+ * Bytes per graph node, at most: time (8), predecessor (4), settled flag (1), queue position (4), queue
+ * entry (12, when the whole graph is queued at once), target step (8, routes) and A* key (8, routes).
+ * Coordinates are stored per mesh vertex only: {@link BYTES_PER_VERTEX}.
+ */
+export const BYTES_PER_NODE = 45;
+
+/** Bytes per mesh vertex besides its node: horizontal coordinates and height (24). */
+export const BYTES_PER_VERTEX = 24;
 
 /** The discretisation used: what bounds the approximation. */
 export interface TravelApproximation {
@@ -116,7 +123,7 @@ export function faceMultipliersOf(s: Surface, spec: string | Float64Array | unde
 function setup(s: Surface, opts: TravelOptions): { g: SteinerGraph; pace: PaceModel; ms: number } {
   const t0 = performance.now();
   const k = opts.k ?? 3, t = s.topology;
-  const need = (t.nv + t.ne * (Number.isInteger(k) && k >= 0 ? k : 0)) * BYTES_PER_NODE + 8 * t.nf;
+  const need = (t.nv + t.ne * (Number.isInteger(k) && k >= 0 ? k : 0)) * BYTES_PER_NODE + BYTES_PER_VERTEX * t.nv + 8 * t.nf;
   if (opts.memoryBudget !== undefined && need > opts.memoryBudget) {
     throw limitError(
       `the Steiner graph needs about ${formatBytes(need)} (${t.nv + t.ne * k} nodes: ${k} per edge), over the memory budget of ${formatBytes(opts.memoryBudget)}; raise --memory-budget or lower --steiner`,
@@ -146,10 +153,11 @@ export function approximationOf(g: SteinerGraph, spacing: SteinerSpacing): Trave
   const t = g.t;
   for (let e = 0; e < t.ne; e++) {
     const h = t.edgeHalfedge[e]!, u = t.tri[h]!, w = t.tri[next(h)]!;
-    const F = g.frame, len = Math.hypot(F[3 * w]! - F[3 * u]!, F[3 * w + 1]! - F[3 * u + 1]!, F[3 * w + 2]! - F[3 * u + 2]!);
-    if (len > maxLen) maxLen = len;
+    const F = g.vertexFrame, a = F[3 * w]! - F[3 * u]!, b = F[3 * w + 1]! - F[3 * u + 1]!, c = F[3 * w + 2]! - F[3 * u + 2]!;
+    const sq = a * a + b * b + c * c; // squares: Math.hypot is slow over millions of edges
+    if (sq > maxLen) maxLen = sq;
   }
-  return { k: g.k, spacing, relativeGap: rel, maxGapMeters: rel * maxLen, nodes: g.nodeCount };
+  return { k: g.k, spacing, relativeGap: rel, maxGapMeters: rel * Math.sqrt(maxLen), nodes: g.nodeCount };
 }
 
 /**

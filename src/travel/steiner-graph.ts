@@ -23,8 +23,12 @@
  * that segment (one slope, one face): every time the graph finds is the
  * time of a real route on the mesh, an upper bound on the model's optimum.
  *
- * Node coordinates are kept as horizontal (a, b) and height, in metres:
- * the up axis and the scale of mesh units are applied once here.
+ * Vertex coordinates are kept as horizontal (a, b) and height, in metres:
+ * the up axis and the scale of mesh units are applied once here. A Steiner
+ * point's are not stored: they are (1 − s)·tail + s·head of its edge's
+ * vertex coordinates, computed where needed ({@link SteinerGraph.nodeFrame},
+ * and the search's inner loop with the same expression, so the same bits).
+ * Stored, they were 24 bytes per node read at random places by the search.
  */
 import type { Topology } from '../mesh/topology.js';
 import { next, prev, faceOf, nextOutgoing } from '../mesh/topology.js';
@@ -85,10 +89,10 @@ export class SteinerGraph {
   /** Parameters of the Steiner points along an edge (ascending). */
   readonly params: Float64Array;
   /**
-   * Per node, interleaved (one cache line holds a node's three): horizontal
-   * coordinates a, b and the height, metres: `frame[3u], frame[3u+1], frame[3u+2]`.
+   * Per mesh vertex, interleaved: horizontal coordinates a, b and the height,
+   * metres: `vertexFrame[3v], vertexFrame[3v+1], vertexFrame[3v+2]`.
    */
-  readonly frame: Float64Array;
+  readonly vertexFrame: Float64Array;
   /** Multiplier per face (null: all 1). */
   readonly faceMult: Float64Array | null;
   /** Multiplier of arcs along each edge: the smallest positive multiplier of its faces, 0 when none (null: all 1). */
@@ -116,21 +120,13 @@ export class SteinerGraph {
     const na = Math.hypot(a[0]!, a[1]!, a[2]!);
     a[0]! /= na; a[1]! /= na; a[2]! /= na;
     const b = [up[1] * a[2]! - up[2] * a[1]!, up[2] * a[0]! - up[0] * a[2]!, up[0] * a[1]! - up[1] * a[0]!];
-    const n = this.nodeCount;
-    const F = (this.frame = new Float64Array(3 * n));
+    const F = (this.vertexFrame = new Float64Array(3 * t.nv));
     const P = positions;
     for (let v = 0; v < t.nv; v++) {
       const x = P[3 * v]!, y = P[3 * v + 1]!, z = P[3 * v + 2]!;
       F[3 * v] = scale * (x * a[0]! + y * a[1]! + z * a[2]!);
       F[3 * v + 1] = scale * (x * b[0]! + y * b[1]! + z * b[2]!);
       F[3 * v + 2] = scale * (x * up[0] + y * up[1] + z * up[2]);
-    }
-    for (let e = 0; e < t.ne; e++) {
-      const h = t.edgeHalfedge[e]!, u = t.tri[h]!, w = t.tri[next(h)]!;
-      for (let j = 0; j < k; j++) {
-        const s = this.params[j]!, m = t.nv + e * k + j;
-        for (let d = 0; d < 3; d++) F[3 * m + d] = (1 - s) * F[3 * u + d]! + s * F[3 * w + d]!;
-      }
     }
     const fm = opts.faceMultipliers ?? null;
     this.faceMult = fm;
@@ -211,6 +207,22 @@ export class SteinerGraph {
     to[n] = k === 0 ? this.t.tri[atTail ? next(h) : h]! : this.nv + e * k + (atTail ? 0 : k - 1);
     mult[n] = me;
     return n + 1;
+  }
+
+  /**
+   * Horizontal coordinates and height of node `u` (metres) into `out` at
+   * `o`: a vertex's stored ones, a Steiner point's (1 − s)·tail + s·head.
+   */
+  nodeFrame(u: number, out: Float64Array | number[] = [0, 0, 0], o = 0): Float64Array | number[] {
+    const F = this.vertexFrame;
+    if (u < this.nv) {
+      out[o] = F[3 * u]!; out[o + 1] = F[3 * u + 1]!; out[o + 2] = F[3 * u + 2]!;
+      return out;
+    }
+    const e = ((u - this.nv) / this.k) | 0, s = this.params[u - this.nv - e * this.k]!, r = 1 - s;
+    const h = this.t.edgeHalfedge[e]!, a = 3 * this.t.tri[h]!, b = 3 * this.t.tri[next(h)]!;
+    for (let i = 0; i < 3; i++) out[o + i] = r * F[a + i]! + s * F[b + i]!;
+    return out;
   }
 
   /** Node `u` as a surface point (a vertex, or an edge point). */

@@ -2,7 +2,8 @@
  * Walking times over the Steiner graph (steiner-graph.ts): Dijkstra's
  * algorithm (E. W. Dijkstra, Numer. Math. 1, 1959) with non-negative,
  * direction-dependent arc times, the typed-array queue of the edge-graph
- * method (geodesic/shared/edge-dijkstra.ts) and arcs made on the fly.
+ * method (geodesic/shared/edge-dijkstra.ts) and arcs walked in place
+ * (search.ts).
  *
  * A source or target off the nodes (a point inside a face or on an edge)
  * is joined to every node of its face(s) by a straight segment in that
@@ -10,12 +11,13 @@
  * A target stops the search once no unsettled node can improve it: when
  * the settled time reaches the best arrival found, it is final.
  */
-import { IndexedMinHeap } from '../geodesic/shared/edge-dijkstra.js';
+import { PairHeap } from './queue.js';
+import { SteinerSearch } from './search.js';
 import type { SurfacePoint } from '../mesh/surface-point.js';
 import { facesOfPoint } from '../metric/face-points.js';
 import { next } from '../mesh/topology.js';
 import type { SteinerGraph } from './steiner-graph.js';
-import { toblerStepSeconds, type PaceModel } from './pace.js';
+import type { PaceModel } from './pace.js';
 
 /** A node with a time: seconds from the source to the node, or from the node to the target. */
 export interface TravelSeed {
@@ -33,14 +35,12 @@ export interface TravelState {
   pred: Int32Array;
   /** 1 where a node is settled. */
   done: Uint8Array;
-  /** Seconds from a node to the target, where the node is next to it (NaN elsewhere). */
-  toTarget: Float64Array;
-  /** Scratch of one node's arcs. */
-  to: Int32Array;
-  /** See {@link to}. */
-  mult: Float64Array;
+  /** Seconds from a node to the target, where the node is next to it (NaN elsewhere); made by the first search with a target. */
+  toTarget?: Float64Array;
   /** Queue keys of A* searches (time + the heuristic), made on first use. */
   key?: Float64Array;
+  /** The queue, made by the first search and cleared by the next. */
+  heap?: PairHeap;
   /** Arcs relaxed by the last search. */
   relaxed: number;
   /** Nodes settled by the last search. */
@@ -54,9 +54,6 @@ export function travelState(g: SteinerGraph): TravelState {
     dist: new Float64Array(n),
     pred: new Int32Array(n),
     done: new Uint8Array(n),
-    toTarget: new Float64Array(n).fill(NaN),
-    to: new Int32Array(g.maxDegree),
-    mult: new Float64Array(g.maxDegree),
     relaxed: 0,
     settled: 0,
   };
@@ -72,8 +69,9 @@ export function pointFrame(g: SteinerGraph, p: SurfacePoint): [number, number, n
     w = [[t.tri[h]!, 1 - p.t, 0], [t.tri[next(h)]!, p.t, 0]];
   } else w = [0, 1, 2].map((c) => [t.tri[3 * p.face + c]!, p.bary[c]!, 0]);
   let a = 0, b = 0, z = 0;
+  const F = g.vertexFrame;
   for (const [v, s] of w) {
-    a += s * g.frame[3 * v]!; b += s * g.frame[3 * v + 1]!; z += s * g.frame[3 * v + 2]!;
+    a += s * F[3 * v]!; b += s * F[3 * v + 1]!; z += s * F[3 * v + 2]!;
   }
   return [a, b, z];
 }
@@ -83,7 +81,7 @@ export function pointFrame(g: SteinerGraph, p: SurfacePoint): [number, number, n
  * (from the point when `fromPoint`, else to it), times `m`.
  */
 export function stepSeconds(g: SteinerGraph, pace: PaceModel, p: [number, number, number], u: number, m: number, fromPoint: boolean): number {
-  const F = g.frame, da = F[3 * u]! - p[0], db = F[3 * u + 1]! - p[1], dz = F[3 * u + 2]! - p[2];
+  const q = g.nodeFrame(u), da = q[0]! - p[0], db = q[1]! - p[1], dz = q[2]! - p[2];
   const dx = Math.sqrt(da * da + db * db);
   const s = pace.seconds(dx, fromPoint ? dz : -dz);
   return s === 0 ? 0 : s * m;
@@ -142,10 +140,8 @@ export function runTravelSearch(
   maxSeconds = Infinity,
   goal: [number, number] | null = null,
 ): SearchResult {
-  const { dist, pred, done, toTarget, to, mult } = state;
-  const F = g.frame;
+  const { dist, pred, done } = state;
   const minPace = pace.minSecondsPerMeter;
-  const tobler = pace.name === 'tobler', maxGrade = pace.maxGrade; // the default model called directly (inlined)
   dist.fill(Infinity);
   pred.fill(-1);
   done.fill(0);
@@ -153,46 +149,38 @@ export function runTravelSearch(
   const hRate = goal && target ? minPace * g.minMultiplier : 0;
   const key = hRate > 0 && Number.isFinite(hRate) ? (state.key ??= new Float64Array(g.nodeCount)) : dist;
   const ga = goal ? goal[0] : 0, gb = goal ? goal[1] : 0;
-  const h = (u: number) => hRate * Math.sqrt((F[3 * u]! - ga) ** 2 + (F[3 * u + 1]! - gb) ** 2);
-  const heap = new IndexedMinHeap(g.nodeCount, key);
+  const xy = [0, 0, 0];
+  const h = (u: number) => {
+    g.nodeFrame(u, xy);
+    return hRate * Math.sqrt((xy[0]! - ga) * (xy[0]! - ga) + (xy[1]! - gb) * (xy[1]! - gb));
+  };
+  const heap = (state.heap ??= new PairHeap(g.nodeCount));
+  heap.clear();
   for (const s of seeds) {
     if (s.seconds < dist[s.node]!) {
       dist[s.node] = s.seconds;
       if (key !== dist) key[s.node] = s.seconds + h(s.node);
-      heap.push(s.node);
+      heap.push(s.node, key[s.node]!);
     }
   }
-  if (target) for (const s of target) toTarget[s.node] = Math.min(s.seconds, Number.isNaN(toTarget[s.node]!) ? Infinity : toTarget[s.node]!);
-  let best = Infinity, via = -1, relaxed = 0, settled = 0;
+  const toTarget = target ? (state.toTarget ??= new Float64Array(g.nodeCount).fill(NaN)) : null;
+  if (toTarget && target) for (const s of target) toTarget[s.node] = Math.min(s.seconds, Number.isNaN(toTarget[s.node]!) ? Infinity : toTarget[s.node]!);
+  const search = new SteinerSearch(g, pace, dist, pred, heap, key, hRate, ga, gb, maxSeconds);
+  let best = Infinity, via = -1, settled = 0;
   while (heap.size > 0) {
-    const u = heap.pop();
+    const ku = heap.minKey, u = heap.pop();
+    if (ku >= best) break; // nothing left can arrive earlier (key ≤ any arrival through u)
     const du = dist[u]!;
-    if (key[u]! >= best) break; // nothing left can arrive earlier (key ≤ any arrival through u)
     done[u] = 1;
     settled++;
-    if (target) {
+    if (toTarget) {
       const tt = toTarget[u]!;
       if (tt === tt && du + tt < best) { best = du + tt; via = u; }
     }
-    const n = g.arcs(u, to, mult);
-    const au = F[3 * u]!, bu = F[3 * u + 1]!, zu = F[3 * u + 2]!;
-    for (let i = 0; i < n; i++) {
-      const w = to[i]!, dw = dist[w]!;
-      if (dw <= du) continue; // settled, or already as early (steps take no negative time)
-      const o = 3 * w, da = F[o]! - au, db = F[o + 1]! - bu, dx = Math.sqrt(da * da + db * db), m = mult[i]!;
-      if (du + dx * minPace * m >= dw) continue; // even the fastest pace would not improve w
-      const s = tobler ? toblerStepSeconds(dx, F[o + 2]! - zu, maxGrade) : pace.seconds(dx, F[o + 2]! - zu);
-      relaxed++;
-      const nd = du + (s === 0 ? 0 : s * m);
-      if (nd < dw && nd <= maxSeconds) {
-        dist[w] = nd;
-        pred[w] = u;
-        if (key !== dist) key[w] = nd + h(w);
-        heap.push(w);
-      }
-    }
+    search.settle(u, du);
   }
-  if (target) for (const s of target) toTarget[s.node] = NaN;
+  const relaxed = search.relaxed;
+  if (toTarget && target) for (const s of target) toTarget[s.node] = NaN;
   state.relaxed = relaxed;
   state.settled = settled;
   return { seconds: best, via };
