@@ -4,7 +4,7 @@
  * merged equal to one run (byte for byte), a run killed with SIGKILL and
  * resumed equal to an uninterrupted one, and a typo in a rules file refused.
  */
-import { describe, expect, it, beforeAll } from 'vitest';
+import { describe, expect, it, beforeAll, vi } from 'vitest';
 import { spawn, spawnSync } from 'node:child_process';
 import { mkdtempSync, mkdirSync, readFileSync, writeFileSync, existsSync, copyFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -13,6 +13,8 @@ import { createRequire } from 'node:module';
 import { pathToFileURL } from 'node:url';
 import { repoPath } from './run-cli.js';
 import { runMerge } from '../../cli/score/merge.js';
+import { registerScore } from '../../cli/commands/score.js';
+import { Command } from 'commander';
 import { icosphere, torus, flatGrid, objText } from '../fixtures/shapes.js';
 import { subdivide, type V3 } from '../fixtures/subdivide.js';
 
@@ -42,11 +44,42 @@ beforeAll(() => {
   writeFileSync(join(parts, 'sub', 'plate.obj'), objText(flatGrid(6, 6)));
   writeFileSync(join(parts, 'broken.obj'), 'v 0 0 0\nf 1 2 three\n'); // cannot be read: an error row
   writeFileSync(join(dir, 'rules.json'), JSON.stringify(RULES, null, 2));
-  // eight meshes that take a while each (exact and heat groups), for the kill
+  // eight meshes that take a little while each (every group: exact and heat), for the kill; small, so the test stays cheap
   const slow = join(dir, 'slow');
   mkdirSync(slow);
-  for (let i = 0; i < 8; i++) writeFileSync(join(slow, `s${String(i).padStart(2, '0')}.obj`), objText(torus(24 + i, 12)));
+  for (let i = 0; i < 8; i++) writeFileSync(join(slow, `s${String(i).padStart(2, '0')}.obj`), objText(torus(14 + i, 7)));
 });
+
+/**
+ * `orthodrome score ARGS` in this process, in `dir`: the command as the CLI registers it (commander, the action
+ * wrapper that sets the exit code), with stdout and stderr captured. A process start costs about a second of CPU
+ * from source, so the runs whose checks are about the results (shards, limits, manifests, the clean run beside
+ * the killed one) go here; the runs that check the process itself (exit code and stderr of the real command,
+ * standard input, SIGKILL) are spawned.
+ */
+async function scoreHere(args: string[], env: Record<string, string> = {}): Promise<{ code: number; stdout: string; stderr: string }> {
+  const out: string[] = [], err: string[] = [];
+  const saved = { ...process.env }, cwd = process.cwd();
+  const o = vi.spyOn(process.stdout, 'write').mockImplementation((x: string | Uint8Array) => (out.push(String(x)), true));
+  const e = vi.spyOn(process.stderr, 'write').mockImplementation((x: string | Uint8Array) => (err.push(String(x)), true));
+  try {
+    for (const k of ['JOB_COMPLETION_INDEX', 'ORTHODROME_SHARDS', 'SLURM_ARRAY_TASK_ID', 'SLURM_ARRAY_TASK_COUNT', 'SLURM_ARRAY_TASK_MIN']) delete process.env[k];
+    Object.assign(process.env, env);
+    process.chdir(dir);
+    process.exitCode = undefined;
+    const program = new Command().exitOverride();
+    registerScore(program);
+    await program.parseAsync(['node', 'orthodrome', 'score', ...args]);
+    return { code: Number(process.exitCode ?? 0), stdout: out.join(''), stderr: err.join('') };
+  } finally {
+    process.exitCode = undefined;
+    process.chdir(cwd);
+    for (const k of Object.keys(process.env)) if (!(k in saved)) delete process.env[k];
+    Object.assign(process.env, saved);
+    o.mockRestore();
+    e.mockRestore();
+  }
+}
 
 /** `orthodrome score ARGS` from source in `dir`, with extra environment variables and standard input. */
 function score(args: string[], env: Record<string, string> = {}, input = ''): { code: number; stdout: string; stderr: string } {
@@ -59,7 +92,7 @@ function score(args: string[], env: Record<string, string> = {}, input = ''): { 
 }
 
 describe('orthodrome score', () => {
-  it('scores a folder with gates: fail and error rows, exit 1; three shards merged equal the single run byte for byte', async () => {
+  it('scores a folder with gates: fail and error rows, exit 1; two shards merged equal the single run byte for byte', async () => {
     const one = score(['parts', '--rules', 'rules.json', '-o', 'single.csv', '--jobs', '2']);
     expect(one.code, one.stderr).toBe(1);
     const text = readFileSync(join(dir, 'single.csv'), 'utf8');
@@ -79,35 +112,49 @@ describe('orthodrome score', () => {
     // plain progress lines on stderr (not a terminal), one per mesh
     expect(one.stderr.match(/^score \d\/7 (pass|fail|error) /gm)?.length).toBe(7);
 
-    for (let i = 0; i < 3; i++) {
+    const counts: number[] = [];
+    for (let i = 0; i < 2; i++) {
       // shard 1 reads its index as a Kubernetes Indexed Job would give it
       const r = i === 1
-        ? score(['parts', '--rules', 'rules.json', '-o', 'part-{shard}.csv', '--jobs', '1', '--shard', 'env', '--quiet'], { JOB_COMPLETION_INDEX: '1', ORTHODROME_SHARDS: '3' })
-        : score(['parts', '--rules', 'rules.json', '-o', 'part-{shard}.csv', '--jobs', '1', '--shard', `${i}/3`, '--quiet']);
+        ? await scoreHere(['parts', '--rules', 'rules.json', '-o', 'part-{shard}.csv', '--jobs', '1', '--shard', 'env', '--quiet'], { JOB_COMPLETION_INDEX: '1', ORTHODROME_SHARDS: '2' })
+        : await scoreHere(['parts', '--rules', 'rules.json', '-o', 'part-{shard}.csv', '--jobs', '1', '--shard', `${i}/2`, '--quiet']);
       expect([0, 1]).toContain(r.code);
-      expect(r.stdout).toMatch(new RegExp(`shard ${i}/3 of 7`));
+      const m = new RegExp(`score: (\\d+) mesh\\(es\\) \\(shard ${i}/2 of 7\\)`).exec(r.stdout);
+      expect(m, r.stdout).not.toBeNull();
+      counts.push(Number(m![1]));
     }
-    const m = score(['merge', 'part-0.csv', 'part-1.csv', 'part-2.csv', '-o', 'merged.csv']);
-    expect(m.code, m.stderr).toBe(1);
-    expect(m.stdout).toMatch(/3 part\(s\), 7 mesh\(es\), none missing or duplicated/);
+    expect(counts[0]! + counts[1]!).toBe(7);
+    expect(Math.min(...counts)).toBeGreaterThan(0); // both shards have work, so the merge joins two real parts
+
+    // the merge in-process (a process start less; its exit codes are run.ts's, tested with the other commands)
+    const at = (f: string) => join(dir, f);
+    const said: string[] = [];
+    const spy = vi.spyOn(process.stdout, 'write').mockImplementation((x: string | Uint8Array) => (said.push(String(x)), true));
+    let code: number;
+    try {
+      code = await runMerge([at('part-0.csv'), at('part-1.csv')], at('merged.csv'));
+    } finally {
+      spy.mockRestore();
+    }
+    expect(code).toBe(1); // a mesh failed its gates
+    expect(said.join('')).toMatch(/2 part\(s\), 7 mesh\(es\), none missing or duplicated/);
     expect(readFileSync(join(dir, 'merged.csv'), 'utf8')).toBe(text);
     expect(readFileSync(join(dir, 'merged.csv.plan.json'), 'utf8')).toBe(readFileSync(join(dir, 'single.csv.plan.json'), 'utf8'));
 
-    // merge refuses a missing shard and a shard given twice (USAGE: exit 2, one line; checked here in-process, a spawn less)
-    const at = (f: string) => join(dir, f);
-    await expect(runMerge([at('part-0.csv'), at('part-2.csv')], at('bad.csv'))).rejects.toThrow(/shard\(s\) 1\/3 missing/);
+    // merge refuses a missing shard, a shard given twice and a torn part (USAGE: exit 2, one line)
+    await expect(runMerge([at('part-0.csv')], at('bad.csv'))).rejects.toThrow(/shard\(s\) 1\/2 missing/);
     copyFileSync(at('part-0.csv'), at('again.csv'));
     copyFileSync(at('part-0.csv.plan.json'), at('again.csv.plan.json'));
-    await expect(runMerge([at('part-0.csv'), at('again.csv'), at('part-1.csv'), at('part-2.csv')], at('bad.csv'))).rejects.toThrow(/shard 0\/3 is given twice/);
+    await expect(runMerge([at('part-0.csv'), at('again.csv'), at('part-1.csv')], at('bad.csv'))).rejects.toThrow(/shard 0\/2 is given twice/);
     writeFileSync(at('torn.csv'), readFileSync(at('part-1.csv'), 'utf8').slice(0, -3));
     copyFileSync(at('part-1.csv.plan.json'), at('torn.csv.plan.json'));
-    await expect(runMerge([at('part-0.csv'), at('torn.csv'), at('part-2.csv')], at('bad.csv'))).rejects.toThrow(/torn|no row/);
+    await expect(runMerge([at('part-0.csv'), at('torn.csv')], at('bad.csv'))).rejects.toThrow(/torn|no row/);
     expect(existsSync(at('bad.csv'))).toBe(false);
   }, 240_000);
 
   it('a run killed with SIGKILL and resumed gives the same report as an uninterrupted run', async () => {
     const args = ['slow', '--metrics', 'all', '--jobs', '1', '--quiet', '--rules', 'rules.json'];
-    const clean = score([...args, '-o', 'clean.jsonl']);
+    const clean = await scoreHere([...args, '-o', 'clean.jsonl']);
     expect(clean.code, clean.stderr).toBe(1); // tori: genus 1
     const out = join(dir, 'killed.jsonl');
     const child = spawn(process.execPath, ['--import', TSX, repoPath('cli/orthodrome.ts'), 'score', ...args, '-o', 'killed.jsonl'], { cwd: dir, stdio: 'ignore' });
@@ -129,13 +176,13 @@ describe('orthodrome score', () => {
     expect(readFileSync(out, 'utf8')).toBe(readFileSync(join(dir, 'clean.jsonl'), 'utf8'));
   }, 240_000);
 
-  it('a mesh over the time limit or the memory estimate is an error row naming the limit; the run goes on', () => {
-    const mem = score(['parts/cube-a.obj', 'parts/sphere.obj', '--mesh-memory', '1K', '-o', 'mem.jsonl', '--jobs', '1', '--quiet']);
+  it('a mesh over the time limit or the memory estimate is an error row naming the limit; the run goes on', async () => {
+    const mem = await scoreHere(['parts/cube-a.obj', 'parts/sphere.obj', '--mesh-memory', '1K', '-o', 'mem.jsonl', '--jobs', '1', '--quiet']);
     expect(mem.code).toBe(1);
     const rows = readFileSync(join(dir, 'mem.jsonl'), 'utf8').trim().split('\n').map((l) => JSON.parse(l) as Record<string, unknown>);
     expect(rows.map((r) => r.status)).toEqual(['error', 'error']);
     expect(String(rows[0]!.error)).toMatch(/parts\/cube-a\.obj: memory estimate .* over the per-mesh limit of 1 KiB; raise it with --mesh-memory/);
-    const slow = score(['slow/s00.obj', 'parts/cube-a.obj', '--metrics', 'all', '--time-limit', '0.001', '-o', 'time.csv', '--jobs', '1', '--quiet']);
+    const slow = await scoreHere(['slow/s00.obj', 'parts/cube-a.obj', '--metrics', 'all', '--time-limit', '0.001', '-o', 'time.csv', '--jobs', '1', '--quiet']);
     expect(slow.code).toBe(1);
     expect(readFileSync(join(dir, 'time.csv'), 'utf8')).toMatch(/slow\/s00\.obj: over the per-mesh time limit of 0\.001 s; raise it with --time-limit/);
   }, 240_000);
@@ -150,10 +197,10 @@ describe('orthodrome score', () => {
 });
 
 describe('score inputs', () => {
-  it('a manifest with landmarks and a missing mesh; a glob; a list on standard input', () => {
+  it('a manifest with landmarks and a missing mesh; a glob; a list on standard input', async () => {
     writeFileSync(join(dir, 'parts.csv'), 'path,landmarks,units,tag\nparts/cube-a.obj,"far=p:0,0,0>p:1,1,1=2.23606797749979±1e-9",mm,b7\nparts/nothing.obj,,mm,b7\n');
     writeFileSync(join(dir, 'lm.json'), JSON.stringify({ rules: [{ name: 'nominal', landmarks: { tolerance: 0.001 } }] }));
-    const r = score(['parts.csv', 'parts/s*.obj', '--rules', 'lm.json', '-o', 'lm.jsonl', '--jobs', '1', '--quiet']);
+    const r = await scoreHere(['parts.csv', 'parts/s*.obj', '--rules', 'lm.json', '-o', 'lm.jsonl', '--jobs', '1', '--quiet']);
     expect(r.code).toBe(1);
     const rows = readFileSync(join(dir, 'lm.jsonl'), 'utf8').trim().split('\n').map((l) => JSON.parse(l) as Record<string, unknown>);
     expect(rows.map((x) => [x.file, x.status])).toEqual([
