@@ -33,12 +33,28 @@ export type PointSpec =
   | { kind: 'position'; xyz: [number, number, number] }
   | { kind: 'column'; xy: [number, number] };
 
-const NUM = String.raw`[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?`;
+/** A number in a spec's text form (digits, optional point and exponent; NaN and Infinity are not spelled). */
+export const SPEC_NUMBER = String.raw`[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?`;
+const NUM = SPEC_NUMBER;
 const RE_V = /^v:(\d+)$/;
 const RE_E = new RegExp(`^e:(\\d+):(${NUM})$`);
 const RE_F = new RegExp(`^f:(\\d+):(${NUM}),(${NUM}),(${NUM})$`);
 const RE_P = new RegExp(`^p:(${NUM}),(${NUM}),(${NUM})$`);
 const RE_P2 = new RegExp(`^p:(${NUM}),(${NUM})$`);
+
+/**
+ * The coordinates in groups 1…n of a spec's match (point and loop specs),
+ * refused with a `USAGE` error naming the spec unless all are finite (a
+ * number such as 1e999 matches {@link SPEC_NUMBER} but overflows).
+ */
+export function specCoordinates(m: RegExpExecArray, n: 3, text: string, label: string): [number, number, number];
+export function specCoordinates(m: RegExpExecArray, n: 2, text: string, label: string): [number, number];
+export function specCoordinates(m: RegExpExecArray, n: number, text: string, label: string): number[] {
+  const out: number[] = [];
+  for (let i = 1; i <= n; i++) out.push(Number(m[i]));
+  if (!out.every(Number.isFinite)) throw usageError(`coordinates must be finite in '${text}'`, label);
+  return out;
+}
 
 /**
  * Parses `v:I`, `e:I:T`, `f:I:B0,B1,B2`, `p:X,Y,Z` or `p:X,Y`. Barycentric
@@ -63,16 +79,8 @@ export function parsePointSpec(text: string, label = 'point'): PointSpec {
     }
     return { kind: 'face', face: Number(m[1]), bary: [b[0]! / sum, b[1]! / sum, b[2]! / sum] };
   }
-  if ((m = RE_P.exec(s))) {
-    const xyz: [number, number, number] = [Number(m[1]), Number(m[2]), Number(m[3])];
-    if (!xyz.every(Number.isFinite)) throw usageError(`coordinates must be finite in '${text}'`, label);
-    return { kind: 'position', xyz };
-  }
-  if ((m = RE_P2.exec(s))) {
-    const xy: [number, number] = [Number(m[1]), Number(m[2])];
-    if (!xy.every(Number.isFinite)) throw usageError(`coordinates must be finite in '${text}'`, label);
-    return { kind: 'column', xy };
-  }
+  if ((m = RE_P.exec(s))) return { kind: 'position', xyz: specCoordinates(m, 3, text, label) };
+  if ((m = RE_P2.exec(s))) return { kind: 'column', xy: specCoordinates(m, 2, text, label) };
   throw usageError(`cannot read point '${text}' (expected v:INDEX, e:INDEX:T, f:INDEX:B0,B1,B2, p:X,Y,Z or p:X,Y)`, label);
 }
 

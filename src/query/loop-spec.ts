@@ -22,7 +22,7 @@ import { inputError, usageError } from '../errors.js';
 import type { Topology } from '../mesh/topology.js';
 import { next } from '../mesh/topology.js';
 import { namedBoundaryLoops, type NamedLoop } from '../mesh/boundary.js';
-import type { SurfacePoint } from '../mesh/surface-point.js';
+import { SPEC_NUMBER, specCoordinates, type SurfacePoint } from '../mesh/surface-point.js';
 
 /** A parsed loop spec. */
 export type LoopSpec =
@@ -30,7 +30,7 @@ export type LoopSpec =
   | { kind: 'loop-near'; xyz: [number, number, number] }
   | { kind: 'loop-near-plan'; xy: [number, number] };
 
-const NUM = String.raw`[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?`;
+const NUM = SPEC_NUMBER;
 const RE_ID = /^loop:(\d+)$/;
 const RE_NEAR = new RegExp(`^loop@(${NUM}),(${NUM}),(${NUM})$`);
 const RE_PLAN = new RegExp(`^loop@(${NUM}),(${NUM})$`);
@@ -52,16 +52,8 @@ export function parseLoopSpec(text: string, label = 'loop'): LoopSpec {
     if (!Number.isSafeInteger(id)) throw usageError(`loop id is too large in '${text}'`, label);
     return { kind: 'loop-id', id };
   }
-  if ((m = RE_NEAR.exec(s))) {
-    const xyz: [number, number, number] = [Number(m[1]), Number(m[2]), Number(m[3])];
-    if (!xyz.every(Number.isFinite)) throw usageError(`coordinates must be finite in '${text}'`, label);
-    return { kind: 'loop-near', xyz };
-  }
-  if ((m = RE_PLAN.exec(s))) {
-    const xy: [number, number] = [Number(m[1]), Number(m[2])];
-    if (!xy.every(Number.isFinite)) throw usageError(`coordinates must be finite in '${text}'`, label);
-    return { kind: 'loop-near-plan', xy };
-  }
+  if ((m = RE_NEAR.exec(s))) return { kind: 'loop-near', xyz: specCoordinates(m, 3, text, label) };
+  if ((m = RE_PLAN.exec(s))) return { kind: 'loop-near-plan', xy: specCoordinates(m, 2, text, label) };
   throw usageError(`cannot read loop '${text}' (expected loop:ID, loop@X,Y,Z or loop@X,Y)`, label);
 }
 
