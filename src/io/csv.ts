@@ -1,6 +1,7 @@
 /**
- * CSV text (RFC 4180 quoting): a generic table writer and a per-vertex column
- * writer. Numbers are printed as the shortest decimal that reads back to the
+ * CSV text (RFC 4180 quoting): a generic table writer, a per-vertex column
+ * writer, and the reader of records (with quoted fields) that manifests and
+ * results files are read back with. Numbers are printed as the shortest decimal that reads back to the
  * same double (ECMAScript Number-to-String); non-finite numbers and `null`
  * become an empty field, so a spreadsheet sees "no value", not `Infinity`.
  */
@@ -18,11 +19,59 @@ export interface CsvOptions {
   newline?: '\n' | '\r\n';
 }
 
-/** A field as CSV text: quoted when it holds a comma, quote, CR or LF. */
-function field(v: number | string | null): string {
+/**
+ * A field as CSV text (the one home of the quoting rule): quoted when it
+ * holds a comma, quote, CR or LF; none and non-finite numbers empty;
+ * true/false as words.
+ */
+export function csvField(v: number | string | boolean | null): string {
   if (v === null) return '';
   if (typeof v === 'number') return Number.isFinite(v) ? String(v) : '';
+  if (typeof v === 'boolean') return String(v);
   return /[",\r\n]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v;
+}
+const field = csvField;
+
+/** One CSV record read back: its fields (unquoted) and where its text starts and ends (line end included). */
+export interface CsvRecord {
+  fields: string[];
+  start: number;
+  end: number;
+}
+
+/**
+ * The CSV records of `text` (RFC 4180: quoted fields may hold commas, quotes
+ * as `""`, CR and LF; records end with LF, CR LF or CR). A last record
+ * without its line end is left out, so a reader of an append-only file sees
+ * a torn tail as missing, never as a short record.
+ */
+export function csvRecords(text: string): CsvRecord[] {
+  const out: CsvRecord[] = [];
+  let fields: string[] = [], cur = '', quoted = false, start = 0, i = 0, fieldStarted = false;
+  while (i < text.length) {
+    const c = text[i]!;
+    if (quoted) {
+      if (c === '"') {
+        if (text[i + 1] === '"') { cur += '"'; i += 2; continue; }
+        quoted = false;
+      } else cur += c;
+      i++;
+      continue;
+    }
+    if (c === '"' && !fieldStarted) { quoted = true; fieldStarted = true; i++; continue; }
+    if (c === ',') { fields.push(cur); cur = ''; fieldStarted = false; i++; continue; }
+    if (c === '\n' || c === '\r') {
+      fields.push(cur);
+      const end = c === '\r' && text[i + 1] === '\n' ? i + 2 : i + 1;
+      out.push({ fields, start, end });
+      fields = []; cur = ''; fieldStarted = false; start = end; i = end;
+      continue;
+    }
+    cur += c;
+    fieldStarted = true;
+    i++;
+  }
+  return out;
 }
 
 /** A header line and one line per row. Rows may be ragged; nothing is padded. */

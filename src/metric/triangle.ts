@@ -59,6 +59,20 @@ export function triangleArea(a: number, b: number, c: number): number {
 }
 
 /**
+ * Radius ratio R/(2r) of the triangle with sides a, b, c (circumradius R =
+ * abc/4A, inradius r = A/s, s the half perimeter): abc·(a + b + c) / (16 A²),
+ * 1 for an equilateral triangle, growing without bound as it flattens
+ * (Shewchuk, "What is a good linear finite element?", 2002). Infinity
+ * without area; never under 1 (rounding can put an equilateral a few ulps below).
+ */
+export function radiusRatio(a: number, b: number, c: number): number {
+  const A = triangleArea(a, b, c);
+  if (!(A > 0)) return Infinity;
+  const r = (a * b * c * (a + b + c)) / (16 * A * A);
+  return r < 1 ? 1 : r;
+}
+
+/**
  * Third corner C of a triangle laid out with side AB (length `l`) on the +x
  * axis from the origin and C above it (see the module comment), given
  * |BC| = `ln`, |CA| = `lp` and the triangle's `area` (Kahan's, from

@@ -13,7 +13,7 @@
  * `landmarks` must not drop the checks silently). Blank records are skipped.
  */
 import { inputError } from '../errors.js';
-import { csvRecords } from './table.js';
+import { csvRecords } from '../io/csv.js';
 import { parseLandmarks, type LandmarkSpec } from './landmarks.js';
 
 /** One mesh of a manifest. */

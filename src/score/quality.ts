@@ -7,7 +7,8 @@
  * flattens (Shewchuk, "What is a good linear finite element?", 2002, lists it
  * among the standard quality measures). From the sides a, b, c and area A
  * (R = abc / 4A, r = A / s with s the half perimeter):
- *   R / (2r) = abc·(a + b + c) / (16 A²).
+ *   R / (2r) = abc·(a + b + c) / (16 A²)
+ * (metric/triangle.ts's `radiusRatio`, the one home of the formula).
  * Triangles without area have no finite ratio; they are left out of the
  * quantiles (the health group counts them as zero-area triangles). Quantiles
  * are nearest-rank: the value at 1-based rank ⌈p·n⌉ of the sorted ratios
@@ -18,7 +19,7 @@
  * metric/delaunay.ts's `edgeCotanSum`, with its default tolerance 1e-9.
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
-import { triangleArea } from '../metric/triangle.js';
+import { radiusRatio } from '../metric/triangle.js';
 import { edgeCotanSum } from '../metric/delaunay.js';
 
 /** Tolerance of the Delaunay test (the same as `intrinsicDelaunay`'s default). */
@@ -33,15 +34,6 @@ export interface TriangleQuality {
   nonDelaunayEdges: number;
   /** Non-Delaunay share of interior edges (0 when there are none). */
   nonDelaunayFraction: number;
-}
-
-/** R/(2r) of a triangle with sides a, b, c; Infinity when it has no area. */
-export function radiusRatio(a: number, b: number, c: number): number {
-  const A = triangleArea(a, b, c);
-  if (!(A > 0)) return Infinity;
-  const r = (a * b * c * (a + b + c)) / (16 * A * A);
-  // rounding can put an equilateral triangle a few ulps under 1
-  return r < 1 ? 1 : r;
 }
 
 /** Nearest-rank quantile of sorted values (null for none). */

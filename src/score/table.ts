@@ -20,6 +20,7 @@
  * complete records end).
  */
 import { inputError } from '../errors.js';
+import { csvField, csvRecords } from '../io/csv.js';
 import { metricInfo, metricsOf, type MetricGroup, type Metrics, type MetricValue } from './catalog.js';
 import type { LandmarkResult } from './landmarks.js';
 import type { Rule } from './rules.js';
@@ -81,14 +82,6 @@ function value(row: ScoreRow, col: string): MetricValue | string {
   return row.metrics[col] ?? null;
 }
 
-/** A CSV field (RFC 4180 quoting; none and non-finite numbers empty). */
-export function csvField(v: MetricValue | string): string {
-  if (v === null) return '';
-  if (typeof v === 'number') return Number.isFinite(v) ? String(v) : '';
-  if (typeof v === 'boolean') return String(v);
-  return /[",\r\n]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v;
-}
-
 /** The CSV header line (with its line end). */
 export function csvHeader(columns: string[]): string {
   return columns.map(csvField).join(',') + '\n';
@@ -123,36 +116,6 @@ export interface ReadResults {
   rows: ReadRow[];
   /** Length of the text up to the end of the last complete record (a torn last record lies beyond). */
   completeLength: number;
-}
-
-/** CSV records of `text` (RFC 4180), each with its fields and its end offset; a record without its line end is left out. */
-export function csvRecords(text: string): { fields: string[]; start: number; end: number }[] {
-  const out: { fields: string[]; start: number; end: number }[] = [];
-  let fields: string[] = [], cur = '', quoted = false, start = 0, i = 0, fieldStarted = false;
-  while (i < text.length) {
-    const c = text[i]!;
-    if (quoted) {
-      if (c === '"') {
-        if (text[i + 1] === '"') { cur += '"'; i += 2; continue; }
-        quoted = false;
-      } else cur += c;
-      i++;
-      continue;
-    }
-    if (c === '"' && !fieldStarted) { quoted = true; fieldStarted = true; i++; continue; }
-    if (c === ',') { fields.push(cur); cur = ''; fieldStarted = false; i++; continue; }
-    if (c === '\n' || c === '\r') {
-      fields.push(cur);
-      const end = c === '\r' && text[i + 1] === '\n' ? i + 2 : i + 1;
-      out.push({ fields, start, end });
-      fields = []; cur = ''; fieldStarted = false; start = end; i = end;
-      continue;
-    }
-    cur += c;
-    fieldStarted = true;
-    i++;
-  }
-  return out;
 }
 
 function typed(col: string, text: string): unknown {
