@@ -185,8 +185,12 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
   for (const l of resolver?.landings ?? []) L.push(`  ${l.spec} landed at (${l.position.join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
   for (const level of r.levels) {
     const cs = r.curves.filter((c) => c.level === level);
+    const untraced = r.untraced.filter((u) => u.level === level).map((u) => u.face);
+    if (untraced.length > 0) L.push(`  level ${fmt(level, 9)}: not traced: a curve lying wholly inside face(s) ${untraced.join(', ')} round several sources there (or a source curve inside one face)`);
     if (cs.length === 0) {
-      if (levels) L.push(`  level ${fmt(level, 9)}: no curve (the field does not cross it)`);
+      // heat and graph fields are linear in each face: a level closer to a source than its nearest vertex is not seen
+      const why = o.field === undefined && o.method !== 'exact' ? `the ${o.method} field does not cross it; it cannot show a level closer to a source than the source's nearest vertex: --method exact can` : 'the field does not cross it';
+      if (levels && untraced.length === 0) L.push(`  level ${fmt(level, 9)}: no curve (${why})`);
       continue;
     }
     const closed = cs.filter((c) => c.closed).length;

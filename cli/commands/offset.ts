@@ -64,7 +64,7 @@ async function runOffset(mesh: string, o: OffsetCliOptions): Promise<number> {
   const round = (x: number) => Math.round(x * 100) / 100;
   const timings = { load: loadMs, prepare: round(r.timings.prepare), solve: round(r.timings.solve), curves: round(r.timings.curves) };
   if (o.json) {
-    process.stdout.write(toJson({ mesh, method: o.method, unit: 'mesh units', ...metricJson(metric, o.method), distance: D, curves: r.curves.map(curveJson), belowResolution: r.belowResolution, output: o.output ?? null, timings }) + '\n');
+    process.stdout.write(toJson({ mesh, method: o.method, unit: 'mesh units', ...metricJson(metric, o.method), distance: D, curves: r.curves.map(curveJson), belowResolution: r.belowResolution, untracedFaces: r.untracedFaces, output: o.output ?? null, timings }) + '\n');
     return 0;
   }
   const L: string[] = [`${mesh}: offset at ${fmt(D, 9)} mesh units (${o.method} distance): ${r.curves.length} curve(s)`];
@@ -72,7 +72,11 @@ async function runOffset(mesh: string, o: OffsetCliOptions): Promise<number> {
   r.curves.forEach((c, k) => L.push(`  curve ${k}: ${c.closed ? 'closed' : 'open'}, ${c.points.length} points, length ${fmt(c.length, 9)} mesh units`));
   if (r.belowResolution !== null) {
     L.push(`  the distance is below the ${o.method} field's resolution near a source (its nearest vertex is ${fmt(r.belowResolution, 6)} mesh units away): no curve is drawn round it; --method exact finds it`);
-  } else if (r.curves.length === 0) L.push('  nothing on the surface lies at that distance from the sources');
+  }
+  if (r.untracedFaces.length > 0) {
+    L.push(`  not traced: a curve lying wholly inside face(s) ${r.untracedFaces.join(', ')} round several sources there (or a source curve inside one face)`);
+  }
+  if (r.curves.length === 0 && r.belowResolution === null && r.untracedFaces.length === 0) L.push('  nothing on the surface lies at that distance from the sources');
   L.push(`  timings: load ${fmt(timings.load, 4)} ms, prepare ${fmt(timings.prepare, 4)} ms, solve ${fmt(timings.solve, 4)} ms, curves ${fmt(timings.curves, 4)} ms`);
   if (o.output) L.push(`  wrote ${o.output}`);
   L.push(...metricLines(metric), ...(metric ? ['  the offset distance and curve lengths are in the metric; points are positions of the embedding'] : []));

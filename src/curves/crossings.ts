@@ -51,6 +51,8 @@ export interface ScalarField {
   edgeLength?: Float64Array;
   /** Point sources of a distance field (with `at`): loops round them inside one face. */
   pointSources?: readonly SurfacePoint[];
+  /** Curve sources of a distance field (with `at`): one wholly inside a face is reported, not traced. */
+  curveSources?: readonly (readonly SurfacePoint[])[];
 }
 
 /** Relative width (in edge parameter) at which a crossing's root-find stops. */

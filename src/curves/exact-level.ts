@@ -14,7 +14,7 @@
  * Math. Phys. 12(4), 1972, in its interval form): an interval whose bound
  * shows it wholly above (or wholly below) the level holds no crossing and is
  * dropped; the others are halved. An interval whose ends are on different
- * sides holds a crossing, found by bisection to {@link ROOT_WIDTH}. So every
+ * sides holds a crossing, found by regula falsi to {@link ROOT_WIDTH}. So every
  * piece of the level's sublevel set on the edge longer than
  * {@link SEARCH_WIDTH}·ℓ is found: what can be missed is a touch of the
  * level of depth below SEARCH_WIDTH·ℓ/2, where the curve grazes the edge.
@@ -46,7 +46,7 @@
  *
  * The curve inside a face. Between its two crossings a piece is bent to the
  * level: from the midpoint of a chord, the level is found along the chord's
- * perpendicular in the face (bisection, on the side the field says), and the
+ * perpendicular in the face (regula falsi, on the side the field says), and the
  * chord is split there until each chord's sagitta is at most
  * {@link SAGITTA_RATIO} of its length (for a circular arc that bounds the
  * length error by about SAGITTA_RATIO²·8/3 relative, 2.4e-5).
@@ -55,7 +55,10 @@
  * than the distance to the face's edges crosses no edge. There the exact
  * field is the Euclidean distance in the face's plane, so the loop is the
  * circle of radius L, sampled with a chord error (sagitta) of at most
- * {@link LOOP_SAGITTA}·L.
+ * {@link LOOP_SAGITTA}·L. A loop round several sources inside one face, or
+ * round a curve source lying wholly inside one face (the boundary of a
+ * union of discs and stadiums), is not traced: such faces are reported
+ * (`untraced`) so that no caller says nothing lies at that level.
  */
 import type { Topology } from '../mesh/topology.js';
 import { faceOf, next } from '../mesh/topology.js';
@@ -82,6 +85,8 @@ export interface PointField {
   edgeLength: Float64Array;
   /** Point sources, for loops that cross no edge. */
   pointSources?: readonly SurfacePoint[];
+  /** Curve sources: one lying wholly inside a face with a level that crosses no edge is reported as untraced. */
+  curveSources?: readonly (readonly SurfacePoint[])[];
 }
 
 /** A chained piece of level curve: points with their surface points, and whether it closes. */
@@ -116,7 +121,7 @@ export function edgeLevelCrossings(t: Topology, f: PointField, e: number, L: num
       const w = s1 - s0, below0 = a < L, below1 = b < L;
       const last = w <= SEARCH_WIDTH || evals >= MAX_EDGE_EVALS;
       if (below0 !== below1) {
-        if (last) { out.push(bisect(g, L, s0, s1, below0)); continue; }
+        if (last) { out.push(levelRoot((x) => g(x) - L, s0, a - L, s1, b - L, ROOT_WIDTH)); continue; }
       } else {
         const lo = Number.isFinite(a) && Number.isFinite(b) ? (a + b - K * w) / 2 : Math.min(a, b) - K * w;
         const hi = (a + b + K * w) / 2;
@@ -132,14 +137,31 @@ export function edgeLevelCrossings(t: Topology, f: PointField, e: number, L: num
   return out.sort((x, y) => x - y);
 }
 
-/** The crossing of level L in [s0, s1], whose end s0 is below (belowAtStart) or above it. */
-function bisect(g: (s: number) => number, L: number, s0: number, s1: number, belowAtStart: boolean): number {
-  while (s1 - s0 > ROOT_WIDTH) {
-    const m = 0.5 * (s0 + s1);
-    if (m <= s0 || m >= s1) break;
-    if ((g(m) < L) === belowAtStart) s0 = m; else s1 = m;
+/**
+ * A root of h in [x0, x1], where h(x0) and h(x1) lie on different sides (h < 0 is below): regula
+ * falsi with the Illinois modification (Dowell & Jarratt, BIT 11, 1971), every third step a
+ * bisection so the bracket always shrinks, until the bracket is narrower than `width`.
+ */
+function levelRoot(h: (x: number) => number, x0: number, h0: number, x1: number, h1: number, width: number): number {
+  const belowAt0 = h0 < 0;
+  let side = 0;
+  for (let it = 0; it < 200 && x1 - x0 > width; it++) {
+    let x = it % 3 === 2 ? 0.5 * (x0 + x1) : x0 - (h0 * (x1 - x0)) / (h1 - h0);
+    if (!(x > x0 && x < x1)) x = 0.5 * (x0 + x1);
+    if (!(x > x0 && x < x1)) break;
+    const hx = h(x);
+    if ((hx < 0) === belowAt0) {
+      x0 = x; h0 = hx;
+      if (side === -1) h1 *= 0.5;
+      side = -1;
+    } else {
+      x1 = x; h1 = hx;
+      if (side === 1) h0 *= 0.5;
+      side = 1;
+    }
   }
-  return 0.5 * (s0 + s1);
+  const x = Number.isFinite(h0) && Number.isFinite(h1) && h1 !== h0 ? x0 - (h0 * (x1 - x0)) / (h1 - h0) : 0.5 * (x0 + x1);
+  return x > x0 && x < x1 ? x : 0.5 * (x0 + x1);
 }
 
 type Bary = [number, number, number];
@@ -170,7 +192,7 @@ function position(t: Topology, P: Float64Array, f: number, b: Bary): [number, nu
  * The level curves of `f` at L on the mesh (see the module comment), chained
  * through faces; faces with a non-finite corner hold none (curves end there).
  */
-export function exactLevelCurves(t: Topology, P: Float64Array, f: PointField, L: number): LevelPolyline[] {
+export function exactLevelCurves(t: Topology, P: Float64Array, f: PointField, L: number, untraced?: number[]): LevelPolyline[] {
   // 1. crossings on every edge that may hold one (Lipschitz bound on the whole edge first)
   const crossEdge: number[] = [], crossParam: number[] = [];
   const byEdge = new Map<number, number[]>();
@@ -272,12 +294,23 @@ export function exactLevelCurves(t: Topology, P: Float64Array, f: PointField, L:
   };
   for (let p = 0; p < pieces.length; p++) if (!seen[p] && !hasPrev[p]) walk(p);
   for (let p = 0; p < pieces.length; p++) if (!seen[p]) walk(p);
-  // 4. loops round point sources that cross no edge
-  for (const s of f.pointSources ?? []) {
-    const c = canonicalSurfacePoint(s, t);
-    if (c.kind !== 'face' || facesWithPieces.has(c.face) || !usable(c.face)) continue;
-    const loop = faceLoop(t, P, c.face, c.bary, L);
+  // 4. loops that cross no edge: round a lone point source inside a face, the circle; any other
+  // source set wholly inside one face (several points, a curve) is reported in `untraced`
+  const inFace = new Map<number, { bary: Bary; curve: boolean }[]>();
+  const note = (p: SurfacePoint, curve: boolean) => {
+    const c = canonicalSurfacePoint(p, t);
+    if (c.kind !== 'face' || facesWithPieces.has(c.face) || !usable(c.face)) return;
+    let l = inFace.get(c.face);
+    if (!l) inFace.set(c.face, (l = []));
+    l.push({ bary: c.bary, curve });
+  };
+  for (const p of f.pointSources ?? []) note(p, false);
+  for (const cv of f.curveSources ?? []) for (const p of cv) note(p, true);
+  for (const [g, l] of inFace) {
+    if ([0, 1, 2].some((k) => !(f.values[t.tri[3 * g + k]!]! >= L))) continue; // a corner below: the curve crosses edges (found above)
+    const loop = l.length === 1 && !l[0]!.curve ? faceLoop(t, P, g, l[0]!.bary, L) : null;
     if (loop) out.push(loop);
+    else untraced?.push(g);
   }
   return out;
 }
@@ -338,13 +371,9 @@ function bend(t: Topology, P: Float64Array, at: (g: number, b: Bary) => number, 
   for (let k = 0; k < 3; k++) if (db[k]! < 0) smax = Math.min(smax, -m[k]! / db[k]!);
   if (!(smax > 0 && smax < Infinity)) return;
   const pt = (s: number): Bary => [Math.max(0, m[0] + s * db[0]!), Math.max(0, m[1] + s * db[1]!), Math.max(0, m[2] + s * db[2]!)];
-  if ((at(g, pt(smax)) - L < 0) === (gm < 0)) return; // no bracket inside the face: keep the chord
-  let s0 = 0, s1 = smax;
-  for (let i = 0; i < 60 && s1 - s0 > 1e-13 * smax; i++) {
-    const s = 0.5 * (s0 + s1);
-    if ((at(g, pt(s)) - L < 0) === (gm < 0)) s0 = s; else s1 = s;
-  }
-  const x = pt(0.5 * (s0 + s1)), sum = x[0] + x[1] + x[2];
+  const ge = at(g, pt(smax)) - L;
+  if ((ge < 0) === (gm < 0)) return; // no bracket inside the face: keep the chord
+  const x = pt(levelRoot((u) => at(g, pt(u)) - L, 0, gm, smax, ge, 1e-13 * smax)), sum = x[0] + x[1] + x[2];
   const xb: Bary = [x[0] / sum, x[1] / sum, x[2] / sum];
   const px = position(t, P, g, xb);
   const pm = position(t, P, g, m);

@@ -29,6 +29,8 @@ export interface IsolineResult {
   bands: Band[] | null;
   /** Wall time of the extraction, ms. */
   ms: number;
+  /** Levels whose curve lies wholly inside a face round several sources there, not traced (exact distance only; see exact-level.ts). */
+  untraced: { level: number; face: number }[];
 }
 
 /**
@@ -43,12 +45,13 @@ export interface IsolineResult {
 export function surfaceIsolines(s: { topology: Topology; positions: Float64Array }, field: ScalarField, opts: IsolineOptions): IsolineResult {
   const t0 = performance.now();
   const levels = chooseLevels(field.values, opts);
-  const curves = measureCurvesInMetric(s, isolines(s.topology, s.positions, field, levels)); // a user metric's lengths, if one is attached
+  const untraced: { level: number; face: number }[] = [];
+  const curves = measureCurvesInMetric(s, isolines(s.topology, s.positions, field, levels, untraced)); // a user metric's lengths, if one is attached
   let b: Band[] | null = null;
   if (opts.bands) {
     const edges = opts.every !== undefined ? bandLevels(field.values, opts.every, opts.maxLevels ?? DEFAULT_MAX_LEVELS) : levels;
     if (edges.length < 2) throw usageError('bands need at least two levels');
     b = bands(s.topology, s.positions, field, edges, opts.rings === false ? { rings: false } : {});
   }
-  return { levels, curves, bands: b, ms: performance.now() - t0 };
+  return { levels, curves, bands: b, ms: performance.now() - t0, untraced };
 }

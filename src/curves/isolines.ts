@@ -112,18 +112,22 @@ export function chooseLevels(values: Float64Array, o: LevelOptions): number[] {
 /**
  * Level sets of `field` at each of `levels`, chained into polylines (see the
  * module comment), in level order. `positions` are x, y, z per topology
- * vertex.
+ * vertex. With a field known at every point, a level whose curve lies wholly
+ * inside one face round several sources there is not traced: that face and
+ * level are pushed to `untraced` (exact-level.ts).
  */
-export function isolines(t: Topology, positions: Float64Array, field: ScalarField, levels: readonly number[]): SurfaceCurve[] {
+export function isolines(t: Topology, positions: Float64Array, field: ScalarField, levels: readonly number[], untraced?: { level: number; face: number }[]): SurfaceCurve[] {
   if (field.values.length !== t.nv) throw usageError(`the field has ${field.values.length} values for ${t.nv} vertices`);
   const out: SurfaceCurve[] = [];
   if (field.at && field.edgeLength) {
-    const pf = { values: field.values, at: field.at, edgeLength: field.edgeLength, ...(field.pointSources ? { pointSources: field.pointSources } : {}) };
+    const pf = { values: field.values, at: field.at, edgeLength: field.edgeLength, ...(field.pointSources ? { pointSources: field.pointSources } : {}), ...(field.curveSources ? { curveSources: field.curveSources } : {}) };
     for (const level of levels) {
-      for (const c of exactLevelCurves(t, positions, pf, level)) {
+      const faces: number[] = [];
+      for (const c of exactLevelCurves(t, positions, pf, level, faces)) {
         const length = polylineLength(c.points);
         if (length > 0 && !(c.closed && c.points.length < 4)) out.push({ level, closed: c.closed, length, points: c.points, surfacePoints: c.surfacePoints });
       }
+      for (const face of faces) untraced?.push({ level, face });
     }
     return out;
   }

@@ -49,6 +49,11 @@ export interface OffsetResult {
    * the largest such nearest-vertex distance (mesh units). Null otherwise (always with exact).
    */
   belowResolution: number | null;
+  /**
+   * Exact method: faces in which the offset is a loop lying wholly inside the face round several
+   * sources there (or a curve source inside it), not traced (exact-level.ts); empty otherwise.
+   */
+  untracedFaces: number[];
 }
 
 /**
@@ -62,7 +67,7 @@ export function distanceScalarField(r: DistanceResult, s?: SolvableSurface, sour
   const alongEdge = (edge: number, t: number) => r.at({ kind: 'edge', edge, t });
   if (!s) return { values, alongEdge };
   // with the surface: every crossing, curves bent inside faces, loops round point sources (exact-level.ts)
-  return { values, alongEdge, at: (p) => r.at(p), edgeLength: intrinsicOf(s).edgeLength, ...(sources ? { pointSources: sources.points } : {}) };
+  return { values, alongEdge, at: (p) => r.at(p), edgeLength: intrinsicOf(s).edgeLength, ...(sources ? { pointSources: sources.points, curveSources: sources.curves } : {}) };
 }
 
 /**
@@ -82,9 +87,10 @@ export function surfaceOffset(s: SolvableSurface, sources: SourceSet, distance: 
   for (let e = 0; e < mesh.edgeLength.length; e++) if (mesh.edgeLength[e]! > longest) longest = mesh.edgeLength[e]!;
   const m = measureDistances(s, sources, { ...opts, mesh, method, ...(method !== 'heat' ? { maxDistance: (distance + longest) * (1 + 1e-9) } : {}) });
   const c0 = performance.now();
-  const curves = measureCurvesInMetric(s, isolines(s.topology, s.positions, { ...distanceScalarField(m, s, sources), edgeLength: mesh.edgeLength }, [distance])); // a user metric's lengths, if one is attached
+  const untraced: { level: number; face: number }[] = [];
+  const curves = measureCurvesInMetric(s, isolines(s.topology, s.positions, { ...distanceScalarField(m, s, sources), edgeLength: mesh.edgeLength }, [distance], untraced)); // a user metric's lengths, if one is attached
   const belowResolution = method === 'exact' ? null : resolutionGap(s, sources, m.field.distance, distance);
-  return { curves, measurement: m, timings: { prepare: m.prepareMs, solve: m.solveMs, curves: performance.now() - c0 }, belowResolution };
+  return { curves, measurement: m, timings: { prepare: m.prepareMs, solve: m.solveMs, curves: performance.now() - c0 }, belowResolution, untracedFaces: untraced.map((u) => u.face) };
 }
 
 /** The largest nearest-vertex distance of a source point that exceeds D (see {@link OffsetResult.belowResolution}), or null. */

@@ -2,8 +2,9 @@
  * `offset --from-polyline` reads back the scribe lines `straight` writes
  * (CSV and OBJ), and refuses a genuinely bad polyline file naming the file
  * and line; a reference nearly normal to the surface is refused by
- * `straight`. Checks are of the contract (exit codes, one-line errors):
- * common practice.
+ * `straight`; the offset round a point inside a face of the cup's floor is
+ * found (it crosses no vertex's level). Checks are of the contract (exit
+ * codes, one-line errors): common practice, except where a source is named.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, writeFileSync } from 'node:fs';
@@ -56,3 +57,21 @@ describe('straight --reference nearly normal to the surface', () => {
     expect(r.stderr).toMatch(/nearly normal to the surface/);
   });
 });
+
+describe('offset round a point inside a face of the cup floor (f:7), D = 0.2', () => {
+  it('exact: one closed curve, length 2πD (a circle: the floor is flat to the scan noise, 0.005 in z; tolerance 1e-3, common practice)', () => {
+    const r = runCli(['offset', cup, '--from', 'f:7:0.3,0.3,0.4', '--distance', '0.2', '--json']);
+    expect(r.code, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j.curves).toHaveLength(1);
+    expect(j.curves[0].closed).toBe(true);
+    expect(Math.abs(j.curves[0].length / (2 * Math.PI * 0.2) - 1)).toBeLessThan(1e-3);
+  });
+  it('heat: no curve, and the text says the distance is below the field\'s resolution, not that nothing lies there', () => {
+    const r = runCli(['offset', cup, '--from', 'f:7:0.3,0.3,0.4', '--distance', '0.2', '--method', 'heat']);
+    expect(r.code, r.stderr).toBe(0);
+    expect(r.stdout).toMatch(/below the heat field's resolution near a source/);
+    expect(r.stdout).not.toMatch(/nothing on the surface lies/);
+  });
+});
+

@@ -88,6 +88,20 @@ describe('exact offsets that cross no edge, or an edge twice', () => {
   });
 });
 
+describe('loops inside one face that are not traced are reported, never taken for nothing', () => {
+  it('two point sources in one face, D crossing no edge: the face is reported (untracedFaces)', () => {
+    const pts: SurfacePoint[] = [{ kind: 'face', face: 10, bary: [0.4, 0.3, 0.3] }, { kind: 'face', face: 10, bary: [0.3, 0.4, 0.3] }];
+    const r = surfaceOffset(S, { points: pts, curves: [] }, 0.02);
+    expect(r.curves).toHaveLength(0);
+    expect(r.untracedFaces).toEqual([10]);
+  });
+  it('one point source: traced (the circle), nothing reported', () => {
+    const r = surfaceOffset(S, { points: [{ kind: 'face', face: 10, bary: [0.4, 0.3, 0.3] }], curves: [] }, 0.02);
+    expect(r.curves).toHaveLength(1);
+    expect(r.untracedFaces).toEqual([]);
+  });
+});
+
 describe('heat and graph: a level below the field\'s resolution is said so', () => {
   it('graph, D smaller than the distance to the nearest vertex: no curve, belowResolution set; exact finds the circle', () => {
     const src = { points: [{ kind: 'face', face: 10, bary: [1 / 3, 1 / 3, 1 / 3] } as SurfacePoint], curves: [] };
