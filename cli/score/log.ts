@@ -21,7 +21,7 @@
  */
 import { closeSync, existsSync, fsync, fsyncSync, ftruncateSync, openSync, readFileSync, write, writeSync } from 'node:fs';
 import { createHash } from 'node:crypto';
-import { writeFileAtomic } from '../../src/index.js';
+import { writeFileAtomic } from '../../src/api/node.js';
 import { readResults, csvHeader, sortRows, encodeRow, type ReadRow, type ResultFormat, type ScoreRow } from '../../src/score/index.js';
 import { usageError } from '../../src/errors.js';
 

@@ -12,7 +12,7 @@
 import { readFileSync } from 'node:fs';
 import { availableParallelism, totalmem } from 'node:os';
 import { createHash } from 'node:crypto';
-import { writeFileAtomic } from '../../src/index.js';
+import { writeFileAtomic } from '../../src/api/node.js';
 import {
   parseRules, groupsOfRules, orderGroups, checkGates, encodeRow, resultColumns, resultFormatOf, readResults, formatLandmarks,
   METRIC_GROUPS, DEFAULT_GROUPS, DEFAULT_HEAT_SAMPLES, METRICS,
@@ -97,7 +97,7 @@ export async function runScore(args: string[], o: ScoreOpts): Promise<number> {
   const out = o.output?.replace(/\{shard\}/g, String(shard.index));
   const format: ResultFormat | null = out !== undefined ? resultFormatOf(out, '-o') : null;
   if (o.resume && out === undefined) throw usageError('--resume needs -o: the results file to continue');
-  const rules: Rule[] = o.rules !== undefined ? parseRules(readText(o.rules), o.rules) : [];
+  const rules: Rule[] = o.rules !== undefined ? await parseRules(readText(o.rules), o.rules) : [];
   const groups = orderGroups([...parseGroups(o.metrics), ...groupsOfRules(rules)]);
   if (args.length === 0) throw usageError('score: name the meshes: files, folders, globs, - (a list on standard input) or a manifest .csv');
   const inputs = expandInputs(args, process.cwd(), () => readFileSync(0, 'utf8'));

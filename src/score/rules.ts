@@ -28,7 +28,7 @@
  * - A value the mesh does not have (null: genus of a non-orientable surface)
  *   fails every rule on it.
  */
-import { z } from 'zod';
+import type { z } from 'zod';
 import { inputError } from '../errors.js';
 import { metricInfo, closestMetric, type MetricGroup, type Metrics, type MetricValue } from './catalog.js';
 import type { LandmarkResult } from './landmarks.js';
@@ -68,29 +68,34 @@ export interface GateOutcome {
 }
 
 const NAME = /^[A-Za-z_][\w.-]*$/;
-const num = z.number().refine(Number.isFinite, 'must be a finite number');
 
-const metricRule = z.strictObject({
-  name: z.string().regex(NAME, 'letters, digits, _ . - only, starting with a letter or _').optional(),
-  metric: z.string(),
-  op: z.enum(['<=', '>=', '==', 'between']),
-  value: z.union([num, z.boolean(), z.tuple([num, num])]),
-  tolerance: num.nonnegative().optional(),
-});
+/** The schemas, made on the first rules file: zod is loaded then, not with this module (worker threads never load it). */
+async function makeSchemas() {
+  const { z } = await import('zod');
+  const num = z.number().refine(Number.isFinite, 'must be a finite number');
 
-const landmarkRule = z.strictObject({
-  name: z.string().regex(NAME, 'letters, digits, _ . - only, starting with a letter or _').optional(),
-  landmarks: z.strictObject({
+  const metricRule = z.strictObject({
+    name: z.string().regex(NAME, 'letters, digits, _ . - only, starting with a letter or _').optional(),
+    metric: z.string(),
+    op: z.enum(['<=', '>=', '==', 'between']),
+    value: z.union([num, z.boolean(), z.tuple([num, num])]),
     tolerance: num.nonnegative().optional(),
-    relative: num.nonnegative().optional(),
-    missing: z.enum(['fail', 'pass']).optional(),
-  }),
-});
-
-const rulesFile = z.strictObject({
-  description: z.string().optional(),
-  rules: z.array(z.unknown()),
-});
+  });
+  const landmarkRule = z.strictObject({
+    name: z.string().regex(NAME, 'letters, digits, _ . - only, starting with a letter or _').optional(),
+    landmarks: z.strictObject({
+      tolerance: num.nonnegative().optional(),
+      relative: num.nonnegative().optional(),
+      missing: z.enum(['fail', 'pass']).optional(),
+    }),
+  });
+  const rulesFile = z.strictObject({
+    description: z.string().optional(),
+    rules: z.array(z.unknown()),
+  });
+  return { metricRule, landmarkRule, rulesFile };
+}
+let schemas: ReturnType<typeof makeSchemas> | undefined;
 
 type Issue = z.core.$ZodIssue;
 const say = (issues: Issue[]): string =>
@@ -105,9 +110,11 @@ function lineCol(text: string, pos: number): string {
 /**
  * Reads and validates a rules file's text (see the module comment). `file`
  * names it in errors: an `INPUT` error naming the file and the rule (its
- * number from 1 and its name) for anything that does not fit.
+ * number from 1 and its name) for anything that does not fit. Async because
+ * the schema library is loaded on the first call.
  */
-export function parseRules(text: string, file: string): Rule[] {
+export async function parseRules(text: string, file: string): Promise<Rule[]> {
+  const { metricRule, landmarkRule, rulesFile } = await (schemas ??= makeSchemas());
   let json: unknown;
   try {
     json = JSON.parse(text);

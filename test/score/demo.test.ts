@@ -15,7 +15,7 @@ const dir = repoPath('meshes/score-demo');
 
 describe('score demo', () => {
   it('three parts pass, the worn-die lid fails min-angle and no-duplicates; nominals within 0.001 mm', async () => {
-    const rules = parseRules(readFileSync(join(dir, 'rules.json'), 'utf8'), 'rules.json');
+    const rules = await parseRules(readFileSync(join(dir, 'rules.json'), 'utf8'), 'rules.json');
     const groups = orderGroups([...DEFAULT_GROUPS, ...groupsOfRules(rules)]);
     const failed: Record<string, string[]> = {};
     for (const e of parseManifest(readFileSync(join(dir, 'parts.csv'), 'utf8'), 'parts.csv')) {

@@ -8,8 +8,8 @@ import { parseRules, checkGates, groupsOfRules, type LandmarkResult } from '../.
 const rules = (o: unknown) => JSON.stringify(o);
 
 describe('parseRules', () => {
-  it('reads genus == 0, minimum angle >= 10°, between, tolerance, true/false and a landmark tolerance', () => {
-    const r = parseRules(
+  it('reads genus == 0, minimum angle >= 10°, between, tolerance, true/false and a landmark tolerance', async () => {
+    const r = await parseRules(
       rules({
         rules: [
           { name: 'closed', metric: 'genus', op: '==', value: 0 },
@@ -41,34 +41,31 @@ describe('parseRules', () => {
     ['a misspelt top-level key', { rule: [] }, /r\.json: expected \{ "rules"/],
   ];
   for (const [what, json, re] of bad) {
-    it(`refuses ${what}, naming the rule (INPUT)`, () => {
-      expect(() => parseRules(rules(json), 'r.json')).toThrow(re);
-      try {
-        parseRules(rules(json), 'r.json');
-      } catch (e) {
-        expect((e as { code: string }).code).toBe('INPUT');
-      }
+    it(`refuses ${what}, naming the rule (INPUT)`, async () => {
+      await expect(parseRules(rules(json), 'r.json')).rejects.toThrow(re);
+      await expect(parseRules(rules(json), 'r.json')).rejects.toMatchObject({ code: 'INPUT' });
     });
   }
 
-  it('a JSON syntax error names the line and column', () => {
-    expect(() => parseRules('{ "rules": [\n  { "metric": "genus", }\n] }', 'r.json')).toThrow(/r\.json:2:\d+: not valid JSON/);
+  it('a JSON syntax error names the line and column', async () => {
+    await expect(parseRules('{ "rules": [\n  { "metric": "genus", }\n] }', 'r.json')).rejects.toThrow(/r\.json:2:\d+: not valid JSON/);
   });
 });
 
+const parsed = await parseRules(
+  rules({
+    rules: [
+      { name: 'closed', metric: 'genus', op: '==', value: 0 },
+      { name: 'angles', metric: 'minAngleDeg', op: '>=', value: 10 },
+      { name: 'size', metric: 'triangles', op: 'between', value: [10, 20] },
+      { name: 'area', metric: 'area', op: '==', value: 6, tolerance: 1e-6 },
+      { name: 'lm', landmarks: { tolerance: 0.05 } },
+    ],
+  }),
+  'r.json',
+);
+
 describe('checkGates', () => {
-  const parsed = parseRules(
-    rules({
-      rules: [
-        { name: 'closed', metric: 'genus', op: '==', value: 0 },
-        { name: 'angles', metric: 'minAngleDeg', op: '>=', value: 10 },
-        { name: 'size', metric: 'triangles', op: 'between', value: [10, 20] },
-        { name: 'area', metric: 'area', op: '==', value: 6, tolerance: 1e-6 },
-        { name: 'lm', landmarks: { tolerance: 0.05 } },
-      ],
-    }),
-    'r.json',
-  );
   const lm = (deviation: number | null, tolerance?: number): LandmarkResult => ({
     name: 'a', from: 'v:0', to: 'v:1', nominal: 1, ...(tolerance !== undefined ? { tolerance } : {}),
     measured: deviation === null ? null : 1 + deviation, deviation, relDeviation: deviation === null ? null : Math.abs(deviation),
@@ -85,11 +82,11 @@ describe('checkGates', () => {
     expect(bad[4]!.excess).toBeCloseTo(0.15, 12);
   });
 
-  it('a value the mesh does not have (null genus) fails; no landmark pairs fail unless missing: pass', () => {
+  it('a value the mesh does not have (null genus) fails; no landmark pairs fail unless missing: pass', async () => {
     const g = checkGates(parsed, { genus: null, minAngleDeg: 30, triangles: 12, area: 6 }, []);
     expect(g[0]).toMatchObject({ pass: false, excess: Infinity });
     expect(g[4]).toMatchObject({ pass: false, detail: 'no landmark pairs given for this mesh' });
-    const lenient = parseRules(rules({ rules: [{ landmarks: { relative: 0.01, missing: 'pass' } }] }), 'r.json');
+    const lenient = await parseRules(rules({ rules: [{ landmarks: { relative: 0.01, missing: 'pass' } }] }), 'r.json');
     expect(checkGates(lenient, {}, [])[0]!.pass).toBe(true);
   });
 

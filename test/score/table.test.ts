@@ -5,7 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import { resultColumns, encodeRow, csvHeader, readResults, csvRecords, parseManifest, parseRules, type ScoreRow } from '../../src/score/index.js';
 
-const rules = parseRules(JSON.stringify({ rules: [{ name: 'angles', metric: 'minAngleDeg', op: '>=', value: 10 }] }), 'r.json');
+const rules = await parseRules(JSON.stringify({ rules: [{ name: 'angles', metric: 'minAngleDeg', op: '>=', value: 10 }] }), 'r.json');
 const columns = resultColumns(['health', 'landmarks'], rules);
 const row = (file: string, over: Partial<ScoreRow> = {}): ScoreRow => ({
   file, status: 'fail', settings: 'abc123', tag: 'batch, "7"', units: 'mm', error: '',
