@@ -371,16 +371,28 @@ function bend(t: Topology, P: Float64Array, at: (g: number, b: Bary) => number, 
   for (let k = 0; k < 3; k++) if (db[k]! < 0) smax = Math.min(smax, -m[k]! / db[k]!);
   if (!(smax > 0 && smax < Infinity)) return;
   const pt = (s: number): Bary => [Math.max(0, m[0] + s * db[0]!), Math.max(0, m[1] + s * db[1]!), Math.max(0, m[2] + s * db[2]!)];
-  const ge = at(g, pt(smax)) - L;
-  if ((ge < 0) === (gm < 0)) return; // no bracket inside the face: keep the chord
-  const x = pt(levelRoot((u) => at(g, pt(u)) - L, 0, gm, smax, ge, 1e-13 * smax)), sum = x[0] + x[1] + x[2];
+  const h = (u: number) => at(g, pt(u)) - L;
+  // a short bracket first: a distance changes by at most the distance moved, so the level lies at
+  // least |gm| away, and about there when the curve runs along the chord (s = 1 moves |chord|);
+  // under a user metric the guess may miss, and the whole width to the face's edge is taken
+  const sb = Math.min(smax, (2 * Math.abs(gm)) / cl);
+  const hb = sb < smax ? h(sb) : NaN;
+  let root: number;
+  if (sb < smax && (hb < 0) !== (gm < 0)) root = levelRoot(h, 0, gm, sb, hb, 1e-13 * smax);
+  else {
+    const ge = h(smax);
+    if ((ge < 0) === (gm < 0)) return; // no bracket inside the face: keep the chord
+    root = sb < smax ? levelRoot(h, sb, hb, smax, ge, 1e-13 * smax) : levelRoot(h, 0, gm, smax, ge, 1e-13 * smax);
+  }
+  const x = pt(root), sum = x[0] + x[1] + x[2];
   const xb: Bary = [x[0] / sum, x[1] / sum, x[2] / sum];
   const px = position(t, P, g, xb);
   const pm = position(t, P, g, m);
   const sag = Math.hypot(px[0] - pm[0], px[1] - pm[1], px[2] - pm[2]);
-  if (sag > SAGITTA_RATIO * cl) bend(t, P, at, g, a, xb, L, out, depth + 1);
+  if (sag <= SAGITTA_RATIO * cl) return; // the chord is within the bound: keep it
+  bend(t, P, at, g, a, xb, L, out, depth + 1);
   out.push(xb);
-  if (sag > SAGITTA_RATIO * cl) bend(t, P, at, g, xb, b, L, out, depth + 1);
+  bend(t, P, at, g, xb, b, L, out, depth + 1);
 }
 
 /** The circle of radius L round barycentric point c of face g, when it fits inside the face (else null). */
