@@ -48,7 +48,8 @@
  * level: from the midpoint of a chord, the level is found along the chord's
  * perpendicular in the face (regula falsi, on the side the field says), and the
  * chord is split there until each chord's sagitta is at most
- * {@link SAGITTA_RATIO} of its length (for a circular arc that bounds the
+ * {@link SAGITTA_RATIO} of its length and its quarter points are no farther
+ * from the level (which catches corners of the curve, where fronts meet) (for a circular arc that bounds the
  * length error by about SAGITTA_RATIO²·8/3 relative, 2.4e-5).
  *
  * Loops inside a face. Round a point source inside a face, a level smaller
@@ -389,7 +390,13 @@ function bend(t: Topology, P: Float64Array, at: (g: number, b: Bary) => number, 
   const px = position(t, P, g, xb);
   const pm = position(t, P, g, m);
   const sag = Math.hypot(px[0] - pm[0], px[1] - pm[1], px[2] - pm[2]);
-  if (sag <= SAGITTA_RATIO * cl) return; // the chord is within the bound: keep it
+  // the chord is kept when the curve's midpoint is within the bound and the chord's quarter points
+  // are not farther from the level than that (a distance changes by at most the distance moved, so
+  // |d(q) − L| is at most q's distance from the curve): the midpoint alone is fooled where the
+  // curve has a corner (two fronts meeting), the quarter points catch it
+  const lim = SAGITTA_RATIO * cl;
+  const quarter = (u: number): number => Math.abs(at(g, [a[0] + u * (b[0] - a[0]), a[1] + u * (b[1] - a[1]), a[2] + u * (b[2] - a[2])]) - L);
+  if (sag <= lim && quarter(0.25) <= lim && quarter(0.75) <= lim) return;
   bend(t, P, at, g, a, xb, L, out, depth + 1);
   out.push(xb);
   bend(t, P, at, g, xb, b, L, out, depth + 1);

@@ -88,6 +88,25 @@ describe('exact offsets that cross no edge, or an edge twice', () => {
   });
 });
 
+describe('pairing in faces that hold two arcs of the sublevel set', () => {
+  const v = (x: number, y: number): SurfacePoint => ({ kind: 'vertex', vertex: y * 5 + x }); // flatGrid(4, 4, 4, 4): vertex (x, y)
+  it('two vertex sources 1 apart, D = 0.3: two separate circles of length 2πD (the faces between hold two arcs, not joined)', () => {
+    const r = surfaceOffset(S, { points: [v(1, 1), v(2, 1)], curves: [] }, 0.3);
+    expect(r.curves).toHaveLength(2);
+    for (const c of r.curves) {
+      expect(c.closed).toBe(true);
+      expect(Math.abs(c.length / (2 * Math.PI * 0.3) - 1)).toBeLessThan(1e-4);
+    }
+  });
+  it('D = 0.7: one closed curve round the union of the two discs, length 2·D·(2π − 2α), cos α = 0.5/D (elementary)', () => {
+    const D = 0.7, alpha = Math.acos(0.5 / D);
+    const r = surfaceOffset(S, { points: [v(1, 1), v(2, 1)], curves: [] }, D);
+    expect(r.curves).toHaveLength(1);
+    expect(r.curves[0]!.closed).toBe(true);
+    expect(Math.abs(r.curves[0]!.length / (2 * D * (2 * Math.PI - 2 * alpha)) - 1)).toBeLessThan(1e-4);
+  });
+});
+
 describe('loops inside one face that are not traced are reported, never taken for nothing', () => {
   it('two point sources in one face, D crossing no edge: the face is reported (untracedFaces)', () => {
     const pts: SurfacePoint[] = [{ kind: 'face', face: 10, bary: [0.4, 0.3, 0.3] }, { kind: 'face', face: 10, bary: [0.3, 0.4, 0.3] }];
