@@ -16,8 +16,8 @@
  * surface is the least distance between their lifts: sources are seeded at
  * both lifts, and every value is the minimum over the lifts.
  */
-import type { Topology } from '../mesh/topology.js';
-import { buildTopology } from '../mesh/build.js';
+import { next, type Topology } from '../mesh/topology.js';
+import { buildTopology, findRoot, union } from '../mesh/build.js';
 import { intrinsicFromPositions, type IntrinsicMesh } from '../metric/intrinsic.js';
 import type { SurfacePoint } from '../mesh/surface-point.js';
 import { checkSurfacePoint } from '../mesh/surface-point.js';
@@ -64,20 +64,14 @@ export function orientationCover(t: Topology, positions: Float64Array, seams: In
   // with sheet 1's h1 (reversed there, so the two run opposite ways) and sheet 1's h0 with sheet 0's h1
   const parent = new Int32Array(2 * nv);
   for (let i = 0; i < parent.length; i++) parent[i] = i;
-  const find = (x: number): number => {
-    while (parent[x] !== x) x = parent[x] = parent[parent[x]!]!;
-    return x;
-  };
-  const join = (a: number, b: number) => { const ra = find(a), rb = find(b); if (ra !== rb) parent[ra] = rb; };
-  const nextH = (h: number) => (h % 3 === 2 ? h - 2 : h + 1);
   for (let i = 0; i + 1 < seams.length; i += 2) {
     const h0 = seams[i]!, h1 = seams[i + 1]!;
-    for (const [a, b] of [[t.tri[h0]!, t.tri[h1]!], [t.tri[nextH(h0)]!, t.tri[nextH(h1)]!]] as const) {
-      join(a, b + nv);
-      join(a + nv, b);
+    for (const [a, b] of [[t.tri[h0]!, t.tri[h1]!], [t.tri[next(h0)]!, t.tri[next(h1)]!]] as const) {
+      union(parent, a, b + nv);
+      union(parent, a + nv, b);
     }
   }
-  const cls = (v: number, sheet: number) => find(v + sheet * nv);
+  const cls = (v: number, sheet: number) => findRoot(parent, v + sheet * nv);
   const tris = new Uint32Array(6 * nf);
   for (let f = 0; f < nf; f++) {
     const a = t.tri[3 * f]!, b = t.tri[3 * f + 1]!, c = t.tri[3 * f + 2]!;
@@ -141,7 +135,7 @@ export function orientationCover(t: Topology, positions: Float64Array, seams: In
         const h = loop[((s0 < 0 ? 0 : s0 + 1) + i) % n]!;
         if (seam[h]) { if (run.length > 1) out.push(run); run = []; continue; }
         if (run.length === 0) run.push({ kind: 'vertex', vertex: t.tri[h]! });
-        run.push({ kind: 'vertex', vertex: t.tri[nextH(h)]! });
+        run.push({ kind: 'vertex', vertex: t.tri[next(h)]! });
       }
       if (run.length > 1) out.push(run);
     }

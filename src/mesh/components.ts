@@ -13,6 +13,7 @@
  */
 import type { Topology } from './topology.js';
 import { next } from './topology.js';
+import { findRoot, union } from './build.js';
 import { boundaryLoops } from './boundary.js';
 import { glueSeams } from './seams.js';
 
@@ -112,24 +113,16 @@ function countAsGiven(t: Topology, seams: Int32Array, faceComponent: Int32Array,
   for (let v = 0; v < nv; v++) if (vertexComponent[v]! >= 0 && rep[v] === v) info[vertexComponent[v]!]!.vertices++;
   // boundary loops: union–find over class representatives along non-seam boundary edges
   const parent = Int32Array.from(rep);
-  const find = (x: number): number => {
-    while (parent[x] !== x) {
-      parent[x] = parent[parent[x]!]!;
-      x = parent[x]!;
-    }
-    return x;
-  };
   const onBoundary = new Uint8Array(nv);
   for (let h = 0; h < t.twin.length; h++) {
     if (t.twin[h] !== -1 || seamHalfedge[h]) continue;
     onBoundary[t.tri[h]!] = 1;
-    const ra = find(t.tri[h]!), rb = find(t.tri[next(h)]!);
-    if (ra !== rb) parent[ra] = rb;
+    union(parent, t.tri[h]!, t.tri[next(h)]!);
   }
   const counted = new Uint8Array(nv);
   for (let v = 0; v < nv; v++) {
     if (!onBoundary[v] || vertexComponent[v]! < 0) continue;
-    const r = find(v);
+    const r = findRoot(parent, v);
     if (counted[r]) continue;
     counted[r] = 1;
     info[vertexComponent[v]!]!.boundaryLoops++;

@@ -8,6 +8,7 @@
  */
 import type { Topology } from './topology.js';
 import { next } from './topology.js';
+import { findRoot, union } from './build.js';
 
 /** Vertex classes of the glued surface. */
 export interface GluedVertices {
@@ -23,27 +24,16 @@ export interface GluedVertices {
 export function glueSeams(t: Topology, seams: Int32Array): GluedVertices {
   const parent = new Int32Array(t.nv);
   for (let v = 0; v < t.nv; v++) parent[v] = v;
-  const find = (x: number): number => {
-    while (parent[x] !== x) {
-      parent[x] = parent[parent[x]!]!;
-      x = parent[x]!;
-    }
-    return x;
-  };
-  const join = (a: number, b: number) => {
-    const ra = find(a), rb = find(b);
-    if (ra !== rb) parent[ra] = rb;
-  };
   const seamHalfedge = new Uint8Array(t.twin.length);
   for (let i = 0; i + 1 < seams.length; i += 2) {
     const h0 = seams[i]!, h1 = seams[i + 1]!;
     seamHalfedge[h0] = 1;
     seamHalfedge[h1] = 1;
-    join(t.tri[h0]!, t.tri[h1]!); // both sides run the same way
-    join(t.tri[next(h0)]!, t.tri[next(h1)]!);
+    union(parent, t.tri[h0]!, t.tri[h1]!); // both sides run the same way
+    union(parent, t.tri[next(h0)]!, t.tri[next(h1)]!);
   }
   const rep = new Int32Array(t.nv);
-  for (let v = 0; v < t.nv; v++) rep[v] = find(v);
+  for (let v = 0; v < t.nv; v++) rep[v] = findRoot(parent, v);
   const boundary = new Uint8Array(t.nv);
   for (let h = 0; h < t.twin.length; h++) {
     if (t.twin[h] !== -1 || seamHalfedge[h]) continue;

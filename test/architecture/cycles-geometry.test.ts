@@ -65,6 +65,7 @@ describe('one home for each helper', () => {
     ['inFaceDistance', 'src/metric/face-points.ts'],
     ['chainLength', 'src/metric/face-points.ts'],
     ['nextOutgoing', 'src/mesh/topology.ts'],
+    ['findRoot', 'src/mesh/build.ts'],
     ['windowCrossing', 'src/geodesic/exact/light.ts'],
     ['axisValue', 'src/geodesic/exact/light.ts'],
     ['intervalMin', 'src/geodesic/exact/light.ts'],
