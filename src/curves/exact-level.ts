@@ -58,7 +58,10 @@
  * circle of radius L, sampled with a chord error (sagitta) of at most
  * {@link LOOP_SAGITTA}·L. A loop round several sources inside one face, or
  * round a curve source lying wholly inside one face (the boundary of a
- * union of discs and stadiums), is not traced: such faces are reported
+ * union of discs and stadiums), or round a point source in a face whose
+ * lengths in the measured metric are not those of the embedding (a user
+ * metric: the loop is no circle of the face's plane), is not traced: such
+ * faces are reported
  * (`untraced`) so that no caller says nothing lies at that level.
  */
 import type { Topology } from '../mesh/topology.js';
@@ -245,7 +248,7 @@ export function exactLevelCurves(t: Topology, P: Float64Array, f: PointField, L:
     const add = (from: number, to: number) => {
       const fb = edgeBary(t, g, crossEdge[from]!, crossParam[from]!), tb = edgeBary(t, g, crossEdge[to]!, crossParam[to]!);
       const inner: Bary[] = [];
-      bend(t, P, at, g, fb, tb, L, inner, 0);
+      bend(t, P, at, g, fb, tb, L, inner, 0, metricScale(t, P, f.edgeLength, g));
       pieceFrom.set(from * 2 + sideOf(from, g), pieces.length);
       pieces.push({ face: g, from, to, inner });
     };
@@ -309,11 +312,33 @@ export function exactLevelCurves(t: Topology, P: Float64Array, f: PointField, L:
   for (const cv of f.curveSources ?? []) for (const p of cv) note(p, true);
   for (const [g, l] of inFace) {
     if ([0, 1, 2].some((k) => !(f.values[t.tri[3 * g + k]!]! >= L))) continue; // a corner below: the curve crosses edges (found above)
-    const loop = l.length === 1 && !l[0]!.curve ? faceLoop(t, P, g, l[0]!.bary, L) : null;
+    const loop = l.length === 1 && !l[0]!.curve && embeddedLengths(t, P, f.edgeLength, g) ? faceLoop(t, P, g, l[0]!.bary, L) : null;
     if (loop) out.push(loop);
     else untraced?.push(g);
   }
   return out;
+}
+
+/** Field units per embedding unit in face g: its metric perimeter over its perimeter in space (1 without a user metric); 1 when either is 0. */
+function metricScale(t: Topology, P: Float64Array, len: Float64Array, g: number): number {
+  let m = 0, e = 0;
+  for (let k = 0; k < 3; k++) {
+    const a = 3 * t.tri[3 * g + k]!, b = 3 * t.tri[3 * g + (k + 1) % 3]!;
+    e += Math.hypot(P[b]! - P[a]!, P[b + 1]! - P[a + 1]!, P[b + 2]! - P[a + 2]!);
+    m += len[t.edgeOf[3 * g + k]!]!;
+  }
+  const r = m / e;
+  return r > 0 && r < Infinity ? r : 1;
+}
+
+/** True when face g's edge lengths in the field's metric are those of the embedding (so a circle in the face's plane is the level set). */
+function embeddedLengths(t: Topology, P: Float64Array, len: Float64Array, g: number): boolean {
+  for (let k = 0; k < 3; k++) {
+    const a = 3 * t.tri[3 * g + k]!, b = 3 * t.tri[3 * g + (k + 1) % 3]!;
+    const l3 = Math.hypot(P[b]! - P[a]!, P[b + 1]! - P[a + 1]!, P[b + 2]! - P[a + 2]!), l = len[t.edgeOf[3 * g + k]!]!;
+    if (!(Math.abs(l - l3) <= 1e-9 * Math.max(l, l3))) return false;
+  }
+  return true;
 }
 
 /** Faces of the edges that carry crossings. */
@@ -354,7 +379,7 @@ function faceFrame(t: Topology, P: Float64Array, g: number) {
 }
 
 /** Adds, between a and b (excluded), points of the level curve in face g (see the module comment). */
-function bend(t: Topology, P: Float64Array, at: (g: number, b: Bary) => number, g: number, a: Bary, b: Bary, L: number, out: Bary[], depth: number): void {
+function bend(t: Topology, P: Float64Array, at: (g: number, b: Bary) => number, g: number, a: Bary, b: Bary, L: number, out: Bary[], depth: number, rho: number): void {
   if (depth > 12) return;
   const fr = faceFrame(t, P, g);
   if (!fr.ok || !fr.n) return;
@@ -376,7 +401,7 @@ function bend(t: Topology, P: Float64Array, at: (g: number, b: Bary) => number, 
   // a short bracket first: a distance changes by at most the distance moved, so the level lies at
   // least |gm| away, and about there when the curve runs along the chord (s = 1 moves |chord|);
   // under a user metric the guess may miss, and the whole width to the face's edge is taken
-  const sb = Math.min(smax, (2 * Math.abs(gm)) / cl);
+  const sb = Math.min(smax, (2 * Math.abs(gm)) / (rho * cl));
   const hb = sb < smax ? h(sb) : NaN;
   let root: number;
   if (sb < smax && (hb < 0) !== (gm < 0)) root = levelRoot(h, 0, gm, sb, hb, 1e-13 * smax);
@@ -392,14 +417,15 @@ function bend(t: Topology, P: Float64Array, at: (g: number, b: Bary) => number, 
   const sag = Math.hypot(px[0] - pm[0], px[1] - pm[1], px[2] - pm[2]);
   // the chord is kept when the curve's midpoint is within the bound and the chord's quarter points
   // are not farther from the level than that (a distance changes by at most the distance moved, so
-  // |d(q) − L| is at most q's distance from the curve): the midpoint alone is fooled where the
+  // |d(q) − L| is at most q's distance from the curve; rho turns the field's units into the
+  // embedding's, so a uniformly scaled metric makes the same choices): the midpoint alone is fooled where the
   // curve has a corner (two fronts meeting), the quarter points catch it
   const lim = SAGITTA_RATIO * cl;
-  const quarter = (u: number): number => Math.abs(at(g, [a[0] + u * (b[0] - a[0]), a[1] + u * (b[1] - a[1]), a[2] + u * (b[2] - a[2])]) - L);
+  const quarter = (u: number): number => (1 / rho) * Math.abs(at(g, [a[0] + u * (b[0] - a[0]), a[1] + u * (b[1] - a[1]), a[2] + u * (b[2] - a[2])]) - L);
   if (sag <= lim && quarter(0.25) <= lim && quarter(0.75) <= lim) return;
-  bend(t, P, at, g, a, xb, L, out, depth + 1);
+  bend(t, P, at, g, a, xb, L, out, depth + 1, rho);
   out.push(xb);
-  bend(t, P, at, g, xb, b, L, out, depth + 1);
+  bend(t, P, at, g, xb, b, L, out, depth + 1, rho);
 }
 
 /** The circle of radius L round barycentric point c of face g, when it fits inside the face (else null). */
