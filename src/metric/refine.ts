@@ -16,8 +16,8 @@
  * boundary, of its one face). Every triangle made then descends from an input
  * triangle by longest-edge bisections, so no angle falls below half the
  * smallest input angle (Rosenberg & Stenger, Math. Comp. 29, 1975, the bound
- * Rivara's algorithms rest on), and no face without area is ever made from a
- * face with area.
+ * Rivara's algorithms rest on): bisection makes no nearly flat face that was
+ * not nearly flat already.
  *
  * Order: edges are split longest first, from a max-heap of the edges longer
  * than `maxLength`. The longest edge of the whole triangulation is the
