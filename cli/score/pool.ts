@@ -39,7 +39,12 @@ export class ScorePool {
    */
   constructor(readonly threads: number, private readonly timeLimitMs: number, memoryLimit: number, heapMb?: number) {
     this.heapMb = heapMb ?? Math.round(Math.min(4096, Math.max(256, memoryLimit / 2 ** 20)));
-    this.pool = new Tinypool({ filename: workerFilename(), minThreads: threads, maxThreads: threads, idleTimeout: 60_000, resourceLimits: { maxOldGenerationSizeMb: this.heapMb } });
+    // isolateWorkers false and no recycling by memory: each thread scores mesh after mesh, so its module loading and
+    // JIT warm-up are paid once per run (a 200-mesh run measured one thread per worker from start to end)
+    this.pool = new Tinypool({
+      filename: workerFilename(), minThreads: threads, maxThreads: threads, idleTimeout: 60_000, isolateWorkers: false,
+      resourceLimits: { maxOldGenerationSizeMb: this.heapMb },
+    });
   }
 
   /** Each thread's JavaScript heap cap (old generation), MiB. */
