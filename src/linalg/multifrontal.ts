@@ -13,7 +13,7 @@
  * Extend-add maps a child's rows to the parent's positions through `pos`
  * (global row → local row, valid while s is being assembled).
  */
-import type { SupernodalStructure } from './supernodes.js';
+import { belowBase, type SupernodalStructure } from './supernodes.js';
 import { factorFront } from './dense-kernels.js';
 import { createSimdFront } from './wasm-update.js';
 import type { SimdFront } from './wasm-update.js';
@@ -164,7 +164,7 @@ export function storeBlock(F: Float64Array, nr: number, nc: number, Lx: Float64A
     const src = r * nr;
     for (let k = 0; k <= r; k++) Lx[dst++] = F[src + k]!;
   }
-  const w0 = v0 + ((nc * (nc + 1)) >> 1) - nc * nc;
+  const w0 = belowBase(v0, nc);
   for (let r = nc; r < nr; r++) {
     const src = r * nr;
     const dst = w0 + r * nc;

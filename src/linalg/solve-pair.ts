@@ -6,8 +6,8 @@
  * (solve-supernodal.ts, backwardBlock), in the same order, so the results
  * are the same to the bit; only the reads of the shared blocks are halved.
  */
-import type { SupernodalStructure } from './supernodes.js';
-import { backwardBlock } from './solve-supernodal.js';
+import { belowBase, type SupernodalStructure } from './supernodes.js';
+import { backwardBlock, diagonalBackward } from './solve-supernodal.js';
 
 /**
  * Lᵀ x = y for A's factor (LxA, full storage) on xA and B's (block s at
@@ -32,7 +32,7 @@ function sharedBackwardBlock(sn: SupernodalStructure, s: number, Lx: Float64Arra
   const { superStart, rowPtr, rows } = sn;
   const f = superStart[s]!, nc = superStart[s + 1]! - f;
   const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
-  const w0 = v0 + ((nc * (nc + 1)) >> 1) - nc * nc;
+  const w0 = belowBase(v0, nc);
   let r = nr - 1;
   for (; r - 7 >= nc; r -= 8) {
     const i0 = rows[r0 + r]!, i1 = rows[r0 + r - 1]!, i2 = rows[r0 + r - 2]!, i3 = rows[r0 + r - 3]!;
@@ -68,13 +68,7 @@ function sharedBackwardBlock(sn: SupernodalStructure, s: number, Lx: Float64Arra
       z[f + k]! -= l0 * zr;
     }
   }
-  for (let j = nc - 1; j >= 0; j--) {
-    const rj = v0 + ((j * (j + 1)) >> 1);
-    const d = Lx[rj + j]!;
-    const xj = x[f + j]! / d, zj = z[f + j]! / d;
-    x[f + j] = xj;
-    z[f + j] = zj;
-    if (xj !== 0) for (let k = j - 1; k >= 0; k--) x[f + k]! -= Lx[rj + k]! * xj;
-    if (zj !== 0) for (let k = j - 1; k >= 0; k--) z[f + k]! -= Lx[rj + k]! * zj;
-  }
+  // the diagonal block is small (in cache): one vector after the other, each with its own operations
+  diagonalBackward(Lx, v0, f, nc, x);
+  diagonalBackward(Lx, v0, f, nc, z);
 }

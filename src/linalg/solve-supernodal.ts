@@ -26,7 +26,7 @@
  * `own` and `base`: block s is then at own[s] in Lx, or, where own[s] < 0,
  * at valPtr[s] in base.
  */
-import type { SupernodalStructure } from './supernodes.js';
+import { belowBase, type SupernodalStructure } from './supernodes.js';
 
 
 /**
@@ -49,8 +49,7 @@ export function supernodalLowerSolve(
       if (own[s]! >= 0) v0 = own[s]!;
       else Lx = base!;
     }
-    // packed: diagonal row j at v0 + j(j+1)/2, row r ≥ nc at w0 + r·nc
-    const w0 = v0 + ((nc * (nc + 1)) >> 1) - nc * nc;
+    const w0 = belowBase(v0, nc);
     for (let j = k0; j < nc; j++) {
       const rj = v0 + ((j * (j + 1)) >> 1);
       let t = x[f + j]!;
@@ -115,8 +114,7 @@ export function backwardBlock(sn: SupernodalStructure, s: number, Lx: Float64Arr
   const { superStart, rowPtr, rows } = sn;
   const f = superStart[s]!, nc = superStart[s + 1]! - f;
   const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
-  // packed: diagonal row j at v0 + j(j+1)/2, row r ≥ nc at w0 + r·nc
-  const w0 = v0 + ((nc * (nc + 1)) >> 1) - nc * nc;
+  const w0 = belowBase(v0, nc);
   // y_s −= L₂₁ᵀ x(R₂): eight (then four) rows of L₂₁ per pass over y_s, so
   // y_s is read and written once per eight rows (terrain 100k: ~20% faster
   // than four; the sums are grouped by four)
@@ -142,7 +140,14 @@ export function backwardBlock(sn: SupernodalStructure, s: number, Lx: Float64Arr
     const q0 = w0 + r * nc;
     for (let k = nc - 1; k >= 0; k--) x[f + k]! -= Lx[q0 + k]! * xr;
   }
-  // L₁₁ᵀ x_s = y_s by rows of L₁₁: x_j = y_j / L(j,j), then y_k −= L(j,k) x_j for k < j
+  diagonalBackward(Lx, v0, f, nc, x);
+}
+
+/**
+ * L₁₁ᵀ x_s = y_s for the diagonal block at v0 (columns f … f + nc − 1), by
+ * rows of L₁₁: x_j = y_j / L(j,j), then y_k −= L(j,k) x_j for k < j.
+ */
+export function diagonalBackward(Lx: Float64Array, v0: number, f: number, nc: number, x: Float64Array): void {
   for (let j = nc - 1; j >= 0; j--) {
     const rj = v0 + ((j * (j + 1)) >> 1);
     const xj = x[f + j]! / Lx[rj + j]!;

@@ -64,6 +64,16 @@ const MAX_VALUES = 2 ** 31 - 1;
 const MAX_FRONT = 2 ** 28;
 
 /**
+ * Where the rows below a block start: a block at v0 with nc own columns holds
+ * its diagonal block packed (row j at v0 + j(j+1)/2), then row r ≥ nc of L₂₁
+ * at `belowBase(v0, nc) + r·nc`. One home for the layout the kernels and
+ * solves read.
+ */
+export function belowBase(v0: number, nc: number): number {
+  return v0 + ((nc * (nc + 1)) >> 1) - nc * nc;
+}
+
+/**
  * Supernodes of the factor of the matrix C whose lower triangle pattern is
  * (lowColPtr, lowRowIdx), with elimination tree `parent` in postorder (every
  * parent index greater than its child's, subtrees contiguous) and column
