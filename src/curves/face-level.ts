@@ -143,7 +143,9 @@ export function bend(t: Topology, P: Float64Array, at: (g: number, b: Bary) => n
   // curve has a corner (two fronts meeting), the quarter points catch it
   const lim = SAGITTA_RATIO * cl;
   const quarter = (u: number): number => (1 / rho) * Math.abs(at(g, [a[0] + u * (b[0] - a[0]), a[1] + u * (b[1] - a[1]), a[2] + u * (b[2] - a[2])]) - L);
-  if (sag <= lim && quarter(0.25) <= lim && quarter(0.75) <= lim) return;
+  const q1 = quarter(0.25), q3 = quarter(0.75);
+  if (!Number.isFinite(q1) || !Number.isFinite(q3)) { out.push(xb); return; } // unreached points (cannot happen inside a crossed face): no further bending
+  if (sag <= lim && q1 <= lim && q3 <= lim) return;
   bend(t, P, at, g, a, xb, L, out, depth + 1, rho);
   out.push(xb);
   bend(t, P, at, g, xb, b, L, out, depth + 1, rho);
