@@ -9,7 +9,7 @@ import { checkFieldOutput, writeVertexColumns } from '../output.js';
 import { action, fmt, fmtCoord, toJson } from '../run.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
 import {
-  boundarySources, formatSurfacePoint, pointLocator,
+  boundarySources, checkHeatField, formatSurfacePoint, pointLocator,
   type DistanceMethod, type DistanceOptions, type DistanceResult, type PointResolver, type SourceSet, type Surface, type SurfacePoint,
 } from '../../src/index.js';
 import { TIME_SCALE_RANGE } from '../../src/api/geodesic.js';
@@ -17,6 +17,7 @@ import { usageError } from '../../src/errors.js';
 import { factorThreads, solveSets, type SolvedSets } from '../jobs.js';
 import { ProgressLine } from '../progress.js';
 import { metricOption, metricToleranceOption, metricJson, metricLines, warnMetricMethod } from '../metric-option.js';
+import { heatCheckJson, warnHeatCheck } from '../heat-caution.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { describeField, summarizeField, type FieldSummary } from '../field-summary.js';
 
@@ -121,6 +122,8 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
   const fieldNeeded = Boolean(o.output) || !o.to || o.to.length === 0;
   const solved = await solveAll(surface, resolver, o, run, sets.map((s) => s.set), targets, fieldNeeded);
   const results = sets.map(({ specs }, i) => setResult(specs, solved.results[i]!, targets, resolver, o, run, fieldNeeded));
+  const checks = o.method === 'heat' ? results.map((r, i) => (r.result.complete ? checkHeatField(surface, r.result.field.distance, sets[i]!.set) : null)) : [];
+  checks.forEach((c, i) => warnHeatCheck(c, checks.length > 1 ? `field of set ${i + 1}` : undefined)); // a suspect heat field: a caution on stderr, exit 0
   if (o.output) {
     await writeVertexColumns(
       o.output,
@@ -131,7 +134,7 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
   }
   const solveMs = results.reduce((a, r) => a + r.result.solveMs, 0);
   const timings = { load: loadMs, prepare: Math.round(solved.prepareMs * 100) / 100, solve: Math.round(solveMs * 100) / 100 };
-  process.stdout.write((o.json ? jsonReport(mesh, o, resolver, results, timings, solved, metricJson(metric, o.method)) : [textReport(mesh, o, surface, resolver, results, timings, run), ...metricLines(metric)].join('\n')) + '\n');
+  process.stdout.write((o.json ? jsonReport(mesh, o, resolver, results, timings, solved, { ...metricJson(metric, o.method), ...(checks.length > 1 ? { heatChecks: checks } : heatCheckJson(checks[0])) }) : [textReport(mesh, o, surface, resolver, results, timings, run), ...metricLines(metric)].join('\n')) + '\n');
   return 0;
 }
 

@@ -8,6 +8,7 @@ import { readFile } from 'node:fs/promises';
 import { Command, Option } from 'commander';
 import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
 import { metricOption, metricToleranceOption, metricJson, metricLines, warnMetricMethod } from '../metric-option.js';
+import { heatCheckJson, warnHeatCheck } from '../heat-caution.js';
 import { checkOutput } from '../output.js';
 import { action, fmt, toJson } from '../run.js';
 import { TERRAIN_CAUTION } from '../cautions.js';
@@ -153,6 +154,7 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
   if (o.field === undefined) warnMetricMethod(metric, o.method); // the heat method under a varying or rough metric: a caution on stderr
 
   let field: ScalarField;
+  let heatCheck: Parameters<typeof heatCheckJson>[0]; // the heat method's a-posteriori check (heat-caution.ts)
   let solveMs = 0, prepareMs = 0;
   let resolver: PointResolver | null = null;
   if (o.field !== undefined) {
@@ -161,6 +163,8 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
     resolver = await pointLocator(surface);
     const set = await sourceSet(mesh, surface, resolver, o);
     const m = measureDistances(surface, set, { method: o.method, memoryBudget, ...(o.method === 'heat' ? { heat: { factorExecutor: factorThreads() } } : {}) });
+    heatCheck = m.heatCheck;
+    warnHeatCheck(heatCheck); // a suspect heat field: a caution on stderr, exit 0
     field = distanceScalarField(m, surface, set); // exact: every crossing, curves bent in faces (exact-level.ts)
     solveMs = m.solveMs;
     prepareMs = m.prepareMs;
@@ -174,7 +178,7 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
   const timings = { load: loadMs, prepare: round(prepareMs), solve: round(solveMs), curves: round(r.ms) };
   if (o.json) {
     process.stdout.write(toJson({
-      mesh, field: o.field ?? 'distance', method: o.field !== undefined ? null : o.method, unit: 'mesh units', ...metricJson(metric, o.field !== undefined ? undefined : o.method), levels: r.levels,
+      mesh, field: o.field ?? 'distance', method: o.field !== undefined ? null : o.method, unit: 'mesh units', ...metricJson(metric, o.field !== undefined ? undefined : o.method), ...heatCheckJson(heatCheck), levels: r.levels,
       curves: r.curves.map(curveJson),
       ...(r.bands ? { bands: r.bands.map((b) => ({ lower: b.lower, upper: b.upper, area: b.area, planArea: b.planArea, polygons: b.polygons })) } : {}),
       output: o.output ?? null, timings,

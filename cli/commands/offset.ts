@@ -6,6 +6,7 @@
 import { Command, Option } from 'commander';
 import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
 import { metricOption, metricToleranceOption, metricJson, metricLines, warnMetricMethod } from '../metric-option.js';
+import { heatCheckJson, warnHeatCheck } from '../heat-caution.js';
 import { action, fmt, toJson } from '../run.js';
 import { MACHINING_CAUTION, TERRAIN_CAUTION } from '../cautions.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
@@ -60,11 +61,12 @@ async function runOffset(mesh: string, o: OffsetCliOptions): Promise<number> {
   warnMetricMethod(metric, o.method); // the heat method under a varying or rough metric: a caution on stderr
   const resolver = await pointLocator(surface);
   const r = surfaceOffset(surface, await sourceSet(mesh, surface, resolver, o), D, { method: o.method, memoryBudget, ...(o.method === 'heat' ? { heat: { factorExecutor: factorThreads() } } : {}) });
+  warnHeatCheck(r.measurement.heatCheck); // a suspect heat field: a caution on stderr, exit 0
   if (o.output) await writeCurveFile(o.output, r.curves, [], metric?.metric);
   const round = (x: number) => Math.round(x * 100) / 100;
   const timings = { load: loadMs, prepare: round(r.timings.prepare), solve: round(r.timings.solve), curves: round(r.timings.curves) };
   if (o.json) {
-    process.stdout.write(toJson({ mesh, method: o.method, unit: 'mesh units', ...metricJson(metric, o.method), distance: D, curves: r.curves.map(curveJson), belowResolution: r.belowResolution, untracedFaces: r.untracedFaces, output: o.output ?? null, timings }) + '\n');
+    process.stdout.write(toJson({ mesh, method: o.method, unit: 'mesh units', ...metricJson(metric, o.method), ...heatCheckJson(r.measurement.heatCheck), distance: D, curves: r.curves.map(curveJson), belowResolution: r.belowResolution, untracedFaces: r.untracedFaces, output: o.output ?? null, timings }) + '\n');
     return 0;
   }
   const L: string[] = [`${mesh}: offset at ${fmt(D, 9)} mesh units (${o.method} distance): ${r.curves.length} curve(s)`];

@@ -17,8 +17,9 @@ import { prepareDistance, type DistanceOptions, type DistanceResult, type Distan
 import { prepareCoverDistance } from '../geodesic/cover.js';
 import { throughPinches } from '../geodesic/pinch.js';
 import { coverOf, groupsOf, intrinsicOf, type SolvableSurface } from './parts.js';
+import { checkDistanceField, type HeatCheck } from '../geodesic/heat-check.js';
 
-export type { SolvableSurface };
+export type { SolvableSurface, HeatCheck };
 
 /** Options of {@link prepareDistances}: the solver's options, and an intrinsic mesh already made. */
 export interface PrepareOptions extends DistanceOptions {
@@ -40,6 +41,23 @@ export interface Measurement extends DistanceResult {
   prepareMs: number;
   /** Method-specific preparation figures. */
   prepareDetails: Record<string, number | boolean | string>;
+  /** Heat method, complete field: the a-posteriori check of {@link checkHeatField} (a `suspect` verdict: the field may be far off). */
+  heatCheck?: HeatCheck;
+}
+
+/**
+ * An a-posteriori check of a distance field `distance` (one value per vertex
+ * of `s`) measured from `sources`: edges where it changes by more than their
+ * length (proof of error), how far its gradient falls short of 1 (the
+ * eikonal equation), negative values, and a verdict (geodesic/heat-check.ts).
+ * For heat results, which can be far off on meshes the method handles badly
+ * with nothing else to show it; null when the field's length is not the
+ * vertex count.
+ */
+export function checkHeatField(s: SolvableSurface, distance: Float64Array, sources: SourceSet, mesh?: IntrinsicMesh): HeatCheck | null {
+  const m = intrinsicOf(s, mesh);
+  if (distance.length !== m.topology.nv) return null;
+  return checkDistanceField(m, distance, [...sources.points, ...sources.curves.flat()]);
 }
 
 /**
@@ -74,5 +92,6 @@ export function measureDistances(s: SolvableSurface, sources: SourceSet, opts: M
   const { method = 'exact', targets, fieldNeeded, ...prep } = opts;
   const solver = prepareDistances(s, method, prep);
   const r = solver.solve(sources, { ...(targets ? { targets } : {}), ...(fieldNeeded !== undefined ? { fieldNeeded } : {}) });
-  return { ...r, method, prepareMs: solver.prepareMs, prepareDetails: solver.prepareDetails };
+  const check = method === 'heat' && r.complete ? checkHeatField(s, r.field.distance, sources, prep.mesh) : null;
+  return { ...r, method, prepareMs: solver.prepareMs, prepareDetails: solver.prepareDetails, ...(check ? { heatCheck: check } : {}) };
 }

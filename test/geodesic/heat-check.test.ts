@@ -1,0 +1,125 @@
+/**
+ * The heat method's a-posteriori check (src/geodesic/heat-check.ts).
+ *
+ * Sources of the checks: a true distance field is 1-Lipschitz along every
+ * edge (|d(i) − d(j)| ≤ ℓ_ij, the triangle inequality of a metric space)
+ * and solves the eikonal equation |∇d| = 1 (Evans, "Partial Differential
+ * Equations", §3.2); the exact method (window propagation, Surazhsky et al.
+ * 2005) gives that field on the polyhedron; on the flat strip it is the plane
+ * distance (closed form). The accuracy of the table cases is the README's
+ * heat-accuracy table (npm run bench -- heat-accuracy); the strip's error
+ * was measured by engineer R (61% mean off with the default time scale).
+ */
+import { describe, expect, it } from 'vitest';
+import { buildTopology } from '../../src/mesh/build.js';
+import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
+import { prepareDistance } from '../../src/geodesic/solver.js';
+import { checkDistanceField } from '../../src/geodesic/heat-check.js';
+import type { SourceSet } from '../../src/geodesic/shared/sources.js';
+import { openSurface, measureDistances } from '../../src/index.js';
+import { meshFromTriangles } from '../../src/io/mesh-data.js';
+import { icosphere, flatGrid, type Shape } from '../fixtures/shapes.js';
+import { twoHolePlate } from '../fixtures/holed-plates.js';
+
+function meshOf(s: Shape): IntrinsicMesh {
+  const { topology } = buildTopology(s.triangles, s.positions.length / 3);
+  return intrinsicFromPositions(topology, s.positions);
+}
+
+/** A flat 40 × 1 strip: 51 top vertices, triangulated as two fans from its bottom corners (R's case). */
+function fanStrip(n = 50, Lx = 40): Shape {
+  const P: number[] = [0, 0, 0, Lx, 0, 0];
+  for (let i = 0; i <= n; i++) P.push((i / n) * Lx, 1, 0);
+  const tris: number[] = [];
+  const mid = n >> 1;
+  for (let i = 0; i < n; i++) tris.push(i < mid ? 0 : 1, 2 + i + 1, 2 + i);
+  tris.push(0, 1, 2 + mid);
+  return { positions: Float64Array.from(P), triangles: Uint32Array.from(tris) };
+}
+
+const vertexSource = (v: number): SourceSet => ({ points: [{ kind: 'vertex', vertex: v }], curves: [] });
+const nearest = (s: Shape, x: number, y: number): number => {
+  let best = 0, bd = Infinity;
+  for (let v = 0; v < s.positions.length / 3; v++) {
+    const d = Math.hypot(s.positions[3 * v]! - x, s.positions[3 * v + 1]! - y, s.positions[3 * v + 2]!);
+    if (d < bd) { bd = d; best = v; }
+  }
+  return best;
+};
+
+describe('the fan strip: heat far off, flagged', () => {
+  const s = fanStrip(), m = meshOf(s);
+  for (const src of [2, 27]) {
+    it(`source at top vertex ${src}: the heat field is >20% off the plane distance and the check says suspect; the exact field passes`, () => {
+      const heat = prepareDistance(m, 'heat').solve(vertexSource(src)).field.distance;
+      const P = s.positions;
+      let sum = 0, n = 0;
+      for (let v = 0; v < m.topology.nv; v++) {
+        const g = Math.hypot(P[3 * v]! - P[3 * src]!, P[3 * v + 1]! - P[3 * src + 1]!); // flat strip, convex: the plane distance (closed form)
+        if (g < 0.5) continue;
+        sum += Math.abs(heat[v]! - g) / g; n++;
+      }
+      expect(sum / n).toBeGreaterThan(0.2); // mean relative error ≥ 28% (measured, vertices ≥ 0.5 from the source): the defect being checked for
+      const c = checkDistanceField(m, heat, vertexSource(src).points);
+      expect(c.verdict).toBe('suspect');
+      expect(c.eikonalP95).toBeGreaterThan(0.6); // 0.67 / 0.91 measured: on 5% of the area |∇φ| < 0.33 / 0.09
+      const exact = prepareDistance(m, 'exact').solve(vertexSource(src)).field.distance;
+      const e = checkDistanceField(m, exact, vertexSource(src).points);
+      expect(e.verdict).toBe('ok');
+      expect(e.lipschitzViolations).toBe(0);
+      expect(e.worstLipschitzRatio).toBeLessThanOrEqual(1 + 1e-9); // 1-Lipschitz (triangle inequality)
+    });
+  }
+  it('through the facade: a heat measurement carries the suspect check, an exact one none', () => {
+    const surface = openSurface(meshFromTriangles(s.positions, s.triangles, 'strip'));
+    expect(measureDistances(surface, vertexSource(2), { method: 'heat' }).heatCheck?.verdict).toBe('suspect');
+    expect(measureDistances(surface, vertexSource(2), { method: 'exact' }).heatCheck).toBeUndefined();
+  });
+});
+
+describe('the heat-accuracy table cases (coarse level): quiet', () => {
+  const cases: [string, Shape, (s: Shape) => number][] = [
+    ['sphere', icosphere(4, 1), () => 0], // table: 1.00% mean
+    ['flat-square', flatGrid(40, 40, 1, 1, 0.2, 3), (s) => nearest(s, 0.25, 0.25)], // table: 1.46% mean
+    ['plate-two-holes-point', twoHolePlate(10, 10 / 30), (s) => nearest(s, 0, 5)], // table: 1.42% mean
+  ];
+  for (const [name, s, src] of cases) {
+    it(`${name}: ok, with no edge over 1.25× its length`, () => {
+      const m = meshOf(s), set = vertexSource(src(s));
+      const c = checkDistanceField(m, prepareDistance(m, 'heat').solve(set).field.distance, set.points);
+      expect(c.reasons).toEqual([]);
+      expect(c.verdict).toBe('ok');
+      expect(c.eikonalP95).toBeLessThan(0.2); // 0.03–0.07 measured
+    });
+  }
+});
+
+describe('a corrupted field: caught by the Lipschitz count', () => {
+  it('the exact field on a grid with one vertex raised by five edge lengths: every edge at that vertex counts', () => {
+    const s = flatGrid(20, 20, 1, 1), m = meshOf(s), set = vertexSource(0);
+    const d = prepareDistance(m, 'exact').solve(set).field.distance;
+    expect(checkDistanceField(m, d, set.points).verdict).toBe('ok'); // the true field passes
+    const v = 10 * 21 + 10; // an interior vertex; its edges are counted below
+    let valence = 0;
+    for (let e = 0; e < m.topology.ne; e++) {
+      const h = m.topology.edgeHalfedge[e]!;
+      const a = m.topology.tri[h]!, b = m.topology.tri[3 * Math.floor(h / 3) + ((h % 3) + 1) % 3]!;
+      if (a === v || b === v) valence++;
+    }
+    d[v]! += 5 / 20;
+    const c = checkDistanceField(m, d, set.points);
+    expect(c.lipschitzViolations).toBe(valence); // each edge at v now changes by ≥ 5ℓ − ℓ·√2 > 1.25ℓ
+    expect(c.worstLipschitzRatio).toBeGreaterThan(3);
+    expect(c.verdict).toBe('suspect');
+  });
+  it('a negative value and a source away from zero are reported', () => {
+    const s = flatGrid(10, 10, 1, 1), m = meshOf(s), set = vertexSource(0);
+    const d = prepareDistance(m, 'exact').solve(set).field.distance;
+    d[0] = 0.2; // the source's value: 2 mean edge lengths of this grid off
+    d[50] = -0.01;
+    const c = checkDistanceField(m, d, set.points);
+    expect(c.negativeValues).toBe(1);
+    expect(c.worstSourceValue).toBeCloseTo(0.2, 12);
+    expect(c.verdict).toBe('suspect');
+  });
+});
