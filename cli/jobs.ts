@@ -39,7 +39,8 @@ export function factorThreads(): NodeFactorExecutor {
   if (!factorExecutor) {
     const test = process.env.ORTHODROME_TEST_FACTOR_MIN_SIZE;
     const n = test ? Number(test) : NaN;
-    factorExecutor = Number.isInteger(n) && n >= 0 ? new NodeFactorExecutor({ minSize: n, steal: false }) : new NodeFactorExecutor();
+    // one thread: the heat method sends at most one factorization away (the rest, or the pair, is factored here)
+    factorExecutor = Number.isInteger(n) && n >= 0 ? new NodeFactorExecutor({ threads: 1, minSize: n, steal: false }) : new NodeFactorExecutor({ threads: 1 });
   }
   return factorExecutor;
 }
