@@ -94,12 +94,14 @@ describe('--metric', () => {
     const heat = runCli([...args, '--method', 'heat']);
     expect(heat.code, heat.stderr).toBe(0);
     const lines = heat.stderr.trim().split('\n');
-    expect(lines).toHaveLength(2);
+    expect(lines).toHaveLength(3); // the two metric cautions, then the heat field's own check (cli/heat-caution.ts)
+    expect(lines[2]).toMatch(/^orthodrome: caution: the heat method's distance field fails its check .*--method exact/);
     expect(lines[0]).toMatch(/^orthodrome: caution: the repair of the metric field:cost changed edge lengths by up to/);
     expect(lines[1]).toMatch(/^orthodrome: caution: the metric field:cost changes by more than 1\.5× along [\d.]+% of the edges \(up to [\d.]+×\): too rough for the heat method on this mesh .*use --method exact/);
     const hj = JSON.parse(heat.stdout);
     expect(Number.isFinite(hj.targets[0].distance)).toBe(true);
-    expect(hj.metricCautions.map((c: string) => `orthodrome: caution: ${c}`)).toEqual(lines); // the same cautions for machines
+    expect(hj.metricCautions.map((c: string) => `orthodrome: caution: ${c}`)).toEqual(lines.slice(0, 2)); // the same cautions for machines
+    expect(hj.heatCheck.verdict).toBe('suspect'); // and the check's figures
     expect(hj.metricReport.roughEdgeShare).toBeGreaterThan(0.2);
     const exact = runCli([...args, '--method', 'exact']);
     expect(exact.code, exact.stderr).toBe(0);
