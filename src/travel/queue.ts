@@ -113,3 +113,4 @@ export class PairHeap {
     this.ids = ids;
   }
 }
+

@@ -108,7 +108,7 @@ export function fastestRoute(g: SteinerGraph, pace: PaceModel, state: TravelStat
       leg = [a, b];
       legSecs = [0, direct];
     } else {
-      const chain = nodeChain(state.pred, r.via);
+      const chain = nodeChain(state.pred!, r.via);
       leg = [a, ...chain.map((u) => g.surfacePoint(u)), b];
       legSecs = [0, ...chain.map((u) => state.dist[u]!), r.seconds];
     }

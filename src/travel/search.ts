@@ -34,6 +34,7 @@ const prv = (h: number): number => (h % 3 === 0 ? h + 2 : h - 1);
 /** One search's state: the loop reads these fields. */
 export class SteinerSearch {
   private readonly F: Float64Array;
+  private readonly rec: Int32Array;
   private readonly params: Float64Array;
   private readonly minPace: number;
   private readonly maxGrade: number;
@@ -49,14 +50,14 @@ export class SteinerSearch {
 
   /**
    * @param g - the graph; @param pace - the model; @param dist - times (the queue's keys without a goal)
-   * @param pred - predecessors; @param heap - the queue, keyed by `key`
+   * @param pred - predecessors (null: not kept); @param heap - the queue, keyed by `key`
    * @param key - `dist`, or the A* keys (time + hRate × plan distance to (ga, gb))
    */
   constructor(
     private readonly g: SteinerGraph,
     private readonly pace: PaceModel,
     private readonly dist: Float64Array,
-    private readonly pred: Int32Array,
+    private readonly pred: Int32Array | null,
     private readonly heap: PairHeap,
     private readonly key: Float64Array,
     private readonly hRate: number,
@@ -65,6 +66,7 @@ export class SteinerSearch {
     private readonly maxSeconds: number,
   ) {
     this.F = g.vertexFrame;
+    this.rec = g.edgeRecord;
     this.params = g.params;
     this.minPace = pace.minSecondsPerMeter;
     this.maxGrade = pace.maxGrade;
@@ -74,12 +76,12 @@ export class SteinerSearch {
   /** Relaxes every arc out of node `u`, settled at time `du`. */
   settle(u: number, du: number): void {
     const g = this.g, t = g.t, k = g.k, nv = g.nv, F = this.F, fm = g.faceMult, em = g.edgeMult;
-    const { tri, twin, edgeOf, edgeHalfedge } = t;
+    const { twin, edgeOf, edgeHalfedge } = t;
     this.u = u;
     this.du = du;
     if (u >= nv) {
       const e = ((u - nv) / k) | 0, j = u - nv - e * k;
-      const h0 = edgeHalfedge[e]!, A = 3 * tri[h0]!, B = 3 * tri[nxt(h0)]!;
+      const R = this.rec, r8 = 8 * e, A = 3 * R[r8]!, B = 3 * R[r8 + 1]!;
       const s = this.params[j]!, r = 1 - s;
       this.au = r * F[A]! + s * F[B]!;
       this.bu = r * F[A + 1]! + s * F[B + 1]!;
@@ -92,13 +94,17 @@ export class SteinerSearch {
         else this.vertex(B / 3, me);
       }
       for (let side = 0; side < 2; side++) {
-        const h = side === 0 ? h0 : twin[h0]!;
-        if (h < 0) continue;
-        const m = fm ? fm[(h / 3) | 0]! : 1;
-        if (!(m > 0)) continue;
-        this.vertex(tri[prv(h)]!, m);
-        this.edgePoints(edgeOf[nxt(h)]!, m);
-        this.edgePoints(edgeOf[prv(h)]!, m);
+        const c = R[r8 + 2 + 3 * side]!;
+        if (c < 0) continue; // no face on this side
+        let m = 1;
+        if (fm) {
+          const h0 = edgeHalfedge[e]!, h = side === 0 ? h0 : twin[h0]!;
+          m = fm[(h / 3) | 0]!;
+          if (!(m > 0)) continue;
+        }
+        this.vertex(c, m);
+        this.edgePoints(R[r8 + 3 + 3 * side]!, m);
+        this.edgePoints(R[r8 + 4 + 3 * side]!, m);
       }
       return;
     }
@@ -124,7 +130,7 @@ export class SteinerSearch {
   private along(v: number, e: number): void {
     const g = this.g, me = g.edgeMult ? g.edgeMult[e]! : 1;
     if (!(me > 0)) return;
-    const t = g.t, k = g.k, h = t.edgeHalfedge[e]!, tail = t.tri[h]!, head = t.tri[nxt(h)]!;
+    const k = g.k, tail = this.rec[8 * e]!, head = this.rec[8 * e + 1]!;
     if (k === 0) this.vertex(tail === v ? head : tail, me);
     else if (tail === v) this.edgePoint(g.nv + e * k, 0, 3 * tail, 3 * head, me);
     else this.edgePoint(g.nv + e * k + k - 1, k - 1, 3 * tail, 3 * head, me);
@@ -134,7 +140,7 @@ export class SteinerSearch {
   private edgePoints(e: number, m: number): void {
     const g = this.g, k = g.k;
     if (k === 0) return;
-    const t = g.t, h = t.edgeHalfedge[e]!, A = 3 * t.tri[h]!, B = 3 * t.tri[nxt(h)]!;
+    const A = 3 * this.rec[8 * e]!, B = 3 * this.rec[8 * e + 1]!;
     const base = g.nv + e * k;
     for (let j = 0; j < k; j++) this.edgePoint(base + j, j, A, B, m);
   }
@@ -168,7 +174,7 @@ export class SteinerSearch {
     const nd = du + (s === 0 ? 0 : s * m);
     if (nd < dw && nd <= this.maxSeconds) {
       this.dist[w] = nd;
-      this.pred[w] = this.u;
+      if (this.pred) this.pred[w] = this.u;
       if (this.key !== this.dist) {
         const ea = wa - this.ga, eb = wb - this.gb;
         this.key[w] = nd + this.hRate * Math.sqrt(ea * ea + eb * eb);

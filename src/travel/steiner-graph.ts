@@ -93,6 +93,13 @@ export class SteinerGraph {
    * metres: `vertexFrame[3v], vertexFrame[3v+1], vertexFrame[3v+2]`.
    */
   readonly vertexFrame: Float64Array;
+  /**
+   * Per edge e, 8 entries from `8e` (32 bytes: the search reads one record
+   * where the topology takes five arrays): the tail and head of
+   * `edgeHalfedge[e]`; for its face, the opposite corner, the edge after
+   * and the edge before it; the same for the twin's face (−1 when none).
+   */
+  readonly edgeRecord: Int32Array;
   /** Multiplier per face (null: all 1). */
   readonly faceMult: Float64Array | null;
   /** Multiplier of arcs along each edge: the smallest positive multiplier of its faces, 0 when none (null: all 1). */
@@ -127,6 +134,18 @@ export class SteinerGraph {
       F[3 * v] = scale * (x * a[0]! + y * a[1]! + z * a[2]!);
       F[3 * v + 1] = scale * (x * b[0]! + y * b[1]! + z * b[2]!);
       F[3 * v + 2] = scale * (x * up[0] + y * up[1] + z * up[2]);
+    }
+    const rec = (this.edgeRecord = new Int32Array(8 * t.ne));
+    for (let e = 0; e < t.ne; e++) {
+      const h = t.edgeHalfedge[e]!, o = t.twin[h]!;
+      rec[8 * e] = t.tri[h]!;
+      rec[8 * e + 1] = t.tri[next(h)]!;
+      rec[8 * e + 2] = t.tri[prev(h)]!;
+      rec[8 * e + 3] = t.edgeOf[next(h)]!;
+      rec[8 * e + 4] = t.edgeOf[prev(h)]!;
+      rec[8 * e + 5] = o >= 0 ? t.tri[prev(o)]! : -1;
+      rec[8 * e + 6] = o >= 0 ? t.edgeOf[next(o)]! : -1;
+      rec[8 * e + 7] = o >= 0 ? t.edgeOf[prev(o)]! : -1;
     }
     const fm = opts.faceMultipliers ?? null;
     this.faceMult = fm;

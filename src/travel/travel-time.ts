@@ -31,8 +31,8 @@ export interface TravelSeed {
 export interface TravelState {
   /** Seconds from the sources per node (Infinity: not reached). */
   dist: Float64Array;
-  /** The node each node was reached from (−1: a seed, or not reached). */
-  pred: Int32Array;
+  /** The node each node was reached from (−1: a seed, or not reached); made by the first search with a target (fields do not keep it). */
+  pred?: Int32Array;
   /** 1 where a node is settled. */
   done: Uint8Array;
   /** Seconds from a node to the target, where the node is next to it (NaN elsewhere); made by the first search with a target. */
@@ -52,7 +52,6 @@ export function travelState(g: SteinerGraph): TravelState {
   const n = g.nodeCount;
   return {
     dist: new Float64Array(n),
-    pred: new Int32Array(n),
     done: new Uint8Array(n),
     relaxed: 0,
     settled: 0,
@@ -120,7 +119,7 @@ export interface SearchResult {
  * Dijkstra from `seeds` over `g` with arc times from `pace`. With `target`
  * (the nodes next to the target and their seconds to it) it stops once the
  * target's time is final; otherwise it settles every reachable node with a
- * time ≤ `maxSeconds`. Results are in `state.dist` and `state.pred`
+ * time ≤ `maxSeconds`. Results are in `state.dist` and, with a target, `state.pred`
  * (with a target, times of nodes left unsettled are not final: `state.done`).
  *
  * With `goal` (the target's horizontal position, metres) the queue is
@@ -140,10 +139,11 @@ export function runTravelSearch(
   maxSeconds = Infinity,
   goal: [number, number] | null = null,
 ): SearchResult {
-  const { dist, pred, done } = state;
+  const { dist, done } = state;
+  const pred = target ? (state.pred ??= new Int32Array(g.nodeCount)) : null;
   const minPace = pace.minSecondsPerMeter;
   dist.fill(Infinity);
-  pred.fill(-1);
+  pred?.fill(-1);
   done.fill(0);
   // A*: keys are time + h; without a goal the keys are the times themselves
   const hRate = goal && target ? minPace * g.minMultiplier : 0;
