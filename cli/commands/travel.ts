@@ -85,7 +85,7 @@ export function registerTravel(program: Command): void {
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
     .addOption(maxInputSizeOption())
     .addOption(weldToleranceOption())
-    .option('--memory-budget <size>', 'memory the Steiner graph and its search may use, e.g. 512M or 4G (default: a quarter of the memory, at most 2 GiB; at most 45 bytes per vertex and Steiner point, 24 more per vertex); a run that would need more stops with exit 3')
+    .option('--memory-budget <size>', 'memory the Steiner graph and its search may use, e.g. 512M or 4G (default: a quarter of the memory, at most 2 GiB; at most 45 bytes per vertex and Steiner point, 24 more per vertex and 32 per edge); a run that would need more stops with exit 3')
     .addHelpText('after', `
 Times print as h:mm:ss. Each step's time depends on its own slope, so A→B and
 B→A differ. Routes are real routes on the mesh (straight steps inside faces):

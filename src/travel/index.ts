@@ -54,6 +54,9 @@ export const BYTES_PER_NODE = 45;
 /** Bytes per mesh vertex besides its node: horizontal coordinates and height (24). */
 export const BYTES_PER_VERTEX = 24;
 
+/** Bytes per mesh edge: its record in the graph (ends, and per side the corner and the two other edges). */
+export const BYTES_PER_EDGE = 32;
+
 /** The discretisation used: what bounds the approximation. */
 export interface TravelApproximation {
   /** Steiner points per edge. */
@@ -123,7 +126,7 @@ export function faceMultipliersOf(s: Surface, spec: string | Float64Array | unde
 function setup(s: Surface, opts: TravelOptions): { g: SteinerGraph; pace: PaceModel; ms: number } {
   const t0 = performance.now();
   const k = opts.k ?? 3, t = s.topology;
-  const need = (t.nv + t.ne * (Number.isInteger(k) && k >= 0 ? k : 0)) * BYTES_PER_NODE + BYTES_PER_VERTEX * t.nv + 8 * t.nf;
+  const need = (t.nv + t.ne * (Number.isInteger(k) && k >= 0 ? k : 0)) * BYTES_PER_NODE + BYTES_PER_VERTEX * t.nv + BYTES_PER_EDGE * t.ne + 8 * t.nf;
   if (opts.memoryBudget !== undefined && need > opts.memoryBudget) {
     throw limitError(
       `the Steiner graph needs about ${formatBytes(need)} (${t.nv + t.ne * k} nodes: ${k} per edge), over the memory budget of ${formatBytes(opts.memoryBudget)}; raise --memory-budget or lower --steiner`,
