@@ -140,8 +140,15 @@ async function runTravel(mesh: string, o: TravelCliOptions): Promise<number> {
   const lonLat: LonLat | null = needLonLat ? await toWgs84(crs ?? { epsg: null, proj: null }) : null;
 
   const specs = [...o.from, ...(o.via ?? []), ...(route ? [o.to!] : [])];
-  const resolver = await pointLocator(surface, specs);
   const labels = [...o.from.map(() => '--from'), ...(o.via ?? []).map(() => '--via'), ...(route ? ['--to'] : [])];
+  // p:X,Y is dropped along the mesh's z axis: with another up axis that would be a sideways point, so it is refused
+  const up = opts.up!;
+  if (!(up[0] === 0 && up[1] === 0 && up[2] === 1)) {
+    specs.forEach((sp, i) => {
+      if (/^p:[^,]*,[^,]*$/.test(sp.trim())) throw usageError(`'${sp}' is dropped along z, but --up is ${o.up}: give the point as p:X,Y,Z (or v:, e:, f:)`, labels[i]);
+    });
+  }
+  const resolver = await pointLocator(surface, specs);
   const points = specs.map((s, i) => resolver.resolve(s, labels[i]));
 
   const r: TravelRouteResult | null = route ? travelRoute(surface, points, opts) : null;

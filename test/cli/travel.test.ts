@@ -109,4 +109,17 @@ describe('travel', () => {
     expect(c.code).toBe(2);
     expect(c.stderr).toMatch(/--max-slope/);
   });
+
+  it('p:X,Y is dropped along z: with another --up it is refused (no sideways point), p:X,Y,Z and +z still work', () => {
+    // flat.obj lies in z = 0; with --up +y a drop along z would meet it at a point the up axis does not stand over (common practice: refuse, not guess)
+    const d = runCli(['travel', join(dir, 'flat.obj'), '--from', 'p:10,10', '--to', 'v:24', '--up', '+y']);
+    expect(d.code).toBe(2);
+    expect(d.stderr.trim().split('\n')).toHaveLength(1);
+    expect(d.stderr).toMatch(/--from.*p:10,10.*dropped along z.*--up is \+y.*p:X,Y,Z/);
+    const e = runCli(['travel', join(dir, 'flat.obj'), '--from', 'p:10,10,0', '--to', 'v:24', '--up', '0,0,1', '--json']);
+    expect(e.code).toBe(0);
+    const f = runCli(['travel', join(dir, 'flat.obj'), '--from', 'p:10,10', '--to', 'v:24', '--json']);
+    expect(f.code).toBe(0);
+    expect(JSON.parse(e.stdout).seconds).toBeCloseTo(JSON.parse(f.stdout).seconds, 9); // the same point either way when z is up
+  });
 });
