@@ -14,6 +14,6 @@ export function warnHeatCheck(c: HeatCheck | null | undefined, what = 'distance 
 }
 
 /** The `heatCheck` entry of a JSON report (empty without a check). */
-export function heatCheckJson(c: HeatCheck | null | undefined): { heatCheck?: Omit<HeatCheck, 'reasons'> & { reasons: string[] } } {
+export function heatCheckJson(c: HeatCheck | null | undefined): { heatCheck?: HeatCheck } {
   return c ? { heatCheck: { ...c } } : {};
 }

@@ -37,7 +37,7 @@ export type { DistanceSolver, DistanceResult, DistanceOptions, SolveOptions, Sol
 export type { HeatOptions } from './geodesic/heat.js';
 export {
   boundarySources, prepareDistances, measureDistances, type PrepareOptions, type MeasureOptions, type Measurement, type SolvableSurface,
-  checkHeatField, type HeatCheck,
+  type HeatCheck,
 } from './api/distance.js';
 
 // paths

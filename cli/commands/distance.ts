@@ -9,10 +9,10 @@ import { checkFieldOutput, writeVertexColumns } from '../output.js';
 import { action, fmt, fmtCoord, toJson } from '../run.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
 import {
-  boundarySources, checkHeatField, formatSurfacePoint, pointLocator,
+  boundarySources, formatSurfacePoint, pointLocator,
   type DistanceMethod, type DistanceOptions, type DistanceResult, type PointResolver, type SourceSet, type Surface, type SurfacePoint,
 } from '../../src/index.js';
-import { TIME_SCALE_RANGE } from '../../src/api/geodesic.js';
+import { TIME_SCALE_RANGE, checkHeatField } from '../../src/api/geodesic.js';
 import { usageError } from '../../src/errors.js';
 import { factorThreads, solveSets, type SolvedSets } from '../jobs.js';
 import { ProgressLine } from '../progress.js';
