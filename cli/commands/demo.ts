@@ -18,7 +18,7 @@ import { action, fmt } from '../run.js';
 import { formatInspect } from './inspect.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
 import { demoClimbingMetric } from '../metric-option.js';
-import { demoWalkingTimes } from './travel.js';
+import { demoWalkingTimes, demoMoorIsochrones } from './travel.js';
 import { demoScore } from '../score/demo.js';
 
 
@@ -93,6 +93,7 @@ export function registerDemo(program: Command): void {
         say(`  isolines every 25 m of walking distance: ${iso.curves.length} curves at ${iso.levels.join(', ')} m, bands with plan areas ${iso.bands!.map((b) => fmt(b.planArea, 4)).join(', ')} m² → ${rel(kiFile)}`);
         await demoClimbingMetric((metric) => loadSurface(rel(join(dir, 'ostrel-knoll.obj')), { requireManifold: true, metric }), 'p:431220,6170440', 'p:431300,6170540', say); // a user metric (--metric): west gate → north stile
         await demoWalkingTimes(rel(join(dir, 'ostrel-knoll.obj')), rel(out), say); // walking times, isochrones, route as GeoJSON and GPX (travel)
+        await demoMoorIsochrones(rel(join(dir, 'ostrel-moor.tif')), rel(out), say); // a DEM GeoTIFF: 10-minute isochrones, the field as a GeoTIFF, a route
         say('  (planning aid only: see the terrain caution below)\n');
 
         // 3. part: health and curvature

@@ -314,3 +314,38 @@ export async function demoWalkingTimes(mesh: string, out: string, say: (s: strin
   say(`  isochrones every minute: ${iso.levels.map((l) => formatDuration(l)).join(', ')}; the farthest corner of the scan ${formatDuration(Math.max(...field.seconds.filter(Number.isFinite)))}`);
   say(`  → ${files.route}, ${files.gpx}, ${files.profile}, ${files.iso}`);
 }
+
+/**
+ * The demo's 10-minute isochrone map from a DEM (called by `demo`): the
+ * Ostrel Moor GeoTIFF (meshes/make-dem.ts, 3.6 km × 2.7 km) read as a
+ * terrain, walking times from the moor trailhead with 10-minute isochrones
+ * and bands, the route to the fell-top cairn, both points given as map
+ * coordinates dropped onto the ground (p:X,Y); the field as a GeoTIFF on
+ * the DEM's grid, the route as GeoJSON and GPX.
+ */
+export async function demoMoorIsochrones(dem: string, out: string, say: (s: string) => void): Promise<void> {
+  const { surface, grid } = await openTerrain(new Uint8Array(await readFile(dem)), dem);
+  const points = await pointLocator(surface, ['p:428315,6170585', 'p:430415,6172235']);
+  const trailhead = points.resolve('p:428315,6170585', 'moor trailhead'), cairn = points.resolve('p:430415,6172235', 'fell-top cairn');
+  const r = travelRoute(surface, [trailhead, cairn], { k: 3 });
+  const field = travelField(surface, [trailhead], { k: 3 });
+  const iso = surfaceIsolines(surface, { values: field.seconds, alongEdge: field.alongEdge }, { every: 600, bands: true });
+  const crs: MapCrs = { epsg: null, proj: OSTREL_GRID };
+  const lonLat = await toWgs84(crs);
+  const files = {
+    iso: join(out, 'moor-walk-isochrones-10min.geojson'), minutes: join(out, 'moor-walk-seconds.tif'),
+    route: join(out, 'moor-walk-route.geojson'), gpx: join(out, 'moor-walk-route.gpx'),
+  };
+  await writeFileAtomic(files.iso, travelGeoJson({ isochrones: iso.curves, bands: iso.bands ?? [] }, { crs }));
+  await writeFileAtomic(files.minutes, await writeFieldTiff(grid!, toInputVertices(surface, field.seconds)));
+  await writeFileAtomic(files.route, travelGeoJson({ route: r }, { crs }));
+  await writeFileAtomic(files.gpx, routeGpx(r, lonLat, 'Ostrel Moor: trailhead to fell-top cairn', [
+    { x: r.points[0]![0], y: r.points[0]![1], ele: r.elevation[0]!, name: 'moor trailhead' },
+    { x: r.points.at(-1)![0], y: r.points.at(-1)![1], ele: r.elevation.at(-1)!, name: 'fell-top cairn' },
+  ]));
+  const bands = (iso.bands ?? []).map((b) => `${formatDuration(b.lower)}–${formatDuration(b.upper)} ${fmt(b.planArea / 1e6, 3)} km²`);
+  say(`== Ostrel Moor (DEM GeoTIFF, ${grid!.width} × ${grid!.height} pixels of ${fmt(grid!.resX, 3)} m): walking times from the moor trailhead`);
+  say(`  to the fell-top cairn ${formatDuration(r.seconds)} (${fmt(r.meters, 5)} m, ascent ${fmt(r.ascent, 4)} m, descent ${fmt(r.descent, 4)} m)`);
+  say(`  10-minute isochrones: ${iso.levels.map((l) => formatDuration(l)).join(', ')}; bands in plan: ${bands.join(', ')}`);
+  say(`  → ${files.iso}, ${files.minutes}, ${files.route}, ${files.gpx}`);
+}

@@ -17,6 +17,7 @@ describe('demo', () => {
     expect(readdirSync(out).sort()).toEqual([
       'cup-curvature.csv', 'cup-cut-path.obj', 'cup-edge-distance.csv', 'cup-trim-line-8mm.obj', 'knoll-curvature.ply', 'knoll-distance.ply', 'knoll-isolines-25m.geojson',
       'knoll-walk-isochrones-1min.geojson', 'knoll-walk-profile.csv', 'knoll-walk-route.geojson', 'knoll-walk-route.gpx',
+      'moor-walk-isochrones-10min.geojson', 'moor-walk-route.geojson', 'moor-walk-route.gpx', 'moor-walk-seconds.tif',
       'score-demo.csv', 'score-demo.csv.plan.json',
     ]);
     expect(r.stdout).toMatch(/Gauss–Bonnet residual -?\d(\.\d+)?e-1\d rad/);
@@ -26,6 +27,8 @@ describe('demo', () => {
     expect(Number(m![1])).toBeLessThan(2);
     expect(readFileSync(join(out, 'cup-cut-path.obj'), 'utf8')).toMatch(/^l /m);
     expect(r.stdout).toMatch(/not safety\s+assessments/);
+    // the DEM demo (issue 13): the moor is wide enough for several 10-minute isochrones from its trailhead
+    expect(r.stdout).toMatch(/10-minute isochrones: 0:10:00, 0:20:00, 0:30:00, 0:40:00/);
     // the score demo (issue 12): four parts, the worn-die lid fails the gates it was made to fail (its smallest angle is
     // about 4.7° as the score demo test measures, under the rules' 10°; one face is stored twice); the demo reports score's exit 1 and still ends with 0
     expect(r.stdout).toMatch(/4 mesh\(es\): 3 pass, 1 fail, 0 error/);
