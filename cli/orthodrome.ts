@@ -10,7 +10,7 @@ import { EXIT_INPUT, reportError } from './run.js';
 const program = new Command();
 program
   .name('orthodrome')
-  .description('Intrinsic distances, shortest paths and curvature on triangulated surfaces (OBJ, PLY).')
+  .description('Intrinsic distances, shortest paths and curvature on triangulated surfaces (OBJ, PLY, STL).')
   .version('0.1.0')
   .showHelpAfterError('(run with --help for usage)')
   .exitOverride()

@@ -64,7 +64,7 @@ export function registerStraight(program: Command): void {
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh (the line then stops at a cut as at the boundary)')
     .addOption(maxInputSizeOption())
     .addOption(weldToleranceOption())
-    .addOption(metricOption()).addOption(metricToleranceOption())
+    .addOption(metricOption().hideHelp()).addOption(metricToleranceOption().hideHelp()) // accepted only to refuse them with a reason
     .addHelpText(
       'after',
       `
