@@ -48,6 +48,8 @@ export interface ScoreOpts {
 
 /** Version of the settings hash and the results layout. */
 const SCORE_FORMAT = 1;
+/** Smallest meshes each worker thread scores first, to warm its code up (see where the order is made). */
+const WARM_UP_MESHES = 4;
 /** Default per-mesh time limit, seconds. */
 export const DEFAULT_TIME_LIMIT_S = 600;
 
@@ -120,8 +122,11 @@ export async function runScore(args: string[], o: ScoreOpts): Promise<number> {
   const log = out !== undefined && format ? new ResultLog(out, format, plan, o.resume === true, o.retryErrors === true) : null;
   if (out !== undefined) await writeFileAtomic(planPath(out), JSON.stringify(plan, null, 2) + '\n');
   const memory = new Map<string, { file: string; raw: string }>();
-  // largest files first (longest processing time first, Graham 1969): the workers finish together instead of one
-  // waiting on a big mesh handed out last; the results are sorted by file at the end, so the order changes no output
+  // the order meshes are handed out in (the results are sorted by file at the end, so it changes no output): a few
+  // of the smallest files first, so that each worker thread's code is optimized by V8 on cheap meshes (big meshes
+  // handed out first run unoptimized much longer: 200 meshes of 2k-50k faces took about 1 s more CPU), then the
+  // rest largest first (longest processing time first, Graham 1969), so the workers finish together instead of
+  // one waiting on a big mesh handed out last
   const bytes = (f: string): number => {
     try {
       return statSync(f).size;
@@ -129,8 +134,10 @@ export async function runScore(args: string[], o: ScoreOpts): Promise<number> {
       return 0; // missing: its error row comes from the worker
     }
   };
-  const todo = mine.filter((x) => !log?.kept.has(x.file)).map((x) => ({ x, size: bytes(x.file) }))
-    .sort((a, b) => b.size - a.size || (a.x.file < b.x.file ? -1 : a.x.file > b.x.file ? 1 : 0)).map((e) => e.x);
+  const bySize = mine.filter((x) => !log?.kept.has(x.file)).map((x) => ({ x, size: bytes(x.file) }))
+    .sort((a, b) => a.size - b.size || (a.x.file < b.x.file ? -1 : a.x.file > b.x.file ? 1 : 0)).map((e) => e.x);
+  const warm = Math.min(bySize.length, WARM_UP_MESHES * jobs);
+  const todo = [...bySize.slice(0, warm), ...bySize.slice(warm).reverse()];
 
   const progress = new ScoreProgress(process.stderr, mine.length, o.quiet === true);
   progress.start();
