@@ -18,6 +18,12 @@
  *   (user + system, medians of 3), steadier than wall time on a shared machine.
  *
  * Sizes: ~100k faces (`--quick`) and ~1M faces; `TRAVEL_CASE=1m` runs one.
+ *
+ * Measured at 1M faces on the shared 2-core machine (load 5–11): field CPU
+ * 4.7 s, 20.9× the edge-graph Dijkstra (was 6.3 s, 27–32×, before the search
+ * walked arcs in place over per-edge records with a 4-ary queue), peak RSS
+ * 535 MB. CPU ratios drift with the machine's load: the small Dijkstra keeps
+ * its data in cache, the search does not, so compare runs made together.
  */
 import { emit, median, timeMedian, timeEdgeDijkstra, edgeDijkstra, meshEdgeList, peakRssMB, quick } from './harness.js';
 import { openSurface } from '../../src/api/surface.js';
