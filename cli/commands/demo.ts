@@ -18,7 +18,7 @@ import { action, fmt } from '../run.js';
 import { formatInspect } from './inspect.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
 import { demoClimbingMetric } from '../metric-option.js';
-import { demoWalkingTimes, demoMoorIsochrones } from './travel.js';
+import { demoWalkingTimes, demoMoorIsochrones } from './travel-demo.js';
 import { demoScore } from '../score/demo.js';
 
 
