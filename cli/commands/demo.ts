@@ -86,7 +86,7 @@ export function registerDemo(program: Command): void {
         say(`  exact (window propagation): to the summit cairn ${fmt(exact.at(summit), 6)} m, to the saddle ${fmt(exact.at(saddle), 6)} m; farthest point of the scan ${fmt(ks.max, 6)} m`);
         say(`  heat method: to the summit cairn ${fmt(heat.at(summit), 6)} m (mean difference from exact ${fmt((100 * diff) / Math.max(n, 1), 3)}%), prepared in ${fmt(heatSolver.prepareMs, 3)} ms, solved in ${fmt(heat.solveMs, 3)} ms`);
         say(`  → ${rel(kdFile)}`);
-        const iso = surfaceIsolines(knoll.surface, distanceScalarField(exact), { every: 25, bands: true });
+        const iso = surfaceIsolines(knoll.surface, distanceScalarField(exact, knoll.surface, { points: [trailhead], curves: [] }), { every: 25, bands: true }); // exact: every crossing, curves bent in faces
         const kiFile = join(out, 'knoll-isolines-25m.geojson');
         const bandPolys = iso.bands!.flatMap((b) => b.polygons.map((p) => ({ rings: [p.outer, ...p.holes], properties: { levelFrom: b.lower, levelTo: b.upper, area: b.area, planArea: b.planArea } })));
         await writeFileAtomic(kiFile, writeCurves('geojson', iso.curves, { units: 'm', polygons: bandPolys }));
