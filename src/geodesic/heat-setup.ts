@@ -33,7 +33,7 @@ export interface HeatOptions {
   /** Flip to an intrinsic Delaunay triangulation first; default true. */
   intrinsicDelaunay?: boolean;
   /**
-   * Split interior edges longer than {@link REFINE_FACTOR} times the edge of an
+   * Split edges (boundary edges too) longer than {@link REFINE_FACTOR} times the edge of an
    * equilateral mesh with the same area and face count (metric/refine.ts), then
    * flip to Delaunay again; default true (needs intrinsicDelaunay).
    */
