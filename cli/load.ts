@@ -19,6 +19,15 @@ export interface Loaded {
   metric: MetricReport | null;
 }
 
+/** The flags every command that loads a mesh takes (read by {@link loadSurface} and the metric option). */
+export interface MeshLoadFlags {
+  splitNonmanifold?: boolean;
+  maxInputSize?: string;
+  weldTolerance?: string;
+  metric?: string;
+  metricTolerance?: string;
+}
+
 /**
  * A byte size as typed on the command line: a whole number of bytes with an
  * optional binary unit K, M, G or T (also KB/KiB, …, any case): `1500000`,

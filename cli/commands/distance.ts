@@ -4,7 +4,7 @@
  * target points.
  */
 import { Command, Option } from 'commander';
-import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
+import { type MeshLoadFlags, loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
 import { checkFieldOutput, writeVertexColumns } from '../output.js';
 import { action, fmt, fmtCoord, toJson } from '../run.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
@@ -21,7 +21,7 @@ import { heatCheckJson, warnHeatCheck } from '../heat-caution.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { describeField, summarizeField, type FieldSummary } from '../field-summary.js';
 
-interface DistanceCliOptions {
+interface DistanceCliOptions extends MeshLoadFlags {
   from?: string[];
   fromCurve?: string[];
   to?: string[];
@@ -36,13 +36,8 @@ interface DistanceCliOptions {
   intrinsicDelaunay: boolean;
   mollify: boolean;
   refine: boolean;
-  splitNonmanifold?: boolean;
-  maxInputSize?: string;
-  weldTolerance?: string;
   memoryBudget?: string;
   jobs?: string;
-  metric?: string;
-  metricTolerance?: string;
 }
 
 const collect = (v: string, prev: string[] = []) => [...prev, v];

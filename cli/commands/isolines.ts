@@ -6,7 +6,7 @@
  */
 import { readFile } from 'node:fs/promises';
 import { Command, Option } from 'commander';
-import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
+import { type MeshLoadFlags, loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
 import { metricOption, metricToleranceOption, metricJson, metricLines, warnMetricMethod } from '../metric-option.js';
 import { heatCheckJson, warnHeatCheck } from '../heat-caution.js';
 import { checkOutput } from '../output.js';
@@ -20,18 +20,13 @@ import { curveFormatOf, CURVE_FORMATS } from '../../src/api/io.js';
 import { usageError } from '../../src/errors.js';
 
 /** Options shared by `isolines` and `offset`. */
-export interface CurveCliOptions {
+export interface CurveCliOptions extends MeshLoadFlags {
   from?: string[];
   fromCurve?: string[];
   fromPolyline?: string[];
   method: DistanceMethod;
   output?: string;
   json?: boolean;
-  splitNonmanifold?: boolean;
-  maxInputSize?: string;
-  weldTolerance?: string;
-  metric?: string;
-  metricTolerance?: string;
   memoryBudget?: string;
 }
 
@@ -112,28 +107,40 @@ export function curveJson(c: SurfaceCurve) {
   return { level: c.level, closed: c.closed, length: c.length, points: c.points };
 }
 
-/** Registers the command. */
-export function registerIsolines(program: Command): void {
-  program
-    .command('isolines')
-    .description('level sets of the distance field (or of a per-vertex field) chained into polylines, and the bands between them')
-    .argument('<mesh>', 'OBJ, PLY or STL file (optionally .gz)')
+/** The source options `isolines` and `offset` share: --from, --from-curve, --from-polyline. */
+export function addSourceOptions(cmd: Command): Command {
+  return cmd
     .option('--from <source>', FROM_HELP, collect)
     .option('--from-curve <points>', FROM_CURVE_HELP, collect)
-    .option('--from-polyline <file>', FROM_POLYLINE_HELP, collect)
+    .option('--from-polyline <file>', FROM_POLYLINE_HELP, collect);
+}
+
+/** The output and mesh-loading options `isolines` and `offset` share (after their own). */
+export function addCurveRunOptions(cmd: Command): Command {
+  return cmd
+    .option('--json', 'print the result as JSON')
+    .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh (curves end at the cuts)')
+    .addOption(maxInputSizeOption())
+    .addOption(weldToleranceOption())
+    .addOption(metricOption()).addOption(metricToleranceOption())
+    .addOption(memoryBudgetOption());
+}
+
+/** Registers the command. */
+export function registerIsolines(program: Command): void {
+  const cmd = program
+    .command('isolines')
+    .description('level sets of the distance field (or of a per-vertex field) chained into polylines, and the bands between them')
+    .argument('<mesh>', 'OBJ, PLY or STL file (optionally .gz)');
+  addSourceOptions(cmd)
     .option('--field <name>', "instead of distances: x, y or z (z: contour lines of height), a vertex property of the mesh file (PLY), or FILE.csv[:COLUMN] (a header row; one row per vertex, or a 'vertex' column; empty = missing)")
     .option('--every <d>', 'a level at every multiple of D')
     .option('--levels <list>', 'levels listed, separated by commas (D1,D2,...)')
     .option('--bands', 'also the bands between consecutive levels: polygons, area on the surface and in plan view (xy)')
     .option('--max-levels <n>', `most levels allowed (default ${DEFAULT_MAX_LEVELS})`)
     .addOption(new Option('--method <method>', 'distances: exact (window propagation; exact crossings along edges), heat (heat method) or graph (along edges)').choices(['exact', 'heat', 'graph']).default('exact'))
-    .option('-o, --output <file>', 'write the curves: .obj (l polylines), .geojson (with the band polygons), .csv or .json; add .gz to compress')
-    .option('--json', 'print the result as JSON')
-    .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh (curves end at the cuts)')
-    .addOption(maxInputSizeOption())
-    .addOption(weldToleranceOption())
-    .addOption(metricOption()).addOption(metricToleranceOption())
-    .addOption(memoryBudgetOption())
+    .option('-o, --output <file>', 'write the curves: .obj (l polylines), .geojson (with the band polygons), .csv or .json; add .gz to compress');
+  addCurveRunOptions(cmd)
     .addHelpText('after', `
 A vertex exactly on a level counts as above it. Curves are open where they reach the boundary,
 a cut, or a face with a missing value, closed otherwise; closed curves repeat their first point.

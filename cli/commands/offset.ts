@@ -4,43 +4,34 @@
  * surface (a trim line at D from a part's edge, a margin round a hazard).
  */
 import { Command, Option } from 'commander';
-import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
-import { metricOption, metricToleranceOption, metricJson, metricLines, warnMetricMethod } from '../metric-option.js';
+import { loadSurface } from '../load.js';
+import { metricJson, metricLines, warnMetricMethod } from '../metric-option.js';
 import { heatCheckJson, warnHeatCheck } from '../heat-caution.js';
 import { action, fmt, toJson } from '../run.js';
 import { MACHINING_CAUTION, TERRAIN_CAUTION } from '../cautions.js';
-import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
+import { memoryBudgetBytes } from '../memory-budget.js';
 import { factorThreads } from '../jobs.js';
 import { pointLocator, surfaceOffset } from '../../src/index.js';
 import { usageError } from '../../src/errors.js';
 import {
-  FROM_CURVE_HELP, FROM_HELP, FROM_POLYLINE_HELP, checkCurveOutput, curveJson, hasSources, numberOption, sourceSet, writeCurveFile, type CurveCliOptions,
+  addCurveRunOptions, addSourceOptions, checkCurveOutput, curveJson, hasSources, numberOption, sourceSet, writeCurveFile, type CurveCliOptions,
 } from './isolines.js';
 
 interface OffsetCliOptions extends CurveCliOptions {
   distance?: string;
 }
 
-const collect = (v: string, prev: string[] = []) => [...prev, v];
-
 /** Registers the command. */
 export function registerOffset(program: Command): void {
-  program
+  const cmd = program
     .command('offset')
     .description('the curves at on-surface distance D from a boundary loop, points or a curve on the surface (trim lines, margins)')
-    .argument('<mesh>', 'OBJ, PLY or STL file (optionally .gz)')
-    .option('--from <source>', FROM_HELP, collect)
-    .option('--from-curve <points>', FROM_CURVE_HELP, collect)
-    .option('--from-polyline <file>', FROM_POLYLINE_HELP, collect)
+    .argument('<mesh>', 'OBJ, PLY or STL file (optionally .gz)');
+  addSourceOptions(cmd)
     .option('--distance <d>', 'the on-surface distance D, mesh units')
     .addOption(new Option('--method <method>', 'exact (window propagation; exact crossings along edges), heat (heat method, approximate) or graph (along edges, an upper bound)').choices(['exact', 'heat', 'graph']).default('exact'))
-    .option('-o, --output <file>', 'write the curves: .obj (l polylines), .geojson, .csv or .json; add .gz to compress')
-    .option('--json', 'print the result as JSON')
-    .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh (curves end at the cuts)')
-    .addOption(maxInputSizeOption())
-    .addOption(weldToleranceOption())
-    .addOption(metricOption()).addOption(metricToleranceOption())
-    .addOption(memoryBudgetOption())
+    .option('-o, --output <file>', 'write the curves: .obj (l polylines), .geojson, .csv or .json; add .gz to compress');
+  addCurveRunOptions(cmd)
     .addHelpText('after', `
 The offset is the level set at D of the on-surface distance from the sources, measured on the mesh
 as given; curves are open where they reach the boundary or a cut, closed otherwise (a closed curve

@@ -3,7 +3,7 @@
  * the exact shortest path on the surface through waypoints.
  */
 import { Option, type Command } from 'commander';
-import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
+import { type MeshLoadFlags, loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
 import { metricOption, metricToleranceOption, metricJson, metricLines } from '../metric-option.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { checkOutput, outputFormat } from '../output.js';
@@ -21,18 +21,13 @@ const METHOD_TEXT: Record<string, string> = {
   mixed: 'mixed (see the legs)',
 };
 
-interface PathCliOptions {
+interface PathCliOptions extends MeshLoadFlags {
   from: string;
   to?: string;
   via?: string[];
   closed?: boolean;
   output?: string;
   json?: boolean;
-  splitNonmanifold?: boolean;
-  maxInputSize?: string;
-  weldTolerance?: string;
-  metric?: string;
-  metricTolerance?: string;
   memoryBudget?: string;
   pathMethod?: PathMethod;
   proveLimit?: string;

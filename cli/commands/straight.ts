@@ -4,7 +4,7 @@
  * Polthier & Schmies 1998, `src/curves/straightest.ts`).
  */
 import type { Command } from 'commander';
-import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
+import { type MeshLoadFlags, loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
 import { metricOption, metricToleranceOption } from '../metric-option.js';
 import { checkOutput } from '../output.js';
 import { action, fmt, fmtCoord, since, toJson } from '../run.js';
@@ -13,7 +13,7 @@ import { OrthodromeError, formatSurfacePoint, isManifold, pointLocator, straight
 import { DEFAULT_REFERENCE } from '../../src/curves/index.js';
 import { writeCurves, curveFormatOf, CURVE_FORMATS } from '../../src/api/io.js';
 
-interface StraightCliOptions {
+interface StraightCliOptions extends MeshLoadFlags {
   from: string;
   heading?: string;
   plan?: boolean;
@@ -23,11 +23,6 @@ interface StraightCliOptions {
   maxSteps?: string;
   output?: string;
   json?: boolean;
-  splitNonmanifold?: boolean;
-  maxInputSize?: string;
-  weldTolerance?: string;
-  metric?: string;
-  metricTolerance?: string;
 }
 
 const usage = (detail: string, location?: string) => new OrthodromeError('USAGE', detail, location);

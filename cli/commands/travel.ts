@@ -6,7 +6,7 @@
  */
 import { open, readFile, stat } from 'node:fs/promises';
 import { Option, type Command } from 'commander';
-import { loadSurface, maxInputSizeOption, parseByteSize, weldToleranceOption } from '../load.js';
+import { type MeshLoadFlags, loadSurface, maxInputSizeOption, parseByteSize, weldToleranceOption } from '../load.js';
 import { checkOutput, outputFormat, writeVertexColumns } from '../output.js';
 import { action, fmt, since, toJson } from '../run.js';
 import { WALKING_CAUTION } from '../cautions.js';
@@ -30,7 +30,7 @@ const MODEL_TEXT: Record<string, string> = {
   table: 'speed table',
 };
 
-interface TravelCliOptions {
+interface TravelCliOptions extends Omit<MeshLoadFlags, 'metric' | 'metricTolerance'> {
   from: string[];
   to?: string;
   via?: string[];
@@ -50,9 +50,6 @@ interface TravelCliOptions {
   wgs84?: boolean;
   convergence?: boolean;
   json?: boolean;
-  splitNonmanifold?: boolean;
-  maxInputSize?: string;
-  weldTolerance?: string;
   memoryBudget?: string;
 }
 
