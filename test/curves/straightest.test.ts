@@ -340,9 +340,11 @@ describe('random flat squares, starts and bearings (property test)', () => {
       const r = straightestLine(S, start, { heading, length });
       const a = surfacePointPosition(r.start, t, P) as Float64Array;
       const rad = (heading * Math.PI) / 180, dx = Math.sin(rad), dy = Math.cos(rad);
-      // a line along the square's side stops at the next boundary vertex (documented): not this property
+      // a line along the square's side stops at the next boundary vertex (documented): not this property;
+      // "along" within the walker's snap tolerance (1e-9 of an edge's length), e.g. a bearing of 6e-11°
+      // from a start on the side (found by this test: it stops at the side's next vertex, and says so)
       const onSide = (c: number) => c === 0 || c === 1;
-      fc.pre(!((Math.abs(dx) < 1e-12 && onSide(a[0]!)) || (Math.abs(dy) < 1e-12 && onSide(a[1]!))));
+      fc.pre(!((Math.abs(dx) < 1e-9 && onSide(a[0]!)) || (Math.abs(dy) < 1e-9 && onSide(a[1]!))));
       // distance along d to the square's boundary
       const exit = Math.min(dx > 0 ? (1 - a[0]!) / dx : dx < 0 ? -a[0]! / dx : Infinity, dy > 0 ? (1 - a[1]!) / dy : dy < 0 ? -a[1]! / dy : Infinity);
       const expected = Math.min(length, exit);
