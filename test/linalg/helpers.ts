@@ -97,3 +97,14 @@ export function normInf(x: Float64Array): number {
   for (let i = 0; i < x.length; i++) m = Math.max(m, Math.abs(x[i]!));
   return m;
 }
+
+/** True when `p` holds each of 0 … n−1 exactly once. */
+export function isPermutation(p: Int32Array, n: number): boolean {
+  if (p.length !== n) return false;
+  const seen = new Uint8Array(n);
+  for (const v of p) {
+    if (v < 0 || v >= n || seen[v]) return false;
+    seen[v] = 1;
+  }
+  return true;
+}

@@ -12,7 +12,7 @@ import { test as fcTest, fc } from '@fast-check/vitest';
 import { adjacencyFromLower, analyzeCholesky, approximateMinimumDegree } from '../../src/linalg/index.js';
 import type { AdjacencyGraph, CscMatrix } from '../../src/linalg/index.js';
 import { rng } from '../fixtures/shapes.js';
-import { gridLaplacianLower } from './helpers.js';
+import { gridLaplacianLower, isPermutation } from './helpers.js';
 
 /** A symmetric graph from an undirected edge list (repeats and self-loops dropped). */
 function graphFromEdges(n: number, edges: [number, number][]): AdjacencyGraph {
@@ -68,16 +68,6 @@ function eliminate(g: AdjacencyGraph, order?: Int32Array): number {
     }
   }
   return nnz;
-}
-
-function isPermutation(p: Int32Array, n: number): boolean {
-  if (p.length !== n) return false;
-  const seen = new Uint8Array(n);
-  for (const v of p) {
-    if (v < 0 || v >= n || seen[v]) return false;
-    seen[v] = 1;
-  }
-  return true;
 }
 
 function randomGraph(n: number, edgesPerVertex: number, seed: number): AdjacencyGraph {

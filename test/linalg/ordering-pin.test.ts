@@ -15,7 +15,7 @@ import { adjacencyFromLower, analyzeCholesky, approximateMinimumDegree, nestedDi
 import type { AdjacencyGraph, NestedDissectionOptions } from '../../src/linalg/index.js';
 import { TripletMatrix } from '../../src/linalg/triplet.js';
 import { icosphere } from '../fixtures/shapes.js';
-import { gridLaplacianLower, randomSpdLower } from './helpers.js';
+import { gridLaplacianLower, randomSpdLower, isPermutation } from './helpers.js';
 
 /** FNV-1a (32-bit) over the permutation's entries, each as four little-endian bytes. */
 function fnv1a(p: Int32Array): string {
@@ -27,16 +27,6 @@ function fnv1a(p: Int32Array): string {
     }
   }
   return h.toString(16).padStart(8, '0');
-}
-
-function isPermutation(p: Int32Array, n: number): boolean {
-  if (p.length !== n) return false;
-  const seen = new Uint8Array(n);
-  for (const v of p) {
-    if (v < 0 || v >= n || seen[v]) return false;
-    seen[v] = 1;
-  }
-  return true;
 }
 
 /** Lower triangle (unit off-diagonals, diagonal degree + 1) of a triangle mesh's vertex graph. */

@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { test as fcTest, fc } from '@fast-check/vitest';
 import { adjacencyFromLower, analyzeCholesky, approximateMinimumDegree, nestedDissection, postorder } from '../../src/linalg/index.js';
 import type { CscMatrix, Ordering } from '../../src/linalg/index.js';
-import { gridLaplacianLower, randomSpdLower } from './helpers.js';
+import { gridLaplacianLower, randomSpdLower, isPermutation } from './helpers.js';
 
 /** Column patterns of L for P·A·Pᵀ by explicit elimination; O(n³), small n only. */
 function bruteForceFactorPattern(A: CscMatrix, perm: Int32Array): { counts: number[]; parent: number[] } {
@@ -32,16 +32,6 @@ function bruteForceFactorPattern(A: CscMatrix, perm: Int32Array): { counts: numb
     for (const a of below) for (const b of below) M[a]![b] = 1; // fill: later neighbours become a clique
   }
   return { counts, parent };
-}
-
-function isPermutation(p: Int32Array, n: number): boolean {
-  if (p.length !== n) return false;
-  const seen = new Uint8Array(n);
-  for (const v of p) {
-    if (v < 0 || v >= n || seen[v]) return false;
-    seen[v] = 1;
-  }
-  return true;
 }
 
 const ORDERINGS: Ordering[] = ['natural', 'nd', 'amd'];
