@@ -111,7 +111,8 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
   const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance });
   warnMetricMethod(metric, o.method); // the heat method under a varying or rough metric: a caution on stderr
   const resolver = await pointLocator(surface, [...(o.from ?? []), ...(o.fromCurve ?? []), ...(o.to ?? [])]); // snapping code only for p: points
-  const sets = sourceSets(mesh, surface, resolver, o);
+  const picks = new Map<string, number>(); // loop@ spec → id of the loop it picked
+  const sets = sourceSets(mesh, surface, resolver, o, picks);
   const targets: SurfacePoint[] = (o.to ?? []).map((s) => resolver.resolve(s, '--to'));
   // only -o needs every vertex; --json reports what was computed (machine output never changes the work)
   const fieldNeeded = Boolean(o.output) || !o.to || o.to.length === 0;
@@ -129,7 +130,7 @@ async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number>
   }
   const solveMs = results.reduce((a, r) => a + r.result.solveMs, 0);
   const timings = { load: loadMs, prepare: Math.round(solved.prepareMs * 100) / 100, solve: Math.round(solveMs * 100) / 100 };
-  process.stdout.write((o.json ? jsonReport(mesh, o, resolver, results, timings, solved, { ...metricJson(metric, o.method), ...(checks.length > 1 ? { heatChecks: checks } : heatCheckJson(checks[0])) }) : [textReport(mesh, o, surface, resolver, results, timings, run), ...metricLines(metric)].join('\n')) + '\n');
+  process.stdout.write((o.json ? jsonReport(mesh, o, resolver, results, timings, solved, picks, { ...metricJson(metric, o.method), ...(checks.length > 1 ? { heatChecks: checks } : heatCheckJson(checks[0])) }) : [textReport(mesh, o, surface, resolver, results, timings, run, picks), ...metricLines(metric)].join('\n')) + '\n');
   return 0;
 }
 
@@ -148,7 +149,7 @@ function checkOptions(o: DistanceCliOptions): RunOptions {
 }
 
 /** The source sets: one for all of --from and --from-curve, or one per --from with --each. */
-function sourceSets(mesh: string, surface: Surface, resolver: PointResolver, o: DistanceCliOptions): NamedSet[] {
+function sourceSets(mesh: string, surface: Surface, resolver: PointResolver, o: DistanceCliOptions, picks: Map<string, number>): NamedSet[] {
   const specs: string[] = o.from ?? [];
   const curveSpecs: string[] = o.fromCurve ?? [];
   if (specs.length === 0 && curveSpecs.length === 0) throw usageError('give at least one --from or --from-curve');
@@ -162,7 +163,9 @@ function sourceSets(mesh: string, surface: Surface, resolver: PointResolver, o: 
         if (loops.length === 0) throw usageError('--from boundary: the mesh has no boundary', mesh);
         set.curves.push(...loops);
       } else if (resolver.isLoop(s)) {
-        set.curves.push(...resolver.resolveLoop(s, '--from', mesh)); // one boundary loop
+        const picked = resolver.resolveLoopNamed(s, '--from', mesh); // one boundary loop
+        set.curves.push(...picked.curves);
+        if (!/^loop:/.test(s.trim())) picks.set(s, picked.id); // which loop a loop@ spec picked, for the report
       } else set.points.push(...resolver.resolveAll(s, '--from')); // every copy of a split vertex
     }
     return set;
@@ -224,7 +227,8 @@ function setResult(
 
 /** The `--json` report. */
 function jsonReport(
-  mesh: string, o: DistanceCliOptions, resolver: PointResolver, results: SetResult[], timings: Record<string, number>, solved: SolvedSets, metric: ReturnType<typeof metricJson>,
+  mesh: string, o: DistanceCliOptions, resolver: PointResolver, results: SetResult[], timings: Record<string, number>, solved: SolvedSets, picks: Map<string, number>,
+  metric: ReturnType<typeof metricJson>,
 ): string {
   const one = (r: SetResult) => ({
     sources: r.sources,
@@ -235,15 +239,18 @@ function jsonReport(
   });
   const base = { method: o.method, unit: 'mesh units', ...metric, mesh, output: o.output ?? null };
   const snapped = resolver.landings.map((l) => ({ point: l.spec, surfacePoint: formatSurfacePoint(l.point), position: l.position, moved: l.distance }));
-  const body = { ...(results.length === 1 ? { ...base, ...one(results[0]!) } : { ...base, sets: results.map(one) }), snapped };
+  const loopsPicked = [...picks].map(([spec, loop]) => ({ spec, loop }));
+  const body = { ...(results.length === 1 ? { ...base, ...one(results[0]!) } : { ...base, sets: results.map(one) }), snapped, loopsPicked };
   return toJson({ ...body, timings, prepare: solved.prepareDetails });
 }
 
 /** The text report. */
 function textReport(
   mesh: string, o: DistanceCliOptions, surface: Surface, resolver: PointResolver, results: SetResult[], timings: Record<string, number>, run: RunOptions,
+  picks: Map<string, number>,
 ): string {
   const L: string[] = [`${mesh}: ${o.method} distances (mesh units), ${surface.topology.nv} vertices`];
+  for (const [spec, id] of picks) L.push(`  ${spec} picked boundary loop ${id} (loop:${id}, as 'inspect' lists them)`);
   for (const l of resolver.landings) L.push(`  ${l.spec} landed on ${formatSurfacePoint(l.point)} at (${l.position.map(fmtCoord).join(', ')}), moved ${fmt(l.distance, 4)} mesh units`);
   for (const r of results) {
     L.push(`  from ${r.sources.join(' ')}: ${describeField(r.summary, run.maxDistance)}`);

@@ -68,7 +68,13 @@ export class PointResolver {
    * option and `file` the mesh in errors.
    */
   resolveLoop(text: string, label = 'loop', file?: string): SurfacePoint[][] {
-    return resolveLoopSpec(text, { topology: this.topology, positions: this.positions, ...(this.seams ? { seams: this.seams } : {}) }, label, file).curves;
+    return this.resolveLoopNamed(text, label, file).curves;
+  }
+
+  /** {@link resolveLoop} with the id of the loop it picked (as `inspect` lists them), so output can say which. */
+  resolveLoopNamed(text: string, label = 'loop', file?: string): { id: number; curves: SurfacePoint[][] } {
+    const r = resolveLoopSpec(text, { topology: this.topology, positions: this.positions, ...(this.seams ? { seams: this.seams } : {}) }, label, file);
+    return { id: r.loop.id, curves: r.curves };
   }
 
   /**

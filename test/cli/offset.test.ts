@@ -87,3 +87,20 @@ describe('offset command', () => {
     }
   });
 });
+
+describe('distance from a loop picked by a point', () => {
+  it('loop@0,0,0 picks the hole (loop 1; loop 0 is the longest, the outer rim), says so, and measures as loop:1', () => {
+    const run = (spec: string) => runCli(['distance', join(dir, 'plate.obj'), '--from', spec, '--to', 'p:30,30', '--json']);
+    const a = run('loop@0,0,0'), b = run('loop:1');
+    expect(a.code).toBe(0);
+    expect(b.code).toBe(0);
+    const ja = JSON.parse(a.stdout), jb = JSON.parse(b.stdout);
+    expect(ja.loopsPicked).toEqual([{ spec: 'loop@0,0,0', loop: 1 }]);
+    expect(jb.loopsPicked).toEqual([]); // loop:ID names its loop already
+    // plane geometry: the plate corner (30, 30) is √(25² + 25²) from the hole's nearest corner (5, 5)
+    expect(ja.targets[0].distance).toBeCloseTo(Math.hypot(25, 25), 9);
+    expect(jb.targets[0].distance).toBe(ja.targets[0].distance);
+    const text = runCli(['distance', join(dir, 'plate.obj'), '--from', 'loop@0,0,0', '--to', 'p:30,30']);
+    expect(text.stdout).toContain("loop@0,0,0 picked boundary loop 1 (loop:1, as 'inspect' lists them)");
+  });
+});
