@@ -30,6 +30,8 @@ import type { AdjacencyGraph } from './graph.js';
 import { approximateMinimumDegree } from './ordering-amd.js';
 import { bestCuts, keyedCut, refineSeparator, separatorContext, splitByCut, thinSeparator } from './separator.js';
 import type { KeyedCut, SeparatorContext } from './separator.js';
+import { extractPart, extractScratch, globalId, plainAlloc, rootSubgraph } from './ordering-subgraph.js';
+import type { ExtractScratch, Int32Alloc, Subgraph } from './ordering-subgraph.js';
 
 /**
  * Each part keeps at least this share of the vertices outside the separator
@@ -57,7 +59,7 @@ export interface NestedDissectionOptions {
 }
 
 /**
- * Slots of the four bisection keys in NdState.keys, in the order they are
+ * Slots of the four bisection keys in NdWorkspace.keys, in the order they are
  * preferred on ties: the level d(v, x); d(u, x) − d(v, x); d(u, x) − d(w, x);
  * d(v, x) − d(w, x) (the differences shifted to ≥ 0).
  */
@@ -66,14 +68,15 @@ const KEY_UV = 1;
 const KEY_UW = 2;
 const KEY_VW = 3;
 
-/** Everything one nested dissection works in: n-length typed arrays, reused by every subgraph. */
-interface NdState {
-  readonly xadj: Int32Array;
-  readonly adj: Int32Array;
-  /** The permutation being built: ranges of it are rearranged in place. */
-  readonly verts: Int32Array;
-  /** label[v] = id of the subgraph being split that holds v, else −1. */
-  readonly label: Int32Array;
+/**
+ * Everything one nested dissection works in: typed arrays sized for the
+ * largest subgraph (local ids), reused by every subgraph.
+ */
+export interface NdWorkspace {
+  /** The subgraph being split (its xadj/adj are also in `sep`). */
+  xadj: Int32Array;
+  adj: Int32Array;
+  deg: Int32Array | null;
   /** BFS: level of each reached vertex, the queue in level order, level offsets into it. */
   readonly level: Int32Array;
   readonly queue: Int32Array;
@@ -82,84 +85,127 @@ interface NdState {
   readonly visit: Int32Array;
   bfsStamp: number;
   readonly tmp: Int32Array;
-  /** Leaf-local vertex numbers. */
-  readonly local: Int32Array;
+  /** The split of the current subgraph: A, B, S in local ids. */
+  readonly order: Int32Array;
   /** One record per bisection key (slots KEY_LEVEL … KEY_VW). */
   readonly keys: readonly [KeyedCut, KeyedCut, KeyedCut, KeyedCut];
   readonly sep: SeparatorContext;
-  /** Pending subgraphs as lo, hi pairs of `verts` ranges. */
-  readonly ranges: number[];
+  readonly extract: ExtractScratch;
 }
 
-/** Returns perm with perm[k] = the vertex eliminated k-th. */
-export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOptions = {}): Int32Array {
-  const { n, xadj, adj } = g;
-  const leafSize = Math.max(2, opts.leafSize ?? 512);
-  const leafAmd = (opts.leafOrder ?? 'amd') === 'amd';
-  const verts = new Int32Array(n);
-  for (let v = 0; v < n; v++) verts[v] = v;
-  const label = new Int32Array(n).fill(-1);
+/** Allocates an {@link NdWorkspace} for subgraphs of up to n vertices and nnz adjacency entries. */
+export function ndWorkspace(n: number, nnz: number): NdWorkspace {
   const tmp = new Int32Array(n);
-  const s: NdState = {
-    xadj,
-    adj,
-    verts,
-    label,
+  const empty = new Int32Array(1);
+  return {
+    xadj: empty,
+    adj: empty,
+    deg: null,
     level: new Int32Array(n),
     queue: new Int32Array(n),
     levelPtr: new Int32Array(n + 2),
     visit: new Int32Array(n).fill(-1),
     bfsStamp: 0,
     tmp,
-    local: new Int32Array(n),
+    order: new Int32Array(n),
     keys: [keyedCut(n), keyedCut(n), keyedCut(n), keyedCut(n)],
-    sep: separatorContext(xadj, adj, label, tmp),
-    ranges: [0, n],
+    sep: separatorContext(empty, empty, n, tmp),
+    extract: extractScratch(n, nnz),
   };
-  let id = 0;
-  while (s.ranges.length > 0) {
-    const hi = s.ranges.pop()!;
-    const lo = s.ranges.pop()!;
-    const lab = id++;
-    for (let k = lo; k < hi; k++) label[verts[k]!] = lab;
-    if (hi - lo <= leafSize) {
-      if (leafAmd && hi - lo > 2) orderLeaf(s, lo, hi, lab);
-      continue;
-    }
-    splitRange(s, lo, hi, lab);
-  }
-  return verts;
 }
 
-/** Orders verts[lo..hi) (all labelled `lab`) by AMD on their induced subgraph. */
-function orderLeaf(s: NdState, lo: number, hi: number, lab: number): void {
-  const { verts, local, xadj, adj, label, tmp } = s;
-  const m = hi - lo;
-  for (let k = lo; k < hi; k++) local[verts[k]!] = k - lo;
-  const lx = new Int32Array(m + 1);
-  for (let k = lo; k < hi; k++) {
-    const v = verts[k]!;
-    let d = 0;
-    for (let p = xadj[v]!; p < xadj[v + 1]!; p++) if (label[adj[p]!] === lab) d++;
-    lx[k - lo + 1] = lx[k - lo]! + d;
-  }
-  const la = new Int32Array(lx[m]!);
-  for (let k = lo, q = 0; k < hi; k++) {
-    const v = verts[k]!;
-    for (let p = xadj[v]!; p < xadj[v + 1]!; p++) if (label[adj[p]!] === lab) la[q++] = local[adj[p]!]!;
-  }
-  const lp = approximateMinimumDegree({ n: m, xadj: lx, adj: la });
-  for (let k = 0; k < m; k++) tmp[k] = verts[lo + lp[k]!]!;
-  verts.set(tmp.subarray(0, m), lo);
+/** The checked options of {@link nestedDissection}. */
+export interface NdSettings {
+  readonly leafSize: number;
+  readonly leafAmd: boolean;
+}
+
+/** Options → settings (defaults filled in). */
+export function ndSettings(opts: NestedDissectionOptions): NdSettings {
+  return { leafSize: Math.max(2, opts.leafSize ?? 512), leafAmd: (opts.leafOrder ?? 'amd') === 'amd' };
+}
+
+/** Returns perm with perm[k] = the vertex eliminated k-th. */
+export function nestedDissection(g: AdjacencyGraph, opts: NestedDissectionOptions = {}): Int32Array {
+  const out = new Int32Array(g.n);
+  const ws = ndWorkspace(g.n, g.adj.length);
+  orderSubgraph(ws, ndSettings(opts), rootSubgraph(g), out, 0, plainAlloc);
+  return out;
 }
 
 /**
- * BFS from `root` over vertices labelled `lab`; fills queue[0..count) in
+ * How {@link splitSubgraph} split a subgraph: into parts A = order[0..na) and
+ * B = order[na..na+nb), separator S = order[na+nb..n) (local ids; ws.sep.side
+ * marks them 0, 1, 2), or not at all (a leaf, or too shallow to split).
+ */
+export type NdSplit = { readonly na: number; readonly nb: number } | null;
+
+/**
+ * Orders the subgraph `sub` into out[lo .. lo + sub.n) (whole-graph ids):
+ * every part is split again until it is a leaf, the parts first, then the
+ * separator. Parts are copied out with `alloc`.
+ */
+export function orderSubgraph(ws: NdWorkspace, st: NdSettings, sub: Subgraph, out: Int32Array, lo: number, alloc: Int32Alloc): void {
+  const pending: [Subgraph, number][] = [[sub, lo]];
+  while (pending.length > 0) {
+    const [s, at] = pending.pop()!;
+    const split = splitSubgraph(ws, st, s, out, at);
+    if (split === null) continue;
+    const [a, b] = extractParts(ws, s, split, alloc);
+    pending.push([a, at], [b, at + split.na]);
+  }
+}
+
+/**
+ * One step of the dissection of `s` (to be placed at out[at ..]): a leaf is
+ * ordered into out and null returned; a subgraph too shallow to split keeps
+ * its order (null); otherwise the separator is written at its place in out
+ * and the split returned, for {@link extractParts}.
+ */
+export function splitSubgraph(ws: NdWorkspace, st: NdSettings, s: Subgraph, out: Int32Array, at: number): NdSplit {
+  const m = s.n;
+  if (m <= st.leafSize) {
+    orderLeaf(s, st.leafAmd, out, at);
+    return null;
+  }
+  ws.xadj = ws.sep.xadj = s.xadj;
+  ws.adj = ws.sep.adj = s.adj;
+  ws.deg = s.deg;
+  const split = splitRange(ws, m);
+  if (split === null) {
+    for (let k = 0; k < m; k++) out[at + k] = globalId(s, k);
+    return null;
+  }
+  const { order } = ws;
+  for (let k = split.na + split.nb; k < m; k++) out[at + k] = globalId(s, order[k]!);
+  return split;
+}
+
+/** The two parts of a split as subgraphs of their own (A, B). */
+export function extractParts(ws: NdWorkspace, s: Subgraph, split: { na: number; nb: number }, alloc: Int32Alloc): [Subgraph, Subgraph] {
+  const { order, extract } = ws, side = ws.sep.side;
+  const { na, nb } = split;
+  return [extractPart(s, order, 0, na, side, 0, extract, alloc), extractPart(s, order, na, na + nb, side, 1, extract, alloc)];
+}
+
+/** Orders a leaf into out[at ..): approximate minimum degree on it, or its own order. */
+function orderLeaf(s: Subgraph, amd: boolean, out: Int32Array, at: number): void {
+  const m = s.n;
+  if (!amd || m <= 2) {
+    for (let k = 0; k < m; k++) out[at + k] = globalId(s, k);
+    return;
+  }
+  const lp = approximateMinimumDegree({ n: m, xadj: s.xadj, adj: s.adj });
+  for (let k = 0; k < m; k++) out[at + k] = globalId(s, lp[k]!);
+}
+
+/**
+ * BFS from `root` over the current subgraph; fills queue[0..count) in
  * level order, level[], levelPtr[0..nlev]; returns the number of levels
  * (the count reached is levelPtr[nlev]).
  */
-function bfs(s: NdState, root: number, lab: number): number {
-  const { queue, visit, levelPtr, level, xadj, adj, label } = s;
+function bfs(s: NdWorkspace, root: number): number {
+  const { queue, visit, levelPtr, level, xadj, adj } = s;
   const st = s.bfsStamp++;
   let head = 0, tail = 0, nlev = 0;
   queue[tail++] = root;
@@ -172,7 +218,7 @@ function bfs(s: NdState, root: number, lab: number): number {
       level[v] = nlev;
       for (let p = xadj[v]!; p < xadj[v + 1]!; p++) {
         const w = adj[p]!;
-        if (label[w] !== lab || visit[w] === st) continue;
+        if (visit[w] === st) continue;
         visit[w] = st;
         queue[tail++] = w;
       }
@@ -184,45 +230,42 @@ function bfs(s: NdState, root: number, lab: number): number {
 }
 
 /**
- * Splits the subgraph verts[lo..hi) (labelled `lab`) and queues its parts:
- * by component when it is disconnected, else by a vertex separator (A, B
- * queued, S kept last). A subgraph too shallow to split stays as it is.
+ * Splits the current subgraph (local ids 0..m): by component when it is
+ * disconnected, else by a vertex separator; leaves A, B, S in ws.order and
+ * ws.sep.side. Returns null for a subgraph too shallow to split.
  */
-function splitRange(s: NdState, lo: number, hi: number, lab: number): void {
-  const { verts, label, levelPtr } = s;
-  const m = hi - lo;
+function splitRange(s: NdWorkspace, m: number): NdSplit {
+  const { levelPtr, order } = s;
   const sep = s.sep;
-  sep.lab = lab;
-  let nlev = bfs(s, verts[lo]!, lab);
-  if (levelPtr[nlev]! < m) {
-    splitByComponent(s, lo, hi);
-    return;
-  }
-  const peripheral = pseudoPeripheral(s, lab, m, nlev);
+  let nlev = bfs(s, 0);
+  if (levelPtr[nlev]! < m) return splitByComponent(s, m);
+  const peripheral = pseudoPeripheral(s, m, nlev);
   nlev = peripheral.nlev;
-  if (nlev < 3) return; // too shallow to split (nearly complete graph): keep as a leaf
-  const cut = chooseCut(s, lab, m, nlev, peripheral.nlevU);
-  const part = verts.subarray(lo, hi);
+  if (nlev < 3) return null; // too shallow to split (nearly complete graph): keep as a leaf
+  const cut = chooseCut(s, m, nlev, peripheral.nlevU);
   const [na0, nb0] = splitByCut(s.queue, m, cut, s.tmp);
-  const [na1, nb1] = thinSeparator(sep, s.tmp, m, na0, nb0, part);
-  const [na, nb] = refineSeparator(sep, part, m, na1, nb1, REFINE_PASSES, REFINE_SHARE);
-  for (let k = lo; k < hi; k++) label[verts[k]!] = -1;
-  s.ranges.push(lo, lo + na, lo + na, lo + na + nb);
+  const [na1, nb1] = thinSeparator(sep, s.tmp, m, na0, nb0, order);
+  const [na, nb] = refineSeparator(sep, order, m, na1, nb1, REFINE_PASSES, REFINE_SHARE);
+  return { na, nb };
 }
 
 /** Disconnected subgraph: the component the last BFS reached first, the rest after, no separator. */
-function splitByComponent(s: NdState, lo: number, hi: number): void {
-  const { verts, visit, tmp, label } = s;
+function splitByComponent(s: NdWorkspace, m: number): NdSplit {
+  const { visit, tmp, order } = s;
+  const side = s.sep.side;
   const reached = s.bfsStamp - 1;
-  let a = lo, b = 0;
-  for (let k = lo; k < hi; k++) {
-    const v = verts[k]!;
-    if (visit[v] === reached) verts[a++] = v;
-    else tmp[b++] = v;
+  let a = 0, b = 0;
+  for (let x = 0; x < m; x++) {
+    if (visit[x] === reached) {
+      order[a++] = x;
+      side[x] = 0;
+    } else {
+      tmp[b++] = x;
+      side[x] = 1;
+    }
   }
-  verts.set(tmp.subarray(0, b), a);
-  for (let k = lo; k < hi; k++) label[verts[k]!] = -1;
-  s.ranges.push(lo, a, a, hi);
+  order.set(tmp.subarray(0, b), a);
+  return { na: a, nb: b };
 }
 
 /**
@@ -231,15 +274,15 @@ function splitByComponent(s: NdState, lo: number, hi: number): void {
  * d(u, ·) of the previous root u (nlevU levels) and `level` holds d(v, ·) of
  * the final root v (nlev levels).
  */
-function pseudoPeripheral(s: NdState, lab: number, m: number, nlev: number): { nlev: number; nlevU: number } {
-  const { queue, levelPtr, level, xadj } = s;
+function pseudoPeripheral(s: NdWorkspace, m: number, nlev: number): { nlev: number; nlevU: number } {
+  const { queue, levelPtr, level, xadj, deg } = s;
   const du = s.keys[KEY_UV].key;
   let nlevU = 0;
   for (let it = 0; it < PERIPHERAL_ROUNDS; it++) {
     let best = -1, bestDeg = Infinity;
     for (let k = levelPtr[nlev - 1]!; k < levelPtr[nlev]!; k++) {
       const v = queue[k]!;
-      const d = xadj[v + 1]! - xadj[v]!;
+      const d = deg === null ? xadj[v + 1]! - xadj[v]! : deg[v]!;
       if (d < bestDeg) {
         bestDeg = d;
         best = v;
@@ -247,7 +290,7 @@ function pseudoPeripheral(s: NdState, lab: number, m: number, nlev: number): { n
     }
     for (let k = 0; k < m; k++) du[queue[k]!] = level[queue[k]!]!;
     nlevU = nlev;
-    const nl = bfs(s, best, lab);
+    const nl = bfs(s, best);
     const deeper = nl > nlev;
     nlev = nl;
     if (!deeper) break;
@@ -261,7 +304,7 @@ function pseudoPeripheral(s: NdState, lab: number, m: number, nlev: number): { n
  * a star), the "up" separator of the level key at its median level. Leaves
  * `queue` in the order of the last BFS (from w), which splitByCut follows.
  */
-function chooseCut(s: NdState, lab: number, m: number, nlevV: number, nlevU: number): KeyedCut {
+function chooseCut(s: NdWorkspace, m: number, nlevV: number, nlevU: number): KeyedCut {
   const { queue, level, levelPtr } = s;
   const keys = s.keys;
   const lv = keys[KEY_LEVEL], uv = keys[KEY_UV], uw = keys[KEY_UW], vw = keys[KEY_VW];
@@ -275,10 +318,8 @@ function chooseCut(s: NdState, lab: number, m: number, nlevV: number, nlevU: num
   }
   lv.range = nlevV;
   uv.range = nlevV + nlevU + 1;
-  bestCuts(s.sep, queue, m, lv, uv, BALANCE);
   let fallbackT = 1;
   while (fallbackT < nlevV - 2 && levelPtr[fallbackT + 1]! < m / 2) fallbackT++;
-  let best = lv.cut.size <= uv.cut.size ? lv : uv;
   // u and v are far apart, and so is the pair (u, w) and (v, w) for w
   // far from both: on a grid-like patch u, v are opposite corners, whose
   // bisector is diagonal, and w is a third corner; the bisectors
@@ -291,7 +332,7 @@ function chooseCut(s: NdState, lab: number, m: number, nlevV: number, nlevU: num
       w = x;
     }
   }
-  const nlevW = bfs(s, w, lab);
+  const nlevW = bfs(s, w);
   for (let k = 0; k < m; k++) {
     const x = queue[k]!;
     duw[x] = duw[x]! - level[x]! + nlevW;
@@ -299,7 +340,8 @@ function chooseCut(s: NdState, lab: number, m: number, nlevV: number, nlevU: num
   }
   uw.range = nlevU + nlevW + 1;
   vw.range = nlevV + nlevW + 1;
-  bestCuts(s.sep, queue, m, uw, vw, BALANCE);
+  bestCuts(s.sep, queue, m, keys, BALANCE);
+  let best = lv.cut.size <= uv.cut.size ? lv : uv;
   if (uw.cut.size < best.cut.size) best = uw;
   if (vw.cut.size < best.cut.size) best = vw;
   if (best.cut.size === Infinity) {

@@ -18,16 +18,14 @@
  */
 
 /**
- * The subgraph being split and the scratch the separator routines share: the
- * graph (xadj, adj), the vertices labelled `lab` in `label`, and n-length
- * scratch arrays. One context serves a whole nested dissection.
+ * The subgraph being split (ordering-subgraph.ts: every neighbour listed in
+ * adj belongs to it) and the scratch the separator routines share, n-length
+ * arrays for the largest subgraph. One context serves a whole nested
+ * dissection; `xadj` and `adj` are set to each subgraph in turn.
  */
 export interface SeparatorContext {
-  readonly xadj: Int32Array;
-  readonly adj: Int32Array;
-  /** label[v] === lab marks the vertices of the current subgraph. */
-  readonly label: Int32Array;
-  lab: number;
+  xadj: Int32Array;
+  adj: Int32Array;
   /** Part of each listed vertex: 0 = A, 1 = B, 2 = S (set by {@link thinSeparator}). */
   readonly side: Uint8Array;
   /** Scratch list for {@link refineSeparator}. */
@@ -38,10 +36,9 @@ export interface SeparatorContext {
   moveStamp: number;
 }
 
-/** Allocates a {@link SeparatorContext} for a graph, its label array and a scratch list (all n-length). */
-export function separatorContext(xadj: Int32Array, adj: Int32Array, label: Int32Array, list: Int32Array): SeparatorContext {
-  const n = label.length;
-  return { xadj, adj, label, lab: -1, side: new Uint8Array(n), list, moved: new Int32Array(n), moveStamp: 0 };
+/** Allocates a {@link SeparatorContext} for subgraphs of up to n vertices, with a scratch list (n-length). */
+export function separatorContext(xadj: Int32Array, adj: Int32Array, n: number, list: Int32Array): SeparatorContext {
+  return { xadj, adj, side: new Uint8Array(n), list, moved: new Int32Array(n), moveStamp: 0 };
 }
 
 /** Scratch arrays for {@link bestCuts}; n = graph size, R = key range bound. */
@@ -81,35 +78,41 @@ export function keyedCut(n: number): KeyedCut {
 }
 
 /**
- * For two keys at once (one pass over the edges), finds the smallest
+ * For four keys at once (one pass over the edges), finds the smallest
  * one-sided separator among the cuts that leave both parts non-empty and at
- * least `balance` × (m − |S|) vertices each, into a.cut and b.cut. Vertices
- * are verts[0..m), all labelled ctx.lab. Fills the min/max neighbour keys of
- * each work (used by {@link splitByCut}); a cut has size Infinity when none
- * is balanced.
+ * least `balance` × (m − |S|) vertices each, into each key's cut. Vertices
+ * are verts[0..m), every vertex of the subgraph. Fills the min/max neighbour
+ * keys of each work (used by {@link splitByCut}); a cut has size Infinity
+ * when none is balanced.
  */
-export function bestCuts(ctx: SeparatorContext, verts: Int32Array, m: number, a: KeyedCut, b: KeyedCut, balance: number): void {
-  const { xadj, adj, label, lab } = ctx;
-  const keyA = a.key, keyB = b.key, wA = a.work, wB = b.work;
-  clear(wA, a.range);
-  clear(wB, b.range);
+export function bestCuts(
+  ctx: SeparatorContext, verts: Int32Array, m: number, kc: readonly [KeyedCut, KeyedCut, KeyedCut, KeyedCut], balance: number,
+): void {
+  const { xadj, adj } = ctx;
+  const [a, b, c, d] = kc;
+  const keyA = a.key, keyB = b.key, keyC = c.key, keyD = d.key;
+  for (const k of kc) clear(k.work, k.range);
   for (let q = 0; q < m; q++) {
-    const x = verts[q]!, ka = keyA[x]!, kb = keyB[x]!;
-    let mxa = ka, mna = ka, mxb = kb, mnb = kb;
+    const x = verts[q]!, ka = keyA[x]!, kb = keyB[x]!, kcx = keyC[x]!, kd = keyD[x]!;
+    let mxa = ka, mna = ka, mxb = kb, mnb = kb, mxc = kcx, mnc = kcx, mxd = kd, mnd = kd;
     for (let p = xadj[x]!; p < xadj[x + 1]!; p++) {
       const y = adj[p]!;
-      if (label[y] !== lab) continue;
-      const ya = keyA[y]!, yb = keyB[y]!;
+      const ya = keyA[y]!, yb = keyB[y]!, yc = keyC[y]!, yd = keyD[y]!;
       if (ya > mxa) mxa = ya;
       if (ya < mna) mna = ya;
       if (yb > mxb) mxb = yb;
       if (yb < mnb) mnb = yb;
+      if (yc > mxc) mxc = yc;
+      if (yc < mnc) mnc = yc;
+      if (yd > mxd) mxd = yd;
+      if (yd < mnd) mnd = yd;
     }
-    record(wA, x, ka, mxa, mna);
-    record(wB, x, kb, mxb, mnb);
+    record(a.work, x, ka, mxa, mna);
+    record(b.work, x, kb, mxb, mnb);
+    record(c.work, x, kcx, mxc, mnc);
+    record(d.work, x, kd, mxd, mnd);
   }
-  scan(wA, a.range, m, balance, a.cut);
-  scan(wB, b.range, m, balance, b.cut);
+  for (const k of kc) scan(k.work, k.range, m, balance, k.cut);
 }
 
 function clear(w: CutWork, R: number): void {
@@ -191,11 +194,11 @@ export function splitByCut(verts: Int32Array, m: number, kc: KeyedCut, out: Int3
  * smaller part when it has neither), one at a time, so A and B never become
  * adjacent. Level-set separators on irregular meshes are jagged, and such
  * vertices are common there. Leaves ctx.side as 0 = A, 1 = B, 2 = S for the
- * listed vertices (subgraph: vertices labelled ctx.lab). Writes the new A, B, S
+ * listed vertices. Writes the new A, B, S
  * into dest[0..m) and returns [|A|, |B|].
  */
 export function thinSeparator(ctx: SeparatorContext, out: Int32Array, m: number, na: number, nb: number, dest: Int32Array): [number, number] {
-  const { xadj, adj, label, lab, side } = ctx;
+  const { xadj, adj, side } = ctx;
   for (let q = 0; q < m; q++) side[out[q]!] = q < na ? 0 : q < na + nb ? 1 : 2;
   let a = na, b = nb;
   for (let q = na + nb; q < m; q++) {
@@ -203,7 +206,6 @@ export function thinSeparator(ctx: SeparatorContext, out: Int32Array, m: number,
     let hasA = false, hasB = false;
     for (let p = xadj[x]!; p < xadj[x + 1]!; p++) {
       const y = adj[p]!;
-      if (label[y] !== lab) continue;
       const sy = side[y]!;
       if (sy === 0) hasA = true;
       else if (sy === 1) hasB = true;
@@ -239,7 +241,7 @@ export function thinSeparator(ctx: SeparatorContext, out: Int32Array, m: number,
 export function refineSeparator(
   ctx: SeparatorContext, dest: Int32Array, m: number, na: number, nb: number, passes: number, minShare: number,
 ): [number, number] {
-  const { xadj, adj, label, lab, side, list, moved } = ctx;
+  const { xadj, adj, side, list, moved } = ctx;
   const size = [na, nb];
   let stamp = ctx.moveStamp;
   for (let pass = 0; pass < passes; pass++) {
@@ -253,8 +255,7 @@ export function refineSeparator(
       let cA = 0, cB = 0, lockA = false, lockB = false;
       for (let p = xadj[x]!; p < xadj[x + 1]!; p++) {
         const y = adj[p]!;
-        if (label[y] !== lab) continue;
-        const sy = side[y]!;
+          const sy = side[y]!;
         if (sy === 0) {
           cA++;
           if (moved[y] === st) lockA = true;
@@ -287,7 +288,7 @@ export function refineSeparator(
       size[best]!++;
       for (let p = xadj[x]!; p < xadj[x + 1]!; p++) {
         const y = adj[p]!;
-        if (label[y] === lab && side[y] === Q) {
+        if (side[y] === Q) {
           side[y] = 2;
           size[Q]!--;
           list[top++] = y;
