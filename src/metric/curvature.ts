@@ -35,7 +35,7 @@
  *   a vertex made by the cut share one angle sum, one defect and one area,
  *   so the defects are those of the surface as given.
  */
-import type { IntrinsicMesh } from './intrinsic.js';
+import { hypot3, type IntrinsicMesh } from './intrinsic.js';
 import type { Topology } from '../mesh/topology.js';
 import { next } from '../mesh/topology.js';
 import { cornerAngles, halfedgeCotans, triangleArea } from './triangle.js';
@@ -183,14 +183,12 @@ export function meanCurvature(
     const ux = positions[b]! - positions[a]!, uy = positions[b + 1]! - positions[a + 1]!, uz = positions[b + 2]! - positions[a + 2]!;
     const vx = positions[c]! - positions[a]!, vy = positions[c + 1]! - positions[a + 1]!, vz = positions[c + 2]! - positions[a + 2]!;
     const nx = uy * vz - uz * vy, ny = uz * vx - ux * vz, nz = ux * vy - uy * vx;
-    const ul = Math.hypot(ux, uy, uz), vl = Math.hypot(vx, vy, vz);
+    const ul = hypot3(ux, uy, uz), vl = hypot3(vx, vy, vz);
     const err = 4 * eps * (M * (ul + vl) + ul * vl);
-    for (const v of [a, b, c]) {
-      nrm[v]! += nx;
-      nrm[v + 1]! += ny;
-      nrm[v + 2]! += nz;
-      nerr[v / 3]! += err;
-    }
+    // a, b, c in turn (written out: an array literal here was one allocation per face)
+    nrm[a]! += nx; nrm[a + 1]! += ny; nrm[a + 2]! += nz; nerr[a / 3]! += err;
+    nrm[b]! += nx; nrm[b + 1]! += ny; nrm[b + 2]! += nz; nerr[b / 3]! += err;
+    nrm[c]! += nx; nrm[c + 1]! += ny; nrm[c + 2]! += nz; nerr[c / 3]! += err;
   }
   const rep = seams && seams.length > 0 ? glueSeams(t, seams).rep : null;
   if (rep) {
@@ -213,11 +211,11 @@ export function meanCurvature(
     if (rep && rep[v] !== v) continue;
     const A = vertexArea[v]!;
     if (boundary[v] || !(A > 0)) continue;
-    const nl = Math.hypot(nrm[3 * v]!, nrm[3 * v + 1]!, nrm[3 * v + 2]!);
+    const nl = hypot3(nrm[3 * v]!, nrm[3 * v + 1]!, nrm[3 * v + 2]!);
     if (!(nl > 0)) continue;
     let dot = 0;
     for (let d = 0; d < 3; d++) dot += lap[3 * v + d]! * nrm[3 * v + d]!;
-    const lapLen = Math.hypot(lap[3 * v]!, lap[3 * v + 1]!, lap[3 * v + 2]!);
+    const lapLen = hypot3(lap[3 * v]!, lap[3 * v + 1]!, lap[3 * v + 2]!);
     if (Math.abs(dot / nl) <= 4 * (lapLen * (nerr[v]! / nl) + 2 * eps * M * wsum[v]!)) continue; // noise: H = 0
     // Δx·n = dot / (2A·|n|) = 2H
     const h = dot / (4 * A * nl);
@@ -231,6 +229,6 @@ export function meanCurvature(
  * Gauss–Bonnet residual: Σ interior defects + Σ boundary turning − 2π·χ,
  * with χ summed over components. Zero up to rounding on any valid mesh.
  */
-export function gaussBonnetResidual(c: Curvature, eulerCharacteristic: number): number {
+export function gaussBonnetResidual(c: Pick<Curvature, 'totalInteriorDefect' | 'totalBoundaryTurning'>, eulerCharacteristic: number): number {
   return c.totalInteriorDefect + c.totalBoundaryTurning - 2 * Math.PI * eulerCharacteristic;
 }

@@ -16,6 +16,30 @@ export interface IntrinsicMesh {
 }
 
 /**
+ * √(x² + y² + z²) with exactly the result of `Math.hypot(x, y, z)` in V8
+ * (the largest magnitude m factored out, the squares of x/m, y/m, z/m summed
+ * with Kahan's compensation, then √sum · m; ±Infinity wins over NaN), so
+ * lengths stay bit for bit what they were. `Math.hypot` is a variadic
+ * builtin that the optimizing compiler does not inline: each call boxes its
+ * arguments and allocates, and a mesh pass makes millions of calls.
+ */
+export function hypot3(x: number, y: number, z: number): number {
+  x = Math.abs(x);
+  y = Math.abs(y);
+  z = Math.abs(z);
+  if (x !== x || y !== y || z !== z) return x === Infinity || y === Infinity || z === Infinity ? Infinity : NaN;
+  let m = x > y ? x : y;
+  if (z > m) m = z;
+  if (m === Infinity || m === 0) return m;
+  const a = x / m, b = y / m, c = z / m;
+  // Kahan's compensated sum of a², b², c² (the compensation after the first term is 0)
+  const a2 = a * a, b2 = b * b;
+  const ab = a2 + b2;
+  const comp = ab - a2 - b2;
+  return Math.sqrt(ab + (c * c - comp)) * m;
+}
+
+/**
  * Euclidean edge lengths from vertex positions (x, y, z per topology vertex).
  * Differences are taken in float64 before squaring, so large map coordinates
  * keep their millimetres.
@@ -28,7 +52,7 @@ export function edgeLengthsFromPositions(t: Topology, positions: Float64Array): 
     const dx = positions[b]! - positions[a]!;
     const dy = positions[b + 1]! - positions[a + 1]!;
     const dz = positions[b + 2]! - positions[a + 2]!;
-    len[e] = Math.hypot(dx, dy, dz);
+    len[e] = hypot3(dx, dy, dz);
   }
   return len;
 }

@@ -214,19 +214,11 @@ export function boundedCot(cot: number): number {
   return cot > COT_LIMIT ? COT_LIMIT : cot < -COT_LIMIT ? -COT_LIMIT : cot;
 }
 
-/** Side lengths of face f in half-edge order: l[k] = length of half-edge 3f+k. */
-function sides(m: IntrinsicMesh, f: number): [number, number, number] {
+/** Area of every face (sides in half-edge order: side k is the length of half-edge 3f+k). */
+export function faceAreas(m: IntrinsicMesh, out = new Float64Array(m.topology.nf)): Float64Array {
   const { edgeOf } = m.topology;
   const L = m.edgeLength;
-  return [L[edgeOf[3 * f]!]!, L[edgeOf[3 * f + 1]!]!, L[edgeOf[3 * f + 2]!]!];
-}
-
-/** Area of every face. */
-export function faceAreas(m: IntrinsicMesh, out = new Float64Array(m.topology.nf)): Float64Array {
-  for (let f = 0; f < m.topology.nf; f++) {
-    const [a, b, c] = sides(m, f);
-    out[f] = triangleArea(a, b, c);
-  }
+  for (let f = 0; f < m.topology.nf; f++) out[f] = triangleArea(L[edgeOf[3 * f]!]!, L[edgeOf[3 * f + 1]!]!, L[edgeOf[3 * f + 2]!]!);
   return out;
 }
 

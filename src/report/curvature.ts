@@ -6,6 +6,7 @@ import type { Surface } from '../mesh/surface.js';
 import { surfaceIntrinsic, attachedMetric } from '../metric/user/surface-metric.js';
 import { gaussianCurvature, meanCurvature, gaussBonnetResidual } from '../metric/curvature.js';
 import { components } from '../mesh/components.js';
+import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import { glueSeams } from '../mesh/seams.js';
 
 /** Min / mean / max of a statistic. */
@@ -54,10 +55,13 @@ function stat(values: Float64Array, mask: Uint8Array, active: (v: number) => boo
   return n ? { min, mean: sum / n, max } : { min: 0, mean: 0, max: 0 };
 }
 
-/** Computes curvature per topology vertex and its summary. */
-export function curvatureSummary(s: Surface): CurvatureResult {
+/**
+ * Computes curvature per topology vertex and its summary. `intrinsic`, when
+ * given, must be `surfaceIntrinsic(s)`'s mesh, already made by the caller.
+ */
+export function curvatureSummary(s: Surface, intrinsic?: IntrinsicMesh): CurvatureResult {
   const t = s.topology;
-  const im = surfaceIntrinsic(s); // a user metric's lengths when one is attached
+  const im = intrinsic ?? surfaceIntrinsic(s); // a user metric's lengths when one is attached
   const seams = s.report.orientationSeams;
   const c = gaussianCurvature(im, seams);
   const H = meanCurvature(im, s.positions, c.vertexArea, c.boundary, seams);

@@ -26,7 +26,8 @@ import { components } from '../mesh/components.js';
 import { boundaryLoops, namedBoundaryLoops } from '../mesh/boundary.js';
 import { surfaceIntrinsic, attachedMetric } from '../metric/user/surface-metric.js';
 import { cornerAngles, faceAreas } from '../metric/triangle.js';
-import { gaussianCurvature, gaussBonnetResidual } from '../metric/curvature.js';
+import { gaussianCurvature, gaussBonnetResidual, type Curvature } from '../metric/curvature.js';
+import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import type { NonManifoldEdge, DuplicateFace } from '../mesh/build.js';
 import type { StlReport } from '../io/mesh-data.js';
 
@@ -155,15 +156,26 @@ export function inspectProblems(r: InspectReport): string[] {
   return probs;
 }
 
-/** Computes the health summary of a surface. */
-export function inspectSurface(s: Surface): InspectReport {
+/**
+ * What a caller that computes more than the report has already made for the
+ * same surface, so it is not made twice (`score` does): `intrinsic` must be
+ * `surfaceIntrinsic(s)`'s mesh, `curvature` the totals of
+ * `gaussianCurvature(intrinsic, s.report.orientationSeams)`.
+ */
+export interface InspectParts {
+  intrinsic?: IntrinsicMesh;
+  curvature?: Pick<Curvature, 'totalInteriorDefect' | 'totalBoundaryTurning' | 'zeroAreaVertices'>;
+}
+
+/** Computes the health summary of a surface (`given`: parts already made, {@link InspectParts}). */
+export function inspectSurface(s: Surface, given: InspectParts = {}): InspectReport {
   const t = s.topology;
   const seams = s.report.orientationSeams;
   const comps = components(t, seams);
-  const im = surfaceIntrinsic(s); // a user metric's lengths when one is attached
+  const im = given.intrinsic ?? surfaceIntrinsic(s); // a user metric's lengths when one is attached
   const ang = cornerAngles(im);
   const A = faceAreas(im);
-  const curv = gaussianCurvature(im, seams);
+  const curv = given.curvature ?? gaussianCurvature(im, seams);
   const chi = comps.info.reduce((a, c) => a + c.eulerCharacteristic, 0);
   const orientable = s.report.nonOrientableComponents === 0;
   const quality = triangleQuality(s, im.edgeLength, A, ang);

@@ -8,10 +8,15 @@
  * exact solver per mesh (window propagation, prepared once). The solvers
  * are imported on first use, so a run of the linear groups (or landmarks
  * without pairs) never loads them: less start-up for each worker thread.
+ *
+ * What several groups need is made once per surface: the edge lengths
+ * (`intrinsicOf`, shared with the solvers too), and the angle defects, whose
+ * totals the health group takes from the curvature group when both run
+ * (the same `gaussianCurvature` of the same lengths, so the same numbers).
  */
 import type { Surface } from '../mesh/surface.js';
 import { inspectSurface } from '../report/inspect.js';
-import { curvatureSummary } from '../report/curvature.js';
+import { curvatureSummary, type CurvatureResult } from '../report/curvature.js';
 import { intrinsicOf } from '../api/parts.js';
 import type { DistanceSolver } from '../geodesic/solver.js';
 import { metricsOf, type MetricGroup, type Metrics } from './catalog.js';
@@ -49,13 +54,31 @@ const finite = (x: number | null | undefined): number | null => (x !== null && x
 export async function scoreSurface(s: Surface, opts: ScoreOptions): Promise<SurfaceScore> {
   const g = new Set(opts.groups);
   const out: Metrics = {};
+  // the surface's edge lengths (its user metric's when one is attached), made once for every group and solver
+  const im = g.has('health') || g.has('quality') || g.has('curvature') ? intrinsicOf(s) : null;
+  // curvature first: its angle-defect totals are the health group's (metrics go out in catalogue order all the same)
+  let curvature: CurvatureResult['summary'] | null = null;
+  if (g.has('curvature')) {
+    curvature = curvatureSummary(s, im!).summary;
+    const c = curvature;
+    const some = c.interiorVertices > 0 && c.interiorVertices > c.zeroAreaVertices;
+    const v = (x: number) => (some ? finite(x) : null); // the summary's zeros mean "no interior vertex", not zero curvature
+    Object.assign(out, {
+      gaussianCurvatureMin: v(c.gaussian.min), gaussianCurvatureMean: v(c.gaussian.mean), gaussianCurvatureMax: v(c.gaussian.max),
+      meanCurvatureMin: v(c.mean.min), meanCurvatureMean: v(c.mean.mean), meanCurvatureMax: v(c.mean.max),
+      interiorVertices: c.interiorVertices, boundaryVertices: c.boundaryVertices,
+    });
+  }
   const budget = opts.memoryBudget !== undefined ? { memoryBudget: opts.memoryBudget } : {};
   let exact: DistanceSolver | undefined;
   const solvers = () => import('../api/distance.js');
   const exactSolver = async (): Promise<DistanceSolver> => (exact ??= (await solvers()).prepareDistances(s, 'exact', budget));
 
   if (g.has('health')) {
-    const r = inspectSurface(s);
+    const totals = curvature
+      ? { totalInteriorDefect: curvature.totalAngleDefect, totalBoundaryTurning: curvature.totalBoundaryTurning, zeroAreaVertices: curvature.zeroAreaVertices }
+      : undefined;
+    const r = inspectSurface(s, { intrinsic: im!, curvature: totals });
     const { min, max } = r.boundingBox;
     const diag = r.vertices ? Math.hypot(max[0] - min[0], max[1] - min[1], max[2] - min[2]) : 0;
     Object.assign(out, {
@@ -73,20 +96,10 @@ export async function scoreSurface(s: Surface, opts: ScoreOptions): Promise<Surf
     });
   }
   if (g.has('quality')) {
-    const q = triangleQuality(intrinsicOf(s)); // the surface's edge lengths, made once and shared with the solvers
+    const q = triangleQuality(im!);
     Object.assign(out, {
       aspectRatioP50: finite(q.aspectRatioP50), aspectRatioP90: finite(q.aspectRatioP90), aspectRatioP99: finite(q.aspectRatioP99),
       aspectRatioMax: finite(q.aspectRatioMax), nonDelaunayEdges: q.nonDelaunayEdges, nonDelaunayFraction: finite(q.nonDelaunayFraction),
-    });
-  }
-  if (g.has('curvature')) {
-    const c = curvatureSummary(s).summary;
-    const some = c.interiorVertices > 0 && c.interiorVertices > c.zeroAreaVertices;
-    const v = (x: number) => (some ? finite(x) : null); // the summary's zeros mean "no interior vertex", not zero curvature
-    Object.assign(out, {
-      gaussianCurvatureMin: v(c.gaussian.min), gaussianCurvatureMean: v(c.gaussian.mean), gaussianCurvatureMax: v(c.gaussian.max),
-      meanCurvatureMin: v(c.mean.min), meanCurvatureMean: v(c.mean.mean), meanCurvatureMax: v(c.mean.max),
-      interiorVertices: c.interiorVertices, boundaryVertices: c.boundaryVertices,
     });
   }
   let landmarks: LandmarkResult[] = [];

@@ -1,0 +1,67 @@
+/**
+ * The shortcuts `score` takes on its hot path give the numbers of the plain
+ * calls, bit for bit (scores must not change when the code gets faster):
+ * - `hypot3` against V8's `Math.hypot`, the builtin it replaces (the
+ *   reference: the same function the lengths were computed with before);
+ * - `inspectSurface` and `curvatureSummary` handed the parts `score` shares
+ *   (the intrinsic mesh, the angle-defect totals) against the same calls
+ *   making them themselves (common practice: a regression check).
+ */
+import { describe, expect, it } from 'vitest';
+import { hypot3, intrinsicFromPositions } from '../../src/metric/intrinsic.js';
+import { inspectSurface } from '../../src/report/inspect.js';
+import { curvatureSummary } from '../../src/report/curvature.js';
+import { surfaceFromMeshData } from '../../src/mesh/surface.js';
+import { meshFromTriangles } from '../../src/io/mesh-data.js';
+import { rng, terrain, torus } from '../fixtures/shapes.js';
+
+describe('hypot3', () => {
+  it('equals Math.hypot bit for bit (V8 builtin as reference), special values included', () => {
+    const special = [0, -0, 1, -1, 3, 4, 5e-324, 2.2250738585072014e-308, 1.7976931348623157e308, Infinity, -Infinity, NaN, 1e-300, 1e300];
+    const same = (x: number, y: number, z: number) => Object.is(hypot3(x, y, z), Math.hypot(x, y, z));
+    for (const x of special) for (const y of special) for (const z of special) expect(same(x, y, z), `${x}, ${y}, ${z}`).toBe(true);
+    const r = rng(7);
+    const bits = new Float64Array(1), words = new Uint32Array(bits.buffer);
+    let bad = 0;
+    for (let i = 0; i < 200_000; i++) {
+      const v: number[] = [];
+      for (let k = 0; k < 3; k++) {
+        if (i % 3 === 0) {
+          // any bit pattern: every exponent, subnormals, NaN payloads
+          words[0] = Math.floor(r() * 2 ** 32);
+          words[1] = Math.floor(r() * 2 ** 32);
+          v.push(bits[0]!);
+        } else {
+          v.push((r() - 0.5) * 10 ** Math.floor(r() * 24 - 12) + (i % 3 === 1 ? 1e6 * r() : 0));
+        }
+      }
+      if (!same(v[0]!, v[1]!, v[2]!)) bad++;
+    }
+    expect(bad).toBe(0);
+    expect(hypot3(3, 4, 12)).toBe(13); // the Pythagorean quadruple 3² + 4² + 12² = 13² (closed form)
+  });
+});
+
+describe('reports given the parts score shares', () => {
+  const r = rng(3);
+  const shapes = [
+    terrain(14, 11, 40, 30, (x, y) => Math.sin(x / 5) * Math.cos(y / 7) + 0.2 * r()),
+    torus(24, 9, 2, 0.7),
+  ];
+  for (const [i, shape] of shapes.entries()) {
+    it(`inspect and curvature: the same report, bit for bit (shape ${i})`, () => {
+      const s = surfaceFromMeshData(meshFromTriangles(shape.positions, shape.triangles, 'case.obj'));
+      const im = intrinsicFromPositions(s.topology, s.positions);
+      const plainCurv = curvatureSummary(s);
+      const sharedCurv = curvatureSummary(s, im);
+      expect(sharedCurv.summary).toStrictEqual(plainCurv.summary);
+      expect(sharedCurv.meanCurvature).toStrictEqual(plainCurv.meanCurvature);
+      const c = sharedCurv.summary;
+      const shared = inspectSurface(s, {
+        intrinsic: im,
+        curvature: { totalInteriorDefect: c.totalAngleDefect, totalBoundaryTurning: c.totalBoundaryTurning, zeroAreaVertices: c.zeroAreaVertices },
+      });
+      expect(shared).toStrictEqual(inspectSurface(s));
+    });
+  }
+});
