@@ -10,6 +10,7 @@ import { intrinsicDelaunay } from '../metric/delaunay.js';
 import { refineLongEdges, equilateralEdge } from '../metric/refine.js';
 import { usageError, inputError } from '../errors.js';
 import type { FactorExecutor } from '../linalg/executor.js';
+import type { OrderingExecutor } from '../linalg/ordering-executor.js';
 
 /** Source curves solved one by one (see `HeatSolver.distance` in heat.ts); more are solved together. */
 export const MAX_SEPARATE_CURVES = 8;
@@ -52,6 +53,12 @@ export interface HeatOptions {
    * options sent to a worker.
    */
   factorExecutor?: FactorExecutor | null;
+  /**
+   * Orders parts of the nested dissection on other threads
+   * (linalg/ordering-executor.ts; on Node `NodeOrderingExecutor`); the
+   * ordering is the serial one. Not cloneable, like factorExecutor.
+   */
+  orderingExecutor?: OrderingExecutor | null;
 }
 
 /** What `HeatSolver.prepare` did and how long it took. */

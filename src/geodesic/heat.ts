@@ -132,6 +132,7 @@ export class HeatSolver {
   static prepare(mesh: IntrinsicMesh, opts: HeatOptions = {}): HeatSolver {
     const t0 = performance.now();
     if (mesh.topology.nv >= (opts.factorExecutor?.minSize ?? Infinity)) opts.factorExecutor?.warm?.(); // threads load during the remesh
+    if (mesh.topology.nv >= (opts.orderingExecutor?.minSize ?? Infinity)) opts.orderingExecutor?.warm?.();
     const { m, boundary, work, h, epsilon, flips, flipsCapped, inserted, refineCapped } = heatTriangulation(mesh, opts);
     const t1 = performance.now();
     const tw = work.topology;
@@ -151,7 +152,7 @@ export class HeatSolver {
       if (!(Mv[v]! > 0)) inactive[v] = 1;
       else if (Mv[v]! < minMass) minMass = Mv[v]!;
     }
-    const sym = analyzeCholesky(patternMatrix(p, Lv), opts.ordering ? { ordering: opts.ordering } : {});
+    const sym = analyzeCholesky(patternMatrix(p, Lv), { ...(opts.ordering ? { ordering: opts.ordering } : {}), orderingExecutor: opts.orderingExecutor ?? null });
     const t2 = performance.now();
 
     const A = combine(p, step, Lv, 1, Mv);

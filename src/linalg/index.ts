@@ -33,5 +33,7 @@ export { analyzeCholesky, DEFAULT_ORDERING } from './symbolic.js';
 export { CholeskyFactor } from './numeric.js';
 export type { FactorOptions, FactorManyOptions } from './numeric.js';
 export type { FactorExecutor, FactorJob, FactorJobResult } from './executor.js';
+export type { OrderingExecutor, NdBatch, NdJob } from './ordering-executor.js';
+export { parallelNestedDissection } from './ordering-executor.js';
 export { lowerSolve, lowerTransposeSolve } from './solve.js';
 export { supernodalLowerSolve, supernodalLowerTransposeSolve } from './solve-supernodal.js';

@@ -143,13 +143,17 @@ export type NdSplit = { readonly na: number; readonly nb: number } | null;
 /**
  * Orders the subgraph `sub` into out[lo .. lo + sub.n) (whole-graph ids):
  * every part is split again until it is a leaf, the parts first, then the
- * separator. Parts are copied out with `alloc`.
+ * separator. Parts are copied out with `alloc`. `beat[0]`, when given, counts
+ * the subgraphs done (the heartbeat of a worker thread, ordering-executor.ts).
  */
-export function orderSubgraph(ws: NdWorkspace, st: NdSettings, sub: Subgraph, out: Int32Array, lo: number, alloc: Int32Alloc): void {
+export function orderSubgraph(
+  ws: NdWorkspace, st: NdSettings, sub: Subgraph, out: Int32Array, lo: number, alloc: Int32Alloc, beat: Int32Array | null = null,
+): void {
   const pending: [Subgraph, number][] = [[sub, lo]];
   while (pending.length > 0) {
     const [s, at] = pending.pop()!;
     const split = splitSubgraph(ws, st, s, out, at);
+    if (beat !== null) Atomics.add(beat, 0, 1);
     if (split === null) continue;
     const [a, b] = extractParts(ws, s, split, alloc);
     pending.push([a, at], [b, at + split.na]);

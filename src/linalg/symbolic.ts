@@ -10,6 +10,8 @@ import { adjacencyFromLower } from './graph.js';
 import { eliminationTree, postorder } from './etree.js';
 import { columnCounts } from './colcounts.js';
 import { nestedDissection } from './ordering-nd.js';
+import { parallelNestedDissection } from './ordering-executor.js';
+import type { OrderingExecutor } from './ordering-executor.js';
 import { approximateMinimumDegree } from './ordering-amd.js';
 import { findSupernodes } from './supernodes.js';
 import type { SupernodalStructure } from './supernodes.js';
@@ -79,6 +81,12 @@ export interface AnalyzeOptions {
    * 'simplicial' (up-looking, one column at a time).
    */
   method?: CholeskyMethod;
+  /**
+   * Orders the parts of the nested dissection on other threads as well
+   * (ordering-executor.ts; on Node `NodeOrderingExecutor`); the permutation
+   * is the serial one. Without it everything runs on the calling thread.
+   */
+  orderingExecutor?: OrderingExecutor | null;
 }
 
 /** Numeric factorization methods. */
@@ -115,7 +123,8 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
     perm0 = new Int32Array(n);
     for (let k = 0; k < n; k++) perm0[k] = k;
   } else if (ordering === 'nd') {
-    perm0 = nestedDissection(adjacencyFromLower(Alower));
+    const g = adjacencyFromLower(Alower);
+    perm0 = opts.orderingExecutor ? parallelNestedDissection(g, {}, opts.orderingExecutor) : nestedDissection(g);
   } else if (ordering === 'amd') {
     perm0 = approximateMinimumDegree(adjacencyFromLower(Alower));
   } else {

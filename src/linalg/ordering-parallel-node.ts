@@ -1,0 +1,142 @@
+/**
+ * An {@link OrderingExecutor} on Node worker threads (Node only: the
+ * `orthodrome/node` subpath exports it; src/core.ts never reaches it). The
+ * parts of a nested dissection live in SharedArrayBuffers, so a batch
+ * message carries views only; each worker claims parts through the batch's
+ * shared counter (ordering-executor.ts, runJobs) and writes their order into
+ * the shared permutation.
+ *
+ * The caller orders parts too and then waits synchronously (Atomics.wait;
+ * allowed on Node's main thread), so `analyzeCholesky` stays synchronous.
+ * A worker that is still loading when the caller has claimed every part
+ * costs nothing: the caller does not wait for it. A worker that fails, or
+ * whose heartbeat (subgraphs split) stops for `stallMs`, is given up and the
+ * caller orders the parts it left open (the permutation is the same).
+ *
+ * Workers start on `warm()` or the first batch and stay (unref'd, so they
+ * never keep the process alive) until {@link NodeOrderingExecutor.close}.
+ */
+import { Worker } from 'node:worker_threads';
+import { availableParallelism } from 'node:os';
+import { C_BEAT, C_DONE, C_FAILED, C_REMOTE } from './ordering-executor.js';
+import type { NdBatch, OrderingExecutor } from './ordering-executor.js';
+
+/** Options of {@link NodeOrderingExecutor}. */
+export interface NodeOrderingExecutorOptions {
+  /** Smallest graph (vertices) ordered with the threads; default {@link DEFAULT_ORDERING_MIN_SIZE}. */
+  minSize?: number;
+  /** Worker threads; default the machine's available parallelism − 1 (at least 1). */
+  threads?: number;
+  /** Levels split before the parts become jobs; default 2 (four parts). */
+  depth?: number;
+  /** A worker whose part shows no progress for this long is given up; default 120 000 ms. */
+  stallMs?: number;
+  /** The calling thread orders parts too (default true; false for tests: every part on a worker). */
+  callerOrders?: boolean;
+}
+
+/**
+ * Default size threshold: below ~200k vertices the whole dissection takes
+ * well under a second and a worker's start-up eats most of the gain (as for
+ * the factorization threads, parallel-node.ts).
+ */
+export const DEFAULT_ORDERING_MIN_SIZE = 200_000;
+
+/** Nested dissection parts on worker threads; see the module comment. */
+export class NodeOrderingExecutor implements OrderingExecutor {
+  readonly minSize: number;
+  readonly depth: number;
+  readonly callerOrders: boolean;
+  readonly #threads: number;
+  readonly #stallMs: number;
+  readonly #workers: Worker[] = [];
+  readonly #ready: Promise<void>[] = [];
+  /** Batches given to the workers, parts the workers ordered, and batches whose open parts the caller had to order (a worker failed or stalled). */
+  readonly counts = { batches: 0, remoteJobs: 0, failed: 0 };
+
+  constructor(opts: NodeOrderingExecutorOptions = {}) {
+    this.minSize = opts.minSize ?? DEFAULT_ORDERING_MIN_SIZE;
+    this.depth = Math.max(1, opts.depth ?? 2);
+    this.#threads = Math.max(1, opts.threads ?? availableParallelism() - 1);
+    this.#stallMs = opts.stallMs ?? 120_000;
+    this.callerOrders = opts.callerOrders ?? true;
+  }
+
+  /** Starts the workers now (they load while the caller works); returns at once. */
+  warm(): void {
+    while (this.#workers.length < this.#threads) this.#spawn();
+  }
+
+  /** Resolves when every started worker has loaded its module. */
+  async ready(): Promise<void> {
+    await Promise.all(this.#ready);
+  }
+
+  shared(length: number): Int32Array {
+    return new Int32Array(new SharedArrayBuffer(4 * Math.max(1, length)), 0, length);
+  }
+
+  start(batch: NdBatch): () => boolean {
+    this.warm();
+    this.counts.batches++;
+    for (const w of this.#workers) w.postMessage(batch);
+    return () => this.#wait(batch);
+  }
+
+  /** Stops the workers (they are unref'd, so a process may also just exit). */
+  async close(): Promise<void> {
+    const ws = this.#workers.splice(0);
+    await Promise.all(ws.map((w) => w.terminate()));
+  }
+
+  #spawn(): Worker {
+    const here = import.meta.url;
+    const url = new URL(here.endsWith('.ts') ? './ordering-worker.ts' : './ordering-worker.js', here);
+    // run from source (tsx): a Node 20 worker does not inherit the TypeScript loader, so it
+    // registers it before importing the worker module (built: plain JavaScript)
+    const w = here.endsWith('.ts')
+      ? new Worker(`import(${JSON.stringify(import.meta.resolve('tsx/esm/api'))}).then((m) => { m.register(); return import(${JSON.stringify(url.href)}); })`, { eval: true })
+      : new Worker(url);
+    w.unref();
+    w.on('error', () => this.#drop(w));
+    w.on('exit', () => this.#drop(w));
+    this.#ready.push(new Promise<void>((resolve) => {
+      w.once('message', () => resolve());
+      w.once('exit', () => resolve());
+    }));
+    this.#workers.push(w);
+    return w;
+  }
+
+  #drop(w: Worker): void {
+    const i = this.#workers.indexOf(w);
+    if (i >= 0) this.#workers.splice(i, 1);
+  }
+
+  /** Blocks until every job is done (true) or a worker failed or stalled (false). */
+  #wait(batch: NdBatch): boolean {
+    const { control, jobs } = batch;
+    let beat = Atomics.load(control, C_BEAT), since = performance.now();
+    for (;;) {
+      const done = Atomics.load(control, C_DONE);
+      if (done >= jobs.length) {
+        this.counts.remoteJobs += Atomics.load(control, C_REMOTE);
+        return true;
+      }
+      if (Atomics.load(control, C_FAILED) > 0 || this.#workers.length === 0) {
+        this.counts.failed++;
+        return false;
+      }
+      Atomics.wait(control, C_DONE, done, 250);
+      const b = Atomics.load(control, C_BEAT);
+      if (b !== beat) {
+        beat = b;
+        since = performance.now();
+      } else if (performance.now() - since > this.#stallMs) {
+        for (const w of this.#workers.splice(0)) void w.terminate();
+        this.counts.failed++;
+        return false;
+      }
+    }
+  }
+}
