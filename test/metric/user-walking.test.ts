@@ -110,7 +110,7 @@ describe('walking times on steep ground (issue 14): counted, repaired, heat agai
     const { exact } = fields();
     let far = 0;
     for (let v = 0; v < exact.length; v++) if (exact[v]! > exact[far]!) far = v;
-    expect(exact[far]!).toBeGreaterThan(10 * chain[far]!); // 1133 min against a walk of at most 28 min (measured)
+    expect(exact[far]!).toBeGreaterThan(10 * chain[far]!); // 1133 min against a walk of 23 min along edges (measured)
   });
 
   it('on the repaired lengths, heat is 2.5× its usual error from exact: the issue\'s check does not hold, and the rough caution is given', () => {
@@ -130,7 +130,7 @@ describe('walking times on steep ground (issue 14): counted, repaired, heat agai
     // the issue's symptom (heat 253 where exact gave 15.5 on the unrepaired lengths) is gone: both see one polyhedron
     let far = 0;
     for (let v = 0; v < exact.length; v++) if (exact[v]! > exact[far]!) far = v;
-    expect(Math.abs(heat[far]! / exact[far]! - 1)).toBeLessThan(0.2);
+    expect(Math.abs(heat[far]! / exact[far]! - 1)).toBeLessThan(0.2); // 1296 against 1133 min, 14% (measured)
   });
 });
 

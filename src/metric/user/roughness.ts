@@ -38,7 +38,7 @@
  *    failed (47% of 178,802); the repair added 36.6 min to every edge, 24×
  *    the mean edge's 1.55 min (66× at 178,802 faces), so distances became
  *    mostly a count of the edges crossed (1133 min where the user's own times
- *    along edges give at most 28), and the heat method was 4.1% mean, 16%
+ *    along edges give 23), and the heat method was 4.1% mean, 16%
  *    worst from the exact method on the repaired lengths (4.3%, 17% at
  *    178,802 faces), 2.5× its usual error on the same terrain measured in
  *    its embedding (1.6%, 7.9%): the repaired polyhedron is near equilateral,
