@@ -10,6 +10,7 @@
  * values, so its factor is bit-identical to the serial one.
  */
 import type { CholeskySymbolic } from './symbolic.js';
+import type { TaskRun } from './multifrontal-tasks.js';
 
 /** One factorization handed to an executor; `cx`, `lx` and `minPivot` come from {@link FactorExecutor.shared}. */
 export interface FactorJob {
@@ -47,4 +48,20 @@ export interface FactorExecutor {
   start(job: FactorJob): () => FactorJobResult;
   /** Starts the threads ahead of the first job (optional), so they load while the caller works. */
   warm?(): void;
+  /**
+   * Lets the executor's threads join a task run (multifrontal-tasks.ts) that
+   * the caller runs too; returns at once. `hold`: the caller should let a
+   * worker take the first task (tests); `done()` is called by the caller
+   * once the run is over (finished or failed), for the executor's counts.
+   * Optional: without it the executor takes whole factorizations (`start`).
+   */
+  join?(job: TaskJob): { hold: boolean; done: () => void };
+}
+
+/** A task run handed to {@link FactorExecutor.join}: the structure comes from `sym`, the rest is shared or read-only. */
+export interface TaskJob {
+  readonly sym: CholeskySymbolic;
+  readonly run: Omit<TaskRun, 'sn' | 'cp' | 'ci'>;
+  /** Use the WebAssembly SIMD kernel where the platform has it. */
+  readonly simd: boolean;
 }

@@ -2,14 +2,28 @@
  * Worker thread of parallel-node.ts (Node only): runs the multifrontal
  * factorization (multifrontal.ts) of each job it is sent, on the shared
  * structure and values, writing L into shared memory, and reports through
- * the job's status words (parallel-node.ts, JobMessage). It never prints;
- * a failure is reported as state FAILED.
+ * the job's status words (parallel-node.ts, JobMessage); or joins a task run
+ * (TaskMessage: multifrontal-tasks.ts, the same loop as the caller's). It
+ * never prints; a failure is reported as state FAILED (a job) or as the
+ * run's FAILED word (a task run).
  */
 import { parentPort } from 'node:worker_threads';
 import { multifrontalFactor, multifrontalWork } from './multifrontal.js';
-import { DONE, FAILED, PENDING, RUNNING, S_BAD, S_HEARTBEAT, S_STATE, type JobMessage } from './parallel-node.js';
+import { C_DONE, C_FAILED, runFactorTasks, taskWorkspace } from './multifrontal-tasks.js';
+import { DONE, FAILED, PENDING, RUNNING, S_BAD, S_HEARTBEAT, S_STATE, type JobMessage, type TaskMessage } from './parallel-node.js';
 
-parentPort!.on('message', (m: JobMessage) => {
+parentPort!.on('message', (m: JobMessage | TaskMessage) => {
+  if ('run' in m) {
+    const { sn } = m;
+    try {
+      runFactorTasks({ sn, cp: m.cColPtr, ci: m.cRowIdx, ...m.run }, taskWorkspace(m.n, sn, m.simd), { worker: true, stallMs: m.stallMs });
+    } catch {
+      // a task it claimed will never finish: the run is given up at once (the caller factors serially)
+      Atomics.store(m.run.ctl, C_FAILED, 2);
+      Atomics.notify(m.run.ctl, C_DONE);
+    }
+    return;
+  }
   const { status } = m;
   // the main thread may have taken the job back while it waited here
   if (Atomics.compareExchange(status, S_STATE, PENDING, RUNNING) !== PENDING) return;

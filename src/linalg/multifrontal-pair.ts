@@ -47,7 +47,9 @@ export function affectedBlocks(sn: SupernodalStructure, cp: Int32Array, cxA: Flo
  * Factors A into LxA (full storage) and B into LxB (the blocks with
  * own[s] ≥ 0 only). Returns A's failed column or −1 in `status[0]`, B's in
  * `status[1]` (B stops at its first failure; A carries on), with the pivot
- * values in `pivots`. The two works must be distinct. Never throws.
+ * values in `pivots`. The two works must be distinct. With `lo`, `hi` only
+ * supernodes lo … hi−1 (a whole subtree's range) are factored, from empty
+ * stacks (as multifrontalFactor). Never throws.
  */
 export function multifrontalPair(
   sn: SupernodalStructure,
@@ -62,14 +64,16 @@ export function multifrontalPair(
   workB: MultifrontalWork,
   status: Int32Array,
   pivots: Float64Array,
+  lo = 0,
+  hi = sn.nsuper,
 ): void {
-  const { nsuper, superStart, childCount, rowPtr, valPtr } = sn;
+  const { superStart, childCount, rowPtr, valPtr } = sn;
   const FA = workA.front, FB = workB.front;
   let nA = 0, topA = 0, nB = 0, topB = 0;
   let bOk = true;
   status[0] = -1;
   status[1] = -1;
-  for (let s = 0; s < nsuper; s++) {
+  for (let s = lo; s < hi; s++) {
     const f = superStart[s]!, nc = superStart[s + 1]! - f;
     const nr = rowPtr[s + 1]! - rowPtr[s]!;
     const inB = bOk && own[s]! >= 0;

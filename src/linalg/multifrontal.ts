@@ -53,6 +53,9 @@ export function multifrontalWork(n: number, sn: SupernodalStructure, useSimd = t
  * column whose pivot is not finite and above its floor (0, or minPivot[k]);
  * `pivotOut[0]` receives that pivot value. `progress[0]`, when given, is set
  * to s + 1 as supernode s starts (a heartbeat another thread can watch).
+ * With `lo`, `hi` only supernodes lo … hi−1 are factored, from an empty
+ * stack: a whole subtree's postorder range (multifrontal-tasks.ts), whose
+ * root's update matrix is then left at stack[0 …].
  * Never throws, never allocates.
  */
 export function multifrontalFactor(
@@ -65,12 +68,14 @@ export function multifrontalFactor(
   pivotOut: Float64Array,
   minPivot: Float64Array | null = null,
   progress: Int32Array | null = null,
+  lo = 0,
+  hi = sn.nsuper,
 ): number {
-  const { nsuper, superStart, childCount, rowPtr, valPtr } = sn;
+  const { superStart, childCount, rowPtr, valPtr } = sn;
   const { front: F, stack, stackIds, simd } = work;
   let nStack = 0; // entries on the stack
   let stackTop = 0; // doubles used
-  for (let s = 0; s < nsuper; s++) {
+  for (let s = lo; s < hi; s++) {
     const f = superStart[s]!, nc = superStart[s + 1]! - f;
     const nr = rowPtr[s + 1]! - rowPtr[s]!;
     if (progress !== null) progress[0] = s + 1;

@@ -16,6 +16,7 @@ import { lowerSolve, lowerTransposeSolve } from './solve.js';
 import { pairTransposeSolve } from './solve-pair.js';
 import { numericError, usageError, type OrthodromeError } from '../errors.js';
 import type { FactorExecutor } from './executor.js';
+import { factorOnThreads } from './multifrontal-parallel.js';
 
 /** Options of {@link CholeskyFactor.factor}. */
 export interface FactorOptions {
@@ -66,6 +67,21 @@ interface SharedScratch {
 
 const scratchOf = new WeakMap<CholeskySymbolic, SharedScratch>();
 
+function scratchFor(sym: CholeskySymbolic): SharedScratch {
+  let scratch = scratchOf.get(sym);
+  if (!scratch) {
+    scratch = { Cx: new Float64Array(sym.cRowIdx.length) };
+    scratchOf.set(sym, scratch);
+  }
+  return scratch;
+}
+
+/** The analysis' shared multifrontal workspace (supernodal only). */
+function sharedWork(sym: CholeskySymbolic, simd: boolean): MultifrontalWork {
+  const scratch = scratchFor(sym);
+  return simd ? (scratch.simd ??= multifrontalWork(sym.n, sym.supernodal!, true)) : (scratch.plain ??= multifrontalWork(sym.n, sym.supernodal!, false));
+}
+
 /** A numeric Cholesky factor P·A·Pᵀ = L·Lᵀ of a symmetric positive definite matrix. */
 export class CholeskyFactor {
   /** Matrix size. */
@@ -106,19 +122,13 @@ export class CholeskyFactor {
     this.n = n;
     this.nnzL = sym.nnzL;
     this.symbolic = sym;
-    let scratch = scratchOf.get(sym);
-    if (!scratch) {
-      scratch = { Cx: new Float64Array(sym.cRowIdx.length) };
-      scratchOf.set(sym, scratch);
-    }
-    this.Cx = scratch.Cx;
+    this.Cx = scratchFor(sym).Cx;
     this.x = new Float64Array(n);
     if (sym.supernodal) {
       this.Lx = Lx ?? new Float64Array(sym.supernodal.valPtr[sym.supernodal.nsuper]!);
       this.Li = new Int32Array(0);
       this.intWork = [new Int32Array(0), new Int32Array(0), new Int32Array(0)];
-      if (opts.simd ?? true) this.mf = scratch.simd ??= multifrontalWork(n, sym.supernodal, true);
-      else this.mf = scratch.plain ??= multifrontalWork(n, sym.supernodal, false);
+      this.mf = sharedWork(sym, opts.simd ?? true);
     } else {
       this.Lx = new Float64Array(sym.nnzL);
       this.Li = new Int32Array(sym.nnzL);
@@ -156,6 +166,19 @@ export class CholeskyFactor {
         throw e;
       }
     };
+    if (ex?.join && sym.supernodal && sym.n >= ex.minSize && mats.length >= 2 && !((opts.pivotTolerance ?? 0) > 0)) {
+      // the caller and the executor's threads share the tasks of all the factorizations (multifrontal-parallel.ts)
+      const simd = opts.simd ?? true, pair = opts.pairFirst === true;
+      const r = factorOnThreads(sym, mats, pair, ex, simd, sharedWork(sym, simd));
+      if (!r) return CholeskyFactor.factorMany(mats, sym, { ...opts, executor: null }); // a failed pivot or thread: serially, fresh storage
+      const fs = r.lx.map((lx) => new CholeskyFactor(sym, opts, lx));
+      if (pair) {
+        fs[1]!.own = r.own;
+        fs[1]!.base = fs[0]!.Lx;
+        fs[0]!.lent = true;
+      }
+      return fs;
+    }
     const first = opts.pairFirst && mats.length >= 2 ? 2 : 1;
     const here = (): (CholeskyFactor | OrthodromeError)[] => (first === 2 ? CholeskyFactor.factorPair(mats[0]!, mats[1]!, sym, opts) : [one(mats[0]!)]);
     if (!ex || mats.length <= first || !sym.supernodal || sym.n < ex.minSize) return [...here(), ...mats.slice(first).map(one)];

@@ -23,7 +23,8 @@ import { Worker } from 'node:worker_threads';
 import { availableParallelism } from 'node:os';
 import type { CholeskySymbolic } from './symbolic.js';
 import type { SupernodalStructure } from './supernodes.js';
-import type { FactorExecutor, FactorJob, FactorJobResult } from './executor.js';
+import type { FactorExecutor, FactorJob, FactorJobResult, TaskJob } from './executor.js';
+import { C_FAILED, C_REMOTE } from './multifrontal-tasks.js';
 
 /** Status word indices of a job (shared by the worker). */
 export const S_STATE = 0, S_BAD = 1, S_HEARTBEAT = 2;
@@ -42,6 +43,17 @@ export interface JobMessage {
   simd: boolean;
   status: Int32Array;
   pivot: Float64Array;
+}
+
+/** What a worker receives to join a task run (multifrontal-tasks.ts). */
+export interface TaskMessage {
+  n: number;
+  sn: SupernodalStructure;
+  cColPtr: Int32Array;
+  cRowIdx: Int32Array;
+  run: TaskJob['run'];
+  simd: boolean;
+  stallMs: number;
 }
 
 /** Options of {@link NodeFactorExecutor}. */
@@ -120,6 +132,29 @@ export class NodeFactorExecutor implements FactorExecutor {
     const worker = this.#worker();
     worker.postMessage(msg);
     return () => this.#wait(worker, msg);
+  }
+
+  /**
+   * Every worker joins the task run (multifrontal-tasks.ts). A run in which
+   * a worker took a task counts as `remote`, else as `takenBack`; a stalled
+   * run as `failed`, and its workers are stopped (new ones start on the next
+   * job).
+   */
+  join(job: TaskJob): { hold: boolean; done: () => void } {
+    this.warm();
+    const msg: TaskMessage = { ...this.#structure(job.sym), run: job.run, simd: job.simd, stallMs: this.#stallMs };
+    for (const w of this.#workers) w.postMessage(msg);
+    const ctl = job.run.ctl;
+    return {
+      hold: !this.#steal,
+      done: () => {
+        if (Atomics.load(ctl, C_FAILED) === 2) {
+          this.counts.failed++;
+          for (const w of this.#workers.splice(0)) void w.terminate();
+        } else if (Atomics.load(ctl, C_REMOTE) > 0) this.counts.remote++;
+        else this.counts.takenBack++;
+      },
+    };
   }
 
   /** Stops the workers (they are unref'd, so a process may also just exit). */

@@ -52,7 +52,7 @@ describe('factorizations on worker threads', () => {
         expect(sameBits((fp as CholeskyFactor).lowerFactor().values, (fs as CholeskyFactor).lowerFactor().values)).toBe(true);
       }
     }
-    expect(executor.counts.remote - before).toBe(4); // two jobs per round on the workers
+    expect(executor.counts.remote - before).toBe(2); // one task run per round, joined by the workers (multifrontal-tasks.ts)
     expect(executor.counts.failed).toBe(0);
   });
 
@@ -65,9 +65,9 @@ describe('factorizations on worker threads', () => {
       const sym = analyzeCholesky(A);
       const par = CholeskyFactor.factorMany(mats, sym, { executor: fresh });
       const ser = CholeskyFactor.factorMany(mats, sym);
-      // each job ran exactly once, here or there (usually here: a worker takes far longer to load
+      // the run's tasks ran here or there (usually all here: a worker takes far longer to load
       // than this thread takes for 900 unknowns; no assertion on which, that would be a timing test)
-      expect(fresh.counts.takenBack + fresh.counts.remote).toBe(2);
+      expect(fresh.counts.takenBack + fresh.counts.remote).toBe(1); // one task run
       expect(fresh.counts.failed).toBe(0);
       for (let k = 0; k < 3; k++) {
         expect(sameBits((par[k] as CholeskyFactor).lowerFactor().values, (ser[k] as CholeskyFactor).lowerFactor().values)).toBe(true);
