@@ -36,7 +36,7 @@
  *    climb, so the cost is not a metric there and refining the mesh does not
  *    help. On a 1 km² terrain of hills and fractal noise, 44% of 3200 faces
  *    failed (47% of 178,802); the repair added 36.6 min to every edge, 24×
- *    the mean edge's 1.55 min (66× at 178,802 faces), so distances became
+ *    the mean edge's 1.55 min (67× at 178,802 faces), so distances became
  *    mostly a count of the edges crossed (1133 min where the user's own times
  *    along edges give 23), and the heat method was 4.1% mean, 16%
  *    worst from the exact method on the repaired lengths (4.3%, 17% at
