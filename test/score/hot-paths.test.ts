@@ -13,6 +13,9 @@ import { inspectSurface } from '../../src/report/inspect.js';
 import { curvatureSummary } from '../../src/report/curvature.js';
 import { surfaceFromMeshData } from '../../src/mesh/surface.js';
 import { meshFromTriangles } from '../../src/io/mesh-data.js';
+import { selectInPlace } from '../../src/score/select.js';
+import { triangleQuality, nearestRank } from '../../src/score/quality.js';
+import { radiusRatio } from '../../src/metric/triangle.js';
 import { rng, terrain, torus } from '../fixtures/shapes.js';
 
 describe('hypot3', () => {
@@ -64,4 +67,35 @@ describe('reports given the parts score shares', () => {
       expect(shared).toStrictEqual(inspectSurface(s));
     });
   }
+});
+
+describe('selectInPlace (Hoare 1961, FIND)', () => {
+  it('gives the k-th value of the sorted array (the definition of the order statistic), ties and sizes 1…300', () => {
+    const r = rng(11);
+    for (let n = 1; n <= 300; n++) {
+      // few distinct values half the time (ties), otherwise spread; one sorted and one reversed input per size
+      const a = Float64Array.from({ length: n }, (_, i) =>
+        n % 5 === 0 ? i : n % 5 === 1 ? n - i : n % 2 ? Math.floor(r() * 4) : r() * 1e3 - 500);
+      const sorted = a.slice().sort();
+      for (const k of [0, n - 1, Math.floor(n / 2), Math.floor(r() * n)]) {
+        const b = a.slice();
+        expect(selectInPlace(b, k)).toBe(sorted[k]);
+        for (let i = 0; i < k; i++) expect(b[i]!).toBeLessThanOrEqual(b[k]!);
+        for (let i = k + 1; i < n; i++) expect(b[i]!).toBeGreaterThanOrEqual(b[k]!);
+      }
+    }
+  });
+
+  it('triangleQuality quantiles equal the nearest-rank values of the sorted ratios (Hyndman & Fan 1996, definition 1)', () => {
+    const r = rng(5);
+    const shape = terrain(30, 25, 40, 30, () => 3 * r());
+    const s = surfaceFromMeshData(meshFromTriangles(shape.positions, shape.triangles, 'case.obj'));
+    const im = intrinsicFromPositions(s.topology, s.positions);
+    const t = im.topology, L = im.edgeLength;
+    const ratios = Float64Array.from({ length: t.nf }, (_, f) => radiusRatio(L[t.edgeOf[3 * f]!]!, L[t.edgeOf[3 * f + 1]!]!, L[t.edgeOf[3 * f + 2]!]!)).sort();
+    const q = triangleQuality(im);
+    expect([q.aspectRatioP50, q.aspectRatioP90, q.aspectRatioP99, q.aspectRatioMax]).toEqual([
+      nearestRank(ratios, 0.5), nearestRank(ratios, 0.9), nearestRank(ratios, 0.99), ratios[ratios.length - 1],
+    ]);
+  });
 });
