@@ -135,7 +135,9 @@ export class NodeFactorExecutor implements FactorExecutor {
   }
 
   /**
-   * Every worker joins the task run (multifrontal-tasks.ts). A run in which
+   * Workers join the task run (multifrontal-tasks.ts): as many as the
+   * machine has cores besides the caller's (at least one), since the caller
+   * runs the tasks too. A run in which
    * a worker took a task counts as `remote`, else as `takenBack`; a stalled
    * run as `failed`, and its workers are stopped (new ones start on the next
    * job).
@@ -143,7 +145,7 @@ export class NodeFactorExecutor implements FactorExecutor {
   join(job: TaskJob): { hold: boolean; done: () => void } {
     this.warm();
     const msg: TaskMessage = { ...this.#structure(job.sym), run: job.run, simd: job.simd, stallMs: this.#stallMs };
-    for (const w of this.#workers) w.postMessage(msg);
+    for (const w of this.#workers.slice(0, Math.max(1, availableParallelism() - 1))) w.postMessage(msg);
     const ctl = job.run.ctl;
     return {
       hold: !this.#steal,

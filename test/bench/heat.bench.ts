@@ -9,8 +9,10 @@
  * nearest those sizes). `--quick` runs the 10k and 100k sizes only.
  * Goals at 1M: solve ≤ 1.5× Dijkstra, factorization ≤ 20× Dijkstra, peak RSS < 3 GB.
  *
- * `--factor-threads=N` factors on N worker threads as well (NodeFactorExecutor,
- * linalg/parallel-node.ts; default 0: all on this thread, as in earlier runs);
+ * `--factor-threads=N` factors on worker threads as well (NodeFactorExecutor with N
+ * threads, linalg/parallel-node.ts, of which cores − 1 join the task run of
+ * multifrontal-parallel.ts; default 0: all on this thread, as in earlier runs);
+ * `prepare.threadCpuMs` is the CPU time of each busy thread during preparation (Linux);
  * `HEAT_CASE=terrain-1000` runs the cases whose name contains the text.
  * `prepare` counts the remesh too; `ordering+symbolic` + `factorization` is
  * the issue's "preparation" (its ratio: `orderingPlusFactorRatio`).
@@ -22,6 +24,38 @@ import { HeatSolver, type HeatOptions } from '../../src/geodesic/heat.js';
 import type { Shape } from '../fixtures/shapes.js';
 import { jitteredTerrain, bumpySphere } from './meshes.js';
 import { NodeFactorExecutor } from '../../src/linalg/parallel-node.js';
+import { readdirSync, readFileSync } from 'node:fs';
+
+/**
+ * CPU ms of each thread of this process (Linux /proc/self/task/<tid>/stat, utime + stime in
+ * clock ticks of 10 ms; empty elsewhere). Two-thread wall times are meaningless on a loaded
+ * machine: the factorization reports CPU per thread too (the critical path is the largest).
+ */
+function threadCpu(): Map<number, number> {
+  const m = new Map<number, number>();
+  let tids: string[] = [];
+  try {
+    tids = readdirSync('/proc/self/task');
+  } catch {
+    return m;
+  }
+  for (const t of tids) {
+    try {
+      const st = readFileSync(`/proc/self/task/${t}/stat`, 'utf8');
+      const f = st.slice(st.lastIndexOf(')') + 2).split(' ');
+      m.set(Number(t), (Number(f[11]) + Number(f[12])) * 10);
+    } catch {
+      // the thread ended
+    }
+  }
+  return m;
+}
+
+/** Threads that used at least 100 ms between two threadCpu() readings, busiest first ('main' for this thread). */
+function busyThreads(a: Map<number, number>, b: Map<number, number>): Record<string, number> {
+  const rows = [...b].map(([t, v]) => [t === process.pid ? 'main' : `thread${t}`, v - (a.get(t) ?? 0)] as const).filter(([, v]) => v >= 100);
+  return Object.fromEntries(rows.sort((x, y) => y[1] - x[1]));
+}
 
 const factorThreads = Number(process.argv.find((a) => a.startsWith('--factor-threads='))?.slice(17) ?? 0);
 
@@ -44,10 +78,12 @@ async function runCase(name: string, make: () => Shape, opts: HeatOptions): Prom
   const dijkstra = await timeEdgeDijkstra(mesh, centre, runs);
 
   const executor = factorThreads > 0 ? new NodeFactorExecutor({ threads: factorThreads }) : null;
+  const cpu0 = threadCpu();
   const t0 = performance.now();
   // prepare starts the executor's workers itself when the mesh is above its threshold (they load during the remesh)
   const solver = HeatSolver.prepare(mesh, { ...opts, factorExecutor: executor });
   const prepareMs = performance.now() - t0;
+  const prepareCpu = busyThreads(cpu0, threadCpu());
   const counts = executor ? { ...executor.counts } : null;
   await executor?.close();
   const st = solver.stats;
@@ -73,7 +109,7 @@ async function runCase(name: string, make: () => Shape, opts: HeatOptions): Prom
   const rec = (metric: string, value: number, unit: string, more: Record<string, unknown> = {}) =>
     emit({ bench: BENCH, case: name, metric, value, unit, ...extra, ...more });
   rec('dijkstra', dijkstra.ms, 'ms');
-  rec('prepare', prepareMs, 'ms', { ratioToDijkstra: prepareMs / dijkstra.ms });
+  rec('prepare', prepareMs, 'ms', { ratioToDijkstra: prepareMs / dijkstra.ms, threadCpuMs: prepareCpu });
   rec('remesh', st.remeshMs, 'ms', { flips: st.flips, mollifyEpsilon: st.mollifyEpsilon });
   rec('ordering+symbolic', st.analysisMs, 'ms', { ordering: st.ordering });
   rec('factorization', st.factorMs, 'ms', {
