@@ -292,7 +292,7 @@ function pseudoPeripheral(s: NdWorkspace, m: number, nlev: number): { nlev: numb
         best = v;
       }
     }
-    for (let k = 0; k < m; k++) du[queue[k]!] = level[queue[k]!]!;
+    du.set(level.subarray(0, m)); // connected: every vertex was reached
     nlevU = nlev;
     const nl = bfs(s, best);
     const deeper = nl > nlev;
@@ -314,8 +314,8 @@ function chooseCut(s: NdWorkspace, m: number, nlevV: number, nlevU: number): Key
   const lv = keys[KEY_LEVEL], uv = keys[KEY_UV], uw = keys[KEY_UW], vw = keys[KEY_VW];
   const dv = lv.key, duv = uv.key, duw = uw.key, dvw = vw.key;
   // level: d(v, x); UV: d(u, x) − d(v, x) shifted to ≥ 0; UW keeps d(u, x) for now
-  for (let k = 0; k < m; k++) {
-    const x = queue[k]!;
+  // element-wise loops run over local ids (sequential memory); only the choice of w follows the queue
+  for (let x = 0; x < m; x++) {
     dv[x] = level[x]!;
     duw[x] = duv[x]!;
     duv[x] = duv[x]! - level[x]! + nlevV;
@@ -337,14 +337,13 @@ function chooseCut(s: NdWorkspace, m: number, nlevV: number, nlevU: number): Key
     }
   }
   const nlevW = bfs(s, w);
-  for (let k = 0; k < m; k++) {
-    const x = queue[k]!;
+  for (let x = 0; x < m; x++) {
     duw[x] = duw[x]! - level[x]! + nlevW;
     dvw[x] = dv[x]! - level[x]! + nlevW;
   }
   uw.range = nlevU + nlevW + 1;
   vw.range = nlevV + nlevW + 1;
-  bestCuts(s.sep, queue, m, keys, BALANCE);
+  bestCuts(s.sep, m, keys, BALANCE);
   let best = lv.cut.size <= uv.cut.size ? lv : uv;
   if (uw.cut.size < best.cut.size) best = uw;
   if (vw.cut.size < best.cut.size) best = vw;

@@ -80,20 +80,20 @@ export function keyedCut(n: number): KeyedCut {
 /**
  * For four keys at once (one pass over the edges), finds the smallest
  * one-sided separator among the cuts that leave both parts non-empty and at
- * least `balance` × (m − |S|) vertices each, into each key's cut. Vertices
- * are verts[0..m), every vertex of the subgraph. Fills the min/max neighbour
- * keys of each work (used by {@link splitByCut}); a cut has size Infinity
+ * least `balance` × (m − |S|) vertices each, into each key's cut, for the
+ * subgraph's vertices 0..m−1 (in that order: sequential memory; the sizes do
+ * not depend on the order). Fills the min/max neighbour keys of each work (used by {@link splitByCut}); a cut has size Infinity
  * when none is balanced.
  */
 export function bestCuts(
-  ctx: SeparatorContext, verts: Int32Array, m: number, kc: readonly [KeyedCut, KeyedCut, KeyedCut, KeyedCut], balance: number,
+  ctx: SeparatorContext, m: number, kc: readonly [KeyedCut, KeyedCut, KeyedCut, KeyedCut], balance: number,
 ): void {
   const { xadj, adj } = ctx;
   const [a, b, c, d] = kc;
   const keyA = a.key, keyB = b.key, keyC = c.key, keyD = d.key;
   for (const k of kc) clear(k.work, k.range);
-  for (let q = 0; q < m; q++) {
-    const x = verts[q]!, ka = keyA[x]!, kb = keyB[x]!, kcx = keyC[x]!, kd = keyD[x]!;
+  for (let x = 0; x < m; x++) {
+    const ka = keyA[x]!, kb = keyB[x]!, kcx = keyC[x]!, kd = keyD[x]!;
     let mxa = ka, mna = ka, mxb = kb, mnb = kb, mxc = kcx, mnc = kcx, mxd = kd, mnd = kd;
     for (let p = xadj[x]!; p < xadj[x + 1]!; p++) {
       const y = adj[p]!;

@@ -134,17 +134,20 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
   // Follow the ordering by a postorder of its elimination tree: same fill,
   // but subtrees become contiguous column ranges (supernodes, frontal stack).
   const pinv0 = inversePermutation(perm0);
-  const first = permutedPattern(Alower, pinv0);
+  const first = permutedPattern(Alower, pinv0, true, true, false);
   // Children are visited by increasing column count, so the child whose
   // pattern is closest to its parent's is numbered just before it, where
   // relaxed supernode amalgamation can merge them.
-  const parent0 = eliminationTree(n, first.upPtr, first.upIdx);
-  const count0 = columnCounts(n, first.lowPtr, first.lowIdx, parent0, postorder(parent0, n));
+  const parent0 = eliminationTree(n, first.up.ptr, first.up.idx);
+  const count0 = columnCounts(n, first.low.ptr, first.low.idx, parent0, postorder(parent0, n));
   const post0 = postorder(parent0, n, count0);
   const perm = new Int32Array(n);
   for (let k = 0; k < n; k++) perm[k] = perm0[post0[k]!]!;
   const pinv = inversePermutation(perm);
-  const C = permutedPattern(Alower, pinv);
+  // C as the numeric method reads it: the lower triangle (supernodal) or the upper one (simplicial)
+  const supernodalMethod = method === 'supernodal';
+  const { up: Cup, low: Clow } = permutedPattern(Alower, pinv, !supernodalMethod, supernodalMethod, true);
+  const C = supernodalMethod ? Clow : Cup;
   // A postorder is an equivalent reordering: the elimination tree of the
   // reordered matrix is the same tree relabelled, and every column keeps its
   // count (Liu, "The role of elimination trees in sparse factorization",
@@ -166,7 +169,7 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
     if (total > MAX_NNZ_L) throw limitError(`Cholesky factor would have more than ${MAX_NNZ_L} nonzeros (32-bit offsets); no option raises this heat-method limit: use --method exact or graph, or a coarser mesh`);
     lColPtr[k + 1] = total;
   }
-  const supernodal = method === 'supernodal' ? findSupernodes(n, parent, colCount, C.lowPtr, C.lowIdx) : null;
+  const supernodal = supernodalMethod ? findSupernodes(n, parent, colCount, C.ptr, C.idx) : null;
   const t2 = performance.now();
   return {
     n,
@@ -179,9 +182,9 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
     colCount,
     lColPtr,
     method,
-    cColPtr: method === 'supernodal' ? C.lowPtr : C.upPtr,
-    cRowIdx: method === 'supernodal' ? C.lowIdx : C.upIdx,
-    valueMap: method === 'supernodal' ? C.lowMap : C.upMap,
+    cColPtr: C.ptr,
+    cRowIdx: C.idx,
+    valueMap: C.map,
     supernodal,
     inputColPtr: colPtr.slice(),
     inputRowIdx: rowIdx.slice(0, nz),
@@ -226,44 +229,58 @@ function inversePermutation(perm: Int32Array): Int32Array {
   return pinv;
 }
 
+/** Row indices, column pointers and (when asked for) the slot of every input entry of one triangle. */
+interface Triangle {
+  readonly ptr: Int32Array;
+  readonly idx: Int32Array;
+  readonly map: Int32Array;
+}
+
+const NO_TRIANGLE: Triangle = { ptr: new Int32Array(1), idx: new Int32Array(0), map: new Int32Array(0) };
+
 /**
  * Pattern of C = P·A·Pᵀ from the lower triangle of A: entry (i, j) moves to
- * (pinv[i], pinv[j]) and is kept both in the upper triangle (column = larger
- * index) and in the lower one (column = smaller index), with the slot of
- * every input entry in each.
+ * (pinv[i], pinv[j]) and is kept in the upper triangle (column = larger
+ * index) when `up`, in the lower one (column = smaller index) when `low`,
+ * with the slot of every input entry in each when `maps` (else the maps
+ * are empty). A triangle not asked for is empty.
  */
-function permutedPattern(Alower: CscMatrix, pinv: Int32Array) {
+function permutedPattern(Alower: CscMatrix, pinv: Int32Array, up: boolean, low: boolean, maps: boolean): { up: Triangle; low: Triangle } {
   const { n, colPtr, rowIdx } = Alower;
   const nz = colPtr[n]!;
-  const upPtr = new Int32Array(n + 1);
-  const lowPtr = new Int32Array(n + 1);
+  const upPtr = up ? new Int32Array(n + 1) : NO_TRIANGLE.ptr;
+  const lowPtr = low ? new Int32Array(n + 1) : NO_TRIANGLE.ptr;
   for (let j = 0; j < n; j++) {
     const pj = pinv[j]!;
     for (let p = colPtr[j]!; p < colPtr[j + 1]!; p++) {
       const pi = pinv[rowIdx[p]!]!;
-      upPtr[(pi > pj ? pi : pj) + 1]!++;
-      lowPtr[(pi < pj ? pi : pj) + 1]!++;
+      if (up) upPtr[(pi > pj ? pi : pj) + 1]!++;
+      if (low) lowPtr[(pi < pj ? pi : pj) + 1]!++;
     }
   }
   for (let k = 0; k < n; k++) {
-    upPtr[k + 1]! += upPtr[k]!;
-    lowPtr[k + 1]! += lowPtr[k]!;
+    if (up) upPtr[k + 1]! += upPtr[k]!;
+    if (low) lowPtr[k + 1]! += lowPtr[k]!;
   }
-  const upIdx = new Int32Array(nz), lowIdx = new Int32Array(nz);
-  const upMap = new Int32Array(nz), lowMap = new Int32Array(nz);
-  const fillU = upPtr.slice(0, n), fillL = lowPtr.slice(0, n);
+  const upIdx = up ? new Int32Array(nz) : NO_TRIANGLE.idx, lowIdx = low ? new Int32Array(nz) : NO_TRIANGLE.idx;
+  const upMap = up && maps ? new Int32Array(nz) : NO_TRIANGLE.map, lowMap = low && maps ? new Int32Array(nz) : NO_TRIANGLE.map;
+  const fillU = up ? upPtr.slice(0, n) : NO_TRIANGLE.ptr, fillL = low ? lowPtr.slice(0, n) : NO_TRIANGLE.ptr;
   for (let j = 0; j < n; j++) {
     const pj = pinv[j]!;
     for (let p = colPtr[j]!; p < colPtr[j + 1]!; p++) {
       const pi = pinv[rowIdx[p]!]!;
       const hi = pi > pj ? pi : pj, lo = pi < pj ? pi : pj;
-      let q = fillU[hi]!++;
-      upIdx[q] = lo;
-      upMap[p] = q;
-      q = fillL[lo]!++;
-      lowIdx[q] = hi;
-      lowMap[p] = q;
+      if (up) {
+        const q = fillU[hi]!++;
+        upIdx[q] = lo;
+        if (maps) upMap[p] = q;
+      }
+      if (low) {
+        const q = fillL[lo]!++;
+        lowIdx[q] = hi;
+        if (maps) lowMap[p] = q;
+      }
     }
   }
-  return { upPtr, upIdx, upMap, lowPtr, lowIdx, lowMap };
+  return { up: { ptr: upPtr, idx: upIdx, map: upMap }, low: { ptr: lowPtr, idx: lowIdx, map: lowMap } };
 }
