@@ -26,6 +26,7 @@ export interface MeshLoadFlags {
   weldTolerance?: string;
   metric?: string;
   metricTolerance?: string;
+  metricRepair?: string;
 }
 
 /**
@@ -80,11 +81,11 @@ function firstProblem(s: Surface): string {
  * `allowSplit` is set. `maxInputSize` is the `--max-input-size` text, if
  * given (input over it is a `LIMIT` error); `weldTolerance` the
  * `--weld-tolerance` text, if given; `metric` and `metricTolerance` the
- * `--metric` options, if given (cli/metric-option.ts).
+ * `--metric` options (and `metricRepair`), if given (cli/metric-option.ts).
  */
 export async function loadSurface(
   path: string,
-  opts: { requireManifold?: boolean; allowSplit?: boolean; maxInputSize?: string; weldTolerance?: string; metric?: string; metricTolerance?: string } = {},
+  opts: { requireManifold?: boolean; allowSplit?: boolean; maxInputSize?: string; weldTolerance?: string; metric?: string; metricTolerance?: string; metricRepair?: string } = {},
 ): Promise<Loaded> {
   const t0 = performance.now();
   const maxInputBytes = opts.maxInputSize === undefined ? DEFAULT_MAX_INPUT_BYTES : parseByteSize(opts.maxInputSize, '--max-input-size');
@@ -93,6 +94,6 @@ export async function loadSurface(
   if (opts.requireManifold && !opts.allowSplit && !isManifold(surface)) {
     throw inputError(`${firstProblem(surface)}; see 'orthodrome inspect', or pass --split-nonmanifold to cut the mesh there`, path);
   }
-  const metric = applyMetricOption(surface, opts.metric, opts.metricTolerance); // --metric: every measurement on `surface` uses it
+  const metric = applyMetricOption(surface, opts.metric, opts.metricTolerance, opts.metricRepair); // --metric: every measurement on `surface` uses it
   return { surface, loadMs: since(t0), metric };
 }

@@ -1,5 +1,5 @@
 /**
- * The `--metric SPEC` and `--metric-tolerance TOL` options, shared by every
+ * The `--metric SPEC`, `--metric-tolerance TOL` and `--metric-repair MODE` options, shared by every
  * command that measures: the spec is parsed (files it names are read here),
  * the surface's edge lengths are computed in that metric, checked and
  * repaired, and attached to the surface (the library's `attachMetric`), so
@@ -10,7 +10,7 @@
 import { readFileSync } from 'node:fs';
 import { Option } from 'commander';
 import { pointLocator, shortestPath, type Surface } from '../src/index.js';
-import { attachMetric, parseMetricSpec, metricCautions, type MetricReport } from '../src/api/metric.js';
+import { attachMetric, parseMetricSpec, metricCautions, METRIC_REPAIRS, type MetricReport, type MetricRepair } from '../src/api/metric.js';
 import { inputError, usageError } from '../src/errors.js';
 import { fmt } from './run.js';
 
@@ -27,6 +27,14 @@ export function metricToleranceOption(): Option {
   return new Option('--metric-tolerance <tol>', '--metric: relative accuracy of each edge length (Gauss–Legendre quadrature, default 1e-10)');
 }
 
+/** The `--metric-repair` option. */
+export function metricRepairOption(): Option {
+  return new Option(
+    '--metric-repair <mode>',
+    "--metric: how faces that break the triangle inequality are repaired: auto (add one small length to every edge; refuse, exit 2, when it would exceed 5% of the mean edge), mollify (add it however large), shorten (first shorten edges to the shortest path along edges)",
+  ).choices([...METRIC_REPAIRS]);
+}
+
 /** The text of a file a metric spec names; unreadable is an `INPUT` error naming it. */
 function readText(path: string): string {
   try {
@@ -40,15 +48,16 @@ function readText(path: string): string {
  * Applies `--metric` (if given) to `surface`: returns the report, or null
  * when no metric was given (lengths of the embedding).
  */
-export function applyMetricOption(surface: Surface, spec: string | undefined, tolerance: string | undefined): MetricReport | null {
+export function applyMetricOption(surface: Surface, spec: string | undefined, tolerance: string | undefined, repair?: string): MetricReport | null {
   if (spec === undefined) {
     if (tolerance !== undefined) throw usageError('--metric-tolerance works with --metric');
+    if (repair !== undefined) throw usageError('--metric-repair works with --metric');
     return null;
   }
   const tol = tolerance === undefined ? undefined : Number(tolerance);
   if (tol !== undefined && !(tol > 0 && tol < 1)) throw usageError(`--metric-tolerance must be a number in (0, 1), got '${tolerance}'`);
   const metric = parseMetricSpec(spec, { readText });
-  const report = attachMetric(surface, metric, tol === undefined ? {} : { tolerance: tol });
+  const report = attachMetric(surface, metric, { ...(tol === undefined ? {} : { tolerance: tol }), ...(repair === undefined ? {} : { repair: repair as MetricRepair }) });
   for (const c of metricCautions(report)) process.stderr.write(`orthodrome: caution: ${c.message}\n`); // the repair caution: every command
   return report;
 }
@@ -81,7 +90,9 @@ export function metricLines(r: MetricReport | null | undefined): string[] {
     : r.toleranceReached === 0 && r.evaluations === r.edges
       ? 'edge lengths exact (the metric is constant along each edge)'
       : `edge lengths by Gauss–Legendre quadrature to ${fmt(r.toleranceReached, 2)} relative (asked ${fmt(r.toleranceAsked!, 2)}${r.edgesAboveTolerance ? `; ${r.edgesAboveTolerance} edge(s) above it` : ''})`;
-  const repair = r.triangleInequalityViolations
+  const repair = r.triangleInequalityViolations && r.edgesShortened
+    ? `${r.triangleInequalityViolations} triangle(s) failed the triangle inequality: repaired by shortening ${r.edgesShortened} edge(s) to the shortest path along edges (by up to ${fmt(100 * r.largestShortening, 3)}%), then ${fmt(r.mollifyEpsilon, 4)} mesh units added to every edge`
+    : r.triangleInequalityViolations
     ? `${r.triangleInequalityViolations} triangle(s) failed the triangle inequality: repaired by mollification, ${fmt(r.mollifyEpsilon, 4)} mesh units added to every edge (up to ${fmt(100 * r.largestRelativeChange, 3)}% of an edge)`
     : r.mollifyEpsilon > 0
       ? `near-degenerate triangles: ${fmt(r.mollifyEpsilon, 4)} mesh units added to every edge (mollification)`

@@ -4,7 +4,7 @@ import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js
 import { writeVertexColumns, checkFieldOutput } from '../output.js';
 import { action, fmt, toJson } from '../run.js';
 import { curvatureSummary } from '../../src/index.js';
-import { metricOption, metricToleranceOption, metricJson, metricLines } from '../metric-option.js';
+import { metricOption, metricToleranceOption, metricRepairOption, metricJson, metricLines } from '../metric-option.js';
 
 /** Registers the command. */
 export function registerCurvature(program: Command): void {
@@ -18,11 +18,11 @@ export function registerCurvature(program: Command): void {
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
     .addOption(maxInputSizeOption())
     .addOption(weldToleranceOption())
-    .addOption(metricOption()).addOption(metricToleranceOption())
+    .addOption(metricOption()).addOption(metricToleranceOption()).addOption(metricRepairOption())
     .action(
-      action(async (mesh: string, opts: { output?: string; json?: boolean; ascii?: boolean; splitNonmanifold?: boolean; maxInputSize?: string; weldTolerance?: string; metric?: string; metricTolerance?: string }) => {
+      action(async (mesh: string, opts: { output?: string; json?: boolean; ascii?: boolean; splitNonmanifold?: boolean; maxInputSize?: string; weldTolerance?: string; metric?: string; metricTolerance?: string; metricRepair?: string }) => {
         if (opts.output) checkFieldOutput(opts.output, [mesh]);
-        const { surface, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: opts.splitNonmanifold, maxInputSize: opts.maxInputSize, weldTolerance: opts.weldTolerance, metric: opts.metric, metricTolerance: opts.metricTolerance });
+        const { surface, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: opts.splitNonmanifold, maxInputSize: opts.maxInputSize, weldTolerance: opts.weldTolerance, metric: opts.metric, metricTolerance: opts.metricTolerance, metricRepair: opts.metricRepair });
         const c = curvatureSummary(surface);
         if (opts.output) {
           await writeVertexColumns(opts.output, surface, [

@@ -16,7 +16,7 @@ import { TIME_SCALE_RANGE, checkHeatField } from '../../src/api/geodesic.js';
 import { usageError } from '../../src/errors.js';
 import { factorThreads, solveSets, type SolvedSets } from '../jobs.js';
 import { ProgressLine } from '../progress.js';
-import { metricOption, metricToleranceOption, metricJson, metricLines, warnMetricMethod } from '../metric-option.js';
+import { metricOption, metricToleranceOption, metricRepairOption, metricJson, metricLines, warnMetricMethod } from '../metric-option.js';
 import { heatCheckJson, warnHeatCheck } from '../heat-caution.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { describeField, summarizeField, type FieldSummary } from '../field-summary.js';
@@ -74,7 +74,7 @@ export function registerDistance(program: Command): void {
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
     .addOption(maxInputSizeOption())
     .addOption(weldToleranceOption())
-    .addOption(metricOption()).addOption(metricToleranceOption())
+    .addOption(metricOption()).addOption(metricToleranceOption()).addOption(metricRepairOption())
     .addOption(memoryBudgetOption())
     .addHelpText('after', `\nDistances are in the mesh's own units; unreachable points get null (JSON) or an empty field (CSV).\n${TERRAIN_CAUTION}\n${MACHINING_CAUTION}`)
     .action(action(async (mesh: string, o: DistanceCliOptions) => runDistance(mesh, o)));
@@ -108,7 +108,7 @@ interface SetResult {
 async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number> {
   if (o.output) checkFieldOutput(o.output, [mesh]);
   const run = checkOptions(o);
-  const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance });
+  const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance, metricRepair: o.metricRepair });
   warnMetricMethod(metric, o.method); // the heat method under a varying or rough metric: a caution on stderr
   const resolver = await pointLocator(surface, [...(o.from ?? []), ...(o.fromCurve ?? []), ...(o.to ?? [])]); // snapping code only for p: points
   const picks = new Map<string, number>(); // loop@ spec → id of the loop it picked

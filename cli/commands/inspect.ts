@@ -4,7 +4,7 @@ import { loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js
 import { inspectSurface, inspectProblems, type InspectReport } from '../../src/index.js';
 import { action, fmt, fmtCoord, toJson } from '../run.js';
 import { requireOption, parseRequirements, runGates, formatGates, failOnGates } from '../gates.js';
-import { metricOption, metricToleranceOption, metricJson, metricLines } from '../metric-option.js';
+import { metricOption, metricToleranceOption, metricRepairOption, metricJson, metricLines } from '../metric-option.js';
 
 /** Human-readable lines of an inspect report. */
 export function formatInspect(r: InspectReport): string {
@@ -59,12 +59,12 @@ export function registerInspect(program: Command): void {
     .option('--json', 'print the report as JSON (keys documented in the README)')
     .addOption(maxInputSizeOption())
     .addOption(weldToleranceOption())
-    .addOption(metricOption()).addOption(metricToleranceOption())
+    .addOption(metricOption()).addOption(metricToleranceOption()).addOption(metricRepairOption())
     .addOption(requireOption())
     .action(
-      action(async (mesh: string, opts: { json?: boolean; maxInputSize?: string; weldTolerance?: string; require?: string[]; metric?: string; metricTolerance?: string }) => {
+      action(async (mesh: string, opts: { json?: boolean; maxInputSize?: string; weldTolerance?: string; require?: string[]; metric?: string; metricTolerance?: string; metricRepair?: string }) => {
         const reqs = parseRequirements(opts.require); // a typo is exit 2 before any work
-        const { surface, metric } = await loadSurface(mesh, { maxInputSize: opts.maxInputSize, weldTolerance: opts.weldTolerance, metric: opts.metric, metricTolerance: opts.metricTolerance });
+        const { surface, metric } = await loadSurface(mesh, { maxInputSize: opts.maxInputSize, weldTolerance: opts.weldTolerance, metric: opts.metric, metricTolerance: opts.metricTolerance, metricRepair: opts.metricRepair });
         const r = inspectSurface(surface);
         const gates = runGates(r, reqs);
         process.stdout.write((opts.json ? toJson({ ...r, ...metricJson(metric), ...(reqs.length ? { requirements: gates } : {}) }) : [formatInspect(r), ...metricLines(metric)].join('\n') + formatGates(gates)) + '\n');

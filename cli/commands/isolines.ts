@@ -7,7 +7,7 @@
 import { readFile } from 'node:fs/promises';
 import { Command, Option } from 'commander';
 import { type MeshLoadFlags, loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
-import { metricOption, metricToleranceOption, metricJson, metricLines, warnMetricMethod } from '../metric-option.js';
+import { metricOption, metricToleranceOption, metricRepairOption, metricJson, metricLines, warnMetricMethod } from '../metric-option.js';
 import { heatCheckJson, warnHeatCheck } from '../heat-caution.js';
 import { checkOutput } from '../output.js';
 import { action, fmt, toJson } from '../run.js';
@@ -122,7 +122,7 @@ export function addCurveRunOptions(cmd: Command): Command {
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh (curves end at the cuts)')
     .addOption(maxInputSizeOption())
     .addOption(weldToleranceOption())
-    .addOption(metricOption()).addOption(metricToleranceOption())
+    .addOption(metricOption()).addOption(metricToleranceOption()).addOption(metricRepairOption())
     .addOption(memoryBudgetOption());
 }
 
@@ -157,7 +157,7 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
   const maxLevels = o.maxLevels !== undefined ? numberOption(o.maxLevels, '--max-levels', true) : undefined;
   if (hasSources(o) === (o.field !== undefined)) throw usageError('give either --from/--from-curve/--from-polyline (distances) or --field (a per-vertex field)');
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
-  const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance });
+  const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance, metricRepair: o.metricRepair });
   if (o.field === undefined) warnMetricMethod(metric, o.method); // the heat method under a varying or rough metric: a caution on stderr
 
   let field: ScalarField;

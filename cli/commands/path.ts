@@ -4,7 +4,7 @@
  */
 import { Option, type Command } from 'commander';
 import { type MeshLoadFlags, loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
-import { metricOption, metricToleranceOption, metricJson, metricLines } from '../metric-option.js';
+import { metricOption, metricToleranceOption, metricRepairOption, metricJson, metricLines } from '../metric-option.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
 import { checkOutput, outputFormat } from '../output.js';
 import { action, fmt, fmtCoord, since, toJson } from '../run.js';
@@ -48,7 +48,7 @@ export function registerPath(program: Command): void {
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
     .addOption(maxInputSizeOption())
     .addOption(weldToleranceOption())
-    .addOption(metricOption()).addOption(metricToleranceOption())
+    .addOption(metricOption()).addOption(metricToleranceOption()).addOption(metricRepairOption())
     .addOption(memoryBudgetOption())
     .addOption(new Option('--path-method <method>', `windows (window propagation: the shortest path, proven), flip (edge flips from the edge-graph shortest route: a geodesic, much faster on large meshes; two points off the vertices on one face, and split vertices, use windows) or auto (flip from ${AUTO_FLIP_FACES} faces up)`).choices(['auto', 'flip', 'windows']).default('auto'))
     .option('--prove-limit <faces>', `largest region (faces within the ellipsoid that holds every shorter path) on which window propagation proves a flip leg shortest or finds the shorter one; past it the leg is reported with a certified bound on how much longer than the shortest it can be; 0 skips the proof (default: ${FLIP_VERIFY_FACES} with flip, ${AUTO_PROVE_FACES} with auto)`)
@@ -63,7 +63,7 @@ async function runPath(mesh: string, o: PathCliOptions): Promise<number> {
   if (o.output) checkOutput(o.output, PATH_FORMATS, [mesh]);
   if (!o.to && !o.closed) throw usageError('give --to, or --closed to return to the start');
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
-  const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance });
+  const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance, metricRepair: o.metricRepair });
   const specs = [o.from, ...(o.via ?? []), ...(o.to ? [o.to] : [])];
   const resolver = await pointLocator(surface, specs); // snapping code only for p: points
   const labels = ['--from', ...(o.via ?? []).map(() => '--via'), ...(o.to ? ['--to'] : [])];

@@ -5,7 +5,7 @@
  */
 import type { Command } from 'commander';
 import { type MeshLoadFlags, loadSurface, maxInputSizeOption, weldToleranceOption } from '../load.js';
-import { metricOption, metricToleranceOption } from '../metric-option.js';
+import { metricOption, metricToleranceOption, metricRepairOption } from '../metric-option.js';
 import { checkOutput } from '../output.js';
 import { action, fmt, fmtCoord, since, toJson } from '../run.js';
 import { TERRAIN_CAUTION, MACHINING_CAUTION } from '../cautions.js';
@@ -59,7 +59,7 @@ export function registerStraight(program: Command): void {
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh (the line then stops at a cut as at the boundary)')
     .addOption(maxInputSizeOption())
     .addOption(weldToleranceOption())
-    .addOption(metricOption().hideHelp()).addOption(metricToleranceOption().hideHelp()) // accepted only to refuse them with a reason
+    .addOption(metricOption().hideHelp()).addOption(metricToleranceOption().hideHelp()).addOption(metricRepairOption().hideHelp()) // accepted only to refuse them with a reason
     .addHelpText(
       'after',
       `
@@ -94,7 +94,7 @@ async function runStraight(mesh: string, o: StraightCliOptions): Promise<number>
     if (!(Number.isInteger(maxSteps) && maxSteps >= 1)) throw usage(`--max-steps must be a whole number of faces ≥ 1, got '${o.maxSteps}'`);
   }
 
-  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance });
+  const { surface, loadMs } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance, metricRepair: o.metricRepair });
   const resolver = await pointLocator(surface);
   const start = resolver.resolve(o.from, '--from');
   const t0 = performance.now();

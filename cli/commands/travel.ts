@@ -30,7 +30,7 @@ const MODEL_TEXT: Record<string, string> = {
   table: 'speed table',
 };
 
-interface TravelCliOptions extends Omit<MeshLoadFlags, 'metric' | 'metricTolerance'> {
+interface TravelCliOptions extends Omit<MeshLoadFlags, 'metric' | 'metricTolerance' | 'metricRepair'> {
   from: string[];
   to?: string;
   via?: string[];

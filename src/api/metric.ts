@@ -19,5 +19,6 @@ export { mollify, type Mollified } from '../metric/mollify.js';
 export {
   parseMetricSpec, attachMetric, attachedMetric, metricName, metricLengths, surfaceIntrinsic, compileExpression, gaussLegendre, quadratureEdgeLengths,
   METRIC_KINDS, FIELD_LAYOUTS, DEFAULT_LENGTH_TOLERANCE, metricCautions, isConstantMetric, ROUGH_SPEED_RATIO, ROUGH_EDGE_SHARE, LARGE_REPAIR, type MetricCaution,
+  METRIC_REPAIRS, AUTO_REPAIR_LIMIT, shortenToEdgePaths, type MetricRepair, type Shortened,
   type UserMetric, type ParseMetricOptions, type MetricReport, type MetricLengthOptions, type AppliedMetric, type MetricTarget, type CompiledExpression,
 } from '../metric/user/index.js';

@@ -53,6 +53,7 @@ describe('--metric', () => {
     expect(Object.keys(j.metricReport)).toEqual([
       'metric', 'kind', 'edges', 'toleranceAsked', 'toleranceReached', 'edgesAboveTolerance', 'evaluations', 'largestSpeedRatio', 'roughEdgeShare',
       'triangleInequalityViolations', 'mollifyEpsilon', 'mollifyDelta', 'largestRelativeChange', 'meanEdgeLength',
+      'repair', 'edgesShortened', 'largestShortening', 'meanEdgeLengthBeforeRepair',
     ]); // the documented keys (README), no per-edge arrays
     expect(j.metricReport.toleranceReached).toBeLessThan(1e-10);
     expect(Math.abs(j.targets[0].distance - Math.log(5))).toBeLessThan(1e-9);
@@ -71,7 +72,7 @@ describe('--metric', () => {
     expect(JSON.parse(readFileSync(out, 'utf8')).properties.metric).toBe(j.metric);
   });
   it('inspect: a lengths file is used as given (edges ×2 → area ×4), its broken triangles counted and repaired', () => {
-    const r = runCli(['inspect', join(dir, 'hp.obj'), '--metric', `lengths:${join(dir, 'len.csv')}`, '--json']);
+    const r = runCli(['inspect', join(dir, 'hp.obj'), '--metric', `lengths:${join(dir, 'len.csv')}`, '--metric-repair', 'mollify', '--json']); // ε 14.8× the mean edge: auto would refuse
     expect(r.code, r.stderr).toBe(0);
     const j = JSON.parse(r.stdout);
     expect(j.metricReport.triangleInequalityViolations).toBe(2); // the two triangles on edge 40–50
@@ -91,7 +92,7 @@ describe('--metric', () => {
     const ply = ['ply', 'format ascii 1.0', `element vertex ${V.length}`, 'property double x', 'property double y', 'property double z', 'property double cost',
       `element face ${F.length}`, 'property list uchar int vertex_indices', 'end_header', ...V, ...F].join('\n') + '\n';
     writeFileSync(join(dir, 'rough.ply'), ply);
-    const args = ['distance', join(dir, 'rough.ply'), '--from', 'v:0', '--to', `v:${V.length - 1}`, '--metric', 'field:cost', '--json'];
+    const args = ['distance', join(dir, 'rough.ply'), '--from', 'v:0', '--to', `v:${V.length - 1}`, '--metric', 'field:cost', '--metric-repair', 'mollify', '--json']; // ε 0.66× the mean edge: auto would refuse
     const heat = runCli([...args, '--method', 'heat']);
     expect(heat.code, heat.stderr).toBe(0);
     const lines = heat.stderr.trim().split('\n');

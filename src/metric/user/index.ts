@@ -14,4 +14,6 @@ export {
   metricLengths, attachMetric, attachedMetric, surfaceIntrinsic, metricName,
   type MetricTarget, type MetricLengthOptions, type MetricReport, type AppliedMetric,
 } from './surface-metric.js';
+export { shortenToEdgePaths, type Shortened } from './shorten.js';
+export { repairLengths, METRIC_REPAIRS, AUTO_REPAIR_LIMIT, type MetricRepair, type Repaired } from './repair.js';
 export { metricCautions, isConstantMetric, ROUGH_SPEED_RATIO, ROUGH_EDGE_SHARE, LARGE_REPAIR, type MetricCaution } from './roughness.js';

@@ -79,7 +79,7 @@ export const LARGE_REPAIR = 0.01;
  * after, less ε: every edge gained ε); 0 without a repair.
  */
 export function repairToMeanEdge(r: MetricReport): number {
-  const before = r.meanEdgeLength - r.mollifyEpsilon;
+  const before = r.meanEdgeLengthBeforeRepair;
   return r.mollifyEpsilon > 0 ? (before > 0 ? r.mollifyEpsilon / before : Infinity) : 0;
 }
 
@@ -122,7 +122,10 @@ export function metricCautions(r: MetricReport, method?: string): MetricCaution[
     const most = k > 1 ? ` (it added ${num(r.mollifyEpsilon)} to every edge, ${num(k)}× the mean edge length: distances are mostly a count of the edges crossed)` : '';
     out.push({
       kind: 'repair',
-      message: `the repair of the metric ${r.metric} changed edge lengths by up to ${pct(100 * r.largestRelativeChange)}%${most}: results are those of the repaired lengths, not of the metric; refine the mesh or smooth the metric`,
+      message: r.edgesShortened > 0
+        // shorten: lengths only came down to the shortest path along edges, then a margin ε
+        ? `the repair of the metric ${r.metric} shortened ${r.edgesShortened} of ${r.edges} edges to the shortest path along edges (by up to ${pct(100 * r.largestShortening)}%) and added ${num(r.mollifyEpsilon)} to every edge (${num(100 * k)}% of the mean edge): results are those of the repaired lengths, at most the metric's cost along any chain of edges (plus that margin per edge); refine the mesh or smooth the metric`
+        : `the repair of the metric ${r.metric} changed edge lengths by up to ${pct(100 * r.largestRelativeChange)}%${most}: results are those of the repaired lengths, not of the metric; refine the mesh or smooth the metric`,
     });
   }
   if (method !== 'heat' || isConstantMetric(r)) return out;

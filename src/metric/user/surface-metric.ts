@@ -5,11 +5,14 @@
  *
  * Lengths from a metric need not satisfy the triangle inequality on every
  * face (a metric that changes fast across a face, or lengths given
- * directly). Such faces are counted, and the lengths are repaired by
- * intrinsic mollification (Sharp & Crane, "A Laplacian for Nonmanifold
- * Triangle Meshes", CGF 39(5), 2020, §4.5; `metric/mollify.ts`): one
- * constant ε added to every edge, the smallest that leaves every face a
- * margin δ. The heat and exact methods then both see the repaired lengths.
+ * directly). Such faces are counted, and the lengths are repaired
+ * (`repair.ts`): by intrinsic mollification (Sharp & Crane, "A Laplacian
+ * for Nonmanifold Triangle Meshes", CGF 39(5), 2020, §4.5;
+ * `metric/mollify.ts`: one constant ε added to every edge, the smallest
+ * that leaves every face a margin δ), or first by shortening edges to the
+ * shortest path along edges (Gilbert & Jain 2017; `shorten.ts`); a large
+ * mollification is refused unless asked for. The heat and exact methods
+ * then both see the repaired lengths.
  *
  * "The metric is the interface": {@link attachMetric} records the repaired
  * intrinsic mesh beside the surface object (a WeakMap), and everything that
@@ -21,14 +24,15 @@ import type { Topology } from '../../mesh/topology.js';
 import type { PropertyColumn } from '../../io/mesh-data.js';
 import type { SurfacePoint } from '../../mesh/surface-point.js';
 import { chainLength } from '../face-points.js';
-import { intrinsicFromPositions, meanEdgeLength, triangleInequalityViolations, type IntrinsicMesh } from '../intrinsic.js';
-import { mollify, DEFAULT_MOLLIFY_DELTA } from '../mollify.js';
+import { intrinsicFromPositions, meanEdgeLength, type IntrinsicMesh } from '../intrinsic.js';
+import { DEFAULT_MOLLIFY_DELTA } from '../mollify.js';
 import { usageError } from '../../errors.js';
 import type { UserMetric } from './spec.js';
 import { expressionSpeed } from './speed.js';
 import { fieldSpeed } from './field.js';
 import { lengthsFromCsv } from './lengths-file.js';
 import { quadratureEdgeLengths, DEFAULT_LENGTH_TOLERANCE } from './edge-lengths.js';
+import { repairLengths, METRIC_REPAIRS, type MetricRepair } from './repair.js';
 
 /** What a surface needs to take a user metric (a whole `Surface` will do). */
 export interface MetricTarget {
@@ -44,6 +48,13 @@ export interface MetricLengthOptions {
   tolerance?: number;
   /** Mollification margin δ as a fraction of the mean edge length (default 1e-5). */
   mollifyDelta?: number;
+  /**
+   * How faces that break the triangle inequality are repaired (`repair.ts`):
+   * `auto` (default: mollify, but refuse with `INPUT` when ε would exceed
+   * 5% of the mean edge), `mollify` (always), `shorten` (edges to the
+   * shortest path along edges, then a margin).
+   */
+  repair?: MetricRepair;
 }
 
 /** What applying a user metric found and did. Every length measured in it should carry `metric`. */
@@ -77,10 +88,18 @@ export interface MetricReport {
   mollifyEpsilon: number;
   /** The margin δ every face keeps after repair, mesh units. */
   mollifyDelta: number;
-  /** ε relative to the shortest edge before repair (the largest relative change of a length). */
+  /** The largest relative change of an edge length by the repair (mollification alone: ε over the shortest edge). */
   largestRelativeChange: number;
   /** Mean edge length under the metric (after repair), mesh units. */
   meanEdgeLength: number;
+  /** The repair asked for: `auto`, `mollify` or `shorten`. */
+  repair: MetricRepair;
+  /** Edges shortened to the shortest path along edges (`shorten`; 0 otherwise). */
+  edgesShortened: number;
+  /** Largest relative shortening of an edge, (given − repaired) / given (0: none). */
+  largestShortening: number;
+  /** Mean edge length before repair, mesh units (ε relative to it: about the relative growth of a distance). */
+  meanEdgeLengthBeforeRepair: number;
 }
 
 /** A surface's lengths under a user metric and their report. */
@@ -94,13 +113,17 @@ export interface AppliedMetric {
 /**
  * The edge lengths of `s` under `metric`, checked (positive definiteness where
  * evaluated: `INPUT` naming the point and edge) and repaired (triangle
- * inequality by mollification). Does not attach them to `s` ({@link attachMetric}).
+ * inequality: `opts.repair`; under `auto`, a repair that would add more than
+ * 5% of the mean edge is an `INPUT` error naming the metric file or spec).
+ * Does not attach them to `s` ({@link attachMetric}).
  */
 export function metricLengths(s: MetricTarget, metric: UserMetric, opts: MetricLengthOptions = {}): AppliedMetric {
   const t = s.topology;
   const ms = { positions: s.positions, vertexOrigin: t.vertexOrigin, name: s.data.name };
   const tol = opts.tolerance ?? DEFAULT_LENGTH_TOLERANCE;
   if (!(tol > 0 && tol < 1)) throw usageError(`the metric tolerance must lie in (0, 1), got ${tol}`);
+  const mode = opts.repair ?? 'auto';
+  if (!(METRIC_REPAIRS as readonly string[]).includes(mode)) throw usageError(`the metric repair must be ${METRIC_REPAIRS.join(', ')}, got '${String(mode)}'`);
   let lengths: Float64Array;
   let quad: { toleranceAsked: number | null; toleranceReached: number | null; edgesAboveTolerance: number; evaluations: number; largestSpeedRatio: number | null; roughEdgeShare: number | null };
   if (metric.kind === 'lengths') {
@@ -113,20 +136,21 @@ export function metricLengths(s: MetricTarget, metric: UserMetric, opts: MetricL
     quad = { ...q, roughEdgeShare: t.ne ? roughEdges / t.ne : 0 };
   }
   const raw: IntrinsicMesh = { topology: t, edgeLength: lengths };
-  const violations = triangleInequalityViolations(raw);
-  let shortest = Infinity;
-  for (let e = 0; e < lengths.length; e++) if (lengths[e]! < shortest) shortest = lengths[e]!;
-  const m = mollify(raw, opts.mollifyDelta ?? DEFAULT_MOLLIFY_DELTA);
+  const m = repairLengths(raw, mode, opts.mollifyDelta ?? DEFAULT_MOLLIFY_DELTA, metric.kind === 'lengths' ? metric.file : metric.label);
   const report: MetricReport = {
     metric: metric.label,
     kind: metric.kind,
     edges: t.ne,
     ...quad,
-    triangleInequalityViolations: violations,
+    triangleInequalityViolations: m.violations,
     mollifyEpsilon: m.epsilon,
     mollifyDelta: m.delta,
-    largestRelativeChange: m.epsilon > 0 ? (shortest > 0 ? m.epsilon / shortest : Infinity) : 0,
+    largestRelativeChange: m.largestRelativeChange,
     meanEdgeLength: meanEdgeLength(m.mesh),
+    repair: mode,
+    edgesShortened: m.edgesShortened,
+    largestShortening: m.largestShortening,
+    meanEdgeLengthBeforeRepair: m.meanBefore,
   };
   return { mesh: m.mesh, report };
 }
