@@ -45,8 +45,6 @@ export interface TaskRun {
   readonly ctl: Int32Array;
   readonly state: Int32Array;
   readonly pending: Int32Array;
-  /** Diagnostics (benchmarks): per task, the thread (0 caller, 1 worker), start and end in ms on a clock common to all threads. */
-  readonly trace?: Float64Array | null;
 }
 
 /** A thread's own workspaces: two fronts and stacks (a pair's sweep needs both), pivot scratch. */
@@ -111,13 +109,7 @@ export function runFactorTasks(run: TaskRun, ws: TaskWorkspace, opts: RunOptions
     }
     Atomics.add(ctl, C_BEAT, 1);
     Atomics.notify(ctl, C_BEAT);
-    const trace = run.trace;
-    if (trace) {
-      trace[3 * t] = opts.worker ? 1 : 0;
-      trace[3 * t + 1] = performance.timeOrigin + performance.now();
-    }
     const ok = runFactorTask(run, ws, t);
-    if (trace) trace[3 * t + 2] = performance.timeOrigin + performance.now();
     ran++;
     if (opts.worker) Atomics.add(ctl, C_REMOTE, 1);
     if (!ok) {
