@@ -38,7 +38,7 @@
 import { hypot3, type IntrinsicMesh } from './intrinsic.js';
 import type { Topology } from '../mesh/topology.js';
 import { next } from '../mesh/topology.js';
-import { cornerAngles, halfedgeCotans, triangleArea } from './triangle.js';
+import { cornerAngles, halfedgeCotans, triangleArea, type FaceArrays } from './triangle.js';
 import { mixedVoronoiVertexAreas } from './vertex-areas.js';
 import { boundaryVertexMask } from '../mesh/boundary.js';
 import { glueSeams } from '../mesh/seams.js';
@@ -76,10 +76,11 @@ export function cornerAngleUncertainty(a: number, b: number, c: number, area: nu
  *
  * @param seams - `BuildReport.orientationSeams` of a non-orientable surface
  *   (optional): the seam copies of a vertex are then counted as one vertex
+ * @param given - the angles, cotangents and areas of `m` when the caller has them
  */
-export function gaussianCurvature(m: IntrinsicMesh, seams?: Int32Array): Curvature {
+export function gaussianCurvature(m: IntrinsicMesh, seams?: Int32Array, given: FaceArrays = {}): Curvature {
   const t = m.topology;
-  const ang = cornerAngles(m);
+  const ang = given.angles ?? cornerAngles(m);
   const glued = seams && seams.length > 0 ? glueSeams(t, seams) : null;
   const rep = glued ? glued.rep : null;
   const boundary = glued ? glued.boundary : boundaryVertexMask(t);
@@ -96,7 +97,7 @@ export function gaussianCurvature(m: IntrinsicMesh, seams?: Int32Array): Curvatu
       tol[v]! += u;
     }
   }
-  const vertexArea = mixedVoronoiVertexAreas(m);
+  const vertexArea = mixedVoronoiVertexAreas(m, undefined, given);
   if (rep) {
     for (let v = 0; v < t.nv; v++) if (rep[v] !== v) vertexArea[rep[v]!]! += vertexArea[v]!;
   }
@@ -149,6 +150,7 @@ export function gaussianCurvature(m: IntrinsicMesh, seams?: Int32Array): Curvatu
  *   copies of a vertex pool their Laplacian and normal (the normal of a copy
  *   across a seam is turned to agree with its class's), so every copy gets the
  *   value of the whole vertex; its sign is only local on such a surface
+ * @param cotans - {@link halfedgeCotans} of `m` when the caller has them
  */
 export function meanCurvature(
   m: IntrinsicMesh,
@@ -156,9 +158,10 @@ export function meanCurvature(
   vertexArea: Float64Array,
   boundary: Uint8Array,
   seams?: Int32Array,
+  cotans?: Float64Array,
 ): Float64Array {
   const t: Topology = m.topology;
-  const cot = halfedgeCotans(m);
+  const cot = cotans ?? halfedgeCotans(m);
   const lap = new Float64Array(3 * t.nv); // Σ (cot α + cot β)(x_v − x_j)
   const nrm = new Float64Array(3 * t.nv); // Σ face normal × 2·area
   const wsum = new Float64Array(t.nv); // Σ |w| (rounding bound of the Laplacian)

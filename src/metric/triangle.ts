@@ -235,6 +235,18 @@ export function cornerAngles(m: IntrinsicMesh, out = new Float64Array(3 * m.topo
   return out;
 }
 
+/**
+ * Per-face arrays of one intrinsic mesh that a caller has already made
+ * ({@link cornerAngles}, {@link halfedgeCotans}, {@link faceAreas} of that
+ * same mesh), handed on so that the functions taking them do not make them
+ * again. Read only.
+ */
+export interface FaceArrays {
+  angles?: Float64Array;
+  cotans?: Float64Array;
+  areas?: Float64Array;
+}
+
 /** Cotangent of the angle opposite every half-edge ({@link faceCotans}, bounded by {@link COT_LIMIT}). */
 export function halfedgeCotans(m: IntrinsicMesh, out = new Float64Array(3 * m.topology.nf)): Float64Array {
   const { edgeOf } = m.topology;

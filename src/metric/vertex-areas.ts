@@ -13,7 +13,7 @@
  */
 import type { IntrinsicMesh } from './intrinsic.js';
 import { prev } from '../mesh/topology.js';
-import { faceAreas, cornerAngles, halfedgeCotans } from './triangle.js';
+import { faceAreas, cornerAngles, halfedgeCotans, type FaceArrays } from './triangle.js';
 
 /**
  * Vertex area: one third of the area of each incident face (the lumped,
@@ -37,12 +37,13 @@ export function barycentricVertexAreas(m: IntrinsicMesh, out = new Float64Array(
  * Mixed Voronoi vertex areas (Meyer, Desbrun, Schröder, Barr 2003): the
  * Voronoi share in non-obtuse triangles, A/2 at an obtuse corner and A/4 at the
  * other two corners of an obtuse triangle. They sum to the total area.
+ * `given`: the angles, cotangents and areas of `m` when the caller has them.
  */
-export function mixedVoronoiVertexAreas(m: IntrinsicMesh, out = new Float64Array(m.topology.nv)): Float64Array {
+export function mixedVoronoiVertexAreas(m: IntrinsicMesh, out = new Float64Array(m.topology.nv), given: FaceArrays = {}): Float64Array {
   const t = m.topology;
-  const ang = cornerAngles(m);
-  const cot = halfedgeCotans(m);
-  const A = faceAreas(m);
+  const ang = given.angles ?? cornerAngles(m);
+  const cot = given.cotans ?? halfedgeCotans(m);
+  const A = given.areas ?? faceAreas(m);
   const L = m.edgeLength;
   out.fill(0);
   const half = Math.PI / 2;

@@ -7,6 +7,7 @@ import { surfaceIntrinsic, attachedMetric } from '../metric/user/surface-metric.
 import { gaussianCurvature, meanCurvature, gaussBonnetResidual } from '../metric/curvature.js';
 import { components } from '../mesh/components.js';
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
+import type { FaceArrays } from '../metric/triangle.js';
 import { glueSeams } from '../mesh/seams.js';
 
 /** Min / mean / max of a statistic. */
@@ -57,14 +58,15 @@ function stat(values: Float64Array, mask: Uint8Array, active: (v: number) => boo
 
 /**
  * Computes curvature per topology vertex and its summary. `intrinsic`, when
- * given, must be `surfaceIntrinsic(s)`'s mesh, already made by the caller.
+ * given, must be `surfaceIntrinsic(s)`'s mesh, already made by the caller,
+ * and `faces` that mesh's angles, cotangents and areas when it has them.
  */
-export function curvatureSummary(s: Surface, intrinsic?: IntrinsicMesh): CurvatureResult {
+export function curvatureSummary(s: Surface, intrinsic?: IntrinsicMesh, faces: FaceArrays = {}): CurvatureResult {
   const t = s.topology;
   const im = intrinsic ?? surfaceIntrinsic(s); // a user metric's lengths when one is attached
   const seams = s.report.orientationSeams;
-  const c = gaussianCurvature(im, seams);
-  const H = meanCurvature(im, s.positions, c.vertexArea, c.boundary, seams);
+  const c = gaussianCurvature(im, seams, faces);
+  const H = meanCurvature(im, s.positions, c.vertexArea, c.boundary, seams, faces.cotans);
   if (attachedMetric(s)) H.fill(NaN); // mean curvature belongs to the embedding: not defined by a user metric
   const chi = components(t, seams).info.reduce((a, x) => a + x.eulerCharacteristic, 0);
   const copy = seams.length > 0 ? glueSeams(t, seams).rep : null;

@@ -159,11 +159,14 @@ export function inspectProblems(r: InspectReport): string[] {
 /**
  * What a caller that computes more than the report has already made for the
  * same surface, so it is not made twice (`score` does): `intrinsic` must be
- * `surfaceIntrinsic(s)`'s mesh, `curvature` the totals of
+ * `surfaceIntrinsic(s)`'s mesh, `angles` and `areas` its `cornerAngles` and
+ * `faceAreas`, `curvature` the totals of
  * `gaussianCurvature(intrinsic, s.report.orientationSeams)`.
  */
 export interface InspectParts {
   intrinsic?: IntrinsicMesh;
+  angles?: Float64Array;
+  areas?: Float64Array;
   curvature?: Pick<Curvature, 'totalInteriorDefect' | 'totalBoundaryTurning' | 'zeroAreaVertices'>;
 }
 
@@ -173,9 +176,9 @@ export function inspectSurface(s: Surface, given: InspectParts = {}): InspectRep
   const seams = s.report.orientationSeams;
   const comps = components(t, seams);
   const im = given.intrinsic ?? surfaceIntrinsic(s); // a user metric's lengths when one is attached
-  const ang = cornerAngles(im);
-  const A = faceAreas(im);
-  const curv = given.curvature ?? gaussianCurvature(im, seams);
+  const ang = given.angles ?? cornerAngles(im);
+  const A = given.areas ?? faceAreas(im);
+  const curv = given.curvature ?? gaussianCurvature(im, seams, { angles: ang, areas: A });
   const chi = comps.info.reduce((a, c) => a + c.eulerCharacteristic, 0);
   const orientable = s.report.nonOrientableComponents === 0;
   const quality = triangleQuality(s, im.edgeLength, A, ang);

@@ -10,14 +10,16 @@
  * without pairs) never loads them: less start-up for each worker thread.
  *
  * What several groups need is made once per surface: the edge lengths
- * (`intrinsicOf`, shared with the solvers too), and the angle defects, whose
- * totals the health group takes from the curvature group when both run
- * (the same `gaussianCurvature` of the same lengths, so the same numbers).
+ * (`intrinsicOf`, shared with the solvers too), the corner angles, face
+ * areas and cotangents, and the angle defects, whose totals the health
+ * group takes from the curvature group when both run (the same functions of
+ * the same lengths, so the same numbers).
  */
 import type { Surface } from '../mesh/surface.js';
 import { inspectSurface } from '../report/inspect.js';
 import { curvatureSummary, type CurvatureResult } from '../report/curvature.js';
 import { intrinsicOf } from '../api/parts.js';
+import { cornerAngles, faceAreas, halfedgeCotans, type FaceArrays } from '../metric/triangle.js';
 import type { DistanceSolver } from '../geodesic/solver.js';
 import { metricsOf, type MetricGroup, type Metrics } from './catalog.js';
 import { triangleQuality } from './quality.js';
@@ -56,10 +58,17 @@ export async function scoreSurface(s: Surface, opts: ScoreOptions): Promise<Surf
   const out: Metrics = {};
   // the surface's edge lengths (its user metric's when one is attached), made once for every group and solver
   const im = g.has('health') || g.has('quality') || g.has('curvature') ? intrinsicOf(s) : null;
+  // and its per-face angles and areas (both groups), cotangents (curvature), each made once
+  const faces: FaceArrays = {};
+  if (g.has('health') || g.has('curvature')) {
+    faces.angles = cornerAngles(im!);
+    faces.areas = faceAreas(im!);
+  }
+  if (g.has('curvature')) faces.cotans = halfedgeCotans(im!);
   // curvature first: its angle-defect totals are the health group's (metrics go out in catalogue order all the same)
   let curvature: CurvatureResult['summary'] | null = null;
   if (g.has('curvature')) {
-    curvature = curvatureSummary(s, im!).summary;
+    curvature = curvatureSummary(s, im!, faces).summary;
     const c = curvature;
     const some = c.interiorVertices > 0 && c.interiorVertices > c.zeroAreaVertices;
     const v = (x: number) => (some ? finite(x) : null); // the summary's zeros mean "no interior vertex", not zero curvature
@@ -78,7 +87,7 @@ export async function scoreSurface(s: Surface, opts: ScoreOptions): Promise<Surf
     const totals = curvature
       ? { totalInteriorDefect: curvature.totalAngleDefect, totalBoundaryTurning: curvature.totalBoundaryTurning, zeroAreaVertices: curvature.zeroAreaVertices }
       : undefined;
-    const r = inspectSurface(s, { intrinsic: im!, curvature: totals });
+    const r = inspectSurface(s, { intrinsic: im!, angles: faces.angles, areas: faces.areas, curvature: totals });
     const { min, max } = r.boundingBox;
     const diag = r.vertices ? Math.hypot(max[0] - min[0], max[1] - min[1], max[2] - min[2]) : 0;
     Object.assign(out, {

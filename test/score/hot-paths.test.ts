@@ -15,7 +15,8 @@ import { surfaceFromMeshData } from '../../src/mesh/surface.js';
 import { meshFromTriangles } from '../../src/io/mesh-data.js';
 import { selectInPlace } from '../../src/score/select.js';
 import { triangleQuality, nearestRank } from '../../src/score/quality.js';
-import { radiusRatio } from '../../src/metric/triangle.js';
+import { radiusRatio, cornerAngles, halfedgeCotans, faceAreas } from '../../src/metric/triangle.js';
+import { mixedVoronoiVertexAreas } from '../../src/metric/vertex-areas.js';
 import { rng, terrain, torus } from '../fixtures/shapes.js';
 
 describe('hypot3', () => {
@@ -51,20 +52,41 @@ describe('reports given the parts score shares', () => {
     terrain(14, 11, 40, 30, (x, y) => Math.sin(x / 5) * Math.cos(y / 7) + 0.2 * r()),
     torus(24, 9, 2, 0.7),
   ];
+  // a Möbius strip too: non-orientable, so the seam copies are glued in the curvature
+  const mobius = (() => {
+    const n = 30, positions: number[] = [], triangles: number[] = [];
+    for (let i = 0; i < n; i++) {
+      const a = (2 * Math.PI * i) / n;
+      for (const w of [-0.3, 0.3]) positions.push((1 + w * Math.cos(a / 2)) * Math.cos(a), (1 + w * Math.cos(a / 2)) * Math.sin(a), w * Math.sin(a / 2));
+    }
+    for (let i = 0; i < n; i++) {
+      const j = (i + 1) % n;
+      const [b0, b1] = j === 0 ? [1, 0] : [2 * j, 2 * j + 1];
+      triangles.push(2 * i, b0, 2 * i + 1, 2 * i + 1, b0, b1);
+    }
+    return { positions: Float64Array.from(positions), triangles: Uint32Array.from(triangles) };
+  })();
+  shapes.push(mobius);
   for (const [i, shape] of shapes.entries()) {
     it(`inspect and curvature: the same report, bit for bit (shape ${i})`, () => {
       const s = surfaceFromMeshData(meshFromTriangles(shape.positions, shape.triangles, 'case.obj'));
+      if (i === 2) expect(s.report.orientationSeams.length).toBeGreaterThan(0); // the strip is cut to be oriented
       const im = intrinsicFromPositions(s.topology, s.positions);
+      const faces = { angles: cornerAngles(im), cotans: halfedgeCotans(im), areas: faceAreas(im) };
       const plainCurv = curvatureSummary(s);
-      const sharedCurv = curvatureSummary(s, im);
+      const sharedCurv = curvatureSummary(s, im, faces);
       expect(sharedCurv.summary).toStrictEqual(plainCurv.summary);
       expect(sharedCurv.meanCurvature).toStrictEqual(plainCurv.meanCurvature);
+      expect(sharedCurv.gaussianCurvature).toStrictEqual(plainCurv.gaussianCurvature);
       const c = sharedCurv.summary;
       const shared = inspectSurface(s, {
         intrinsic: im,
+        angles: faces.angles,
+        areas: faces.areas,
         curvature: { totalInteriorDefect: c.totalAngleDefect, totalBoundaryTurning: c.totalBoundaryTurning, zeroAreaVertices: c.zeroAreaVertices },
       });
       expect(shared).toStrictEqual(inspectSurface(s));
+      expect(mixedVoronoiVertexAreas(im, undefined, faces)).toStrictEqual(mixedVoronoiVertexAreas(im));
     });
   }
 });
