@@ -3,33 +3,55 @@
  * edge lengths: issue 14's walking-time case (walking times by Tobler's
  * hiking function, Tobler 1993, the mean of both directions, fed as
  * `lengths:`; test/fixtures/walking-time.ts), on steep ground (relief 1:
- * about half the faces break the triangle inequality and are repaired by
- * mollification) and on gentle ground (relief 0.2: no repair), beside the
- * same terrain measured in the lengths of its embedding (heat's usual error
- * at that size). Mean and worst relative error over the vertices at least
- * two mean edge lengths from the source, as in heat-accuracy.bench.ts.
+ * about half the faces break the triangle inequality) repaired both ways
+ * (`mollify`: one ε on every edge; `shorten`: edges to the shortest path
+ * along edges, Gilbert & Jain 2017, then a margin), and on gentle ground
+ * (relief 0.2: no repair), beside the same terrain measured in the lengths
+ * of its embedding (heat's usual error at that size). Mean and worst
+ * relative error over the vertices at least two mean edge lengths from the
+ * source, as in heat-accuracy.bench.ts.
  *
  * Records per case and size: `meanRelError`, `maxRelError` (ratios), with
- * faces, the broken faces and the repair's ε over the mean edge length.
+ * faces, the broken faces, the repair's ε over the mean edge length before
+ * repair and the edges shortened; for the walking-time cases `farCorner`,
+ * the exact distance to the corner opposite the origin (minutes), beside
+ * `travelCorner`, the `travel` command's walking time there (Tobler by
+ * direction, k = 7 Steiner points) and `chainCorner`, the user's own times
+ * along edges (the edge-graph distance); `repairCpuMs`, the CPU time of
+ * attaching the metric (quadrature-free: reading the CSV, counting, repair).
  * `--quick` runs 40 × 40 cells only; the full run adds 80 and 299 (the
  * issue's 178,802 faces).
  */
 import { emit, quick } from './harness.js';
-import { openSurface, measureDistances } from '../../src/index.js';
-import { attachMetric, parseMetricSpec, meanEdgeLength, intrinsicFromPositions } from '../../src/api/metric.js';
+import { openSurface, measureDistances, travelField } from '../../src/index.js';
+import { attachMetric, parseMetricSpec, meanEdgeLength, intrinsicFromPositions, type MetricRepair } from '../../src/api/metric.js';
 import { meshFromTriangles } from '../../src/io/mesh-data.js';
+import { lengthsFromCsv } from '../../src/metric/user/lengths-file.js';
+import { prepareDistance } from '../../src/geodesic/solver.js';
 import { walkingTerrain, walkingTimeCsv } from '../fixtures/walking-time.js';
 
 const BENCH = 'metric-accuracy';
 
 for (const n of quick() ? [40] : [40, 80, 299]) {
-  const from = { points: [{ kind: 'vertex' as const, vertex: (Math.round(n / 4)) * (n + 1) + Math.round(n / 4) }], curves: [] };
+  const source = Math.round(n / 4) * (n + 1) + Math.round(n / 4);
+  const corner = (n + 1) * (n + 1) - 1;
+  const from = { points: [{ kind: 'vertex' as const, vertex: source }], curves: [] };
   for (const relief of [1, 0.2]) {
     const shape = walkingTerrain(n, 1, relief);
     const csv = walkingTimeCsv(shape);
-    for (const lengths of ['embedding', 'walking-time'] as const) {
+    const cases: (MetricRepair | 'embedding')[] = relief === 1 ? ['embedding', 'mollify', 'shorten'] : ['embedding', 'auto'];
+    let travelCorner = NaN, chainCorner = NaN;
+    if (relief === 1) {
+      const plain = openSurface(meshFromTriangles(shape.positions, shape.triangles, 'walk'));
+      travelCorner = travelField(plain, [{ kind: 'vertex', vertex: source }], { k: 7 }).seconds[corner]! / 60;
+      const raw = { topology: plain.topology, edgeLength: lengthsFromCsv(plain.topology, csv, 'walk.csv') };
+      chainCorner = prepareDistance(raw, 'graph').solve(from).field.distance[corner]!;
+    }
+    for (const lengths of cases) {
       const s = openSurface(meshFromTriangles(shape.positions, shape.triangles, 'walk'));
-      const rep = lengths === 'walking-time' ? attachMetric(s, parseMetricSpec('lengths:walk.csv', { readText: () => csv })) : null;
+      const c0 = process.cpuUsage();
+      const rep = lengths === 'embedding' ? null : attachMetric(s, parseMetricSpec('lengths:walk.csv', { readText: () => csv }), { repair: lengths });
+      const cpu = process.cpuUsage(c0);
       const h = rep ? rep.meanEdgeLength : meanEdgeLength(intrinsicFromPositions(s.topology, s.positions));
       const exact = measureDistances(s, from, { method: 'exact' }).field.distance;
       const heat = measureDistances(s, from, { method: 'heat' }).field.distance;
@@ -43,11 +65,16 @@ for (const n of quick() ? [40] : [40, 80, 299]) {
       const extra = {
         faces: s.topology.nf, relief,
         brokenFaces: rep?.triangleInequalityViolations ?? 0,
-        epsilonOverMeanEdge: rep && rep.mollifyEpsilon > 0 ? rep.mollifyEpsilon / (rep.meanEdgeLength - rep.mollifyEpsilon) : 0,
+        epsilonOverMeanEdge: rep ? rep.mollifyEpsilon / rep.meanEdgeLengthBeforeRepair : 0,
+        edgesShortened: rep?.edgesShortened ?? 0,
       };
-      const name = `${relief === 1 ? 'steep' : 'gentle'}-${lengths}`;
+      const name = `${relief === 1 ? 'steep' : 'gentle'}-${lengths === 'embedding' ? 'embedding' : `walking-time-${lengths}`}`;
       emit({ bench: BENCH, case: name, metric: 'meanRelError', value: sum / cnt, unit: 'ratio', ...extra });
       emit({ bench: BENCH, case: name, metric: 'maxRelError', value: max, unit: 'ratio', ...extra });
+      if (rep) emit({ bench: BENCH, case: name, metric: 'repairCpuMs', value: (cpu.user + cpu.system) / 1000, unit: 'ms', ...extra });
+      if (rep && relief === 1) {
+        emit({ bench: BENCH, case: name, metric: 'farCorner', value: exact[corner]!, unit: 'min', heatFarCorner: heat[corner]!, travelCorner, chainCorner, ...extra });
+      }
     }
   }
 }
