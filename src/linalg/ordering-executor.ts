@@ -8,9 +8,11 @@
  * After the top `depth` levels of the dissection (George 1973: the parts
  * left by a separator are independent subproblems, ordered into disjoint
  * ranges of the permutation) the parts are jobs. Each job is a subgraph in
- * shared memory (ordering-subgraph.ts), claimed through one shared counter
- * by whichever thread is free, largest first, and ordered into the shared
- * permutation. A part's order depends on the part alone, so the permutation
+ * shared memory (ordering-subgraph.ts), claimed by whichever thread is free
+ * (a compare-and-swap on the job's state word: the executor's threads take
+ * the largest open job, the caller the smallest, so the caller, which has
+ * already split the top levels, gets the lighter share), and ordered into
+ * the shared permutation. A part's order depends on the part alone, so the permutation
  * is the serial one bit for bit, whoever orders which part (and a job left
  * unfinished by a failed thread is simply ordered again by the caller).
  */
@@ -27,11 +29,11 @@ export interface NdJob {
 }
 
 /** Slots of {@link NdBatch.control}. */
-export const C_NEXT = 0, C_DONE = 1, C_FAILED = 2, C_BEAT = 3, C_REMOTE = 4;
+export const C_DONE = 0, C_FAILED = 1, C_BEAT = 2, C_REMOTE = 3;
 /** Length of {@link NdBatch.control}. */
-export const CONTROL_LENGTH = 5;
-/** Job states in {@link NdBatch.state}: not finished, finished. */
-export const JOB_OPEN = 0, JOB_DONE = 1;
+export const CONTROL_LENGTH = 4;
+/** Job states in {@link NdBatch.state}: open, taken by a thread, finished. */
+export const JOB_OPEN = 0, JOB_TAKEN = 1, JOB_DONE = 2;
 
 /** The parts of one dissection handed to the threads (all arrays in shared memory). */
 export interface NdBatch {
@@ -39,9 +41,9 @@ export interface NdBatch {
   readonly jobs: readonly NdJob[];
   /** The permutation being built (whole-graph ids). */
   readonly out: Int32Array;
-  /** Next job to claim, jobs finished, threads failed, heartbeat (subgraphs split), jobs done by the executor's threads. */
+  /** Jobs finished, threads failed, heartbeat (subgraphs split), jobs done by the executor's threads. */
   readonly control: Int32Array;
-  /** JOB_OPEN / JOB_DONE per job. */
+  /** JOB_OPEN / JOB_TAKEN / JOB_DONE per job. */
   readonly state: Int32Array;
   /** The dissection's settings (ordering-nd.ts). */
   readonly settings: NdSettings;
@@ -51,7 +53,7 @@ export interface NdBatch {
 export interface OrderingExecutor {
   /** Smallest graph worth the threads (smaller ones are ordered on the calling thread alone). */
   readonly minSize: number;
-  /** Levels split by the calling thread before the parts become jobs (2: four jobs for two threads). */
+  /** Levels split by the calling thread before the parts become jobs (1: two jobs, 2: four). */
   readonly depth: number;
   /** The calling thread orders jobs too (default true; false leaves every job to the threads, for tests). */
   readonly callerOrders?: boolean;
@@ -74,9 +76,10 @@ export interface OrderingExecutor {
 export function runJobs(batch: NdBatch, ws: NdWorkspace, remote: boolean): void {
   const { jobs, control, state, out, settings } = batch;
   const beat = control.subarray(C_BEAT, C_BEAT + 1);
-  for (;;) {
-    const j = Atomics.add(control, C_NEXT, 1);
-    if (j >= jobs.length) return;
+  const k = jobs.length;
+  for (let i = 0; i < k; i++) {
+    const j = remote ? i : k - 1 - i; // the caller takes the smallest open job, the threads the largest
+    if (Atomics.compareExchange(state, j, JOB_OPEN, JOB_TAKEN) !== JOB_OPEN) continue;
     const job = jobs[j]!;
     orderSubgraph(ws, settings, job.sub, out, job.at, (len) => new Int32Array(len), beat);
     Atomics.store(state, j, JOB_DONE);

@@ -12,7 +12,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { nestedDissection } from '../../src/linalg/ordering-nd.js';
 import { orderSubgraph, ndWorkspace } from '../../src/linalg/ordering-nd.js';
-import { C_DONE, C_NEXT, JOB_DONE, parallelNestedDissection } from '../../src/linalg/ordering-executor.js';
+import { C_DONE, JOB_DONE, JOB_TAKEN, parallelNestedDissection } from '../../src/linalg/ordering-executor.js';
 import type { NdBatch, OrderingExecutor } from '../../src/linalg/ordering-executor.js';
 import { NodeOrderingExecutor } from '../../src/linalg/ordering-parallel-node.js';
 import type { AdjacencyGraph } from '../../src/linalg/graph.js';
@@ -117,11 +117,13 @@ describe('nested dissection with parts on worker threads', () => {
       shared: (len) => new Int32Array(new SharedArrayBuffer(4 * Math.max(1, len)), 0, len),
       start(b: NdBatch) {
         const ws = ndWorkspace(b.jobs[0]!.sub.n, b.jobs[0]!.sub.adj.length);
-        const j0 = Atomics.add(b.control, C_NEXT, 1);
+        const j0 = 0;
+        Atomics.store(b.state, j0, JOB_TAKEN);
         orderSubgraph(ws, b.settings, b.jobs[j0]!.sub, b.out, b.jobs[j0]!.at, (len) => new Int32Array(len));
         Atomics.store(b.state, j0, JOB_DONE);
         Atomics.add(b.control, C_DONE, 1);
-        const j1 = Atomics.add(b.control, C_NEXT, 1);
+        const j1 = 1;
+        Atomics.store(b.state, j1, JOB_TAKEN);
         b.out.fill(-7, b.jobs[j1]!.at, b.jobs[j1]!.at + 3); // half-written garbage
         return () => false;
       },
