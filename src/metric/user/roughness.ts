@@ -46,7 +46,15 @@
  *    (a diffusion) overestimates there (the same with every edge set to 1:
  *    3.6%; splitting each face into 4, 16, 64: 6.5, 6.7, 5.0%). On gentle
  *    ground (grades up to 0.3) the same times need no repair and heat kept
- *    its usual error (1.45% mean, 8.3% worst).
+ *    its usual error (1.45% mean, 8.3% worst). Hence repair `auto`
+ *    (repair.ts) refuses such a mollification. The decrease-only repair
+ *    (`shorten`: edges to the shortest path along edges) gives walking
+ *    times again (far corner 16.0, 15.8, 15.3 min at 3200, 12,800 and
+ *    178,802 faces, against `travel`'s 15.7, 15.9, 16.0 and 24–25 along the
+ *    user's own edges), but leaves a third of the faces flat (a shortened
+ *    edge equals the sum of the other two: 35% at 3200 and 12,800 faces),
+ *    which carry no heat: heat was 4.6, 7.8, 10% mean and 26, 20, 43% worst
+ *    from exact, worse under refinement (test/bench/metric-accuracy.bench.ts).
  *
  * Hence two levels of caution for the heat method. A metric that is not
  * constant gets the general one (its accuracy table is for lengths of the
@@ -124,7 +132,7 @@ export function metricCautions(r: MetricReport, method?: string): MetricCaution[
       kind: 'repair',
       message: r.edgesShortened > 0
         // shorten: lengths only came down to the shortest path along edges, then a margin ε
-        ? `the repair of the metric ${r.metric} shortened ${r.edgesShortened} of ${r.edges} edges to the shortest path along edges (by up to ${pct(100 * r.largestShortening)}%) and added ${num(r.mollifyEpsilon)} to every edge (${num(100 * k)}% of the mean edge): results are those of the repaired lengths, at most the metric's cost along any chain of edges (plus that margin per edge); refine the mesh or smooth the metric`
+        ? `the repair of the metric ${r.metric} shortened ${r.edgesShortened} of ${r.edges} edges to the shortest path along edges (by up to ${pct(100 * r.largestShortening)}%) and added ${r.mollifyEpsilon < 1e-3 ? r.mollifyEpsilon.toExponential(2) : num(r.mollifyEpsilon)} to every edge: results are those of the repaired lengths, at most the metric's cost along any chain of edges (plus that margin per edge)`
         : `the repair of the metric ${r.metric} changed edge lengths by up to ${pct(100 * r.largestRelativeChange)}%${most}: results are those of the repaired lengths, not of the metric; refine the mesh or smooth the metric`,
     });
   }
