@@ -9,6 +9,18 @@
  * over the same edge graph, so `factor/dijkstra` and `solve/dijkstra` ratios are emitted.
  * For nested dissection also: the factor without the SIMD kernel and (up to
  * 200k) the simplicial up-looking method, as before/after figures.
+ * Per ordering also the work of the factorization: `flops` = Σ c_j² over the
+ * column counts c_j of L (the usual count of a column Cholesky, George & Liu,
+ * "Computer Solution of Large Sparse Positive Definite Systems", 1981, §2.2)
+ * and `denseFlops` = the same over the supernodal blocks with their explicit
+ * zeros (what the multifrontal kernels do).
+ * `heat-terrain-N` cases: the heat method's own matrix on the benchmark's
+ * jittered terrain after its intrinsic Delaunay flips (heat-setup.ts), N×N cells;
+ * the Dijkstra baseline runs on that flipped edge graph.
+ * `--ordering-threads=N` (N ≥ 1) also times nested dissection with N worker
+ * threads (NodeOrderingExecutor; `ordering-threads`, and `sameOrder` = 1 when
+ * the permutation equals the serial one) and records the CPU time of the
+ * ordering on this thread alone (`ordering-cpu`).
  * `BENCH_CASE=grid` runs the cases whose name contains the text.
  */
 import { emit, peakRssMB, quick, timeMedian, edgeDijkstra } from './harness.js';
@@ -21,15 +33,26 @@ import { barycentricVertexAreas } from '../../src/metric/vertex-areas.js';
 import { TripletMatrix } from '../../src/linalg/triplet.js';
 import type { CscMatrix } from '../../src/linalg/csc.js';
 import { analyzeCholesky, CholeskyFactor } from '../../src/linalg/index.js';
-import type { Ordering } from '../../src/linalg/index.js';
+import type { CholeskySymbolic, Ordering } from '../../src/linalg/index.js';
+import { NodeOrderingExecutor } from '../../src/linalg/ordering-parallel-node.js';
+import type { IntrinsicMesh } from '../../src/metric/intrinsic.js';
+import { heatTriangulation } from '../../src/geodesic/heat-setup.js';
+import { jitteredTerrain } from './meshes.js';
 
 const BENCH = 'linalg';
+
+const orderingThreads = Number(process.argv.find((a) => a.startsWith('--ordering-threads='))?.slice(19) ?? 0);
 
 /** Lower triangle of M + h²·L for a triangle mesh, plus its edge list with lengths. */
 function heatSystem(s: Shape): { A: CscMatrix; ea: Int32Array; eb: Int32Array; elen: Float64Array } {
   const nv = s.positions.length / 3;
   const { topology: t } = buildTopology(s.triangles, nv);
-  const m = intrinsicFromPositions(t, s.positions);
+  return heatSystemOf(intrinsicFromPositions(t, s.positions));
+}
+
+/** {@link heatSystem} of an intrinsic mesh. */
+function heatSystemOf(m: IntrinsicMesh): { A: CscMatrix; ea: Int32Array; eb: Int32Array; elen: Float64Array } {
+  const t = m.topology;
   const w = edgeCotanWeights(m);
   const area = barycentricVertexAreas(m);
   const h = meanEdgeLength(m);
@@ -51,8 +74,23 @@ function heatSystem(s: Shape): { A: CscMatrix; ea: Int32Array; eb: Int32Array; e
 
 interface Case {
   name: string;
-  make: () => Shape;
+  make: () => Shape | IntrinsicMesh;
   orderings: Ordering[];
+}
+
+/** Column-count flops Σ c_j² and supernodal dense flops (module comment). */
+function flopCounts(sym: CholeskySymbolic): { flops: number; denseFlops: number } {
+  let flops = 0;
+  for (let j = 0; j < sym.n; j++) flops += sym.colCount[j]! * sym.colCount[j]!;
+  const sn = sym.supernodal;
+  let denseFlops = 0;
+  if (sn) {
+    for (let s = 0; s < sn.nsuper; s++) {
+      const nc = sn.superStart[s + 1]! - sn.superStart[s]!, nr = sn.rowPtr[s + 1]! - sn.rowPtr[s]!;
+      for (let k = 0; k < nc; k++) denseFlops += (nr - k) * (nr - k);
+    }
+  }
+  return { flops, denseFlops };
 }
 
 function cases(): Case[] {
@@ -64,6 +102,9 @@ function cases(): Case[] {
     out.push({ name: `grid-${k * k}`, make: () => flatGrid(k - 1, k - 1, 1, 1, 0.2, 3), orderings: ords });
     out.push({ name: `terrain-${k * k}`, make: () => terrain(k - 1, k - 1, 1, 1, hills), orderings: ords });
   }
+  for (const k of quick() ? [100, 316] : [100, 316, 1000]) {
+    out.push({ name: `heat-terrain-${k}`, make: () => heatTriangulation(meshOf(jitteredTerrain(k, 3)), {}).work, orderings: k <= 100 ? ['nd', 'amd'] : ['nd'] });
+  }
   const levels = quick() ? [5, 7] : [5, 7, 8];
   for (const l of levels) {
     out.push({ name: `sphere-${10 * 4 ** l + 2}`, make: () => icosphere(l), orderings: l <= 5 ? ['natural', 'nd', 'amd'] : ['nd', 'amd'] });
@@ -71,11 +112,20 @@ function cases(): Case[] {
   return out;
 }
 
+function meshOf(s: Shape): IntrinsicMesh {
+  const { topology } = buildTopology(s.triangles, s.positions.length / 3);
+  return intrinsicFromPositions(topology, s.positions);
+}
+
 async function main(): Promise<void> {
   const only = process.env.BENCH_CASE;
+  const executor = orderingThreads > 0 ? new NodeOrderingExecutor({ threads: orderingThreads }) : null;
+  executor?.warm();
+  await executor?.ready();
   for (const c of cases()) {
     if (only && !c.name.includes(only)) continue;
-    const { A, ea, eb, elen } = heatSystem(c.make());
+    const made = c.make();
+    const { A, ea, eb, elen } = 'topology' in made ? heatSystemOf(made) : heatSystem(made);
     const n = A.n;
     const dj = await timeMedian(() => edgeDijkstra(n, ea, eb, elen, 0), n > 500_000 ? 3 : 5);
     emit({ bench: BENCH, case: c.name, metric: 'dijkstra', value: dj.ms, unit: 'ms', n });
@@ -83,7 +133,9 @@ async function main(): Promise<void> {
     const b = Float64Array.from({ length: n }, () => r() - 0.5);
     const x = new Float64Array(n);
     for (const ordering of c.orderings) {
+      const cpu0 = process.cpuUsage();
       const sym = analyzeCholesky(A, { ordering });
+      const cpu1 = process.cpuUsage(cpu0);
       const f = CholeskyFactor.factor(A, sym);
       const big = n > 500_000;
       const fac = await timeMedian(() => f.refactor(A), 3, 0);
@@ -94,7 +146,18 @@ async function main(): Promise<void> {
       const extra = { ordering, n };
       emit({ bench: BENCH, case: c.name, metric: 'ordering', value: sym.timing.orderingMs, unit: 'ms', ...extra });
       emit({ bench: BENCH, case: c.name, metric: 'symbolic', value: sym.timing.symbolicMs, unit: 'ms', ...extra });
+      emit({ bench: BENCH, case: c.name, metric: 'ordering+symbolic-cpu', value: (cpu1.user + cpu1.system) / 1000, unit: 'ms', ...extra });
       emit({ bench: BENCH, case: c.name, metric: 'nnzL', value: sym.nnzL, unit: 'entries', ...extra });
+      const fl = flopCounts(sym);
+      emit({ bench: BENCH, case: c.name, metric: 'flops', value: fl.flops / 1e9, unit: 'G', ...extra });
+      emit({ bench: BENCH, case: c.name, metric: 'denseFlops', value: fl.denseFlops / 1e9, unit: 'G', ...extra });
+      if (executor && ordering === 'nd') {
+        const symT = analyzeCholesky(A, { ordering, orderingExecutor: executor });
+        let same = symT.perm.length === sym.perm.length ? 1 : 0;
+        for (let k = 0; k < n && same; k++) if (symT.perm[k] !== sym.perm[k]) same = 0;
+        emit({ bench: BENCH, case: c.name, metric: 'ordering-threads', value: symT.timing.orderingMs, unit: 'ms', ...extra, threads: orderingThreads, sameOrder: same });
+        emit({ bench: BENCH, case: c.name, metric: 'symbolic-threads', value: symT.timing.symbolicMs, unit: 'ms', ...extra, threads: orderingThreads });
+      }
       emit({ bench: BENCH, case: c.name, metric: 'factor', value: fac.ms, unit: 'ms', ...extra });
       emit({ bench: BENCH, case: c.name, metric: 'solve', value: sol.ms, unit: 'ms', ...extra });
       emit({ bench: BENCH, case: c.name, metric: 'solve-bandwidth', value: (2 * bytesL) / (sol.ms * 1e6), unit: 'GB/s', ...extra });
