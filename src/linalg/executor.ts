@@ -5,9 +5,11 @@
  * Node entry (src/index.ts) reaches.
  *
  * Matrices that share one symbolic analysis are independent factorizations,
- * so they can run at the same time (the heat method's two or three). The
- * other thread runs the same multifrontal kernel on the same structure and
- * values, so its factor is bit-identical to the serial one.
+ * so they can run at the same time (the heat method's two or three), and so
+ * are disjoint subtrees of one factorization: with `join` the threads share
+ * the tasks of all of them (multifrontal-parallel.ts). Other threads run the
+ * same multifrontal kernel on the same structure and values, in the same
+ * order for every entry, so the factors are bit-identical to the serial ones.
  */
 import type { CholeskySymbolic } from './symbolic.js';
 import type { TaskRun } from './multifrontal-tasks.js';

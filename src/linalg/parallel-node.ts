@@ -5,6 +5,11 @@
  * copied once per analysis into SharedArrayBuffers, C's values and L's
  * blocks live in shared memory too, so a job message carries views only.
  *
+ * Two kinds of work: a task run (`join`: multifrontal-parallel.ts, how
+ * `CholeskyFactor.factorMany` uses it), where the workers run the same
+ * task loop as the caller over one plan, and whole factorizations (`start`,
+ * below; used for factorizations with pivot floors).
+ *
  * The caller waits synchronously (Atomics.wait; allowed on Node's main
  * thread), so `CholeskyFactor.factorMany` keeps a synchronous API. Each
  * job has four status words: state, failed column, heartbeat (the
