@@ -24,7 +24,7 @@ import { limitError } from '../src/errors.js';
 import { surfaceIntrinsic, type IntrinsicMesh } from '../src/api/metric.js';
 import type { Topology } from '../src/api/mesh.js';
 import { prepareExactGeometry, type ExactGeometry } from '../src/api/geodesic.js';
-import { NodeFactorExecutor } from '../src/api/node.js';
+import { NodeFactorExecutor, NodeOrderingExecutor } from '../src/api/node.js';
 import type { ProgressLine } from './progress.js';
 
 let factorExecutor: NodeFactorExecutor | null = null;
@@ -43,6 +43,22 @@ export function factorThreads(): NodeFactorExecutor {
     factorExecutor = Number.isInteger(n) && n >= 0 ? new NodeFactorExecutor({ threads: 1, minSize: n, steal: false }) : new NodeFactorExecutor({ threads: 1 });
   }
   return factorExecutor;
+}
+
+let orderingExecutor: NodeOrderingExecutor | null = null;
+
+/**
+ * The process's one executor for the heat method's nested dissection (one
+ * worker thread from ORDERING_THREADS_MIN_SIZE vertices; the same ordering
+ * as on one thread). Test-only: ORTHODROME_TEST_ORDERING_MIN_SIZE=N lowers
+ * that threshold to N and leaves every part to the worker.
+ */
+export function orderingThreads(): NodeOrderingExecutor {
+  if (!orderingExecutor) {
+    const n = Number(process.env.ORTHODROME_TEST_ORDERING_MIN_SIZE ?? NaN);
+    orderingExecutor = Number.isInteger(n) && n >= 0 ? new NodeOrderingExecutor({ threads: 1, minSize: n, callerOrders: false }) : new NodeOrderingExecutor({ threads: 1 });
+  }
+  return orderingExecutor;
 }
 
 /** Everything needed to prepare the same solver in any thread. */
@@ -189,6 +205,7 @@ export async function solveSets(
   delete opts.exactGeometry;
   delete opts.progress; // a function cannot cross to a worker; the line counts finished sets instead
   if (opts.heat?.factorExecutor) opts.heat = { ...opts.heat, factorExecutor: null }; // nor can an executor: each worker factors on its own thread
+  if (opts.heat?.orderingExecutor) opts.heat = { ...opts.heat, orderingExecutor: null }; // nor orders on other threads
   if (opts.memoryBudget !== undefined) opts.memoryBudget = Math.floor(opts.memoryBudget / n);
   let geometry: WorkerInit['geometry'] = null;
   if (spec.method === 'exact' && seams.length === 0) {

@@ -14,7 +14,7 @@ import {
 } from '../../src/index.js';
 import { TIME_SCALE_RANGE, checkHeatField } from '../../src/api/geodesic.js';
 import { usageError } from '../../src/errors.js';
-import { factorThreads, solveSets, type SolvedSets } from '../jobs.js';
+import { factorThreads, orderingThreads, solveSets, type SolvedSets } from '../jobs.js';
 import { ProgressLine } from '../progress.js';
 import { metricOption, metricToleranceOption, metricRepairOption, metricJson, metricLines, warnMetricMethod } from '../metric-option.js';
 import { heatCheckJson, warnHeatCheck } from '../heat-caution.js';
@@ -181,7 +181,7 @@ function solverOptions(o: DistanceCliOptions, run: RunOptions): DistanceOptions 
   if (run.maxDistance !== undefined) opts.maxDistance = run.maxDistance;
   if (o.method === 'heat') {
     // factorizations on worker threads from FACTOR_THREADS_MIN_SIZE unknowns (jobs.ts drops it for --jobs workers)
-    opts.heat = { intrinsicDelaunay: o.intrinsicDelaunay, mollify: o.mollify, refine: o.refine, factorExecutor: factorThreads() };
+    opts.heat = { intrinsicDelaunay: o.intrinsicDelaunay, mollify: o.mollify, refine: o.refine, factorExecutor: factorThreads(), orderingExecutor: orderingThreads() };
     if (run.timeScale !== undefined) opts.heat.timeScale = run.timeScale;
     if (o.heatBoundary) opts.heat.boundary = o.heatBoundary;
   }
@@ -205,6 +205,8 @@ async function solveAll(
     const solved = await solveSets({ surface, method: o.method, opts }, sets, { targets, fieldNeeded }, targets.flatMap((p) => resolver.copies(p)), run.jobs, line);
     // heat: how many factorizations ran on another thread (JSON `prepare.factorThreadJobs`)
     if (opts.heat?.factorExecutor) solved.prepareDetails = { ...solved.prepareDetails, factorThreadJobs: factorThreads().counts.remote };
+    // and how many parts of the nested dissection (JSON `prepare.orderingThreadJobs`)
+    if (opts.heat?.orderingExecutor) solved.prepareDetails = { ...solved.prepareDetails, orderingThreadJobs: orderingThreads().counts.remoteJobs };
     return solved;
   } finally {
     line.done();

@@ -13,7 +13,7 @@ import { checkOutput } from '../output.js';
 import { action, fmt, toJson } from '../run.js';
 import { TERRAIN_CAUTION } from '../cautions.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
-import { factorThreads } from '../jobs.js';
+import { factorThreads, orderingThreads } from '../jobs.js';
 import { boundarySources, measureDistances, pointLocator, surfaceIsolines, writeCurves, writeFileAtomic, type Band, type CurvePolygon, type DistanceMethod, type PointResolver, type SourceSet, type Surface } from '../../src/index.js';
 import { readPolylines, polylineSources, distanceScalarField, fieldFromCsv, vertexProperty, toTopologyVertices, DEFAULT_MAX_LEVELS, type ScalarField, type SurfaceCurve } from '../../src/curves/index.js';
 import { curveFormatOf, CURVE_FORMATS } from '../../src/api/io.js';
@@ -169,7 +169,7 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
   } else {
     resolver = await pointLocator(surface);
     const set = await sourceSet(mesh, surface, resolver, o);
-    const m = measureDistances(surface, set, { method: o.method, memoryBudget, ...(o.method === 'heat' ? { heat: { factorExecutor: factorThreads() } } : {}) });
+    const m = measureDistances(surface, set, { method: o.method, memoryBudget, ...(o.method === 'heat' ? { heat: { factorExecutor: factorThreads(), orderingExecutor: orderingThreads() } } : {}) });
     heatCheck = m.heatCheck;
     warnHeatCheck(heatCheck); // a suspect heat field: a caution on stderr, exit 0
     field = distanceScalarField(m, surface, set); // exact: every crossing, curves bent in faces (exact-level.ts)

@@ -10,7 +10,7 @@ import { heatCheckJson, warnHeatCheck } from '../heat-caution.js';
 import { action, fmt, toJson } from '../run.js';
 import { MACHINING_CAUTION, TERRAIN_CAUTION } from '../cautions.js';
 import { memoryBudgetBytes } from '../memory-budget.js';
-import { factorThreads } from '../jobs.js';
+import { factorThreads, orderingThreads } from '../jobs.js';
 import { pointLocator, surfaceOffset } from '../../src/index.js';
 import { usageError } from '../../src/errors.js';
 import {
@@ -51,7 +51,7 @@ async function runOffset(mesh: string, o: OffsetCliOptions): Promise<number> {
   const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance, metricRepair: o.metricRepair });
   warnMetricMethod(metric, o.method); // the heat method under a varying or rough metric: a caution on stderr
   const resolver = await pointLocator(surface);
-  const r = surfaceOffset(surface, await sourceSet(mesh, surface, resolver, o), D, { method: o.method, memoryBudget, ...(o.method === 'heat' ? { heat: { factorExecutor: factorThreads() } } : {}) });
+  const r = surfaceOffset(surface, await sourceSet(mesh, surface, resolver, o), D, { method: o.method, memoryBudget, ...(o.method === 'heat' ? { heat: { factorExecutor: factorThreads(), orderingExecutor: orderingThreads() } } : {}) });
   warnHeatCheck(r.measurement.heatCheck); // a suspect heat field: a caution on stderr, exit 0
   if (o.output) await writeCurveFile(o.output, r.curves, [], metric?.metric);
   const round = (x: number) => Math.round(x * 100) / 100;
