@@ -161,7 +161,10 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
     parent[k] = q === -1 ? -1 : newOf[q]!;
     colCount[k] = count0[post0[k]!]!;
   }
-  const post = postorder(parent, n);
+  // the relabelled tree is numbered in postorder (every subtree a range ending at its root), so
+  // 0, 1, …, n − 1 is its postorder, and the one postorder() gives (children by increasing index)
+  const post = new Int32Array(n);
+  for (let k = 0; k < n; k++) post[k] = k;
   const lColPtr = new Int32Array(n + 1);
   let total = 0;
   for (let k = 0; k < n; k++) {
