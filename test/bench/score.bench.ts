@@ -91,6 +91,12 @@ function meshOf(i: number, faces: number, r: () => number): Shape {
 }
 
 const count = quick() ? 40 : 200;
+/**
+ * `SCORE_METRICS=GROUPS` scores the folder with `--metrics GROUPS` instead of
+ * the default groups (e.g. `health,quality,curvature,diameter`: a pass with
+ * geodesic work per mesh, where start-up weighs less); both runs use it.
+ */
+const metricsArg = process.env.SCORE_METRICS ? ['--metrics', process.env.SCORE_METRICS] : [];
 const dir = mkdtempSync(join(tmpdir(), 'orthodrome-score-bench-'));
 try {
   const r = rng(12);
@@ -105,7 +111,7 @@ try {
     writeFileSync(join(dir, name), writePly({ positions: s.positions, faceIndices: s.triangles, faceOffsets: Uint32Array.from({ length: nf + 1 }, (_, f) => 3 * f) }));
     files.push(name);
   }
-  const extra = { meshes: count, faces_total: totalFaces, cli: built ? 'built' : 'source (tsx)' };
+  const extra = { meshes: count, faces_total: totalFaces, cli: built ? 'built' : 'source (tsx)', metrics: process.env.SCORE_METRICS ?? 'default' };
   const rate = (n: number, ms: number) => (1000 * n) / ms;
 
   const reps = quick() ? 1 : 5;
@@ -116,7 +122,7 @@ try {
     for (const jobs of rep % 2 ? [2, 1] : [1, 2]) {
       const out = `jobs${jobs}.csv`;
       loads.push(loadavg()[0]!);
-      const x = cli(['score', '.', '--jobs', String(jobs), '--quiet', '-o', out], dir);
+      const x = cli(['score', '.', '--jobs', String(jobs), '--quiet', ...metricsArg, '-o', out], dir);
       if (x.code !== 0) throw new Error(`score --jobs ${jobs} exited ${x.code}: ${x.stderr.split('\n')[0]}`);
       timed[`jobs${jobs}`]!.push({ ms: x.ms, cpuS: x.cpuS, otherS: x.otherS });
     }
@@ -150,7 +156,7 @@ try {
   const subset = files.filter((_, i) => i % 10 === 0);
   let ms = 0;
   for (const f of subset) {
-    const x = cli(['score', f, '--jobs', '1', '--quiet'], dir);
+    const x = cli(['score', f, '--jobs', '1', '--quiet', ...metricsArg], dir);
     if (x.code !== 0) throw new Error(`score ${f} exited ${x.code}: ${x.stderr.split('\n')[0]}`);
     ms += x.ms;
   }
