@@ -21,6 +21,20 @@
  * attaching the metric (quadrature-free: reading the CSV, counting, repair).
  * `--quick` runs 40 × 40 cells only; the full run adds 80 and 299 (the
  * issue's 178,802 faces).
+ *
+ * Why heat is off after `shorten` (issue 14; figures per case, metric
+ * `triangulation`): `nearFlatFaces` (largest angle within 0.01 rad of π)
+ * before and after the intrinsic Delaunay flips (Bobenko & Springborn 2007;
+ * src/metric/delaunay.ts: a face with an angle near π makes the edge opposite
+ * it non-Delaunay, so the flips remove it unless that edge is on the
+ * boundary), the flips made and skipped, the interior edges left
+ * non-Delaunay, and `meanAbsAngleDefect`, the mean |2π − angle sum| over
+ * interior vertices (src/metric/curvature.ts): how far the lengths are from
+ * a smooth surface at the scale of the edges (on a smooth surface it shrinks
+ * like h²). And for 40 and 80 cells, metric `refinedHeat*`: heat on the same
+ * repaired polyhedron, its triangulation refined intrinsically (Rivara
+ * bisection to a quarter of the mean edge, metric/refine.ts, then flips) with
+ * time scale 0.25: whether heat converges on that polyhedron at all.
  */
 import { emit, quick } from './harness.js';
 import { openSurface, measureDistances, travelField } from '../../src/index.js';
@@ -29,8 +43,44 @@ import { meshFromTriangles } from '../../src/io/mesh-data.js';
 import { lengthsFromCsv } from '../../src/metric/user/lengths-file.js';
 import { prepareDistance } from '../../src/geodesic/solver.js';
 import { walkingTerrain, walkingTimeCsv } from '../fixtures/walking-time.js';
+import { surfaceIntrinsic } from '../../src/metric/user/surface-metric.js';
+import { intrinsicDelaunay, edgeCotanSum } from '../../src/metric/delaunay.js';
+import { cornerAngles } from '../../src/metric/triangle.js';
+import { gaussianCurvature } from '../../src/metric/curvature.js';
+import { refineLongEdges } from '../../src/metric/refine.js';
+import { HeatSolver } from '../../src/geodesic/heat.js';
+import type { IntrinsicMesh } from '../../src/metric/intrinsic.js';
 
 const BENCH = 'metric-accuracy';
+
+/** Faces whose largest angle lies within 0.01 rad of π, and how many of them have a boundary side. */
+function nearFlat(m: IntrinsicMesh): { faces: number; onBoundary: number } {
+  const t = m.topology, ang = cornerAngles(m);
+  let faces = 0, onBoundary = 0;
+  for (let f = 0; f < t.nf; f++) {
+    if (Math.PI - Math.max(ang[3 * f]!, ang[3 * f + 1]!, ang[3 * f + 2]!) >= 0.01) continue;
+    faces++;
+    if (t.twin[3 * f]! < 0 || t.twin[3 * f + 1]! < 0 || t.twin[3 * f + 2]! < 0) onBoundary++;
+  }
+  return { faces, onBoundary };
+}
+
+/** The figures of the module comment's `triangulation` record. */
+function triangulationFigures(m: IntrinsicMesh): Record<string, number> {
+  const before = nearFlat(m);
+  const d = intrinsicDelaunay(m);
+  const after = nearFlat(d.mesh);
+  const t = d.mesh.topology;
+  let nonDelaunay = 0;
+  for (let e = 0; e < t.ne; e++) if (edgeCotanSum(t, d.mesh.edgeLength, t.edgeHalfedge[e]!) < -1e-9) nonDelaunay++;
+  const c = gaussianCurvature(m);
+  let sum = 0, cnt = 0;
+  for (let v = 0; v < t.nv; v++) if (!c.boundary[v]) { sum += Math.abs(c.angleDefect[v]!); cnt++; }
+  return {
+    nearFlatFaces: before.faces, nearFlatAfterFlips: after.faces, nearFlatAfterFlipsOnBoundary: after.onBoundary,
+    flips: d.flips, flipsSkipped: d.skipped, nonDelaunayAfterFlips: nonDelaunay, meanAbsAngleDefect: sum / cnt,
+  };
+}
 
 for (const n of quick() ? [40] : [40, 80, 299]) {
   const source = Math.round(n / 4) * (n + 1) + Math.round(n / 4);
@@ -72,6 +122,22 @@ for (const n of quick() ? [40] : [40, 80, 299]) {
       emit({ bench: BENCH, case: name, metric: 'meanRelError', value: sum / cnt, unit: 'ratio', ...extra });
       emit({ bench: BENCH, case: name, metric: 'maxRelError', value: max, unit: 'ratio', ...extra });
       if (rep) emit({ bench: BENCH, case: name, metric: 'repairCpuMs', value: (cpu.user + cpu.system) / 1000, unit: 'ms', ...extra });
+      const mesh = surfaceIntrinsic(s);
+      emit({ bench: BENCH, case: name, metric: 'triangulation', value: 0, unit: 'figures', ...triangulationFigures(mesh), ...extra });
+      if (n <= 80 && relief === 1 && lengths !== 'mollify') {
+        const fine = refineLongEdges(intrinsicDelaunay(mesh).mesh, 0.25 * meanEdgeLength(mesh), 1e8);
+        const refined = HeatSolver.prepare(intrinsicDelaunay(fine.mesh).mesh, { timeScale: 0.25 }).distance(from).distance;
+        let rs = 0, rc = 0, rm = 0;
+        for (let v = 0; v < exact.length; v++) {
+          if (!(exact[v]! >= 2 * h && exact[v]! < Infinity)) continue;
+          const e = Math.abs(refined[v]! - exact[v]!) / exact[v]!;
+          rs += e; rc++;
+          if (e > rm) rm = e;
+        }
+        const more = { refinedFaces: fine.mesh.topology.nf, refineTo: 0.25, timeScale: 0.25, ...extra };
+        emit({ bench: BENCH, case: name, metric: 'refinedHeatMeanRelError', value: rs / rc, unit: 'ratio', ...more });
+        emit({ bench: BENCH, case: name, metric: 'refinedHeatMaxRelError', value: rm, unit: 'ratio', ...more });
+      }
       if (rep && relief === 1) {
         emit({ bench: BENCH, case: name, metric: 'farCorner', value: exact[corner]!, unit: 'min', heatFarCorner: heat[corner]!, travelCorner, chainCorner, ...extra });
       }
