@@ -243,6 +243,8 @@ describe("repair 'shorten' on the walking times", () => {
     expect(worst).toBeLessThan(0.35); // 26% (measured)
     expect(Math.abs(heat[corner]! / exact[corner]! - 1)).toBeLessThan(0.05); // 16.27 against 16.05 (measured)
     expect(metricCautions(rep, 'heat').map((c) => c.kind)).toEqual(['repair', 'rough']);
+    // the cause (the test above) is not fixed by refining the input: 7.8% at 12,800 faces, 10% at 178,802 (metric-accuracy bench)
+    expect(metricCautions(rep, 'heat')[1]!.message).toMatch(/needed a large repair: too rough for the heat method on this mesh .*; use --method exact \(refining the mesh does not help: the shortened lengths put cone points at the vertices at every resolution\)$/);
     expect(metricCautions(rep)[0]!.message).toMatch(/shortened 1117 of 4880 edges to the shortest path along edges \(by up to 88%\) and added [\d.e-]+ to every edge/);
   });
 });

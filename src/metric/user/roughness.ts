@@ -53,8 +53,21 @@
  *    178,802 faces, against `travel`'s 15.7, 15.9, 16.0 and 24–25 along the
  *    user's own edges), but leaves a third of the faces flat (a shortened
  *    edge equals the sum of the other two: 35% at 3200 and 12,800 faces),
- *    which carry no heat: heat was 4.6, 7.8, 10% mean and 26, 20, 43% worst
- *    from exact, worse under refinement (test/bench/metric-accuracy.bench.ts).
+ *    and heat was 4.6, 7.8, 10% mean and 26, 20, 43% worst from exact,
+ *    worse under refinement (test/bench/metric-accuracy.bench.ts). The flat
+ *    faces are not the cause: the heat method's intrinsic Delaunay flips
+ *    remove them (an angle near π makes the edge opposite it non-Delaunay;
+ *    at 3200 faces 1114 were within 0.01 rad of flat before the flips, 38
+ *    after, 25 of those against the boundary; 3310 flips, 6 skipped). The
+ *    cause is the curvature the shortened lengths put at the vertices: a
+ *    mean |angle defect| of 0.70 rad at interior vertices (0.75 at 12,800
+ *    faces; the terrain's own geometry 0.0099, gentle walking times 0.057),
+ *    cones at every vertex at every resolution, as in point 2 above; heat
+ *    smooths over √t = h, the spacing of the cones. Refining that same
+ *    polyhedron's triangulation (to a quarter of the mean edge, 11× the
+ *    faces, time scale 0.25) brings heat to 1.2% mean at 3200 faces but
+ *    2.6% at 12,800, worst 19–32%: it converges, slowly and at many times
+ *    the cost, and refining the input does not help (test/metric/user-repair.test.ts).
  *
  * Hence two levels of caution for the heat method. A metric that is not
  * constant gets the general one (its accuracy table is for lengths of the
@@ -142,9 +155,13 @@ export function metricCautions(r: MetricReport, method?: string): MetricCaution[
     const why = share > ROUGH_EDGE_SHARE
       ? `changes by more than ${ROUGH_SPEED_RATIO}× along ${pct(100 * share)}% of the edges (up to ${r.largestSpeedRatio!.toPrecision(3)}×)`
       : 'needed a large repair';
+    // shortened lengths put cones at the vertices at every resolution (point 3 above): refining the mesh does not help
+    const advice = share <= ROUGH_EDGE_SHARE && r.edgesShortened > 0
+      ? 'use --method exact (refining the mesh does not help: the shortened lengths put cone points at the vertices at every resolution)'
+      : 'use --method exact, or refine the mesh until the metric changes little along an edge';
     out.push({
       kind: 'rough',
-      message: `the metric ${r.metric} ${why}: too rough for the heat method on this mesh (4–50% mean error against the exact method in tests); use --method exact, or refine the mesh until the metric changes little along an edge`,
+      message: `the metric ${r.metric} ${why}: too rough for the heat method on this mesh (4–50% mean error against the exact method in tests); ${advice}`,
     });
   } else {
     out.push({
