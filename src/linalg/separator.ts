@@ -95,7 +95,7 @@ export function bestCuts(
   for (let x = 0; x < m; x++) {
     const ka = keyA[x]!, kb = keyB[x]!, kcx = keyC[x]!, kd = keyD[x]!;
     let mxa = ka, mna = ka, mxb = kb, mnb = kb, mxc = kcx, mnc = kcx, mxd = kd, mnd = kd;
-    for (let p = xadj[x]!; p < xadj[x + 1]!; p++) {
+    for (let p = xadj[x]!, p1 = xadj[x + 1]!; p < p1; p++) {
       const y = adj[p]!;
       const ya = keyA[y]!, yb = keyB[y]!, yc = keyC[y]!, yd = keyD[y]!;
       if (ya > mxa) mxa = ya;
@@ -204,7 +204,7 @@ export function thinSeparator(ctx: SeparatorContext, out: Int32Array, m: number,
   for (let q = na + nb; q < m; q++) {
     const x = out[q]!;
     let hasA = false, hasB = false;
-    for (let p = xadj[x]!; p < xadj[x + 1]!; p++) {
+    for (let p = xadj[x]!, p1 = xadj[x + 1]!; p < p1; p++) {
       const y = adj[p]!;
       const sy = side[y]!;
       if (sy === 0) hasA = true;
@@ -253,7 +253,7 @@ export function refineSeparator(
       const x = list[h]!;
       if (side[x] !== 2 || moved[x] === st) continue;
       let cA = 0, cB = 0, lockA = false, lockB = false;
-      for (let p = xadj[x]!; p < xadj[x + 1]!; p++) {
+      for (let p = xadj[x]!, p1 = xadj[x + 1]!; p < p1; p++) {
         const y = adj[p]!;
           const sy = side[y]!;
         if (sy === 0) {
@@ -286,7 +286,7 @@ export function refineSeparator(
       side[x] = best;
       moved[x] = st;
       size[best]!++;
-      for (let p = xadj[x]!; p < xadj[x + 1]!; p++) {
+      for (let p = xadj[x]!, p1 = xadj[x + 1]!; p < p1; p++) {
         const y = adj[p]!;
         if (side[y] === Q) {
           side[y] = 2;
