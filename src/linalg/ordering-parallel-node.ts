@@ -42,11 +42,13 @@ export interface NodeOrderingExecutorOptions {
 }
 
 /**
- * Default size threshold: below ~200k vertices the whole dissection takes
- * well under a second and a worker's start-up eats most of the gain (as for
- * the factorization threads, parallel-node.ts).
+ * Default size threshold. Measured with the worker loaded (the heat method
+ * starts it before its remesh): 100k-vertex flipped terrain, ordering +
+ * analysis 321–397 ms on one thread, 257–274 ms with one worker; 1M: about
+ * 5.4 s and 3.4 s. Below ~100k the gain is tens of milliseconds and a
+ * worker that is still loading gets no part anyway.
  */
-export const DEFAULT_ORDERING_MIN_SIZE = 200_000;
+export const DEFAULT_ORDERING_MIN_SIZE = 100_000;
 
 /** Nested dissection parts on worker threads; see the module comment. */
 export class NodeOrderingExecutor implements OrderingExecutor {
