@@ -49,7 +49,7 @@ let orderingExecutor: NodeOrderingExecutor | null = null;
 
 /**
  * The process's one executor for the heat method's nested dissection (one
- * worker thread from ORDERING_THREADS_MIN_SIZE = 100k vertices; the same ordering
+ * worker thread from ORDERING_THREADS_MIN_SIZE = 200k vertices; the same ordering
  * as on one thread). Test-only: ORTHODROME_TEST_ORDERING_MIN_SIZE=N lowers
  * that threshold to N and leaves every part to the worker.
  */

@@ -42,13 +42,14 @@ export interface NodeOrderingExecutorOptions {
 }
 
 /**
- * Default size threshold. Measured with the worker loaded (the heat method
- * starts it before its remesh): 100k-vertex flipped terrain, ordering +
- * analysis 321–397 ms on one thread, 257–274 ms with one worker; 1M: about
- * 5.4 s and 3.4 s. Below ~100k the gain is tens of milliseconds and a
- * worker that is still loading gets no part anyway.
+ * Default size threshold. With a warm worker, ordering + analysis of the
+ * 100k-vertex flipped terrain took 321–397 ms on one thread and 257–274 ms
+ * with one worker, but in the heat benchmark's single cold run from source
+ * (the worker still loading and compiling during the ordering) 633–1024 ms
+ * against 560–574 ms alone; at 1M 3.9 s against 5.2–5.5 s. So threads from
+ * 200k vertices only.
  */
-export const DEFAULT_ORDERING_MIN_SIZE = 100_000;
+export const DEFAULT_ORDERING_MIN_SIZE = 200_000;
 
 /** Nested dissection parts on worker threads; see the module comment. */
 export class NodeOrderingExecutor implements OrderingExecutor {

@@ -13,6 +13,8 @@
  * threads, linalg/parallel-node.ts, of which cores − 1 join the task run of
  * multifrontal-parallel.ts; default 0: all on this thread, as in earlier runs);
  * `prepare.threadCpuMs` is the CPU time of each busy thread during preparation (Linux);
+ * `--ordering-threads=N` orders the nested dissection's parts on N worker threads as well
+ * (NodeOrderingExecutor, linalg/ordering-parallel-node.ts; the same ordering; default 0);
  * `HEAT_CASE=terrain-1000` runs the cases whose name contains the text.
  * `prepare` counts the remesh too; `ordering+symbolic` + `factorization` is
  * the issue's "preparation" (its ratio: `orderingPlusFactorRatio`).
@@ -24,6 +26,7 @@ import { HeatSolver, type HeatOptions } from '../../src/geodesic/heat.js';
 import type { Shape } from '../fixtures/shapes.js';
 import { jitteredTerrain, bumpySphere } from './meshes.js';
 import { NodeFactorExecutor } from '../../src/linalg/parallel-node.js';
+import { NodeOrderingExecutor } from '../../src/linalg/ordering-parallel-node.js';
 import { readdirSync, readFileSync } from 'node:fs';
 
 /**
@@ -58,6 +61,7 @@ function busyThreads(a: Map<number, number>, b: Map<number, number>): Record<str
 }
 
 const factorThreads = Number(process.argv.find((a) => a.startsWith('--factor-threads='))?.slice(17) ?? 0);
+const orderingThreads = Number(process.argv.find((a) => a.startsWith('--ordering-threads='))?.slice(19) ?? 0);
 
 const BENCH = 'heat';
 
@@ -78,14 +82,16 @@ async function runCase(name: string, make: () => Shape, opts: HeatOptions): Prom
   const dijkstra = await timeEdgeDijkstra(mesh, centre, runs);
 
   const executor = factorThreads > 0 ? new NodeFactorExecutor({ threads: factorThreads }) : null;
+  const orderingExecutor = orderingThreads > 0 ? new NodeOrderingExecutor({ threads: orderingThreads }) : null;
   const cpu0 = threadCpu();
   const t0 = performance.now();
   // prepare starts the executor's workers itself when the mesh is above its threshold (they load during the remesh)
-  const solver = HeatSolver.prepare(mesh, { ...opts, factorExecutor: executor });
+  const solver = HeatSolver.prepare(mesh, { ...opts, factorExecutor: executor, orderingExecutor });
   const prepareMs = performance.now() - t0;
   const prepareCpu = busyThreads(cpu0, threadCpu());
   const counts = executor ? { ...executor.counts } : null;
   await executor?.close();
+  await orderingExecutor?.close();
   const st = solver.stats;
   // typical source (centre: every vertex within ~700 rings, one heat stage), and
   // varied sources (corners and boundary points; may need relay stages on the largest meshes)
@@ -111,7 +117,7 @@ async function runCase(name: string, make: () => Shape, opts: HeatOptions): Prom
   rec('dijkstra', dijkstra.ms, 'ms');
   rec('prepare', prepareMs, 'ms', { ratioToDijkstra: prepareMs / dijkstra.ms, threadCpuMs: prepareCpu });
   rec('remesh', st.remeshMs, 'ms', { flips: st.flips, mollifyEpsilon: st.mollifyEpsilon });
-  rec('ordering+symbolic', st.analysisMs, 'ms', { ordering: st.ordering });
+  rec('ordering+symbolic', st.analysisMs, 'ms', { ordering: st.ordering, orderingThreads });
   rec('factorization', st.factorMs, 'ms', {
     factorizations: st.factorizations, ratioToDijkstra: st.factorMs / dijkstra.ms, factorThreads, threadJobs: counts,
     orderingPlusFactorRatio: (st.analysisMs + st.factorMs) / dijkstra.ms,
