@@ -108,3 +108,15 @@ export function isPermutation(p: Int32Array, n: number): boolean {
   }
   return true;
 }
+
+/** A with the rows and columns of `fixed` replaced by identity rows (Dirichlet rows: the heat pair's second matrix). */
+export function withIdentityRows(A: CscMatrix, fixed: (v: number) => boolean): CscMatrix {
+  const values = A.values.slice();
+  for (let j = 0; j < A.n; j++) {
+    for (let p = A.colPtr[j]!; p < A.colPtr[j + 1]!; p++) {
+      const i = A.rowIdx[p]!;
+      if (fixed(i) || fixed(j)) values[p] = i === j ? 1 : 0;
+    }
+  }
+  return { ...A, values };
+}

@@ -10,26 +10,13 @@
  */
 import { describe, expect, it } from 'vitest';
 import { analyzeCholesky, CholeskyFactor } from '../../src/linalg/index.js';
-import type { CscMatrix } from '../../src/linalg/index.js';
 import { scatterValues } from '../../src/linalg/symbolic.js';
 import { affectedBlocks } from '../../src/linalg/multifrontal-pair.js';
 import { planFactorTasks, TASK_NODE, TASK_SUB, type PlanGroup } from '../../src/linalg/multifrontal-plan.js';
 import { C_WORDS, runFactorTask, runFactorTasks, taskWorkspace, type TaskRun } from '../../src/linalg/multifrontal-tasks.js';
 import { blocksToCsc } from '../../src/linalg/supernodes.js';
 import { rng } from '../fixtures/shapes.js';
-import { gridLaplacianLower } from './helpers.js';
-
-/** A with identity rows and columns at `fixed` (Dirichlet rows; the pair's second matrix). */
-function withIdentityRows(A: CscMatrix, fixed: (v: number) => boolean): CscMatrix {
-  const values = A.values.slice();
-  for (let j = 0; j < A.n; j++) {
-    for (let p = A.colPtr[j]!; p < A.colPtr[j + 1]!; p++) {
-      const i = A.rowIdx[p]!;
-      if (fixed(i) || fixed(j)) values[p] = i === j ? 1 : 0;
-    }
-  }
-  return { ...A, values };
-}
+import { gridLaplacianLower, withIdentityRows } from './helpers.js';
 
 function sameBits(a: Float64Array, b: Float64Array): boolean {
   if (a.length !== b.length) return false;

@@ -10,7 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { analyzeCholesky, CholeskyFactor } from '../../src/linalg/index.js';
 import type { CscMatrix } from '../../src/linalg/index.js';
 import { NodeFactorExecutor } from '../../src/linalg/parallel-node.js';
-import { gridLaplacianLower } from './helpers.js';
+import { gridLaplacianLower, withIdentityRows } from './helpers.js';
 
 // no taking back: every job other than the first runs on a worker, whatever the machine's load
 const executor = new NodeFactorExecutor({ minSize: 0, threads: 2, steal: false });
@@ -98,18 +98,6 @@ describe('factorizations on worker threads', () => {
     expect(sameBits(xp, xs)).toBe(true);
   });
 });
-
-/** A with the rows and columns of `fixed` replaced by identity rows (Dirichlet rows). */
-function withIdentityRows(A: CscMatrix, fixed: (v: number) => boolean): CscMatrix {
-  const values = A.values.slice();
-  for (let j = 0; j < A.n; j++) {
-    for (let p = A.colPtr[j]!; p < A.colPtr[j + 1]!; p++) {
-      const i = A.rowIdx[p]!;
-      if (fixed(i) || fixed(j)) values[p] = i === j ? 1 : 0;
-    }
-  }
-  return { ...A, values };
-}
 
 describe('a pair of factorizations sharing blocks (factorPair)', () => {
   const nx = 50;
