@@ -42,43 +42,26 @@ import { attachMetric, parseMetricSpec, meanEdgeLength, intrinsicFromPositions, 
 import { meshFromTriangles } from '../../src/io/mesh-data.js';
 import { lengthsFromCsv } from '../../src/metric/user/lengths-file.js';
 import { prepareDistance } from '../../src/geodesic/solver.js';
-import { walkingTerrain, walkingTimeCsv } from '../fixtures/walking-time.js';
+import { walkingTerrain, walkingTimeCsv, nearFlatFaces, meanAbsAngleDefect } from '../fixtures/walking-time.js';
 import { surfaceIntrinsic } from '../../src/metric/user/surface-metric.js';
 import { intrinsicDelaunay, edgeCotanSum } from '../../src/metric/delaunay.js';
-import { cornerAngles } from '../../src/metric/triangle.js';
-import { gaussianCurvature } from '../../src/metric/curvature.js';
 import { refineLongEdges } from '../../src/metric/refine.js';
 import { HeatSolver } from '../../src/geodesic/heat.js';
 import type { IntrinsicMesh } from '../../src/metric/intrinsic.js';
 
 const BENCH = 'metric-accuracy';
 
-/** Faces whose largest angle lies within 0.01 rad of π, and how many of them have a boundary side. */
-function nearFlat(m: IntrinsicMesh): { faces: number; onBoundary: number } {
-  const t = m.topology, ang = cornerAngles(m);
-  let faces = 0, onBoundary = 0;
-  for (let f = 0; f < t.nf; f++) {
-    if (Math.PI - Math.max(ang[3 * f]!, ang[3 * f + 1]!, ang[3 * f + 2]!) >= 0.01) continue;
-    faces++;
-    if (t.twin[3 * f]! < 0 || t.twin[3 * f + 1]! < 0 || t.twin[3 * f + 2]! < 0) onBoundary++;
-  }
-  return { faces, onBoundary };
-}
-
 /** The figures of the module comment's `triangulation` record. */
 function triangulationFigures(m: IntrinsicMesh): Record<string, number> {
-  const before = nearFlat(m);
+  const before = nearFlatFaces(m);
   const d = intrinsicDelaunay(m);
-  const after = nearFlat(d.mesh);
+  const after = nearFlatFaces(d.mesh);
   const t = d.mesh.topology;
   let nonDelaunay = 0;
   for (let e = 0; e < t.ne; e++) if (edgeCotanSum(t, d.mesh.edgeLength, t.edgeHalfedge[e]!) < -1e-9) nonDelaunay++;
-  const c = gaussianCurvature(m);
-  let sum = 0, cnt = 0;
-  for (let v = 0; v < t.nv; v++) if (!c.boundary[v]) { sum += Math.abs(c.angleDefect[v]!); cnt++; }
   return {
     nearFlatFaces: before.faces, nearFlatAfterFlips: after.faces, nearFlatAfterFlipsOnBoundary: after.onBoundary,
-    flips: d.flips, flipsSkipped: d.skipped, nonDelaunayAfterFlips: nonDelaunay, meanAbsAngleDefect: sum / cnt,
+    flips: d.flips, flipsSkipped: d.skipped, nonDelaunayAfterFlips: nonDelaunay, meanAbsAngleDefect: meanAbsAngleDefect(m),
   };
 }
 
