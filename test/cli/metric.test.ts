@@ -82,7 +82,7 @@ describe('--metric', () => {
     expect(j.metric).toBe(`lengths:${join(dir, 'len.csv')}`);
     // the repair changed an edge by far more than 1%: results are not those of the lengths given (src/metric/user/roughness.ts)
     // ε ≈ 9 against a mean edge of about 0.6: the caution says distances are mostly a count of edges
-    expect(r.stderr).toMatch(/^orthodrome: caution: the repair of the metric lengths:.* changed edge lengths by up to [\d.]+% \(it added [\d.]+ to every edge, [\d.]+× the mean edge length: distances are mostly a count of the edges crossed\): results are those of the repaired lengths, not of the metric; refine the mesh or smooth the metric\n$/);
+    expect(r.stderr).toMatch(/^orthodrome: caution: the repair of the metric lengths:.* changed edge lengths by up to [\d.]+% \(it added [\d.]+ to every edge, [\d.]+× the mean edge length: distances are mostly a count of the edges crossed\): results are those of the repaired lengths, not of the metric; smooth the metric or refine the mesh \(lengths that break the inequality at every scale, such as walking times on steep ground, do not improve: --metric-repair shorten\)\n$/);
   });
   it('--method heat under a metric too rough for the mesh (a cost of 1 or 8 at random per vertex) says so on stderr, one line per caution, and still answers (exit 0)', () => {
     const m = 12, r0 = rng(7), V: string[] = [], F: string[] = [];
@@ -93,6 +93,11 @@ describe('--metric', () => {
       `element face ${F.length}`, 'property list uchar int vertex_indices', 'end_header', ...V, ...F].join('\n') + '\n';
     writeFileSync(join(dir, 'rough.ply'), ply);
     const args = ['distance', join(dir, 'rough.ply'), '--from', 'v:0', '--to', `v:${V.length - 1}`, '--metric', 'field:cost', '--metric-repair', 'mollify', '--json']; // ε 0.66× the mean edge: auto would refuse
+    // without --metric-repair, auto refuses: exit 2, one line naming the mesh file and the metric
+    const refused = runCli(args.filter((a, i) => a !== '--metric-repair' && args[i - 1] !== '--metric-repair'));
+    expect(refused.code).toBe(2);
+    expect(refused.stdout).toBe('');
+    expect(refused.stderr).toMatch(new RegExp(`^orthodrome: ${join(dir, 'rough.ply').replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}: under the metric field:cost, \\d+ of 288 faces break the triangle inequality; .*--metric-repair mollify.*\\n$`));
     const heat = runCli([...args, '--method', 'heat']);
     expect(heat.code, heat.stderr).toBe(0);
     const lines = heat.stderr.trim().split('\n');

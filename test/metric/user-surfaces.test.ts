@@ -111,7 +111,7 @@ describe('a metric that breaks the triangle inequality', () => {
     const n = 30, r = rng(7);
     const lambda = new Float64Array((n + 1) ** 2).map(() => (r() < 0.3 ? 8 : 1));
     const s = plane(n, 0, 0, 1, 1, [{ name: 'cost', values: lambda }]);
-    expect(() => attachMetric(plane(n, 0, 0, 1, 1, [{ name: 'cost', values: lambda }]), parseMetricSpec('field:cost'))).toThrow(/field:cost: 654 of 1800 faces break the triangle inequality/); // auto refuses (ε 0.70× the mean edge)
+    expect(() => attachMetric(plane(n, 0, 0, 1, 1, [{ name: 'cost', values: lambda }]), parseMetricSpec('field:cost'))).toThrow(/under the metric field:cost, 654 of 1800 faces break the triangle inequality/); // auto refuses (ε 0.70× the mean edge)
     const rep = attachMetric(s, parseMetricSpec('field:cost'), { repair: 'mollify' });
     expect(rep.triangleInequalityViolations).toBeGreaterThan(300); // 654 of 1800 faces (measured)
     expect(rep.mollifyEpsilon).toBeGreaterThan(0);

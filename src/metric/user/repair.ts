@@ -65,10 +65,11 @@ const num = (x: number) => (x >= 1000 ? x.toFixed(0) : x.toPrecision(3));
 
 /**
  * Repairs `raw` under `mode` (mollification margin δ = `relativeDelta` × the
- * mean edge). `where` and `label` name the metric in the refusal of `auto`
- * (the file of a `lengths:` metric, else the spec).
+ * mean edge). The refusal of `auto` names `where`, the file (the lengths
+ * file of a `lengths:` metric, else the mesh), and `label`, the metric's spec,
+ * when given (a metric that is not a file of its own).
  */
-export function repairLengths(raw: IntrinsicMesh, mode: MetricRepair, relativeDelta: number, where: string): Repaired {
+export function repairLengths(raw: IntrinsicMesh, mode: MetricRepair, relativeDelta: number, where: string, label?: string): Repaired {
   const violations = triangleInequalityViolations(raw);
   const meanBefore = meanEdgeLength(raw);
   let base = raw, edgesShortened = 0, largestShortening = 0;
@@ -84,7 +85,7 @@ export function repairLengths(raw: IntrinsicMesh, mode: MetricRepair, relativeDe
     const nf = raw.topology.nf, k = m.epsilon / meanBefore;
     const effect = k >= 1 ? 'distances would be mostly a count of the edges crossed' : `distances would grow by about ${Math.round(100 * k)}%`;
     throw inputError(
-      `${violations} of ${nf} faces break the triangle inequality; mollification would add ${num(m.epsilon)} to every edge, ` +
+      `${label ? `under the metric ${label}, ` : ''}${violations} of ${nf} faces break the triangle inequality; mollification would add ${num(m.epsilon)} to every edge, ` +
         `${num(k)}× the mean edge length (more than the ${100 * AUTO_REPAIR_LIMIT}% repair 'auto' accepts), ` +
         `so ${effect}. Shorten the long edges to the shortest path along edges ` +
         `(repair 'shorten', --metric-repair shorten), or accept the change (--metric-repair mollify); for walking times use the travel command`,

@@ -146,7 +146,7 @@ export function metricCautions(r: MetricReport, method?: string): MetricCaution[
       message: r.edgesShortened > 0
         // shorten: lengths only came down to the shortest path along edges, then a margin ε
         ? `the repair of the metric ${r.metric} shortened ${r.edgesShortened} of ${r.edges} edges to the shortest path along edges (by up to ${pct(100 * r.largestShortening)}%) and added ${r.mollifyEpsilon < 1e-3 ? r.mollifyEpsilon.toExponential(2) : num(r.mollifyEpsilon)} to every edge: results are those of the repaired lengths, at most the metric's cost along any chain of edges (plus that margin per edge)`
-        : `the repair of the metric ${r.metric} changed edge lengths by up to ${pct(100 * r.largestRelativeChange)}%${most}: results are those of the repaired lengths, not of the metric; refine the mesh or smooth the metric`,
+        : `the repair of the metric ${r.metric} changed edge lengths by up to ${pct(100 * r.largestRelativeChange)}%${most}: results are those of the repaired lengths, not of the metric; smooth the metric or refine the mesh (lengths that break the inequality at every scale, such as walking times on steep ground, do not improve: --metric-repair shorten)`,
     });
   }
   if (method !== 'heat' || isConstantMetric(r)) return out;

@@ -114,7 +114,8 @@ export interface AppliedMetric {
  * The edge lengths of `s` under `metric`, checked (positive definiteness where
  * evaluated: `INPUT` naming the point and edge) and repaired (triangle
  * inequality: `opts.repair`; under `auto`, a repair that would add more than
- * 5% of the mean edge is an `INPUT` error naming the metric file or spec).
+ * 5% of the mean edge is an `INPUT` error naming the lengths file, or the mesh
+ * and the metric's spec).
  * Does not attach them to `s` ({@link attachMetric}).
  */
 export function metricLengths(s: MetricTarget, metric: UserMetric, opts: MetricLengthOptions = {}): AppliedMetric {
@@ -136,7 +137,9 @@ export function metricLengths(s: MetricTarget, metric: UserMetric, opts: MetricL
     quad = { ...q, roughEdgeShare: t.ne ? roughEdges / t.ne : 0 };
   }
   const raw: IntrinsicMesh = { topology: t, edgeLength: lengths };
-  const m = repairLengths(raw, mode, opts.mollifyDelta ?? DEFAULT_MOLLIFY_DELTA, metric.kind === 'lengths' ? metric.file : metric.label);
+  const m = metric.kind === 'lengths'
+    ? repairLengths(raw, mode, opts.mollifyDelta ?? DEFAULT_MOLLIFY_DELTA, metric.file)
+    : repairLengths(raw, mode, opts.mollifyDelta ?? DEFAULT_MOLLIFY_DELTA, s.data.name, metric.label);
   const report: MetricReport = {
     metric: metric.label,
     kind: metric.kind,
