@@ -32,7 +32,9 @@
  *
  * The Poisson step pins one vertex per connected component (heat-poisson.ts).
  *
- * All matrices share one lower-triangle pattern and one symbolic analysis;
+ * All matrices share one lower-triangle pattern and one symbolic analysis
+ * (the values are assembled while an ordering executor's threads split and
+ * order the pattern: AnalyzeOptions.meanwhile);
  * the Dirichlet heat factor is computed with the natural one and stores only
  * the blocks the boundary rows reach (linalg/multifrontal-pair.ts), and an
  * executor (HeatOptions.factorExecutor) may factor on other threads;
@@ -141,18 +143,26 @@ export class HeatSolver {
     const step = m * hStep * hStep;
 
     const p = edgePattern(work.topology);
-    const Lv = cotanLaplacian(work, p), Mv = lumpedMass(work);
-    const { faces, maxGrad } = relayGeometry(work); // packed face data only: the full face geometry is not kept (peak memory)
-    const comp = components(work.topology);
-    const onBoundary = boundaryVertexMask(work.topology);
-    // rows without area (isolated vertices, or only zero-area faces) are fixed to u = 0
+    const Lv = new Float64Array(p.colPtr[p.n]!);
+    // the matrices and face data, assembled while other threads order the pattern (the analysis reads the pattern only)
+    let Mv!: Float64Array, faces!: Float64Array, maxGrad = 0, comp!: ReturnType<typeof components>, onBoundary!: Uint8Array;
     const inactive = new Uint8Array(tw.nv);
     let minMass = Infinity;
-    for (let v = 0; v < tw.nv; v++) {
-      if (!(Mv[v]! > 0)) inactive[v] = 1;
-      else if (Mv[v]! < minMass) minMass = Mv[v]!;
-    }
-    const sym = analyzeCholesky(patternMatrix(p, Lv), { ...(opts.ordering ? { ordering: opts.ordering } : {}), orderingExecutor: opts.orderingExecutor ?? null });
+    const assemble = (): void => {
+      cotanLaplacian(work, p, Lv);
+      Mv = lumpedMass(work);
+      ({ faces, maxGrad } = relayGeometry(work)); // packed face data only: the full face geometry is not kept (peak memory)
+      comp = components(work.topology);
+      onBoundary = boundaryVertexMask(work.topology);
+      // rows without area (isolated vertices, or only zero-area faces) are fixed to u = 0
+      for (let v = 0; v < tw.nv; v++) {
+        if (!(Mv[v]! > 0)) inactive[v] = 1;
+        else if (Mv[v]! < minMass) minMass = Mv[v]!;
+      }
+    };
+    const sym = analyzeCholesky(patternMatrix(p, Lv), {
+      ...(opts.ordering ? { ordering: opts.ordering } : {}), orderingExecutor: opts.orderingExecutor ?? null, meanwhile: assemble,
+    });
     const t2 = performance.now();
 
     const A = combine(p, step, Lv, 1, Mv);

@@ -4,7 +4,8 @@
  * parts of a nested dissection live in SharedArrayBuffers, so a batch
  * message carries views only; each worker claims parts through the batch's
  * shared counter (ordering-executor.ts, runJobs) and writes their order into
- * the shared permutation.
+ * the shared permutation; a batch with a lead split (the caller busy with
+ * other work meanwhile) is split by the first worker free.
  *
  * The caller orders parts too and then waits synchronously (Atomics.wait;
  * allowed on Node's main thread), so `analyzeCholesky` stays synchronous.
@@ -18,7 +19,7 @@
  */
 import { Worker } from 'node:worker_threads';
 import { availableParallelism } from 'node:os';
-import { C_BEAT, C_DONE, C_FAILED, C_REMOTE } from './ordering-executor.js';
+import { C_BEAT, C_DONE, C_FAILED, C_REMOTE, C_SPLIT, SPLIT_DONE } from './ordering-executor.js';
 import type { NdBatch, OrderingExecutor } from './ordering-executor.js';
 
 /** Options of {@link NodeOrderingExecutor}. */
@@ -85,11 +86,11 @@ export class NodeOrderingExecutor implements OrderingExecutor {
     return new Int32Array(new SharedArrayBuffer(4 * Math.max(1, length)), 0, length);
   }
 
-  start(batch: NdBatch): () => boolean {
+  start(batch: NdBatch): (splitOnly?: boolean) => boolean {
     this.warm();
     this.counts.batches++;
     for (const w of this.#workers) w.postMessage(batch);
-    return () => this.#wait(batch);
+    return (splitOnly = false) => this.#wait(batch, splitOnly);
   }
 
   /** Stops the workers (they are unref'd, so a process may also just exit). */
@@ -122,13 +123,16 @@ export class NodeOrderingExecutor implements OrderingExecutor {
     if (i >= 0) this.#workers.splice(i, 1);
   }
 
-  /** Blocks until every job is done (true) or a worker failed or stalled (false). */
-  #wait(batch: NdBatch): boolean {
-    const { control, jobs } = batch;
+  /** Blocks until every job is done, or with `splitOnly` the lead split (true), or a worker failed or stalled (false). */
+  #wait(batch: NdBatch, splitOnly: boolean): boolean {
+    const { control, jobs, lead } = batch;
     let beat = Atomics.load(control, C_BEAT), since = performance.now();
     for (;;) {
       const done = Atomics.load(control, C_DONE);
-      if (done >= jobs.length) {
+      // a lead batch's jobs are known once it is split (a thread notifies C_DONE then)
+      const split = !lead || Atomics.load(control, C_SPLIT) === SPLIT_DONE;
+      if (split && splitOnly) return true;
+      if (split && done >= (lead ? lead.table[0]! : jobs.length)) {
         this.counts.remoteJobs += Atomics.load(control, C_REMOTE);
         return true;
       }

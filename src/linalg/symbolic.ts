@@ -87,6 +87,16 @@ export interface AnalyzeOptions {
    * is the serial one. Without it everything runs on the calling thread.
    */
   orderingExecutor?: OrderingExecutor | null;
+  /**
+   * Other work of the caller's, called exactly once before analyzeCholesky
+   * returns (not when it throws first): with an ordering executor and a graph
+   * at or above its `minSize`, on this thread while the executor's threads
+   * split and order the pattern (ordering-executor.ts, the lead split);
+   * otherwise just before the ordering. The analysis reads only the input's
+   * pattern, so this may fill in its values (the heat method assembles its
+   * matrices here).
+   */
+  meanwhile?: () => void;
 }
 
 /** Numeric factorization methods. */
@@ -117,6 +127,15 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
     }
   }
   const nz = colPtr[n]!;
+  let pending = opts.meanwhile ?? null;
+  const meanwhile = (): void => {
+    const f = pending;
+    pending = null;
+    f?.();
+  };
+  // without threads to overlap with, before the ordering (so its time is not counted as ordering)
+  const executor = opts.orderingExecutor ?? null;
+  if (!(ordering === 'nd' && executor !== null && n >= executor.minSize)) meanwhile();
   const t0 = performance.now();
   let perm0: Int32Array;
   if (ordering === 'natural') {
@@ -124,12 +143,13 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
     for (let k = 0; k < n; k++) perm0[k] = k;
   } else if (ordering === 'nd') {
     const g = adjacencyFromLower(Alower);
-    perm0 = opts.orderingExecutor ? parallelNestedDissection(g, {}, opts.orderingExecutor) : nestedDissection(g);
+    perm0 = opts.orderingExecutor ? parallelNestedDissection(g, {}, opts.orderingExecutor, pending ? meanwhile : undefined) : nestedDissection(g);
   } else if (ordering === 'amd') {
     perm0 = approximateMinimumDegree(adjacencyFromLower(Alower));
   } else {
     throw usageError(`unknown ordering '${String(ordering)}' (expected amd, nd or natural)`);
   }
+  meanwhile(); // in case the threaded ordering did not call it (it always does)
   const t1 = performance.now();
   // Follow the ordering by a postorder of its elimination tree: same fill,
   // but subtrees become contiguous column ranges (supernodes, frontal stack).
