@@ -9,6 +9,12 @@ import { mollify, DEFAULT_MOLLIFY_DELTA } from '../metric/mollify.js';
 import { intrinsicDelaunay } from '../metric/delaunay.js';
 import { refineLongEdges, equilateralEdge } from '../metric/refine.js';
 import { usageError, inputError } from '../errors.js';
+import { cotanLaplacian, lumpedMass, combine, constrainRows, patternMatrix, type EdgePattern } from '../metric/laplacian.js';
+import type { CscMatrix } from '../linalg/csc.js';
+import { components, type Components } from '../mesh/components.js';
+import { boundaryVertexMask } from '../mesh/boundary.js';
+import { relayGeometry } from './heat-relay.js';
+import { pinnedPoisson } from './heat-poisson.js';
 import type { FactorExecutor } from '../linalg/executor.js';
 import type { OrderingExecutor } from '../linalg/ordering-executor.js';
 
@@ -176,4 +182,70 @@ export function heatTriangulation(mesh: IntrinsicMesh, opts: HeatOptions): HeatT
       }
     }
     return { m, boundary, work, h, epsilon, flips, flipsCapped, inserted, refineCapped };
+}
+
+/** The matrices and per-mesh data {@link assembleHeat} builds on the shared pattern. */
+export interface HeatAssembly {
+  /** Lumped mass per vertex. */
+  Mv: Float64Array;
+  /** Face data of the relay sweep and the largest hat-gradient component (heat-relay.ts). */
+  faces: Float64Array;
+  maxGrad: number;
+  comp: Components;
+  onBoundary: Uint8Array;
+  /** Vertices without area (isolated, or only zero-area faces): identity rows. */
+  inactive: Uint8Array;
+  /** Smallest positive lumped mass. */
+  minMass: number;
+  /** Diagonal of M + tL before the rows are constrained, and the largest diagonal after. */
+  heatDiag: Float64Array;
+  maxDiag: number;
+  /** Rows of the Dirichlet heat matrix fixed to the identity (inactive or on the boundary). */
+  fixedD: Uint8Array;
+  /** M + tL, then (boundary mode other than 'neumann', with a boundary) its Dirichlet copy, then the pinned Poisson matrix. */
+  mats: CscMatrix[];
+  /** Rows of the pinned Poisson matrix fixed to 0. */
+  blocked: Uint8Array;
+}
+
+/**
+ * Assembles everything the factorizations and the relay need on pattern `p`
+ * (`Lv` receives the cotan Laplacian): run by `HeatSolver.prepare` while
+ * other threads order the pattern (AnalyzeOptions.meanwhile), since the
+ * analysis reads the pattern only.
+ */
+export function assembleHeat(work: IntrinsicMesh, p: EdgePattern, Lv: Float64Array<ArrayBuffer>, step: number, boundary: HeatTriangulation['boundary']): HeatAssembly {
+  const nv = work.topology.nv;
+  cotanLaplacian(work, p, Lv);
+  const Mv = lumpedMass(work);
+  const { faces, maxGrad } = relayGeometry(work); // packed face data only: the full face geometry is not kept (peak memory)
+  const comp = components(work.topology);
+  const onBoundary = boundaryVertexMask(work.topology);
+  // rows without area (isolated vertices, or only zero-area faces) are fixed to u = 0
+  const inactive = new Uint8Array(nv);
+  let minMass = Infinity;
+  for (let v = 0; v < nv; v++) {
+    if (!(Mv[v]! > 0)) inactive[v] = 1;
+    else if (Mv[v]! < minMass) minMass = Mv[v]!;
+  }
+  const A = combine(p, step, Lv, 1, Mv);
+  const heatDiag = new Float64Array(nv);
+  for (let v = 0; v < nv; v++) heatDiag[v] = A[p.diagSlot[v]!]!;
+  constrainRows(p, A, inactive);
+  let maxDiag = 0;
+  for (let v = 0; v < nv; v++) maxDiag = Math.max(maxDiag, A[p.diagSlot[v]!]!);
+  // the two or three matrices (independent factorizations)
+  const mats = [patternMatrix(p, A)];
+  const fixedD = new Uint8Array(nv);
+  let hasBoundary = false;
+  for (let v = 0; v < nv && !hasBoundary; v++) hasBoundary = onBoundary[v] === 1 && !inactive[v];
+  if (boundary !== 'neumann' && hasBoundary) {
+    for (let v = 0; v < nv; v++) fixedD[v] = inactive[v]! | onBoundary[v]!;
+    const AD = A.slice();
+    constrainRows(p, AD, fixedD);
+    mats.push(patternMatrix(p, AD));
+  }
+  const pinned = pinnedPoisson(p, Lv, Mv, inactive, comp.vertexComponent, comp.count);
+  mats.push(patternMatrix(p, pinned.values));
+  return { Mv, faces, maxGrad, comp, onBoundary, inactive, minMass, heatDiag, maxDiag, fixedD, mats, blocked: pinned.blocked };
 }

@@ -51,16 +51,14 @@ import type { SourceSet } from './shared/sources.js';
 import type { SurfacePoint } from '../mesh/surface-point.js';
 import { analyzeCholesky, CholeskyFactor } from '../linalg/index.js';
 import { meanEdgeLength } from '../metric/intrinsic.js';
-import { heatTriangulation, MAX_SEPARATE_CURVES, type HeatOptions, type HeatStats, type HeatSolveStats } from './heat-setup.js';
 import {
-  edgePattern, cotanLaplacian, lumpedMass, combine, constrainRows, patternMatrix,
-} from '../metric/laplacian.js';
-import { components } from '../mesh/components.js';
-import { boundaryVertexMask } from '../mesh/boundary.js';
+  heatTriangulation, assembleHeat, MAX_SEPARATE_CURVES, type HeatAssembly, type HeatOptions, type HeatStats, type HeatSolveStats,
+} from './heat-setup.js';
+import { edgePattern, patternMatrix } from '../metric/laplacian.js';
 import { tail } from '../mesh/topology.js';
 import { addSourceHeat, sourceValue, sourceDirichlet } from './heat-sources.js';
-import { pinnedPoisson, factorShiftedPoisson, SourcePoisson } from './heat-poisson.js';
-import { assembleDivergence, heatCeiling, relayGeometry, type RelayWork } from './heat-relay.js';
+import { factorShiftedPoisson, SourcePoisson } from './heat-poisson.js';
+import { assembleDivergence, heatCeiling, type RelayWork } from './heat-relay.js';
 import { usageError, numericError, isOrthodromeError } from '../errors.js';
 import { HeatStep, maskIndices, type HeatStepParts } from './heat-step.js';
 
@@ -137,7 +135,6 @@ export class HeatSolver {
     if (mesh.topology.nv >= (opts.orderingExecutor?.minSize ?? Infinity)) opts.orderingExecutor?.warm?.();
     const { m, boundary, work, h, epsilon, flips, flipsCapped, inserted, refineCapped } = heatTriangulation(mesh, opts);
     const t1 = performance.now();
-    const tw = work.topology;
     // h of the time step: mean edge of the triangulation solved on (after flips and refinement)
     const hStep = meanEdgeLength(work);
     const step = m * hStep * hStep;
@@ -145,51 +142,19 @@ export class HeatSolver {
     const p = edgePattern(work.topology);
     const Lv = new Float64Array(p.colPtr[p.n]!);
     // the matrices and face data, assembled while other threads order the pattern (the analysis reads the pattern only)
-    let Mv!: Float64Array, faces!: Float64Array, maxGrad = 0, comp!: ReturnType<typeof components>, onBoundary!: Uint8Array;
-    const inactive = new Uint8Array(tw.nv);
-    let minMass = Infinity;
-    const assemble = (): void => {
-      cotanLaplacian(work, p, Lv);
-      Mv = lumpedMass(work);
-      ({ faces, maxGrad } = relayGeometry(work)); // packed face data only: the full face geometry is not kept (peak memory)
-      comp = components(work.topology);
-      onBoundary = boundaryVertexMask(work.topology);
-      // rows without area (isolated vertices, or only zero-area faces) are fixed to u = 0
-      for (let v = 0; v < tw.nv; v++) {
-        if (!(Mv[v]! > 0)) inactive[v] = 1;
-        else if (Mv[v]! < minMass) minMass = Mv[v]!;
-      }
-    };
+    const box: { asm?: HeatAssembly } = {};
     const sym = analyzeCholesky(patternMatrix(p, Lv), {
-      ...(opts.ordering ? { ordering: opts.ordering } : {}), orderingExecutor: opts.orderingExecutor ?? null, meanwhile: assemble,
+      ...(opts.ordering ? { ordering: opts.ordering } : {}), orderingExecutor: opts.orderingExecutor ?? null,
+      meanwhile: () => { box.asm = assembleHeat(work, p, Lv, step, boundary); },
     });
     const t2 = performance.now();
-
-    const A = combine(p, step, Lv, 1, Mv);
-    const heatDiag = new Float64Array(tw.nv);
-    for (let v = 0; v < tw.nv; v++) heatDiag[v] = A[p.diagSlot[v]!]!;
-    constrainRows(p, A, inactive);
-    let maxDiag = 0;
-    for (let v = 0; v < tw.nv; v++) maxDiag = Math.max(maxDiag, A[p.diagSlot[v]!]!);
-    // the two or three matrices, then their factorizations (independent: an executor runs them at once)
-    const mats = [patternMatrix(p, A)];
-    const fixedD = new Uint8Array(tw.nv);
-    let hasBoundary = false;
-    for (let v = 0; v < tw.nv && !hasBoundary; v++) hasBoundary = onBoundary[v] === 1 && !inactive[v];
-    if (boundary !== 'neumann' && hasBoundary) {
-      for (let v = 0; v < tw.nv; v++) fixedD[v] = inactive[v]! | onBoundary[v]!;
-      const AD = A.slice();
-      constrainRows(p, AD, fixedD);
-      mats.push(patternMatrix(p, AD));
-    }
-    const pinned = pinnedPoisson(p, Lv, Mv, inactive, comp.vertexComponent, comp.count);
-    mats.push(patternMatrix(p, pinned.values));
+    const { Mv, faces, maxGrad, comp, onBoundary, inactive, minMass, heatDiag, maxDiag, fixedD, mats, blocked: pinnedBlocked } = box.asm!; // set by analyzeCholesky's one call of meanwhile
     // heatD shares heatN's blocks wherever the boundary rows do not reach (multifrontal-pair.ts)
     const fs = CholeskyFactor.factorMany(mats, sym, { executor: opts.factorExecutor ?? null, pairFirst: mats.length === 3 });
     const heatN = CholeskyFactor.orThrow(fs[0]!), heatD = mats.length === 3 ? CholeskyFactor.orThrow(fs[1]!) : null;
     // a singular pinned Poisson matrix (a component held together by faces without area): L + εM instead
     const pf = fs[mats.length - 1]!, shifted = !(pf instanceof CholeskyFactor);
-    const { factor: poisson, blocked } = pf instanceof CholeskyFactor ? { factor: pf, blocked: pinned.blocked } : factorShiftedPoisson(p, sym, Lv, Mv, inactive, h);
+    const { factor: poisson, blocked } = pf instanceof CholeskyFactor ? { factor: pf, blocked: pinnedBlocked } : factorShiftedPoisson(p, sym, Lv, Mv, inactive, h);
     const t3 = performance.now();
 
     const stats: HeatStats = {

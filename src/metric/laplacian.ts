@@ -54,33 +54,47 @@ export interface EdgePattern {
   readonly edgeSlot: Int32Array;
 }
 
-/** Builds the fixed pattern of a topology (O(E), sorts short columns by insertion). */
+/**
+ * Builds the fixed pattern of a topology in O(E): each edge's pair once
+ * (sequential arrays), rows of each column sorted by insertion (short
+ * columns) together with their edges, so that deduplicating a column also
+ * gives every edge its slot.
+ */
 export function edgePattern(t: Topology): EdgePattern {
-  const n = t.nv;
+  const n = t.nv, ne = t.ne, tri = t.tri, eh = t.edgeHalfedge;
   const count = new Int32Array(n + 1);
-  for (let e = 0; e < t.ne; e++) {
-    const h = t.edgeHalfedge[e]!;
-    const a = t.tri[h]!, b = t.tri[next(h)]!;
-    if (a !== b) count[Math.min(a, b)]!++;
+  // each edge's endpoints, lower first (one pass of scattered reads); a loop edge gets lo = -1
+  const lo = new Int32Array(ne), hi = new Int32Array(ne);
+  for (let e = 0; e < ne; e++) {
+    const h = eh[e]!;
+    const a = tri[h]!, b = tri[h % 3 === 2 ? h - 2 : h + 1]!;
+    if (a === b) { lo[e] = -1; continue; }
+    const j = a < b ? a : b;
+    lo[e] = j;
+    hi[e] = a < b ? b : a;
+    count[j]!++;
   }
-  // raw rows per column (duplicates included), sorted then deduplicated
+  // raw rows per column (duplicates included) with their edges, sorted then deduplicated
   const start = new Int32Array(n + 1);
   for (let j = 0; j < n; j++) start[j + 1] = start[j]! + count[j]!;
-  const raw = new Int32Array(start[n]!);
+  const raw = new Int32Array(start[n]!), rawEdge = new Int32Array(start[n]!);
   const fill = start.slice(0, n);
-  for (let e = 0; e < t.ne; e++) {
-    const h = t.edgeHalfedge[e]!;
-    const a = t.tri[h]!, b = t.tri[next(h)]!;
-    if (a !== b) raw[fill[Math.min(a, b)]!++] = Math.max(a, b);
+  for (let e = 0; e < ne; e++) {
+    const j = lo[e]!;
+    if (j < 0) continue;
+    const q = fill[j]!++;
+    raw[q] = hi[e]!;
+    rawEdge[q] = e;
   }
   const colPtr = new Int32Array(n + 1);
   for (let j = 0; j < n; j++) {
     const p0 = start[j]!, p1 = start[j + 1]!;
     for (let p = p0 + 1; p < p1; p++) {
-      const x = raw[p]!;
+      const x = raw[p]!, xe = rawEdge[p]!;
       let q = p - 1;
-      while (q >= p0 && raw[q]! > x) { raw[q + 1] = raw[q]!; q--; }
+      while (q >= p0 && raw[q]! > x) { raw[q + 1] = raw[q]!; rawEdge[q + 1] = rawEdge[q]!; q--; }
       raw[q + 1] = x;
+      rawEdge[q + 1] = xe;
     }
     let distinct = 0;
     for (let p = p0; p < p1; p++) if (p === p0 || raw[p] !== raw[p - 1]) distinct++;
@@ -88,21 +102,15 @@ export function edgePattern(t: Topology): EdgePattern {
   }
   const rowIdx = new Int32Array(colPtr[n]!);
   const diagSlot = new Int32Array(n);
+  const edgeSlot = new Int32Array(ne).fill(-1);
   for (let j = 0; j < n; j++) {
     let q = colPtr[j]!;
     diagSlot[j] = q;
-    rowIdx[q++] = j;
-    for (let p = start[j]!; p < start[j + 1]!; p++) if (p === start[j] || raw[p] !== raw[p - 1]) rowIdx[q++] = raw[p]!;
-  }
-  const edgeSlot = new Int32Array(t.ne);
-  for (let e = 0; e < t.ne; e++) {
-    const h = t.edgeHalfedge[e]!;
-    const a = t.tri[h]!, b = t.tri[next(h)]!;
-    if (a === b) { edgeSlot[e] = -1; continue; }
-    const j = Math.min(a, b), i = Math.max(a, b);
-    let p = colPtr[j]! + 1;
-    while (rowIdx[p] !== i) p++;
-    edgeSlot[e] = p;
+    rowIdx[q] = j;
+    for (let p = start[j]!; p < start[j + 1]!; p++) {
+      if (p === start[j] || raw[p] !== raw[p - 1]) rowIdx[++q] = raw[p]!;
+      edgeSlot[rawEdge[p]!] = q;
+    }
   }
   return { n, colPtr, rowIdx, diagSlot, edgeSlot };
 }
