@@ -154,7 +154,9 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
   // Follow the ordering by a postorder of its elimination tree: same fill,
   // but subtrees become contiguous column ranges (supernodes, frontal stack).
   const pinv0 = inversePermutation(perm0);
-  const first = permutedPattern(Alower, pinv0, true, true, false);
+  const supernodalMethod = method === 'supernodal';
+  // the lower triangle's slots are kept for the supernodal C (relabelled below instead of built again)
+  const first = permutedPattern(Alower, pinv0, true, true, supernodalMethod ? 'low' : 'none');
   // Children are visited by increasing column count, so the child whose
   // pattern is closest to its parent's is numbered just before it, where
   // relaxed supernode amalgamation can merge them.
@@ -165,15 +167,13 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
   for (let k = 0; k < n; k++) perm[k] = perm0[post0[k]!]!;
   const pinv = inversePermutation(perm);
   // C as the numeric method reads it: the lower triangle (supernodal) or the upper one (simplicial)
-  const supernodalMethod = method === 'supernodal';
-  const { up: Cup, low: Clow } = permutedPattern(Alower, pinv, !supernodalMethod, supernodalMethod, true);
-  const C = supernodalMethod ? Clow : Cup;
+  const newOf = inversePermutation(post0);
+  const C = supernodalMethod ? relabelLower(first.low, post0, newOf) : permutedPattern(Alower, pinv, true, false, 'both').up;
   // A postorder is an equivalent reordering: the elimination tree of the
   // reordered matrix is the same tree relabelled, and every column keeps its
   // count (Liu, "The role of elimination trees in sparse factorization",
   // SIAM J. Matrix Anal. Appl. 11(1), 1990, §3), so both are relabelled
   // instead of computed again.
-  const newOf = inversePermutation(post0);
   const parent = new Int32Array(n);
   const colCount = new Int32Array(n);
   for (let k = 0; k < n; k++) {
@@ -265,10 +265,11 @@ const NO_TRIANGLE: Triangle = { ptr: new Int32Array(1), idx: new Int32Array(0), 
  * Pattern of C = P·A·Pᵀ from the lower triangle of A: entry (i, j) moves to
  * (pinv[i], pinv[j]) and is kept in the upper triangle (column = larger
  * index) when `up`, in the lower one (column = smaller index) when `low`,
- * with the slot of every input entry in each when `maps` (else the maps
- * are empty). A triangle not asked for is empty.
+ * with the slot of every input entry in the lower one (`slots` 'low') or
+ * in both ('both'; else the maps are empty). A triangle not asked for is empty.
  */
-function permutedPattern(Alower: CscMatrix, pinv: Int32Array, up: boolean, low: boolean, maps: boolean): { up: Triangle; low: Triangle } {
+function permutedPattern(Alower: CscMatrix, pinv: Int32Array, up: boolean, low: boolean, slots: 'none' | 'low' | 'both'): { up: Triangle; low: Triangle } {
+  const maps = slots === 'both';
   const { n, colPtr, rowIdx } = Alower;
   const nz = colPtr[n]!;
   const upPtr = up ? new Int32Array(n + 1) : NO_TRIANGLE.ptr;
@@ -286,7 +287,8 @@ function permutedPattern(Alower: CscMatrix, pinv: Int32Array, up: boolean, low: 
     if (low) lowPtr[k + 1]! += lowPtr[k]!;
   }
   const upIdx = up ? new Int32Array(nz) : NO_TRIANGLE.idx, lowIdx = low ? new Int32Array(nz) : NO_TRIANGLE.idx;
-  const upMap = up && maps ? new Int32Array(nz) : NO_TRIANGLE.map, lowMap = low && maps ? new Int32Array(nz) : NO_TRIANGLE.map;
+  const lowMaps = maps || slots === 'low';
+  const upMap = up && maps ? new Int32Array(nz) : NO_TRIANGLE.map, lowMap = low && lowMaps ? new Int32Array(nz) : NO_TRIANGLE.map;
   const fillU = up ? upPtr.slice(0, n) : NO_TRIANGLE.ptr, fillL = low ? lowPtr.slice(0, n) : NO_TRIANGLE.ptr;
   for (let j = 0; j < n; j++) {
     const pj = pinv[j]!;
@@ -301,9 +303,37 @@ function permutedPattern(Alower: CscMatrix, pinv: Int32Array, up: boolean, low: 
       if (low) {
         const q = fillL[lo]!++;
         lowIdx[q] = hi;
-        if (maps) lowMap[p] = q;
+        if (lowMaps) lowMap[p] = q;
       }
     }
   }
   return { up: { ptr: upPtr, idx: upIdx, map: upMap }, low: { ptr: lowPtr, idx: lowIdx, map: lowMap } };
+}
+
+/**
+ * The lower triangle of C = P·A·Pᵀ for P = the ordering followed by the
+ * postorder `post` of its elimination tree, from the lower triangle `t0` of
+ * the ordering alone (with its slots): every entry of A joins a vertex to
+ * one of its ancestors in the elimination tree (Liu 1990, §3), and a
+ * postorder numbers descendants before ancestors, so an entry's column (the
+ * smaller index) is the same vertex under both orders. Column newOf[c] of C
+ * is column c of t0, entries in the same order (both are filled by one pass
+ * over A's entries in order), rows renumbered; permutedPattern's output,
+ * entry for entry, without a second pass over A.
+ */
+function relabelLower(t0: Triangle, post: Int32Array, newOf: Int32Array): Triangle {
+  const n = post.length, nz = t0.idx.length;
+  const ptr = new Int32Array(n + 1), idx = new Int32Array(nz), slot = new Int32Array(nz);
+  for (let k = 0; k < n; k++) {
+    const c = post[k]!, a = t0.ptr[c]!, b = t0.ptr[c + 1]!;
+    let q = ptr[k]!;
+    for (let q0 = a; q0 < b; q0++, q++) {
+      idx[q] = newOf[t0.idx[q0]!]!;
+      slot[q0] = q;
+    }
+    ptr[k + 1] = q;
+  }
+  const map = new Int32Array(t0.map.length);
+  for (let p = 0; p < map.length; p++) map[p] = slot[t0.map[p]!]!;
+  return { ptr, idx, map };
 }
