@@ -73,7 +73,11 @@ export interface HeatStats {
   prepareMs: number;
   /** Of which: mollification + intrinsic flips, ms. */
   remeshMs: number;
-  /** Of which: ordering + symbolic analysis, ms. */
+  /**
+   * Of which: ordering + symbolic analysis, ms, with the assembly of the
+   * matrices and face data (it overlaps the ordering when an ordering
+   * executor has threads; before it, else).
+   */
   analysisMs: number;
   /** Of which: numeric factorizations, ms. */
   factorMs: number;

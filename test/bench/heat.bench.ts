@@ -18,6 +18,9 @@
  * `HEAT_CASE=terrain-1000` runs the cases whose name contains the text.
  * `prepare` counts the remesh too; `ordering+symbolic` + `factorization` is
  * the issue's "preparation" (its ratio: `orderingPlusFactorRatio`).
+ * `ordering+symbolic` includes the assembly of the matrices and face data,
+ * which runs on this thread while the ordering worker splits and orders
+ * (--ordering-threads ≥ 1), and before the ordering otherwise.
  */
 import { emit, timeMedian, timeEdgeDijkstra, peakRssMB, quick } from './harness.js';
 import { buildTopology } from '../../src/mesh/build.js';
