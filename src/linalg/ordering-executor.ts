@@ -190,10 +190,11 @@ export function leadJobs(batch: NdBatch): NdJob[] {
  */
 export function runBatch(batch: NdBatch): void {
   const { control, lead } = batch;
-  let jobs = batch.jobs;
+  let jobs = batch.jobs, ws: NdWorkspace | null = null;
   if (lead) {
     if (Atomics.compareExchange(control, C_SPLIT, SPLIT_OPEN, SPLIT_TAKEN) === SPLIT_OPEN) {
-      jobs = leadSplit(batch, ndWorkspace(lead.root.n, lead.root.adj.length));
+      ws = ndWorkspace(lead.root.n, lead.root.adj.length);
+      jobs = leadSplit(batch, ws); // the same workspace then orders the parts
     } else {
       let s: number;
       while ((s = Atomics.load(control, C_SPLIT)) === SPLIT_TAKEN) Atomics.wait(control, C_SPLIT, SPLIT_TAKEN, 1000);
@@ -201,13 +202,16 @@ export function runBatch(batch: NdBatch): void {
       jobs = leadJobs(batch);
     }
   }
-  let n = 0, nnz = 0;
-  for (const j of jobs) {
-    n = Math.max(n, j.sub.n);
-    nnz = Math.max(nnz, j.sub.adj.length);
+  if (ws === null) {
+    let n = 0, nnz = 0;
+    for (const j of jobs) {
+      n = Math.max(n, j.sub.n);
+      nnz = Math.max(nnz, j.sub.adj.length);
+    }
+    ws = ndWorkspace(n, nnz);
   }
   // a workspace per batch (tens of MB at 1M vertices: not kept between batches)
-  runJobs({ ...batch, jobs }, ndWorkspace(n, nnz), true);
+  runJobs({ ...batch, jobs }, ws, true);
 }
 
 /** Pool size for a lead split of `depth` levels: the root, and per level at most 3n + 2^level + nnz slots (xadj, gid, deg, adj). */
