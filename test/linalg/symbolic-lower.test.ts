@@ -1,7 +1,7 @@
 /**
  * The supernodal analysis's C = P·A·Pᵀ (lower triangle, with the slot of
  * every input entry) is relabelled from the ordering's own lower triangle
- * (symbolic.ts, relabelLower) rather than built again. Checked here against
+ * (symbolic-pattern.ts, relabelLower) rather than built again. Checked here against
  * the definition, built the plain way from the final permutation: entry
  * (i, j) of A goes to column min(pinv i, pinv j), row max, columns filled in
  * the order of A's entries (common practice for a permuted CSC pattern).
