@@ -17,7 +17,8 @@
  * Workers start on `warm()` or the first batch and stay (unref'd, so they
  * never keep the process alive) until {@link NodeOrderingExecutor.close}.
  */
-import { Worker } from 'node:worker_threads';
+import type { Worker } from 'node:worker_threads';
+import { startWorker } from './worker-start-node.js';
 import { availableParallelism } from 'node:os';
 import { C_BEAT, C_DONE, C_FAILED, C_REMOTE, C_SPLIT, SPLIT_DONE } from './ordering-executor.js';
 import type { NdBatch, OrderingExecutor } from './ordering-executor.js';
@@ -103,22 +104,10 @@ export class NodeOrderingExecutor implements OrderingExecutor {
   }
 
   #spawn(): Worker {
-    const here = import.meta.url;
-    const url = new URL(here.endsWith('.ts') ? './ordering-worker.ts' : './ordering-worker.js', here);
-    // run from source (tsx): a Node 20 worker does not inherit the TypeScript loader, so it
-    // registers it before importing the worker module (built: plain JavaScript)
-    const w = here.endsWith('.ts')
-      ? new Worker(`import(${JSON.stringify(import.meta.resolve('tsx/esm/api'))}).then((m) => { m.register(); return import(${JSON.stringify(url.href)}); })`, { eval: true })
-      : new Worker(url);
-    w.unref();
-    w.on('error', () => this.#drop(w));
-    w.on('exit', () => this.#drop(w));
-    this.#ready.push(new Promise<void>((resolve) => {
-      w.once('message', () => resolve());
-      w.once('exit', () => resolve());
-    }));
-    this.#workers.push(w);
-    return w;
+    const { worker, ready } = startWorker(import.meta.url, 'ordering-worker', (w) => this.#drop(w));
+    this.#ready.push(ready);
+    this.#workers.push(worker);
+    return worker;
   }
 
   #drop(w: Worker): void {

@@ -24,7 +24,8 @@
  * the first job, and stay (unref'd, so they never keep the process alive)
  * until {@link NodeFactorExecutor.close}.
  */
-import { Worker } from 'node:worker_threads';
+import type { Worker } from 'node:worker_threads';
+import { startWorker } from './worker-start-node.js';
 import { availableParallelism } from 'node:os';
 import type { CholeskySymbolic } from './symbolic.js';
 import type { SupernodalStructure } from './supernodes.js';
@@ -176,23 +177,10 @@ export class NodeFactorExecutor implements FactorExecutor {
   }
 
   #spawn(): Worker {
-    const here = import.meta.url;
-    const url = new URL(here.endsWith('.ts') ? './factor-worker.ts' : './factor-worker.js', here);
-    // run from source (tsx): a Node 20 worker does not inherit the TypeScript loader, so it
-    // registers it before importing the worker module (built: plain JavaScript)
-    const w = here.endsWith('.ts')
-      ? new Worker(`import(${JSON.stringify(import.meta.resolve('tsx/esm/api'))}).then((m) => { m.register(); return import(${JSON.stringify(url.href)}); })`, { eval: true })
-      : new Worker(url);
-    w.unref();
-    w.on('error', () => this.#drop(w));
-    w.on('exit', () => this.#drop(w));
-    // the worker posts one message once its module has loaded
-    this.#ready.push(new Promise<void>((resolve) => {
-      w.once('message', () => resolve());
-      w.once('exit', () => resolve());
-    }));
-    this.#workers.push(w);
-    return w;
+    const { worker, ready } = startWorker(import.meta.url, 'factor-worker', (w) => this.#drop(w));
+    this.#ready.push(ready);
+    this.#workers.push(worker);
+    return worker;
   }
 
   #drop(w: Worker): void {
