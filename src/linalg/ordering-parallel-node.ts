@@ -17,8 +17,7 @@
  * Workers start on `warm()` or the first batch and stay (unref'd, so they
  * never keep the process alive) until {@link NodeOrderingExecutor.close}.
  */
-import type { Worker } from 'node:worker_threads';
-import { startWorker } from './worker-start-node.js';
+import { WorkerSet } from './worker-start-node.js';
 import { availableParallelism } from 'node:os';
 import { C_BEAT, C_DONE, C_FAILED, C_REMOTE, C_SPLIT, SPLIT_DONE } from './ordering-executor.js';
 import type { NdBatch, OrderingExecutor } from './ordering-executor.js';
@@ -63,8 +62,7 @@ export class NodeOrderingExecutor implements OrderingExecutor {
   readonly callerOrders: boolean;
   readonly #threads: number;
   readonly #stallMs: number;
-  readonly #workers: Worker[] = [];
-  readonly #ready: Promise<void>[] = [];
+  readonly #pool = new WorkerSet(import.meta.url, 'ordering-worker');
   /** Batches given to the workers, parts the workers ordered, and batches whose open parts the caller had to order (a worker failed or stalled). */
   readonly counts = { batches: 0, remoteJobs: 0, failed: 0 };
 
@@ -78,12 +76,12 @@ export class NodeOrderingExecutor implements OrderingExecutor {
 
   /** Starts the workers now (they load while the caller works); returns at once. */
   warm(): void {
-    while (this.#workers.length < this.#threads) this.#spawn();
+    while (this.#pool.list.length < this.#threads) this.#pool.spawn();
   }
 
   /** Resolves when every started worker has loaded its module. */
   async ready(): Promise<void> {
-    await Promise.all(this.#ready);
+    await this.#pool.ready();
   }
 
   shared(length: number): Int32Array {
@@ -93,26 +91,13 @@ export class NodeOrderingExecutor implements OrderingExecutor {
   start(batch: NdBatch): (splitOnly?: boolean) => boolean {
     this.warm();
     this.counts.batches++;
-    for (const w of this.#workers) w.postMessage(batch);
+    for (const w of this.#pool.list) w.postMessage(batch);
     return (splitOnly = false) => this.#wait(batch, splitOnly);
   }
 
   /** Stops the workers (they are unref'd, so a process may also just exit). */
   async close(): Promise<void> {
-    const ws = this.#workers.splice(0);
-    await Promise.all(ws.map((w) => w.terminate()));
-  }
-
-  #spawn(): Worker {
-    const { worker, ready } = startWorker(import.meta.url, 'ordering-worker', (w) => this.#drop(w));
-    this.#ready.push(ready);
-    this.#workers.push(worker);
-    return worker;
-  }
-
-  #drop(w: Worker): void {
-    const i = this.#workers.indexOf(w);
-    if (i >= 0) this.#workers.splice(i, 1);
+    await this.#pool.close();
   }
 
   /** Blocks until every job is done, or with `splitOnly` the lead split (true), or a worker failed or stalled (false). */
@@ -128,7 +113,7 @@ export class NodeOrderingExecutor implements OrderingExecutor {
         this.counts.remoteJobs += Atomics.load(control, C_REMOTE);
         return true;
       }
-      if (Atomics.load(control, C_FAILED) > 0 || this.#workers.length === 0) {
+      if (Atomics.load(control, C_FAILED) > 0 || this.#pool.list.length === 0) {
         this.counts.failed++;
         return false;
       }
@@ -138,7 +123,7 @@ export class NodeOrderingExecutor implements OrderingExecutor {
         beat = b;
         since = performance.now();
       } else if (performance.now() - since > this.#stallMs) {
-        for (const w of this.#workers.splice(0)) void w.terminate();
+        for (const w of this.#pool.list.splice(0)) void w.terminate();
         this.counts.failed++;
         return false;
       }

@@ -25,7 +25,7 @@
  * until {@link NodeFactorExecutor.close}.
  */
 import type { Worker } from 'node:worker_threads';
-import { startWorker } from './worker-start-node.js';
+import { WorkerSet } from './worker-start-node.js';
 import { availableParallelism } from 'node:os';
 import type { CholeskySymbolic } from './symbolic.js';
 import type { SupernodalStructure } from './supernodes.js';
@@ -100,10 +100,9 @@ export class NodeFactorExecutor implements FactorExecutor {
   readonly #threads: number;
   readonly #stallMs: number;
   readonly #steal: boolean;
-  readonly #ready: Promise<void>[] = [];
   /** Running totals. */
   readonly counts: ExecutorCounts = { remote: 0, takenBack: 0, failed: 0 };
-  readonly #workers: Worker[] = [];
+  readonly #pool = new WorkerSet(import.meta.url, 'factor-worker');
   readonly #structures = new WeakMap<CholeskySymbolic, SharedStructure>();
   #next = 0;
 
@@ -119,12 +118,12 @@ export class NodeFactorExecutor implements FactorExecutor {
    * other work, such as the ordering); returns at once.
    */
   warm(): void {
-    while (this.#workers.length < this.#threads) this.#spawn();
+    while (this.#pool.list.length < this.#threads) this.#pool.spawn();
   }
 
   /** Resolves when every started worker has loaded its module. */
   async ready(): Promise<void> {
-    await Promise.all(this.#ready);
+    await this.#pool.ready();
   }
 
   shared(length: number): Float64Array {
@@ -151,14 +150,14 @@ export class NodeFactorExecutor implements FactorExecutor {
   join(job: TaskJob): { hold: boolean; done: () => void } {
     this.warm();
     const msg: TaskMessage = { ...this.#structure(job.sym), run: job.run, simd: job.simd, stallMs: this.#stallMs };
-    for (const w of this.#workers.slice(0, Math.max(1, availableParallelism() - 1))) w.postMessage(msg);
+    for (const w of this.#pool.list.slice(0, Math.max(1, availableParallelism() - 1))) w.postMessage(msg);
     const ctl = job.run.ctl;
     return {
       hold: !this.#steal,
       done: () => {
         if (Atomics.load(ctl, C_FAILED) === 2) {
           this.counts.failed++;
-          for (const w of this.#workers.splice(0)) void w.terminate();
+          for (const w of this.#pool.list.splice(0)) void w.terminate();
         } else if (Atomics.load(ctl, C_REMOTE) > 0) this.counts.remote++;
         else this.counts.takenBack++;
       },
@@ -167,25 +166,12 @@ export class NodeFactorExecutor implements FactorExecutor {
 
   /** Stops the workers (they are unref'd, so a process may also just exit). */
   async close(): Promise<void> {
-    const ws = this.#workers.splice(0);
-    await Promise.all(ws.map((w) => w.terminate()));
+    await this.#pool.close();
   }
 
   #worker(): Worker {
-    if (this.#workers.length < this.#threads) return this.#spawn();
-    return this.#workers[this.#next++ % this.#workers.length]!;
-  }
-
-  #spawn(): Worker {
-    const { worker, ready } = startWorker(import.meta.url, 'factor-worker', (w) => this.#drop(w));
-    this.#ready.push(ready);
-    this.#workers.push(worker);
-    return worker;
-  }
-
-  #drop(w: Worker): void {
-    const i = this.#workers.indexOf(w);
-    if (i >= 0) this.#workers.splice(i, 1);
+    if (this.#pool.list.length < this.#threads) return this.#pool.spawn();
+    return this.#pool.list[this.#next++ % this.#pool.list.length]!;
   }
 
   #wait(worker: Worker, msg: JobMessage): FactorJobResult {
@@ -212,7 +198,7 @@ export class NodeFactorExecutor implements FactorExecutor {
         beat = b;
         since = performance.now();
       } else if (performance.now() - since > this.#stallMs) {
-        this.#drop(worker);
+        this.#pool.drop(worker);
         void worker.terminate();
         this.counts.failed++;
         return { bad: -3, pivot: 0 }; // the thread may still write to the job's storage

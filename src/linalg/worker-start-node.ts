@@ -1,8 +1,8 @@
 /**
- * How the linear-algebra executors start their worker threads (Node only):
+ * How the linear-algebra executors keep their worker threads (Node only):
  * one home for running a sibling worker module from source or from the build,
  * detaching it from the process's lifetime, forgetting it when it fails or
- * exits, and knowing when its module has loaded.
+ * exits, knowing when its module has loaded, and stopping the lot.
  *
  * From source (tsx), a Node 20 worker does not inherit the TypeScript loader,
  * so the worker first registers it and then imports the module; built, the
@@ -36,4 +36,41 @@ export function startWorker(here: string, name: string, gone: (w: Worker) => voi
     w.once('exit', () => resolve());
   });
   return { worker: w, ready };
+}
+
+/**
+ * The worker threads of one executor, all running the sibling module `name`
+ * of `here`: `list` holds the live ones (a worker that fails or exits leaves it).
+ */
+export class WorkerSet {
+  /** The live workers, in the order they were started. */
+  readonly list: Worker[] = [];
+  readonly #ready: Promise<void>[] = [];
+
+  constructor(private readonly here: string, private readonly name: string) {}
+
+  /** Starts one more worker (it loads while the caller works). */
+  spawn(): Worker {
+    const { worker, ready } = startWorker(this.here, this.name, (w) => this.drop(w));
+    this.#ready.push(ready);
+    this.list.push(worker);
+    return worker;
+  }
+
+  /** Forgets `w` (it failed, exited, or is being given up). */
+  drop(w: Worker): void {
+    const i = this.list.indexOf(w);
+    if (i >= 0) this.list.splice(i, 1);
+  }
+
+  /** Resolves when every started worker has loaded its module (or exited). */
+  async ready(): Promise<void> {
+    await Promise.all(this.#ready);
+  }
+
+  /** Stops every worker (they are unref'd, so a process may also just exit). */
+  async close(): Promise<void> {
+    const ws = this.list.splice(0);
+    await Promise.all(ws.map((w) => w.terminate()));
+  }
 }
