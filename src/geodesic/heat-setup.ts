@@ -1,13 +1,14 @@
 /**
  * Options, figures and the triangulation step of the heat method
  * (heat.ts): option checks, then mollify → intrinsic Delaunay flips →
- * refinement of long edges → flips again.
+ * refinement of long edges → flips again → boundary edges opposite obtuse
+ * corners split → flips again (repeated until none is left).
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import { meanEdgeLength } from '../metric/intrinsic.js';
 import { mollify, DEFAULT_MOLLIFY_DELTA } from '../metric/mollify.js';
 import { intrinsicDelaunay } from '../metric/delaunay.js';
-import { refineLongEdges, equilateralEdge } from '../metric/refine.js';
+import { refineLongEdges, splitObtuseBoundary, equilateralEdge } from '../metric/refine.js';
 import { usageError, inputError } from '../errors.js';
 import { cotanLaplacian, lumpedMass, combine, constrainRows, patternMatrix, type EdgePattern } from '../metric/laplacian.js';
 import type { CscMatrix } from '../linalg/csc.js';
@@ -23,6 +24,14 @@ export const MAX_SEPARATE_CURVES = 8;
 
 /** Edges longer than this many equilateral edge lengths are split by the refinement (see {@link HeatOptions.refine}). */
 export const REFINE_FACTOR = 3;
+
+/**
+ * Rounds of {@link splitObtuseBoundary} + Delaunay flips at most. A vertex at height ε over a
+ * boundary edge of length ℓ needs about log₂(ℓ/ε) rounds (each halves the piece it encroaches
+ * on), so 64 rounds reach below the double resolution of any edge; the fan strip of
+ * test/metric/refine.test.ts needs 4 (44, 24, 10, 4 splits), a scan-like terrain 8.
+ */
+export const BOUNDARY_ROUNDS = 64;
 
 /** Accepted range of {@link HeatOptions.timeScale}: outside it the heat underflows within a few rings or the field is smoothed flat. */
 export const TIME_SCALE_RANGE: readonly [number, number] = [1e-2, 1e4];
@@ -42,7 +51,10 @@ export interface HeatOptions {
   /**
    * Split edges (boundary edges too) longer than {@link REFINE_FACTOR} times the edge of an
    * equilateral mesh with the same area and face count (metric/refine.ts), then
-   * flip to Delaunay again; default true (needs intrinsicDelaunay).
+   * flip to Delaunay again; then split the boundary edges opposite an obtuse corner and flip
+   * again, until there are none (their cotan weight is negative: M + tL would not be an
+   * M-matrix and the heat would change sign far from the source). Default true (needs
+   * intrinsicDelaunay).
    */
   refine?: boolean;
   /** Mollify edge lengths first (Sharp & Crane 2020); default true. */
@@ -85,9 +97,12 @@ export interface HeatStats {
   flips: number;
   /** True when the flip cap stopped the Delaunay loop early. */
   flipsCapped: boolean;
-  /** Vertices inserted by the intrinsic refinement (results are returned at the input's vertices only). */
+  /** Vertices inserted by the intrinsic refinement, long edges and obtuse boundary corners (results are returned at the input's vertices only). */
   inserted: number;
-  /** True when the refinement stopped at its vertex cap (max(1000, nv) insertions). */
+  /**
+   * True when the refinement stopped at its vertex cap (max(1000, nv) insertions, both kinds
+   * of split together) or after {@link BOUNDARY_ROUNDS} rounds of boundary splits.
+   */
   refineCapped: boolean;
   /** Uniform length added by mollification (mesh units; 0 when none was needed). */
   mollifyEpsilon: number;
@@ -142,7 +157,7 @@ export interface HeatTriangulation {
   flipsCapped: boolean;
   /** Vertices inserted by the refinement. */
   inserted: number;
-  /** True when the refinement stopped at its vertex cap. */
+  /** True when the refinement stopped at its vertex cap or round cap (see {@link HeatStats.refineCapped}). */
   refineCapped: boolean;
 }
 
@@ -177,10 +192,20 @@ export function heatTriangulation(mesh: IntrinsicMesh, opts: HeatOptions): HeatT
       let r = intrinsicDelaunay(work);
       work = r.mesh; flips = r.flips; flipsCapped = r.capped;
       if (opts.refine ?? true) {
-        const ref = refineLongEdges(work, REFINE_FACTOR * equilateralEdge(work), Math.max(1000, t.nv));
+        const cap = Math.max(1000, t.nv);
+        const ref = refineLongEdges(work, REFINE_FACTOR * equilateralEdge(work), cap);
         inserted = ref.inserted; refineCapped = ref.capped;
         if (inserted > 0) {
           r = intrinsicDelaunay(ref.mesh);
+          work = r.mesh; flips += r.flips; flipsCapped ||= r.capped;
+        }
+        // boundary edges opposite an obtuse corner (negative weights: M + tL no M-matrix), split until none is left
+        for (let round = 0; !refineCapped; round++) {
+          if (round === BOUNDARY_ROUNDS) { refineCapped = true; break; }
+          const b = splitObtuseBoundary(work, cap - inserted);
+          inserted += b.inserted; refineCapped ||= b.capped;
+          if (b.inserted === 0) break;
+          r = intrinsicDelaunay(b.mesh);
           work = r.mesh; flips += r.flips; flipsCapped ||= r.capped;
         }
       }

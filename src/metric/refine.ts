@@ -46,6 +46,9 @@
  * triangulations", ACM TOG 38(4), 2019). A boundary edge has no face d: m is
  * a new boundary vertex, the boundary loop keeps its shape and length.
  *
+ * {@link splitObtuseBoundary} uses the same bisection on the boundary edges
+ * opposite an obtuse corner (Ruppert's encroached segments; see there).
+ *
  * New vertices get ids after the input's (vertexOrigin −1), so per-vertex
  * results of the input are the first `nv` entries; the two halves of a face
  * keep its faceOrigin (each lies inside it). The caller runs the Delaunay
@@ -54,7 +57,7 @@
 import type { Topology } from '../mesh/topology.js';
 import type { IntrinsicMesh } from './intrinsic.js';
 import { next, prev } from '../mesh/topology.js';
-import { placeThirdCorner, triangleArea } from './triangle.js';
+import { placeThirdCorner, triangleArea, cotOpposite } from './triangle.js';
 import { planarLength } from './layout.js';
 
 /** Edge length of an equilateral mesh with the same total area and face count: √(4A / (√3·F)). */
@@ -110,6 +113,37 @@ export function refineLongEdges(m: IntrinsicMesh, maxLength: number, maxInserted
   }
   if (w.inserted === 0) return { mesh: m, inserted: 0, capped, unsplit };
   return { mesh: w.result(), inserted: w.inserted, capped, unsplit };
+}
+
+/**
+ * Bisects every boundary edge whose one opposite corner is obtuse
+ * (cot < −`tolerance`), up to `maxInserted` vertices. Such an edge is the
+ * longest side of its face, so the split is the same terminal-edge bisection
+ * as {@link refineLongEdges}'s. Why: a boundary edge's cotan weight is the
+ * single ½·cot of that corner, negative when it is obtuse, and a negative
+ * weight makes the heat matrix M + tL a non-M-matrix whose solution changes
+ * sign far from the source. Splitting the edges a vertex encroaches on
+ * (inside their diametral circle, i.e. opposite an obtuse angle) is the
+ * segment rule of Delaunay refinement (J. Ruppert, "A Delaunay refinement
+ * algorithm for quality 2-dimensional mesh generation", J. Algorithms 18(3),
+ * 1995): the caller flips to Delaunay again and repeats until no boundary
+ * edge is split.
+ */
+export function splitObtuseBoundary(m: IntrinsicMesh, maxInserted: number, tolerance = 1e-9): RefineResult {
+  const { topology: t, edgeLength: L } = m;
+  const obtuse: number[] = [];
+  for (let e = 0; e < t.ne; e++) {
+    const h = t.edgeHalfedge[e]!;
+    if (t.twin[h]! < 0 && cotOpposite(L[e]!, L[t.edgeOf[next(h)]!]!, L[t.edgeOf[prev(h)]!]!) < -tolerance) obtuse.push(e);
+  }
+  if (obtuse.length === 0) return { mesh: m, inserted: 0, capped: false, unsplit: 0 };
+  const w = new Bisection(m);
+  let capped = false, unsplit = 0;
+  for (const e of obtuse) {
+    if (w.inserted >= maxInserted) { capped = true; break; }
+    if (!splitLongest(w, e)) unsplit++;
+  }
+  return { mesh: w.inserted > 0 ? w.result() : m, inserted: w.inserted, capped, unsplit };
 }
 
 /** Layout scratch: the third corner of a face laid out along the edge being split. */

@@ -8,7 +8,11 @@
  * 2005) gives that field on the polyhedron; on the flat strip it is the plane
  * distance (closed form). The accuracy of the table cases is the README's
  * heat-accuracy table (npm run bench -- heat-accuracy); the strip's error
- * was measured by engineer R (61% mean off with the default time scale).
+ * was measured by engineer R (61% mean off with the default time scale, before
+ * the refinement split boundary edges opposite obtuse corners; now 2.6%, tested
+ * in test/metric/refine.test.ts). Solved without the refinement
+ * (`refine: false`: the two fans as they are, a boundary edge opposite a 174°
+ * corner) it is still 69% off from its end, the gross failure used here.
  */
 import { describe, expect, it } from 'vitest';
 import { buildTopology } from '../../src/mesh/build.js';
@@ -47,11 +51,12 @@ const nearest = (s: Shape, x: number, y: number): number => {
   return best;
 };
 
-describe('the fan strip: heat far off, flagged', () => {
+describe('the fan strip without the refinement: heat far off, flagged', () => {
   const s = fanStrip(), m = meshOf(s);
-  for (const src of [2, 27]) {
+  const unrefined = { heat: { refine: false } };
+  for (const src of [2]) {
     it(`source at top vertex ${src}: the heat field is >20% off the plane distance and the check says suspect; the exact field passes`, () => {
-      const heat = prepareDistance(m, 'heat').solve(vertexSource(src)).field.distance;
+      const heat = prepareDistance(m, 'heat', unrefined).solve(vertexSource(src)).field.distance;
       const P = s.positions;
       let sum = 0, n = 0;
       for (let v = 0; v < m.topology.nv; v++) {
@@ -59,10 +64,10 @@ describe('the fan strip: heat far off, flagged', () => {
         if (g < 0.5) continue;
         sum += Math.abs(heat[v]! - g) / g; n++;
       }
-      expect(sum / n).toBeGreaterThan(0.2); // mean relative error ≥ 28% (measured, vertices ≥ 0.5 from the source): the defect being checked for
+      expect(sum / n).toBeGreaterThan(0.2); // mean relative error 69% (measured, vertices ≥ 0.5 from the source): the defect being checked for
       const c = checkDistanceField(m, heat, vertexSource(src).points);
       expect(c.verdict).toBe('suspect');
-      expect(c.eikonalP95).toBeGreaterThan(0.6); // 0.67 / 0.91 measured: on 5% of the area |∇φ| < 0.33 / 0.09
+      expect(c.eikonalP95).toBeGreaterThan(0.6); // 0.78 measured: on 5% of the area |∇φ| < 0.22
       const exact = prepareDistance(m, 'exact').solve(vertexSource(src)).field.distance;
       const e = checkDistanceField(m, exact, vertexSource(src).points);
       expect(e.verdict).toBe('ok');
@@ -72,7 +77,7 @@ describe('the fan strip: heat far off, flagged', () => {
   }
   it('through the facade: a heat measurement carries the suspect check, an exact one none', () => {
     const surface = openSurface(meshFromTriangles(s.positions, s.triangles, 'strip'));
-    expect(measureDistances(surface, vertexSource(2), { method: 'heat' }).heatCheck?.verdict).toBe('suspect');
+    expect(measureDistances(surface, vertexSource(2), { method: 'heat', ...unrefined }).heatCheck?.verdict).toBe('suspect');
     expect(measureDistances(surface, vertexSource(2), { method: 'exact' }).heatCheck).toBeUndefined();
   });
 });
