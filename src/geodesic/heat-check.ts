@@ -32,9 +32,14 @@
  * README's heat-accuracy cases at both resolutions, time scale 1 and 100,
  * the 95th percentile stays ≤ 0.48 (terrain with long-edged sides; 0.52 for
  * the exact field there) and no edge passes 1.25× its length at time scale
- * 1; a flat 40 × 1 strip in two fans (heat 47–75% off) gives 0.67 and 0.91,
+ * 1; a flat 40 × 1 strip in two fans (heat 47–75% off) gave 0.67 and 0.91
+ * (since the refinement splits boundary edges opposite obtuse corners it is
+ * 2–3% off and passes; with `refine: false`, 69% off from its end, 0.78),
  * and a walking-time metric rough for its mesh (heat 14% off) 0.70 with 91
- * edges over 1.25× and a worst ratio of 1.57.
+ * edges over 1.25× and a worst ratio of 1.57. Blind spot: on a fan of
+ * needles a field flat along the long side can still show |∇φ| ≥ 1 across
+ * the needles (the strip with `refine: false` from its middle: 90% off, P95
+ * 0.02, verdict ok).
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import { layoutFace } from '../metric/layout.js';
