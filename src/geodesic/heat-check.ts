@@ -136,7 +136,7 @@ export function checkDistanceField(m: IntrinsicMesh, d: Float64Array, sources: r
   if (areaSum > 0) {
     let acc = 0, k = 0;
     for (; k <= BINS; k++) { acc += hist[k]!; if (acc >= 0.95 * areaSum) break; }
-    p95 = Math.min(k, BINS) * BIN + BIN / 2;
+    p95 = Math.min(1, Math.min(k, BINS) * BIN + BIN / 2); // a bin's middle; the shortfall max(0, 1 − |∇φ|) never exceeds 1
   }
   const eikonalMean = areaSum > 0 ? resSum / areaSum : 0;
 
