@@ -70,7 +70,7 @@ export function registerDistance(program: Command): void {
     .addOption(new Option('--heat-boundary <mode>', 'heat: boundary condition of the heat step').choices(['average', 'neumann', 'dirichlet']))
     .option('--no-intrinsic-delaunay', 'heat: build the Laplacian on the input triangles instead of the intrinsic Delaunay triangulation')
     .option('--no-mollify', 'heat: do not mollify near-degenerate triangles')
-    .option('--no-refine', 'heat: do not split long edges of the intrinsic triangulation (added vertices cost time and memory)')
+    .option('--no-refine', 'heat: do not split long edges, nor boundary edges facing an obtuse corner, of the intrinsic triangulation (added vertices cost time and memory; without them the heat method can be far off on meshes of long thin triangles)')
     .option('--split-nonmanifold', 'cut non-manifold edges and split non-manifold vertices instead of refusing the mesh')
     .addOption(maxInputSizeOption())
     .addOption(weldToleranceOption())
