@@ -10,14 +10,15 @@
  * read back from the solver afterwards.
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
-import type { SurfacePoint } from '../mesh/surface-point.js';
+import { surfacePointPosition, type SurfacePoint } from '../mesh/surface-point.js';
 import { boundaryCurves, type SourceSet } from '../geodesic/shared/sources.js';
 import type { DistanceMethod } from '../geodesic/shared/field.js';
 import { prepareDistance, type DistanceOptions, type DistanceResult, type DistanceSolver, type SolveOptions } from '../geodesic/solver.js';
 import { prepareCoverDistance } from '../geodesic/cover.js';
 import { throughPinches } from '../geodesic/pinch.js';
 import { coverOf, groupsOf, intrinsicOf, type SolvableSurface } from './parts.js';
-import { checkDistanceField, type HeatCheck } from '../geodesic/heat-check.js';
+import { checkDistanceField, CHORD_MAX_SOURCES, type ChordBound, type HeatCheck } from '../geodesic/heat-check.js';
+import { attachedMetric } from '../metric/user/surface-metric.js';
 
 export type { SolvableSurface, HeatCheck };
 
@@ -57,7 +58,21 @@ export interface Measurement extends DistanceResult {
 export function checkHeatField(s: SolvableSurface, distance: Float64Array, sources: SourceSet, mesh?: IntrinsicMesh): HeatCheck | null {
   const m = intrinsicOf(s, mesh);
   if (distance.length !== m.topology.nv) return null;
-  return checkDistanceField(m, distance, [...sources.points, ...sources.curves.flat()]);
+  return checkDistanceField(m, distance, [...sources.points, ...sources.curves.flat()], chordBound(s, sources, mesh));
+}
+
+/**
+ * The straight-line bound's data (geodesic/heat-check.ts) when it holds: the
+ * field measures the embedding's lengths (no user metric, no lengths given)
+ * and the sources are points, not too many of them; else undefined.
+ */
+function chordBound(s: SolvableSurface, sources: SourceSet, mesh?: IntrinsicMesh): ChordBound | undefined {
+  if (mesh !== undefined || attachedMetric(s) !== undefined) return undefined;
+  const pts = sources.points;
+  if (sources.curves.length > 0 || pts.length === 0 || pts.length > CHORD_MAX_SOURCES) return undefined;
+  const at = new Float64Array(3 * pts.length), xyz = new Float64Array(3);
+  pts.forEach((p, k) => at.set(surfacePointPosition(p, s.topology, s.positions, xyz), 3 * k));
+  return { positions: s.positions, sources: at };
 }
 
 /**

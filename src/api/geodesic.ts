@@ -17,7 +17,7 @@ export { exactDistance, DEFAULT_MEMORY_BUDGET, type ExactOptions, type ExactResu
 export type { WindowUsage } from '../geodesic/exact/usage.js';
 export { prepareExactGeometry, type ExactGeometry } from '../geodesic/exact/geometry.js';
 export { pathPolyline, pathLength } from '../geodesic/path.js';
-export { checkDistanceField, HEAT_CHECK_LIMITS, type HeatCheck } from '../geodesic/heat-check.js';
+export { checkDistanceField, HEAT_CHECK_LIMITS, CHORD_MIN_EDGES, CHORD_MAX_SOURCES, type ChordBound, type HeatCheck } from '../geodesic/heat-check.js';
 export { checkHeatField } from './distance.js';
 export {
   prepareDistance, checkEdgeLengths, MAX_LENGTH, type DistanceSolver, type DistanceResult, type DistanceOptions, type SolveOptions, type SolveProgress,

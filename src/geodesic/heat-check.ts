@@ -16,6 +16,14 @@
  *     j). Counted per edge with the ratio |φ(i) − φ(j)| / ℓ_ij; the worst
  *     ratio is reported.
  *   - φ ≥ 0, and φ ≈ 0 at vertex sources.
+ *   - The straight-line bound (when the caller gives positions: lengths of the
+ *     embedding, point sources). Every path on the surface from a source to
+ *     x is at least as long as the straight segment between them, so
+ *     d(x) ≥ min over the sources s of |x − s| (the chord). Counted at the
+ *     vertices at least {@link CHORD_MIN_EDGES} mean edges from every source,
+ *     where φ falls below (1 − `chordSlack`) × the chord; the smallest φ /
+ *     chord is reported. It sees a field that stops growing even where
+ *     its gradient looks right across needles (the blind spot below).
  * - The eikonal residual. A distance function solves |∇d| = 1 away from the
  *   sources and the cut locus (the eikonal equation; e.g. Evans, "Partial
  *   Differential Equations", 2nd ed., AMS 2010, §3.2 and §10.1). With φ
@@ -39,7 +47,12 @@
  * edges over 1.25× and a worst ratio of 1.57. Blind spot: on a fan of
  * needles a field flat along the long side can still show |∇φ| ≥ 1 across
  * the needles (the strip with `refine: false` from its middle: 90% off, P95
- * 0.02, verdict ok).
+ * 0.02); the straight-line bound catches it (every checked vertex below
+ * 0.75× its chord, down to φ / chord = 0.05), while the heat fields of the
+ * accuracy table's kinds of mesh stay far from it (worst φ / chord 0.89–0.97
+ * on a sphere, a bumpy sphere, the flat square, the holed plate and a
+ * jittered terrain, four sources each: measured; the chord is at most the
+ * distance, and heat's errors there are mostly overestimates).
  */
 import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import { layoutFace } from '../metric/layout.js';
@@ -63,6 +76,12 @@ export interface HeatCheck {
   negativeValues: number;
   /** Largest φ at a vertex source, in mesh units (0 without vertex sources). */
   worstSourceValue: number;
+  /** Vertices where φ falls below (1 − chordSlack) × the straight-line distance to the nearest source (proof of error). */
+  chordViolations: number;
+  /** Vertices the straight-line bound was checked at (0: not checked — no positions, a metric of one's own, curve sources). */
+  chordChecked: number;
+  /** Smallest φ / straight-line distance over the checked vertices (1 or more for a true distance field); null when none was checked. */
+  worstChordRatio: number | null;
   /** `ok`, or `suspect` when a threshold is passed (see {@link HEAT_CHECK_LIMITS}); `reasons` says which. */
   verdict: 'ok' | 'suspect';
   /** The thresholds passed, in words (empty when ok). */
@@ -84,7 +103,26 @@ export const HEAT_CHECK_LIMITS = {
   eikonalP95: 0.6,
   sourceValue: 0.5,
   negative: 1e-6,
+  chordSlack: 0.25,
+  chordShare: 0.01,
+  chordWorst: 0.5,
 } as const;
+
+/** The straight-line bound is checked at vertices at least this many mean edge lengths from every source. */
+export const CHORD_MIN_EDGES = 3;
+
+/** Most point sources the straight-line bound is checked for (it costs one distance per vertex and source). */
+export const CHORD_MAX_SOURCES = 64;
+
+/**
+ * What the straight-line bound needs: x, y, z per vertex of the mesh the
+ * field is on, and of each point source (`sources`, three numbers each).
+ * Only valid when the field measures the embedding's lengths.
+ */
+export interface ChordBound {
+  positions: Float64Array;
+  sources: Float64Array;
+}
 
 const BIN = 0.001;
 const BINS = 4000;
@@ -93,9 +131,10 @@ const BINS = 4000;
  * Checks the per-vertex field `d` on `m` (one value per vertex; `Infinity`
  * where unreachable, skipped). `sources` are the points the field was
  * measured from (vertex points are checked for φ ≈ 0; others are not).
- * O(edges + faces); reads only lengths and values.
+ * With `chord` (the embedding's positions and the point sources'), also the
+ * straight-line bound. O(edges + faces), plus vertices × chord sources.
  */
-export function checkDistanceField(m: IntrinsicMesh, d: Float64Array, sources: readonly SurfacePoint[] = []): HeatCheck {
+export function checkDistanceField(m: IntrinsicMesh, d: Float64Array, sources: readonly SurfacePoint[] = [], chord?: ChordBound): HeatCheck {
   const t = m.topology, L = m.edgeLength;
   let lenSum = 0;
   for (let e = 0; e < t.ne; e++) lenSum += L[e]!;
@@ -146,6 +185,27 @@ export function checkDistanceField(m: IntrinsicMesh, d: Float64Array, sources: r
   let worstSource = 0;
   for (const p of sources) if (p.kind === 'vertex' && p.vertex < d.length) worstSource = Math.max(worstSource, Math.abs(d[p.vertex]!));
 
+  // the straight-line bound: d(x) ≥ |x − nearest source| (a path on the surface is no shorter than the segment)
+  let chordViolations = 0, chordChecked = 0, worstChord = Infinity;
+  const ns = chord ? chord.sources.length / 3 : 0;
+  if (chord && ns >= 1 && ns <= CHORD_MAX_SOURCES && chord.positions.length === 3 * d.length) {
+    const P = chord.positions, S = chord.sources, near = CHORD_MIN_EDGES * meanLen;
+    for (let v = 0; v < d.length; v++) {
+      const phi = d[v]!;
+      if (!Number.isFinite(phi)) continue;
+      let c = Infinity;
+      for (let k = 0; k < ns; k++) {
+        const dx = P[3 * v]! - S[3 * k]!, dy = P[3 * v + 1]! - S[3 * k + 1]!, dz = P[3 * v + 2]! - S[3 * k + 2]!;
+        c = Math.min(c, Math.sqrt(dx * dx + dy * dy + dz * dz));
+      }
+      if (!(c >= near) || !(c > 0)) continue;
+      chordChecked++;
+      const r = phi / c;
+      if (r < worstChord) worstChord = r;
+      if (phi < (1 - HEAT_CHECK_LIMITS.chordSlack) * c - absSlack) chordViolations++;
+    }
+  }
+
   const reasons: string[] = [];
   if (violations > HEAT_CHECK_LIMITS.lipschitzShare * checked || worst > HEAT_CHECK_LIMITS.lipschitzWorst) {
     reasons.push(`${violations} of ${checked} edges change by more than 1.25× their length (worst ${worst.toFixed(2)}×; a distance changes by at most 1×)`);
@@ -153,9 +213,13 @@ export function checkDistanceField(m: IntrinsicMesh, d: Float64Array, sources: r
   if (p95 > HEAT_CHECK_LIMITS.eikonalP95) reasons.push(`on 5% of the area its gradient is under ${(1 - p95).toFixed(2)}, where a distance's is 1`);
   if (negative > 0) reasons.push(`${negative} negative value(s)`);
   if (worstSource > HEAT_CHECK_LIMITS.sourceValue * meanLen) reasons.push(`a source vertex at ${worstSource.toPrecision(3)} (not 0)`);
+  if (chordChecked > 0 && (chordViolations > HEAT_CHECK_LIMITS.chordShare * chordChecked || worstChord < HEAT_CHECK_LIMITS.chordWorst)) {
+    reasons.push(`${chordViolations} of ${chordChecked} vertices lie closer than 0.75× their straight-line distance from the sources (down to ${worstChord.toFixed(2)}×; a distance is never shorter than the straight line)`);
+  }
   return {
     lipschitzViolations: violations, edgesChecked: checked, worstLipschitzRatio: worst,
     eikonalMean, eikonalP95: p95, negativeValues: negative, worstSourceValue: worstSource,
+    chordViolations, chordChecked, worstChordRatio: chordChecked > 0 ? worstChord : null,
     verdict: reasons.length ? 'suspect' : 'ok', reasons,
   };
 }

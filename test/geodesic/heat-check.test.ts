@@ -8,17 +8,23 @@
  * 2005) gives that field on the polyhedron; on the flat strip it is the plane
  * distance (closed form). The accuracy of the table cases is the README's
  * heat-accuracy table (npm run bench -- heat-accuracy); the strip's error
- * was measured by engineer R (61% mean off with the default time scale, before
+ * was measured (61% mean off with the default time scale, before
  * the refinement split boundary edges opposite obtuse corners; now 2.6%, tested
  * in test/metric/refine.test.ts). Solved without the refinement
  * (`refine: false`: the two fans as they are, a boundary edge opposite a 174°
  * corner) it is still 69% off from its end, the gross failure used here.
+ * The straight-line bound: a curve on the surface between two points is a
+ * curve in space, and the straight segment is the shortest of those (the
+ * triangle inequality of Euclidean space), so a distance measured in the
+ * embedding is never below the chord.
  */
 import { describe, expect, it } from 'vitest';
 import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { prepareDistance } from '../../src/geodesic/solver.js';
-import { checkDistanceField } from '../../src/geodesic/heat-check.js';
+import { checkDistanceField, type ChordBound } from '../../src/geodesic/heat-check.js';
+import { surfacePointPosition } from '../../src/mesh/surface-point.js';
+import { attachMetric, parseMetricSpec } from '../../src/api/metric.js';
 import type { SourceSet } from '../../src/geodesic/shared/sources.js';
 import { openSurface, measureDistances } from '../../src/index.js';
 import { meshFromTriangles } from '../../src/io/mesh-data.js';
@@ -82,6 +88,54 @@ describe('the fan strip without the refinement: heat far off, flagged', () => {
   });
 });
 
+/** The straight-line bound's data for point sources on a mesh measured in its embedding. */
+function chordOf(s: Shape, m: IntrinsicMesh, set: SourceSet): ChordBound {
+  const at = new Float64Array(3 * set.points.length);
+  set.points.forEach((p, k) => at.set(surfacePointPosition(p, m.topology, s.positions), 3 * k));
+  return { positions: s.positions, sources: at };
+}
+
+describe('the straight-line bound: a distance is never shorter than the segment to the source', () => {
+  const s = fanStrip(), m = meshOf(s);
+  it('the strip without refinement, from its middle (90% off): the eikonal figures miss it, the bound does not', () => {
+    const set = vertexSource(27), unrefined = { heat: { refine: false } };
+    const heat = prepareDistance(m, 'heat', unrefined).solve(set).field.distance;
+    const plain = checkDistanceField(m, heat, set.points);
+    expect(plain.verdict).toBe('ok'); // the blind spot: P95 0.02 (measured), no Lipschitz excess
+    const c = checkDistanceField(m, heat, set.points, chordOf(s, m, set));
+    expect(c.verdict).toBe('suspect');
+    expect(c.chordChecked).toBeGreaterThan(0);
+    expect(c.chordViolations).toBe(c.chordChecked); // all 8 vertices ≥ 3 mean edges away (measured)
+    expect(c.worstChordRatio!).toBeLessThan(0.5); // 0.05 (measured)
+    // through the facade, which gives the bound itself when the lengths are the embedding's
+    const surface = openSurface(meshFromTriangles(s.positions, s.triangles, 'strip'));
+    const f = measureDistances(surface, set, { method: 'heat', ...unrefined }).heatCheck!;
+    expect(f.verdict).toBe('suspect');
+    expect(f.chordViolations).toBeGreaterThan(0);
+  });
+  it('exact fields never break it (the bound is a theorem: the segment is the shortest curve in space)', () => {
+    for (const [sh, src] of [[s, 27], [icosphere(3, 1), 5], [twoHolePlate(10, 10 / 30), 0]] as [Shape, number][]) {
+      const mm = meshOf(sh), set = vertexSource(src);
+      const d = prepareDistance(mm, 'exact').solve(set).field.distance;
+      const c = checkDistanceField(mm, d, set.points, chordOf(sh, mm, set));
+      expect(c.chordChecked).toBeGreaterThan(0);
+      expect(c.chordViolations).toBe(0);
+      expect(c.worstChordRatio!).toBeGreaterThanOrEqual(1 - 1e-9);
+    }
+  });
+  it('not checked where it does not hold or is not given: curve sources, a metric of your own, no positions', () => {
+    const surface = openSurface(meshFromTriangles(s.positions, s.triangles, 'strip'));
+    const curve: SourceSet = { points: [], curves: [[{ kind: 'vertex', vertex: 2 }, { kind: 'vertex', vertex: 3 }]] };
+    expect(measureDistances(surface, curve, { method: 'heat' }).heatCheck!.chordChecked).toBe(0);
+    const scaled = openSurface(meshFromTriangles(s.positions, s.triangles, 'strip'));
+    attachMetric(scaled, parseMetricSpec('conformal:0.5')); // distances halved: below the straight line, rightly
+    const h = measureDistances(scaled, vertexSource(2), { method: 'heat' }).heatCheck!;
+    expect(h.chordChecked).toBe(0);
+    expect(h.worstChordRatio).toBeNull();
+    expect(checkDistanceField(m, prepareDistance(m, 'exact').solve(vertexSource(2)).field.distance).chordChecked).toBe(0);
+  });
+});
+
 describe('the heat-accuracy table cases (coarse level): quiet', () => {
   const cases: [string, Shape, (s: Shape) => number][] = [
     ['sphere', icosphere(4, 1), () => 0], // table: 1.00% mean
@@ -91,8 +145,10 @@ describe('the heat-accuracy table cases (coarse level): quiet', () => {
   for (const [name, s, src] of cases) {
     it(`${name}: ok, with no edge over 1.25× its length`, () => {
       const m = meshOf(s), set = vertexSource(src(s));
-      const c = checkDistanceField(m, prepareDistance(m, 'heat').solve(set).field.distance, set.points);
+      const c = checkDistanceField(m, prepareDistance(m, 'heat').solve(set).field.distance, set.points, chordOf(s, m, set));
       expect(c.reasons).toEqual([]);
+      expect(c.chordViolations).toBe(0);
+      expect(c.worstChordRatio!).toBeGreaterThan(0.85); // 0.89–0.97 measured
       expect(c.verdict).toBe('ok');
       expect(c.eikonalP95).toBeLessThan(0.2); // 0.03–0.07 measured
     });
