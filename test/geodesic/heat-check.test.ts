@@ -28,23 +28,12 @@ import { attachMetric, parseMetricSpec } from '../../src/api/metric.js';
 import type { SourceSet } from '../../src/geodesic/shared/sources.js';
 import { openSurface, measureDistances } from '../../src/index.js';
 import { meshFromTriangles } from '../../src/io/mesh-data.js';
-import { icosphere, flatGrid, type Shape } from '../fixtures/shapes.js';
+import { fanStrip, icosphere, flatGrid, type Shape } from '../fixtures/shapes.js';
 import { twoHolePlate } from '../fixtures/holed-plates.js';
 
 function meshOf(s: Shape): IntrinsicMesh {
   const { topology } = buildTopology(s.triangles, s.positions.length / 3);
   return intrinsicFromPositions(topology, s.positions);
-}
-
-/** A flat 40 × 1 strip: 51 top vertices, triangulated as two fans from its bottom corners (R's case). */
-function fanStrip(n = 50, Lx = 40): Shape {
-  const P: number[] = [0, 0, 0, Lx, 0, 0];
-  for (let i = 0; i <= n; i++) P.push((i / n) * Lx, 1, 0);
-  const tris: number[] = [];
-  const mid = n >> 1;
-  for (let i = 0; i < n; i++) tris.push(i < mid ? 0 : 1, 2 + i + 1, 2 + i);
-  tris.push(0, 1, 2 + mid);
-  return { positions: Float64Array.from(P), triangles: Uint32Array.from(tris) };
 }
 
 const vertexSource = (v: number): SourceSet => ({ points: [{ kind: 'vertex', vertex: v }], curves: [] });

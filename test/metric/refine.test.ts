@@ -18,7 +18,7 @@ import { HeatSolver, REFINE_FACTOR, type HeatOptions } from '../../src/geodesic/
 import { heatTriangulation } from '../../src/geodesic/heat-setup.js';
 import { prepareDistance } from '../../src/geodesic/solver.js';
 import { scanTerrain } from '../bench/meshes.js';
-import { flatGrid, randomFlat, terrain, rng, type Shape } from '../fixtures/shapes.js';
+import { fanStrip, flatGrid, randomFlat, terrain, rng, type Shape } from '../fixtures/shapes.js';
 
 function meshOf(s: Shape): IntrinsicMesh {
   const { topology } = buildTopology(s.triangles, s.positions.length / 3);
@@ -268,16 +268,6 @@ describe('refineLongEdges: Rivara longest-edge bisection', () => {
   });
 });
 
-/** A flat 40 × 1 strip: 51 top vertices, triangulated as two fans from its bottom corners (as in test/geodesic/heat-check.test.ts). */
-function fanStrip(n = 50, Lx = 40): Shape {
-  const P: number[] = [0, 0, 0, Lx, 0, 0];
-  for (let i = 0; i <= n; i++) P.push((i / n) * Lx, 1, 0);
-  const tris: number[] = [];
-  const mid = n >> 1;
-  for (let i = 0; i < n; i++) tris.push(i < mid ? 0 : 1, 2 + i + 1, 2 + i);
-  tris.push(0, 1, 2 + mid);
-  return { positions: Float64Array.from(P), triangles: Uint32Array.from(tris) };
-}
 
 /** Boundary edges whose cotan weight (½ cot of the one opposite corner) is below −1e-9: the corner is obtuse. */
 function negativeBoundaryWeights(m: IntrinsicMesh): number {
