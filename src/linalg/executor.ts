@@ -26,6 +26,8 @@ export interface FactorJob {
   readonly minPivot: Float64Array | null;
   /** Use the WebAssembly SIMD kernel where the platform has it (as FactorOptions.simd). */
   readonly simd: boolean;
+  /** 2^−k when cx holds 4^k·C (exponent-shift.ts), else 1: L's blocks are stored times it. */
+  readonly unscale: number;
 }
 
 /**

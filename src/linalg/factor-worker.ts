@@ -31,7 +31,7 @@ parentPort!.on('message', (m: JobMessage | TaskMessage) => {
   try {
     const sn = m.sn;
     const work = multifrontalWork(m.n, sn, m.simd);
-    const bad = multifrontalFactor(sn, m.cColPtr, m.cRowIdx, m.cx, m.lx, work, m.pivot, m.minPivot, status.subarray(S_HEARTBEAT, S_HEARTBEAT + 1));
+    const bad = multifrontalFactor(sn, m.cColPtr, m.cRowIdx, m.cx, m.lx, work, m.pivot, m.minPivot, status.subarray(S_HEARTBEAT, S_HEARTBEAT + 1), 0, sn.nsuper, m.unscale);
     status[S_BAD] = bad;
     state = DONE;
   } catch {

@@ -49,7 +49,8 @@ export function affectedBlocks(sn: SupernodalStructure, cp: Int32Array, cxA: Flo
  * `status[1]` (B stops at its first failure; A carries on), with the pivot
  * values in `pivots`. The two works must be distinct. With `lo`, `hi` only
  * supernodes lo … hi−1 (a whole subtree's range) are factored, from empty
- * stacks (as multifrontalFactor). Never throws.
+ * stacks, and `unscale` stores the blocks scaled (both as multifrontalFactor;
+ * both matrices then carry the same shift). Never throws.
  */
 export function multifrontalPair(
   sn: SupernodalStructure,
@@ -66,6 +67,7 @@ export function multifrontalPair(
   pivots: Float64Array,
   lo = 0,
   hi = sn.nsuper,
+  unscale = 1,
 ): void {
   const { superStart, childCount, rowPtr, valPtr } = sn;
   const FA = workA.front, FB = workB.front;
@@ -104,10 +106,10 @@ export function multifrontalPair(
     const badA = factorFront(FA, nr, nc, workA.simd, null, f);
     if (badA >= 0) {
       status[0] = f + badA;
-      pivots[0] = FA[badA * nr + badA]!;
+      pivots[0] = FA[badA * nr + badA]! * unscale * unscale;
       return;
     }
-    storeBlock(FA, nr, nc, LxA, valPtr[s]!);
+    storeBlock(FA, nr, nc, LxA, valPtr[s]!, unscale);
     if (nr > nc) {
       topA = pushUpdate(FA, nr, nc, workA.stack, topA);
       workA.stackIds[nA++] = s;
@@ -116,11 +118,11 @@ export function multifrontalPair(
     const badB = factorFront(FB, nr, nc, workB.simd, null, f);
     if (badB >= 0) {
       status[1] = f + badB;
-      pivots[1] = FB[badB * nr + badB]!;
+      pivots[1] = FB[badB * nr + badB]! * unscale * unscale;
       bOk = false;
       continue;
     }
-    storeBlock(FB, nr, nc, LxB, own[s]!);
+    storeBlock(FB, nr, nc, LxB, own[s]!, unscale);
     if (nr > nc) {
       topB = pushUpdate(FB, nr, nc, workB.stack, topB);
       workB.stackIds[nB++] = s;

@@ -12,6 +12,7 @@
 import type { CscMatrix } from './csc.js';
 import { scatterValues, type CholeskySymbolic } from './symbolic.js';
 import { affectedBlocks } from './multifrontal-pair.js';
+import { exponentShift, pow2 } from './exponent-shift.js';
 import { planFactorTasks, type PlanGroup } from './multifrontal-plan.js';
 import { C_FAILED, C_WORDS, runFactorTasks, taskWorkspace, type TaskFactor, type TaskRun } from './multifrontal-tasks.js';
 import type { MultifrontalWork } from './multifrontal.js';
@@ -35,15 +36,18 @@ export function factorOnThreads(
 ): ThreadedFactors | null {
   const sn = sym.supernodal!;
   const ints = (k: number) => new Int32Array(ex.shared(Math.ceil(k / 2) + 1).buffer, 0, k);
-  const cx = mats.map((A) => {
+  // each matrix moved to the top of the double range (exponent-shift.ts); a pair with one shift
+  const shifts = mats.map((A) => exponentShift(A.values));
+  if (pair) shifts[0] = shifts[1] = Math.min(shifts[0]!, shifts[1]!);
+  const cx = mats.map((A, k) => {
     const c = ex.shared(sym.cRowIdx.length);
-    scatterValues(sym, A, c, null, 0);
+    scatterValues(sym, A, c, null, 0, shifts[k]);
     return c;
   });
   const full = sn.valPtr[sn.nsuper]!;
   let own: Int32Array | null = null, second = full;
   if (pair) ({ own, total: second } = affectedBlocks(sn, sym.cColPtr, cx[0]!, cx[1]!));
-  const factors: TaskFactor[] = cx.map((c, k) => ({ cx: c, lx: ex.shared(pair && k === 1 ? second : full), own: pair && k === 1 ? own : null }));
+  const factors: TaskFactor[] = cx.map((c, k) => ({ cx: c, lx: ex.shared(pair && k === 1 ? second : full), own: pair && k === 1 ? own : null, unscale: pow2(-shifts[k]!) }));
   const groups: PlanGroup[] = [];
   for (let k = 0; k < mats.length; k++) {
     if (pair && k === 0) {

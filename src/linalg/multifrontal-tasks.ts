@@ -29,6 +29,8 @@ export interface TaskFactor {
   readonly cx: Float64Array;
   readonly lx: Float64Array;
   readonly own: Int32Array | null;
+  /** 2^−k when cx holds 4^k·C (exponent-shift.ts; a pair's two share k), else 1. */
+  readonly unscale: number;
 }
 
 /** Everything the threads share for one run. */
@@ -141,7 +143,7 @@ export function runFactorTask(run: TaskRun, ws: TaskWorkspace, t: number): boole
     assembleFront(sn, s, cp, ci, fac.cx, work, F);
     for (let k = plan.childPtr[t]!; k < plan.childPtr[t + 1]!; k++) extendAdd(sn, plan.childNode[k]!, slots, plan.childSlot[k]!, work, F, nr);
     if (factorFront(F, nr, nc, work.simd, null, f0) >= 0) return false;
-    storeBlock(F, nr, nc, fac.lx, fac.own ? fac.own[s]! : sn.valPtr[s]!);
+    storeBlock(F, nr, nc, fac.lx, fac.own ? fac.own[s]! : sn.valPtr[s]!, fac.unscale);
     const out = plan.outSlot[2 * t]!;
     if (nr > nc && out >= 0) pushUpdate(F, nr, nc, slots, out);
     return true;
@@ -150,11 +152,11 @@ export function runFactorTask(run: TaskRun, ws: TaskWorkspace, t: number): boole
   const fa = factors[g.factors[0]!]!, { status, pivots } = ws;
   if (g.factors.length === 2) {
     const fb = factors[g.factors[1]!]!;
-    multifrontalPair(sn, cp, ci, fa.cx, fb.cx, fa.lx, fb.lx, fb.own!, ws.a, ws.b, status, pivots, lo, s + 1);
+    multifrontalPair(sn, cp, ci, fa.cx, fb.cx, fa.lx, fb.lx, fb.own!, ws.a, ws.b, status, pivots, lo, s + 1, fa.unscale);
     if (status[0]! >= 0 || status[1]! >= 0) return false;
     const ob = plan.outSlot[2 * t + 1]!;
     if (ob >= 0) slots.set(ws.b.stack.subarray(0, len), ob);
-  } else if (multifrontalFactor(sn, cp, ci, fa.cx, fa.lx, ws.a, pivots, null, null, lo, s + 1) >= 0) {
+  } else if (multifrontalFactor(sn, cp, ci, fa.cx, fa.lx, ws.a, pivots, null, null, lo, s + 1, fa.unscale) >= 0) {
     return false;
   }
   const oa = plan.outSlot[2 * t]!;

@@ -55,7 +55,9 @@ export function multifrontalWork(n: number, sn: SupernodalStructure, useSimd = t
  * to s + 1 as supernode s starts (a heartbeat another thread can watch).
  * With `lo`, `hi` only supernodes lo … hi−1 are factored, from an empty
  * stack: a whole subtree's postorder range (multifrontal-tasks.ts), whose
- * root's update matrix is then left at stack[0 …].
+ * root's update matrix is then left at stack[0 …]. With `unscale` = 2^−k
+ * (cx holds 4^k·C: exponent-shift.ts) the blocks are stored times 2^−k, so
+ * Lx is C's factor, and the pivot reported is unscaled too.
  * Never throws, never allocates.
  */
 export function multifrontalFactor(
@@ -70,6 +72,7 @@ export function multifrontalFactor(
   progress: Int32Array | null = null,
   lo = 0,
   hi = sn.nsuper,
+  unscale = 1,
 ): number {
   const { superStart, childCount, rowPtr, valPtr } = sn;
   const { front: F, stack, stackIds, simd } = work;
@@ -89,10 +92,10 @@ export function multifrontalFactor(
     }
     const bad = factorFront(F, nr, nc, simd, minPivot, f);
     if (bad >= 0) {
-      pivotOut[0] = F[bad * nr + bad]!;
+      pivotOut[0] = F[bad * nr + bad]! * unscale * unscale;
       return f + bad;
     }
-    storeBlock(F, nr, nc, Lx, valPtr[s]!);
+    storeBlock(F, nr, nc, Lx, valPtr[s]!, unscale);
     if (nr > nc) {
       stackTop = pushUpdate(F, nr, nc, stack, stackTop);
       stackIds[nStack++] = s;
@@ -162,18 +165,19 @@ export function extendAdd(
 /**
  * Copies L's block out of the factored front: the diagonal block's lower
  * triangle packed by rows, then the first nc entries of every row below
- * (F's upper triangle holds scratch values).
+ * (F's upper triangle holds scratch values), each times `unscale` (a power
+ * of two; 1 copies them as they are).
  */
-export function storeBlock(F: Float64Array, nr: number, nc: number, Lx: Float64Array, v0: number): void {
+export function storeBlock(F: Float64Array, nr: number, nc: number, Lx: Float64Array, v0: number, unscale = 1): void {
   for (let r = 0, dst = v0; r < nc; r++) {
     const src = r * nr;
-    for (let k = 0; k <= r; k++) Lx[dst++] = F[src + k]!;
+    for (let k = 0; k <= r; k++) Lx[dst++] = F[src + k]! * unscale;
   }
   const w0 = belowBase(v0, nc);
   for (let r = nc; r < nr; r++) {
     const src = r * nr;
     const dst = w0 + r * nc;
-    for (let k = 0; k < nc; k++) Lx[dst + k] = F[src + k]!;
+    for (let k = 0; k < nc; k++) Lx[dst + k] = F[src + k]! * unscale;
   }
 }
 

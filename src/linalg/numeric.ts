@@ -17,6 +17,7 @@ import { pairTransposeSolve } from './solve-pair.js';
 import { numericError, usageError, type OrthodromeError } from '../errors.js';
 import type { FactorExecutor } from './executor.js';
 import { factorOnThreads } from './multifrontal-parallel.js';
+import { exponentShift, pow2 } from './exponent-shift.js';
 
 /** Options of {@link CholeskyFactor.factor}. */
 export interface FactorOptions {
@@ -112,6 +113,8 @@ export class CholeskyFactor {
   private base: Float64Array | null = null;
   /** Set on a factor whose blocks another factor reads: refactor would change both. */
   private lent = false;
+  /** The supernodal factorization runs on 4^shift·A (exponent-shift.ts); set by load. */
+  private shift = 0;
 
   private constructor(sym: CholeskySymbolic, opts: FactorOptions, Lx: Float64Array | null = null) {
     const n = sym.n;
@@ -188,7 +191,7 @@ export class CholeskyFactor {
       const cx = ex.shared(sym.cRowIdx.length);
       const minPivot = f.minPivot ? ex.shared(sym.n) : null;
       f.load(A, cx, minPivot);
-      return { f, wait: ex.start({ sym, cx, lx: f.Lx, minPivot, simd }) };
+      return { f, wait: ex.start({ sym, cx, lx: f.Lx, minPivot, simd, unscale: pow2(-f.shift) }) };
     });
     const out = here();
     for (const { f, wait } of remote) {
@@ -218,9 +221,11 @@ export class CholeskyFactor {
     const sn = sym.supernodal;
     if (!sn || (opts.pivotTolerance ?? 0) > 0) return CholeskyFactor.factorMany([A, B], sym, { ...opts, pairFirst: false });
     const fa = new CholeskyFactor(sym, opts);
-    fa.load(A, fa.Cx, null);
+    // one shift for both (B reads A's update matrices), safe for both
+    const shift = Math.min(exponentShift(A.values), exponentShift(B.values));
+    fa.load(A, fa.Cx, null, shift);
     const cxB = new Float64Array(sym.cRowIdx.length);
-    fa.load(B, cxB, null);
+    fa.load(B, cxB, null, shift);
     const { own, total } = affectedBlocks(sn, sym.cColPtr, fa.Cx, cxB);
     const fb = new CholeskyFactor(sym, opts, new Float64Array(total));
     fb.own = own;
@@ -229,7 +234,7 @@ export class CholeskyFactor {
     const workB = multifrontalWork(sym.n, sn, opts.simd ?? true);
     const status = new Int32Array(2);
     const pivots = new Float64Array(2);
-    multifrontalPair(sn, sym.cColPtr, sym.cRowIdx, fa.Cx, cxB, fa.Lx, fb.Lx, own, fa.mf!, workB, status, pivots);
+    multifrontalPair(sn, sym.cColPtr, sym.cRowIdx, fa.Cx, cxB, fa.Lx, fb.Lx, own, fa.mf!, workB, status, pivots, 0, sn.nsuper, pow2(-shift));
     fa.pivot[0] = pivots[0]!;
     fb.pivot[0] = pivots[1]!;
     if (status[0]! >= 0) {
@@ -261,10 +266,13 @@ export class CholeskyFactor {
   /**
    * Checks the pattern of `Alower`, scatters its values into C's order (cx)
    * and fills the pivot floors; throws `USAGE` for a pattern other than the
-   * analysed one.
+   * analysed one. A supernodal factor takes them times 4^k (`shift`, by
+   * default {@link exponentShift} of A: exponent-shift.ts); the simplicial
+   * method does not shift.
    */
-  private load(Alower: CscMatrix, Cx: Float64Array, minPivot: Float64Array | null): void {
-    scatterValues(this.symbolic, Alower, Cx, minPivot, this.pivotTolerance);
+  private load(Alower: CscMatrix, Cx: Float64Array, minPivot: Float64Array | null, shift = this.symbolic.supernodal ? exponentShift(Alower.values) : 0): void {
+    this.shift = shift;
+    scatterValues(this.symbolic, Alower, Cx, minPivot, this.pivotTolerance, shift);
   }
 
   /** refactor(A), or its `NUMERIC` error as a value. */
@@ -297,7 +305,7 @@ export class CholeskyFactor {
     this.load(Alower, this.Cx, minPivot);
     let bad: number;
     if (sym.supernodal) {
-      bad = multifrontalFactor(sym.supernodal, sym.cColPtr, sym.cRowIdx, this.Cx, this.Lx, this.mf!, this.pivot, minPivot);
+      bad = multifrontalFactor(sym.supernodal, sym.cColPtr, sym.cRowIdx, this.Cx, this.Lx, this.mf!, this.pivot, minPivot, null, 0, sym.supernodal.nsuper, pow2(-this.shift));
     } else {
       const [next, stack, mark] = this.intWork;
       for (let k = 0; k < sym.n; k++) next[k] = sym.lColPtr[k]!;

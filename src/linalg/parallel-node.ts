@@ -47,6 +47,7 @@ export interface JobMessage {
   lx: Float64Array;
   minPivot: Float64Array | null;
   simd: boolean;
+  unscale: number;
   status: Int32Array;
   pivot: Float64Array;
 }
@@ -133,7 +134,7 @@ export class NodeFactorExecutor implements FactorExecutor {
   start(job: FactorJob): () => FactorJobResult {
     const status = new Int32Array(new SharedArrayBuffer(16));
     const pivot = this.shared(1);
-    const msg: JobMessage = { ...this.#structure(job.sym), cx: job.cx, lx: job.lx, minPivot: job.minPivot, simd: job.simd, status, pivot };
+    const msg: JobMessage = { ...this.#structure(job.sym), cx: job.cx, lx: job.lx, minPivot: job.minPivot, simd: job.simd, unscale: job.unscale, status, pivot };
     const worker = this.#worker();
     worker.postMessage(msg);
     return () => this.#wait(worker, msg);

@@ -17,6 +17,7 @@ import { findSupernodes } from './supernodes.js';
 import type { SupernodalStructure } from './supernodes.js';
 import { usageError, limitError } from '../errors.js';
 import { permutedPattern, relabelLower } from './symbolic-pattern.js';
+import { pow2 } from './exponent-shift.js';
 
 /** Fill-reducing orderings: approximate minimum degree, nested dissection, or none. */
 export type Ordering = 'amd' | 'nd' | 'natural';
@@ -220,9 +221,10 @@ export function analyzeCholesky(Alower: CscMatrix, opts: AnalyzeOptions = {}): C
  * Checks that `Alower` has the analysed pattern (`USAGE` naming the first
  * difference otherwise), scatters its values into C's order (Cx) and, when
  * `minPivot` is given, sets the pivot floors τ·|A_kk| in the permuted
- * numbering (missing diagonal: 0).
+ * numbering (missing diagonal: 0). With `shift` = k > 0 both are scaled by
+ * 4^k, exactly (exponent-shift.ts).
  */
-export function scatterValues(sym: CholeskySymbolic, Alower: CscMatrix, Cx: Float64Array, minPivot: Float64Array | null, tau: number): void {
+export function scatterValues(sym: CholeskySymbolic, Alower: CscMatrix, Cx: Float64Array, minPivot: Float64Array | null, tau: number, shift = 0): void {
   const { n, inputColPtr, inputRowIdx, valueMap } = sym;
   if (Alower.n !== n) throw usageError(`refactor: matrix is ${Alower.n}×${Alower.n}, analysis was for ${n}×${n}`);
   const nz = inputColPtr[n]!;
@@ -235,13 +237,14 @@ export function scatterValues(sym: CholeskySymbolic, Alower: CscMatrix, Cx: Floa
     }
   }
   const Ax = Alower.values;
-  for (let p = 0; p < nz; p++) Cx[valueMap[p]!] = Ax[p]!;
+  const scale = pow2(2 * shift); // 1 for no shift (x·1 = x for every double)
+  for (let p = 0; p < nz; p++) Cx[valueMap[p]!] = Ax[p]! * scale;
   if (minPivot !== null) {
     minPivot.fill(0);
     const { pinv } = sym;
     for (let j = 0; j < n; j++) {
       for (let p = Alower.colPtr[j]!; p < Alower.colPtr[j + 1]!; p++) {
-        if (Alower.rowIdx[p] === j) minPivot[pinv[j]!] = tau * Math.abs(Ax[p]!);
+        if (Alower.rowIdx[p] === j) minPivot[pinv[j]!] = tau * Math.abs(Ax[p]! * scale);
       }
     }
   }

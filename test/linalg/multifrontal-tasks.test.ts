@@ -45,7 +45,7 @@ function setUp(opts: { slices?: number; maxTop?: number }) {
   const plan = planFactorTasks(sn, groups, opts);
   const run: TaskRun = {
     sn, cp: sym.cColPtr, ci: sym.cRowIdx, plan, groups,
-    factors: cx.map((c, k) => ({ cx: c, lx: new Float64Array(k === 1 ? total : full), own: k === 1 ? own : null })),
+    factors: cx.map((c, k) => ({ cx: c, lx: new Float64Array(k === 1 ? total : full), own: k === 1 ? own : null, unscale: 1 })),
     slots: new Float64Array(plan.slotTotal), ctl: new Int32Array(C_WORDS), state: new Int32Array(plan.ntasks), pending: plan.deps.slice(),
   };
   return { run, own, plan };
