@@ -86,21 +86,23 @@ export class FlipQuad {
     tri[h] = d; tri[hn] = c; tri[hp] = a;
     // face of o = (c, d, b): o = c→d, on = d→b (old op), op = b→c (old hn)
     tri[o] = c; tri[on] = d; tri[op] = b;
-    const relink = (slot: number, e: number, tw: number): void => {
-      edgeOf[slot] = e;
-      twin[slot] = tw;
-      if (tw >= 0) twin[tw] = slot;
-      eh[e] = slot;
-    };
-    relink(hn, eHp, tHp);
-    relink(hp, eOn, tOn);
-    relink(on, eOp, tOp);
-    relink(op, eHn, tHn);
+    relink(edgeOf, twin, eh, hn, eHp, tHp);
+    relink(edgeOf, twin, eh, hp, eOn, tOn);
+    relink(edgeOf, twin, eh, on, eOp, tOp);
+    relink(edgeOf, twin, eh, op, eHn, tHn);
     if (fixA) anchor[a] = hp;
     if (fixB) anchor[b] = op;
     if (fixC) anchor[c] = hn;
     if (fixD) anchor[d] = on;
   }
+}
+
+/** Puts side e (twin tw) into `slot` (a module function: making a closure on every flip took a third of the flipping time). */
+function relink(edgeOf: Int32Array, twin: Int32Array, eh: Int32Array, slot: number, e: number, tw: number): void {
+  edgeOf[slot] = e;
+  twin[slot] = tw;
+  if (tw >= 0) twin[tw] = slot;
+  eh[e] = slot;
 }
 
 /** True when half-edge tw (≥ 0) belongs to face f0 or f1. */

@@ -30,7 +30,7 @@
 import type { Topology } from '../mesh/topology.js';
 import type { IntrinsicMesh } from './intrinsic.js';
 import { next, prev } from '../mesh/topology.js';
-import { triangleArea, unfoldedDiagonal, cotOpposite } from './triangle.js';
+import { triangleArea, unfoldedDiagonal, cotOpposite, faceCotans } from './triangle.js';
 import { FlipQuad } from '../mesh/edge-flip.js';
 
 /** Options of {@link intrinsicDelaunay}. */
@@ -90,15 +90,22 @@ export function intrinsicDelaunay(m: IntrinsicMesh, options: DelaunayOptions = {
     vertexOrigin: src.vertexOrigin.slice(), faceOrigin,
   };
 
+  // cot[h]: cotangent of the angle opposite half-edge h, kept per face (one area for three; the
+  // same values as edgeCotanSum's, bit for bit), so the test of an edge is one addition
+  const cot = new Float64Array(3 * src.nf);
+  for (let f = 0; f < src.nf; f++) cacheFace(t, L, cot, f);
+
   // FIFO ring of edges; queued[e] keeps each edge in it at most once
   const ne = src.ne;
-  const ring = new Int32Array(Math.max(1, ne));
+  const cap = Math.max(1, ne);
+  const ring = new Int32Array(cap);
   const queued = new Uint8Array(ne);
   let head = 0, size = 0;
   const push = (e: number): void => {
     if (queued[e] || twin[edgeHalfedge[e]!]! < 0) return;
     queued[e] = 1;
-    ring[(head + size) % ring.length] = e;
+    const at = head + size;
+    ring[at < cap ? at : at - cap] = e;
     size++;
   };
   for (let e = 0; e < ne; e++) push(e);
@@ -107,18 +114,30 @@ export function intrinsicDelaunay(m: IntrinsicMesh, options: DelaunayOptions = {
   const quad = new FlipQuad();
   while (size > 0) {
     const e = ring[head]!;
-    head = (head + 1) % ring.length;
+    head = head + 1 < cap ? head + 1 : 0;
     size--;
     queued[e] = 0;
     const h = edgeHalfedge[e]!, o = twin[h]!;
-    if (o < 0 || edgeCotanSum(t, L, h) >= -tol) continue;
+    if (o < 0 || cot[h]! + cot[o]! >= -tol) continue;
     if (flips >= maxFlips) { capped = true; break; }
     if (!flip(t, L, h, quad)) { skipped++; continue; }
+    cacheFace(t, L, cot, (h / 3) | 0);
+    cacheFace(t, L, cot, (o / 3) | 0);
     flips++;
     push(edgeOf[next(h)]!); push(edgeOf[prev(h)]!);
     push(edgeOf[next(o)]!); push(edgeOf[prev(o)]!);
   }
   return { mesh: { topology: t, edgeLength: L }, flips, skipped, capped };
+}
+
+/**
+ * Writes the cotangents opposite face f's three half-edges to cot[3f …]
+ * (triangle.ts's faceCotans: the values of cotOpposite, one area for three).
+ */
+function cacheFace(t: Topology, L: Float64Array, cot: Float64Array, f: number): void {
+  const h = 3 * f, eo = t.edgeOf;
+  // slots h, h + 1, h + 2 are h, next(h), prev(h)
+  faceCotans(L[eo[h]!]!, L[eo[h + 1]!]!, L[eo[h + 2]!]!, cot, h);
 }
 
 /**
