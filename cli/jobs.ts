@@ -16,6 +16,7 @@
  * total for the run: each of the N concurrent solves gets 1/N of it.
  */
 import { Worker } from 'node:worker_threads';
+import { statSync } from 'node:fs';
 import {
   OrthodromeError, isOrthodromeError, prepareDistances,
   type DistanceMethod, type DistanceResult, type DistanceSolver, type PrepareOptions, type SolvableSurface, type SolveOptions, type SourceSet, type SurfacePoint,
@@ -46,6 +47,29 @@ export function factorThreads(): NodeFactorExecutor {
 }
 
 let orderingExecutor: NodeOrderingExecutor | null = null;
+
+/**
+ * Mesh files from this size up start the heat method's worker threads before
+ * they are read: a 200k-vertex OBJ (FACTOR_THREADS_MIN_SIZE) is about 14 MB,
+ * so from 8 MB the threads most likely take part, and they load their
+ * modules while this thread parses the mesh instead of during the
+ * preparation. Below it they start, if at all, when the preparation needs
+ * them (unref'd threads cost nothing more than their memory either way).
+ */
+export const EARLY_THREADS_BYTES = 8 * 2 ** 20;
+
+/** Starts the heat method's worker threads now when `meshPath` is a large file (see {@link EARLY_THREADS_BYTES}). */
+export function warmHeatThreads(meshPath: string): void {
+  let size = 0;
+  try {
+    size = statSync(meshPath).size;
+  } catch {
+    return; // the loader reports an unreadable file
+  }
+  if (size < EARLY_THREADS_BYTES) return;
+  factorThreads().warm();
+  orderingThreads().warm();
+}
 
 /**
  * The process's one executor for the heat method's nested dissection (one

@@ -14,7 +14,7 @@ import {
 } from '../../src/index.js';
 import { TIME_SCALE_RANGE, checkHeatField } from '../../src/api/geodesic.js';
 import { usageError } from '../../src/errors.js';
-import { factorThreads, orderingThreads, solveSets, type SolvedSets } from '../jobs.js';
+import { factorThreads, orderingThreads, solveSets, type SolvedSets, warmHeatThreads } from '../jobs.js';
 import { ProgressLine } from '../progress.js';
 import { metricOption, metricToleranceOption, metricRepairOption, metricJson, metricLines, warnMetricMethod } from '../metric-option.js';
 import { heatCheckJson, warnHeatCheck } from '../heat-caution.js';
@@ -108,6 +108,7 @@ interface SetResult {
 async function runDistance(mesh: string, o: DistanceCliOptions): Promise<number> {
   if (o.output) checkFieldOutput(o.output, [mesh]);
   const run = checkOptions(o);
+  if (o.method === 'heat') warmHeatThreads(mesh); // large files: the threads load while the mesh is read
   const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance, metricRepair: o.metricRepair });
   warnMetricMethod(metric, o.method); // the heat method under a varying or rough metric: a caution on stderr
   const resolver = await pointLocator(surface, [...(o.from ?? []), ...(o.fromCurve ?? []), ...(o.to ?? [])]); // snapping code only for p: points

@@ -13,7 +13,7 @@ import { checkOutput } from '../output.js';
 import { action, fmt, toJson } from '../run.js';
 import { TERRAIN_CAUTION } from '../cautions.js';
 import { memoryBudgetBytes, memoryBudgetOption } from '../memory-budget.js';
-import { factorThreads, orderingThreads } from '../jobs.js';
+import { factorThreads, orderingThreads, warmHeatThreads } from '../jobs.js';
 import { boundarySources, measureDistances, pointLocator, surfaceIsolines, writeCurves, writeFileAtomic, type Band, type CurvePolygon, type DistanceMethod, type PointResolver, type SourceSet, type Surface } from '../../src/index.js';
 import { readPolylines, polylineSources, distanceScalarField, fieldFromCsv, vertexProperty, toTopologyVertices, DEFAULT_MAX_LEVELS, type ScalarField, type SurfaceCurve } from '../../src/curves/index.js';
 import { curveFormatOf, CURVE_FORMATS } from '../../src/api/io.js';
@@ -157,6 +157,7 @@ async function runIsolines(mesh: string, o: IsolinesCliOptions): Promise<number>
   const maxLevels = o.maxLevels !== undefined ? numberOption(o.maxLevels, '--max-levels', true) : undefined;
   if (hasSources(o) === (o.field !== undefined)) throw usageError('give either --from/--from-curve/--from-polyline (distances) or --field (a per-vertex field)');
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
+  if (o.method === 'heat') warmHeatThreads(mesh); // large files: the threads load while the mesh is read
   const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance, metricRepair: o.metricRepair });
   if (o.field === undefined) warnMetricMethod(metric, o.method); // the heat method under a varying or rough metric: a caution on stderr
 

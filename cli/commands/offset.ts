@@ -10,7 +10,7 @@ import { heatCheckJson, warnHeatCheck } from '../heat-caution.js';
 import { action, fmt, toJson } from '../run.js';
 import { MACHINING_CAUTION, TERRAIN_CAUTION } from '../cautions.js';
 import { memoryBudgetBytes } from '../memory-budget.js';
-import { factorThreads, orderingThreads } from '../jobs.js';
+import { factorThreads, orderingThreads, warmHeatThreads } from '../jobs.js';
 import { pointLocator, surfaceOffset } from '../../src/index.js';
 import { usageError } from '../../src/errors.js';
 import {
@@ -48,6 +48,7 @@ async function runOffset(mesh: string, o: OffsetCliOptions): Promise<number> {
   const D = numberOption(o.distance, '--distance', true);
   if (!hasSources(o)) throw usageError('give at least one --from, --from-curve or --from-polyline');
   const memoryBudget = memoryBudgetBytes(o.memoryBudget);
+  if (o.method === 'heat') warmHeatThreads(mesh); // large files: the threads load while the mesh is read
   const { surface, loadMs, metric } = await loadSurface(mesh, { requireManifold: true, allowSplit: o.splitNonmanifold, maxInputSize: o.maxInputSize, weldTolerance: o.weldTolerance, metric: o.metric, metricTolerance: o.metricTolerance, metricRepair: o.metricRepair });
   warnMetricMethod(metric, o.method); // the heat method under a varying or rough metric: a caution on stderr
   const resolver = await pointLocator(surface);

@@ -86,9 +86,17 @@ async function runCase(name: string, make: () => Shape, opts: HeatOptions): Prom
 
   const executor = factorThreads > 0 ? new NodeFactorExecutor({ threads: factorThreads }) : null;
   const orderingExecutor = orderingThreads > 0 ? new NodeOrderingExecutor({ threads: orderingThreads }) : null;
+  // the workers start and load their modules before the timed preparation, as the CLI starts them
+  // while it reads a large mesh file (cli/jobs.ts warmHeatThreads); from source that loading includes
+  // tsx transpiling every module, which would otherwise run during the remesh. EARLY_WORKERS=0 leaves
+  // the start to prepare (it starts them itself above the executor's threshold)
+  if (process.env.EARLY_WORKERS !== '0') {
+    executor?.warm();
+    orderingExecutor?.warm();
+    await Promise.all([executor?.ready(), orderingExecutor?.ready()]);
+  }
   const cpu0 = threadCpu();
   const t0 = performance.now();
-  // prepare starts the executor's workers itself when the mesh is above its threshold (they load during the remesh)
   const solver = HeatSolver.prepare(mesh, { ...opts, factorExecutor: executor, orderingExecutor });
   const prepareMs = performance.now() - t0;
   const prepareCpu = busyThreads(cpu0, threadCpu());
