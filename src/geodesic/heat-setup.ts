@@ -8,7 +8,8 @@ import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import { meanEdgeLength } from '../metric/intrinsic.js';
 import { mollify, DEFAULT_MOLLIFY_DELTA } from '../metric/mollify.js';
 import { intrinsicDelaunay } from '../metric/delaunay.js';
-import { refineLongEdges, splitObtuseBoundary, equilateralEdge } from '../metric/refine.js';
+import { refineLongEdges, equilateralEdge } from '../metric/refine.js';
+import { splitBoundaryToDelaunay } from '../metric/refine-boundary.js';
 import { usageError, inputError } from '../errors.js';
 import { cotanLaplacian, lumpedMass, combine, constrainRows, patternMatrix, type EdgePattern } from '../metric/laplacian.js';
 import type { CscMatrix } from '../linalg/csc.js';
@@ -26,10 +27,11 @@ export const MAX_SEPARATE_CURVES = 8;
 export const REFINE_FACTOR = 3;
 
 /**
- * Rounds of {@link splitObtuseBoundary} + Delaunay flips at most. A vertex at height ε over a
+ * Rounds of boundary splits + Delaunay flips at most (refine-boundary.ts). A vertex at height ε over a
  * boundary edge of length ℓ needs about log₂(ℓ/ε) rounds (each halves the piece it encroaches
  * on), so 64 rounds reach below the double resolution of any edge; the fan strip of
- * test/metric/refine.test.ts needs 4 (44, 24, 10, 4 splits), a scan-like terrain 8.
+ * test/metric/refine.test.ts needs 4 (44, 24, 10, 4 splits), the 2M-face scan-like terrain of the heat
+ * benchmark 12.
  */
 export const BOUNDARY_ROUNDS = 64;
 
@@ -200,13 +202,10 @@ export function heatTriangulation(mesh: IntrinsicMesh, opts: HeatOptions): HeatT
           work = r.mesh; flips += r.flips; flipsCapped ||= r.capped;
         }
         // boundary edges opposite an obtuse corner (negative weights: M + tL no M-matrix), split until none is left
-        for (let round = 0; !refineCapped; round++) {
-          if (round === BOUNDARY_ROUNDS) { refineCapped = true; break; }
-          const b = splitObtuseBoundary(work, cap - inserted);
-          inserted += b.inserted; refineCapped ||= b.capped;
-          if (b.inserted === 0) break;
-          r = intrinsicDelaunay(b.mesh);
-          work = r.mesh; flips += r.flips; flipsCapped ||= r.capped;
+        if (!refineCapped) {
+          const b = splitBoundaryToDelaunay(work, cap - inserted, BOUNDARY_ROUNDS);
+          work = b.mesh; inserted += b.inserted; refineCapped ||= b.capped || b.roundsCapped;
+          flips += b.flips; flipsCapped ||= b.flipsCapped;
         }
       }
     }

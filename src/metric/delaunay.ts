@@ -31,7 +31,7 @@ import type { Topology } from '../mesh/topology.js';
 import type { IntrinsicMesh } from './intrinsic.js';
 import { next, prev } from '../mesh/topology.js';
 import { triangleArea, unfoldedDiagonal, cotOpposite, faceCotans } from './triangle.js';
-import { FlipQuad } from '../mesh/edge-flip.js';
+import { FlipQuad, type FlipArrays } from '../mesh/edge-flip.js';
 
 /** Options of {@link intrinsicDelaunay}. */
 export interface DelaunayOptions {
@@ -66,7 +66,7 @@ export function edgeCotanSum(t: Topology, L: Float64Array, h: number): number {
 }
 
 /** cot of the angle opposite half-edge h in its face. */
-function oppositeCot(t: Topology, L: Float64Array, h: number): number {
+function oppositeCot(t: FlipArrays, L: Float64Array, h: number): number {
   return cotOpposite(L[t.edgeOf[h]!]!, L[t.edgeOf[next(h)]!]!, L[t.edgeOf[prev(h)]!]!);
 }
 
@@ -81,22 +81,42 @@ export function intrinsicDelaunay(m: IntrinsicMesh, options: DelaunayOptions = {
   const src = m.topology;
   const tol = options.tolerance ?? 1e-9;
   const maxFlips = options.maxFlips ?? 20 * src.ne + 1000;
-  const tri = src.tri.slice(), twin = src.twin.slice(), edgeOf = src.edgeOf.slice();
-  const edgeHalfedge = src.edgeHalfedge.slice(), vertexHalfedge = src.vertexHalfedge.slice();
-  const faceOrigin = src.faceOrigin.slice();
-  const L = m.edgeLength.slice();
   const t: Topology = {
-    nv: src.nv, nf: src.nf, ne: src.ne, tri, twin, edgeOf, edgeHalfedge, vertexHalfedge,
-    vertexOrigin: src.vertexOrigin.slice(), faceOrigin,
+    nv: src.nv, nf: src.nf, ne: src.ne, tri: src.tri.slice(), twin: src.twin.slice(), edgeOf: src.edgeOf.slice(),
+    edgeHalfedge: src.edgeHalfedge.slice(), vertexHalfedge: src.vertexHalfedge.slice(),
+    vertexOrigin: src.vertexOrigin.slice(), faceOrigin: src.faceOrigin.slice(),
   };
+  const L = m.edgeLength.slice();
+  const r = flipToDelaunay(t, L, null, tol, maxFlips);
+  return { mesh: { topology: t, edgeLength: L }, ...r };
+}
 
-  // cot[h]: cotangent of the angle opposite half-edge h, kept per face (one area for three; the
-  // same values as edgeCotanSum's, bit for bit), so the test of an edge is one addition
-  const cot = new Float64Array(3 * src.nf);
-  for (let f = 0; f < src.nf; f++) cacheFace(t, L, cot, f);
+/** The arrays {@link flipToDelaunay} rewrites in place: a Topology's, or a refinement's growing ones (refine.ts). */
+export interface FlipMesh extends FlipArrays {
+  readonly vertexHalfedge: Int32Array;
+  readonly faceOrigin: Int32Array;
+  readonly nf: number;
+  readonly ne: number;
+}
 
-  // FIFO ring of edges; queued[e] keeps each edge in it at most once
-  const ne = src.ne;
+/**
+ * The flip loop of {@link intrinsicDelaunay}, in place on `t` and `L`: a FIFO
+ * queue of edges, each in it at most once; a non-Delaunay interior edge is
+ * flipped and the four sides of its quad are queued again. `seeds` null
+ * queues every edge (and keeps the cotangents per face, one area for three);
+ * a list queues only those edges, for a triangulation that was Delaunay
+ * except around them (after a few vertex insertions, the edges of the faces
+ * they touched): the untouched edges keep both their faces, so they stay
+ * Delaunay, and the flips restore the rest (Lawson's flip algorithm; the
+ * intrinsic form: Bobenko & Springborn 2007).
+ */
+export function flipToDelaunay(t: FlipMesh, L: Float64Array, seeds: ArrayLike<number> | null, tol: number, maxFlips: number): { flips: number; skipped: number; capped: boolean } {
+  const { twin, edgeOf, edgeHalfedge } = t;
+  // cot[h]: cotangent of the angle opposite half-edge h, kept per face (the same values as
+  // edgeCotanSum's, bit for bit), so the test of an edge is one addition; seeded runs test directly
+  const cot = seeds === null ? new Float64Array(3 * t.nf) : null;
+  if (cot !== null) for (let f = 0; f < t.nf; f++) cacheFace(t, L, cot, f);
+  const ne = t.ne;
   const cap = Math.max(1, ne);
   const ring = new Int32Array(cap);
   const queued = new Uint8Array(ne);
@@ -108,7 +128,8 @@ export function intrinsicDelaunay(m: IntrinsicMesh, options: DelaunayOptions = {
     ring[at < cap ? at : at - cap] = e;
     size++;
   };
-  for (let e = 0; e < ne; e++) push(e);
+  if (seeds === null) for (let e = 0; e < ne; e++) push(e);
+  else for (let k = 0; k < seeds.length; k++) push(seeds[k]!);
 
   let flips = 0, skipped = 0, capped = false;
   const quad = new FlipQuad();
@@ -118,23 +139,25 @@ export function intrinsicDelaunay(m: IntrinsicMesh, options: DelaunayOptions = {
     size--;
     queued[e] = 0;
     const h = edgeHalfedge[e]!, o = twin[h]!;
-    if (o < 0 || cot[h]! + cot[o]! >= -tol) continue;
+    if (o < 0 || (cot !== null ? cot[h]! + cot[o]! : oppositeCot(t, L, h) + oppositeCot(t, L, o)) >= -tol) continue;
     if (flips >= maxFlips) { capped = true; break; }
     if (!flip(t, L, h, quad)) { skipped++; continue; }
-    cacheFace(t, L, cot, (h / 3) | 0);
-    cacheFace(t, L, cot, (o / 3) | 0);
+    if (cot !== null) {
+      cacheFace(t, L, cot, (h / 3) | 0);
+      cacheFace(t, L, cot, (o / 3) | 0);
+    }
     flips++;
     push(edgeOf[next(h)]!); push(edgeOf[prev(h)]!);
     push(edgeOf[next(o)]!); push(edgeOf[prev(o)]!);
   }
-  return { mesh: { topology: t, edgeLength: L }, flips, skipped, capped };
+  return { flips, skipped, capped };
 }
 
 /**
  * Writes the cotangents opposite face f's three half-edges to cot[3f …]
  * (triangle.ts's faceCotans: the values of cotOpposite, one area for three).
  */
-function cacheFace(t: Topology, L: Float64Array, cot: Float64Array, f: number): void {
+function cacheFace(t: FlipArrays, L: Float64Array, cot: Float64Array, f: number): void {
   const h = 3 * f, eo = t.edgeOf;
   // slots h, h + 1, h + 2 are h, next(h), prev(h)
   faceCotans(L[eo[h]!]!, L[eo[h + 1]!]!, L[eo[h + 2]!]!, cot, h);
@@ -147,7 +170,7 @@ function cacheFace(t: Topology, L: Float64Array, cot: Float64Array, f: number): 
  * would be a loop, an outer side is glued onto the quad, or a new face would
  * have no area.
  */
-function flip(t: Topology, L: Float64Array, h: number, q: FlipQuad): boolean {
+function flip(t: FlipMesh, L: Float64Array, h: number, q: FlipQuad): boolean {
   if (!q.read(t, h)) return false;
   const { edgeOf } = t;
   const lab = L[edgeOf[h]!]!, lbc = L[edgeOf[q.hn]!]!, lca = L[edgeOf[q.hp]!]!;

@@ -169,7 +169,7 @@ function medianAcross(w: Bisection, h: number, l: number): number {
  * false, changing nothing, otherwise. New edges: m–b, m–c and, inside, m–d
  * (ids ne, ne+1, ne+2); e keeps the half a–m.
  */
-function splitLongest(w: Bisection, e: number): boolean {
+export function splitLongest(w: Bisection, e: number): boolean {
   const h = w.eh[e]!, o = w.twin[h]!, l = w.L[e]!;
   if (o >= 0 && ((h / 3) | 0) === ((o / 3) | 0)) return false;
   const mc = medianAcross(w, h, l);
@@ -212,7 +212,7 @@ function splitLongest(w: Bisection, e: number): boolean {
 }
 
 /** The growing half-edge arrays of the refinement (typed, doubled when full). */
-class Bisection {
+export class Bisection {
   nv: number; nf: number; ne: number;
   inserted = 0;
   tri: Uint32Array; twin: Int32Array; edgeOf: Int32Array; eh: Int32Array; vh: Int32Array;
