@@ -27,7 +27,7 @@ import { buildTopology } from '../../src/mesh/build.js';
 import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { HeatSolver, type HeatOptions } from '../../src/geodesic/heat.js';
 import type { Shape } from '../fixtures/shapes.js';
-import { jitteredTerrain, bumpySphere } from './meshes.js';
+import { jitteredTerrain, bumpySphere, smoothHeightfield, fractalHeightfield, scanTerrain } from './meshes.js';
 import { NodeFactorExecutor } from '../../src/linalg/parallel-node.js';
 import { NodeOrderingExecutor } from '../../src/linalg/ordering-parallel-node.js';
 import { readdirSync, readFileSync } from 'node:fs';
@@ -152,4 +152,12 @@ const only = process.env.HEAT_CASE;
 for (const i of sizes) {
   if (!only || `terrain-${grid[i]}x${grid[i]}`.includes(only)) await runCase(`terrain-${grid[i]}x${grid[i]}`, () => jitteredTerrain(grid[i]!, 3), opts);
   if (!only || `sphere-level${level[i]}`.includes(only)) await runCase(`sphere-level${level[i]}`, () => bumpySphere(level[i]!, 5), opts);
+}
+// the generators of meshes users bring (meshes.ts) at 2M faces (1M vertices; 200k faces with --quick):
+// the issue's own smooth heightfield with alternating diagonals, multi-scale noise, a scan-like Delaunay terrain
+const users: [string, (faces: number, seed: number) => Shape][] = [['smooth', smoothHeightfield], ['fractal', fractalHeightfield], ['scan', scanTerrain]];
+const faces = quick() ? 200_000 : 2_000_000;
+for (const [kind, make] of users) {
+  const name = `${kind}-${faces / 1000}k-faces`;
+  if (!only || name.includes(only)) await runCase(name, () => make(faces, 11), opts);
 }
