@@ -8,8 +8,8 @@ import type { IntrinsicMesh } from '../metric/intrinsic.js';
 import { meanEdgeLength } from '../metric/intrinsic.js';
 import { mollify, DEFAULT_MOLLIFY_DELTA } from '../metric/mollify.js';
 import { intrinsicDelaunay } from '../metric/delaunay.js';
-import { refineLongEdges, equilateralEdge } from '../metric/refine.js';
-import { splitBoundaryToDelaunay } from '../metric/refine-boundary.js';
+import { equilateralEdge } from '../metric/refine.js';
+import { refineToDelaunay } from '../metric/refine-boundary.js';
 import { usageError, inputError } from '../errors.js';
 import { cotanLaplacian, lumpedMass, combine, constrainRows, patternMatrix, type EdgePattern } from '../metric/laplacian.js';
 import type { CscMatrix } from '../linalg/csc.js';
@@ -191,22 +191,14 @@ export function heatTriangulation(mesh: IntrinsicMesh, opts: HeatOptions): HeatT
     if (opts.mollify ?? true) ({ mesh: work, epsilon } = mollify(work, delta));
     let inserted = 0, refineCapped = false;
     if (opts.intrinsicDelaunay ?? true) {
-      let r = intrinsicDelaunay(work);
+      const r = intrinsicDelaunay(work);
       work = r.mesh; flips = r.flips; flipsCapped = r.capped;
       if (opts.refine ?? true) {
-        const cap = Math.max(1000, t.nv);
-        const ref = refineLongEdges(work, REFINE_FACTOR * equilateralEdge(work), cap);
-        inserted = ref.inserted; refineCapped = ref.capped;
-        if (inserted > 0) {
-          r = intrinsicDelaunay(ref.mesh);
-          work = r.mesh; flips += r.flips; flipsCapped ||= r.capped;
-        }
-        // boundary edges opposite an obtuse corner (negative weights: M + tL no M-matrix), split until none is left
-        if (!refineCapped) {
-          const b = splitBoundaryToDelaunay(work, cap - inserted, BOUNDARY_ROUNDS);
-          work = b.mesh; inserted += b.inserted; refineCapped ||= b.capped || b.roundsCapped;
-          flips += b.flips; flipsCapped ||= b.flipsCapped;
-        }
+        // long edges, then boundary edges opposite an obtuse corner (negative weights: M + tL no
+        // M-matrix) until none is left, flipping back to Delaunay after each step
+        const b = refineToDelaunay(work, REFINE_FACTOR * equilateralEdge(work), Math.max(1000, t.nv), BOUNDARY_ROUNDS);
+        work = b.mesh; inserted = b.inserted; refineCapped = b.capped || b.roundsCapped;
+        flips += b.flips; flipsCapped ||= b.flipsCapped;
       }
     }
     return { m, boundary, work, h, epsilon, flips, flipsCapped, inserted, refineCapped };

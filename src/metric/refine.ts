@@ -93,26 +93,47 @@ export interface RefineResult {
  * modified.
  */
 export function refineLongEdges(m: IntrinsicMesh, maxLength: number, maxInserted: number): RefineResult {
-  const L0 = m.edgeLength;
-  let any = false;
-  for (let e = 0; e < L0.length && !any; e++) any = L0[e]! > maxLength;
-  if (!any) return { mesh: m, inserted: 0, capped: false, unsplit: 0 };
+  if (!hasLongEdge(m, maxLength)) return { mesh: m, inserted: 0, capped: false, unsplit: 0 };
   if (!(maxInserted >= 1)) return { mesh: m, inserted: 0, capped: true, unsplit: 0 };
   const w = new Bisection(m);
+  const { capped, unsplit } = bisectLongEdges(w, maxLength, maxInserted, null);
+  if (w.inserted === 0) return { mesh: m, inserted: 0, capped, unsplit };
+  return { mesh: w.result(), inserted: w.inserted, capped, unsplit };
+}
+
+/** True when some edge of `m` is longer than `maxLength`. */
+export function hasLongEdge(m: IntrinsicMesh, maxLength: number): boolean {
+  const L = m.edgeLength;
+  for (let e = 0; e < L.length; e++) if (L[e]! > maxLength) return true;
+  return false;
+}
+
+/**
+ * {@link refineLongEdges}'s loop on a refinement in progress: bisects w's
+ * edges longer than `maxLength`, longest first, until none is left or
+ * w.inserted reaches `maxInserted`. With `touched`, the ids of the existing
+ * faces each split changed are appended to it (the faces it adds are those
+ * from the old w.nf on).
+ */
+export function bisectLongEdges(w: Bisection, maxLength: number, maxInserted: number, touched: number[] | null): { capped: boolean; unsplit: number } {
   const heap = new EdgeHeap();
-  for (let e = 0; e < L0.length; e++) if (L0[e]! > maxLength) heap.push(e, L0[e]!);
+  for (let e = 0; e < w.ne; e++) if (w.L[e]! > maxLength) heap.push(e, w.L[e]!);
   let capped = false, unsplit = 0;
   while (heap.size > 0) {
     const l = heap.topLength(), e = heap.pop();
     if (w.L[e] !== l) continue; // stale: the edge was split since it was queued
     if (w.inserted >= maxInserted) { capped = true; break; }
+    const h = w.eh[e]!, o = w.twin[h]!;
     if (!splitLongest(w, e)) { unsplit++; continue; }
+    if (touched !== null) {
+      touched.push((h / 3) | 0);
+      if (o >= 0) touched.push((o / 3) | 0);
+    }
     // the split edge's two halves and the new edges towards c and d
     for (let k = w.ne - (w.twin[w.eh[e]!]! >= 0 ? 3 : 2); k < w.ne; k++) if (w.L[k]! > maxLength) heap.push(k, w.L[k]!);
     if (w.L[e]! > maxLength) heap.push(e, w.L[e]!);
   }
-  if (w.inserted === 0) return { mesh: m, inserted: 0, capped, unsplit };
-  return { mesh: w.result(), inserted: w.inserted, capped, unsplit };
+  return { capped, unsplit };
 }
 
 /**

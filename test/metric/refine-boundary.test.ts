@@ -19,8 +19,8 @@ import { next, prev } from '../../src/mesh/topology.js';
 import { intrinsicFromPositions, type IntrinsicMesh } from '../../src/metric/intrinsic.js';
 import { intrinsicDelaunay, edgeCotanSum } from '../../src/metric/delaunay.js';
 import { mollify } from '../../src/metric/mollify.js';
-import { splitObtuseBoundary } from '../../src/metric/refine.js';
-import { splitBoundaryToDelaunay } from '../../src/metric/refine-boundary.js';
+import { splitObtuseBoundary, refineLongEdges, equilateralEdge } from '../../src/metric/refine.js';
+import { splitBoundaryToDelaunay, refineToDelaunay } from '../../src/metric/refine-boundary.js';
 import { cotOpposite } from '../../src/metric/triangle.js';
 import { scanTerrain, cadPart } from '../bench/meshes.js';
 import { fanStrip, type Shape } from '../fixtures/shapes.js';
@@ -83,6 +83,32 @@ describe('splitBoundaryToDelaunay: incremental rounds', () => {
       expect(notDelaunay).toBe(0);
     });
   }
+
+  for (const [name, make] of cases) {
+    it(`refineToDelaunay gives the plain chain's triangulation (long edges, all flips, plain rounds): ${name}`, () => {
+      const m = delaunayOf(make());
+      const cap = Math.max(1000, m.topology.nv), maxLength = 3 * equilateralEdge(m);
+      const ref = refineLongEdges(m, maxLength, cap);
+      const plain = plainRounds(ref.inserted > 0 ? intrinsicDelaunay(ref.mesh).mesh : m, cap - ref.inserted);
+      const r = refineToDelaunay(m, maxLength, cap, 64);
+      expect(r.inserted).toBe(ref.inserted + plain.inserted);
+      expect(sameMesh(r.mesh, plain.mesh)).toBe(true);
+    });
+  }
+
+  it('long edges on a scan-like terrain (its hull has long edges) and a tighter cap: the same as the plain chain', () => {
+    const m = delaunayOf(scanTerrain(40_000, 2));
+    const maxLength = 1.5 * equilateralEdge(m);
+    for (const cap of [50, 100_000]) {
+      const ref = refineLongEdges(m, maxLength, cap);
+      const plain = ref.capped ? { mesh: intrinsicDelaunay(ref.mesh).mesh, inserted: 0 } : plainRounds(intrinsicDelaunay(ref.mesh).mesh, cap - ref.inserted);
+      const r = refineToDelaunay(m, maxLength, cap, 64);
+      expect(ref.inserted).toBeGreaterThan(0);
+      expect(r.capped).toBe(ref.capped);
+      expect(r.inserted).toBe(ref.inserted + plain.inserted);
+      expect(sameMesh(r.mesh, plain.mesh)).toBe(true);
+    }
+  });
 
   it('returns the input itself when no boundary edge faces an obtuse corner, and says when the caps stop it', () => {
     const m = delaunayOf(scanTerrain(20_000, 11));
