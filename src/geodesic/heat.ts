@@ -73,7 +73,7 @@ export {
 
 /** Factors, geometry and masks a prepared solver keeps (the heat step's among them). */
 interface HeatParts extends HeatStepParts {
-  /** Face data of the relay sweep (heat-relay.ts, relayFaces). */
+  /** Face data of the relay sweep (heat-relay.ts, relayGeometry). */
   faces: Float64Array;
   /** Vertices without area (isolated, or only zero-area faces): identity rows. */
   inactive: Uint8Array;

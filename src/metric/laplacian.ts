@@ -135,21 +135,33 @@ export function faceGeometry(m: IntrinsicMesh): FaceGeometry {
   const grad = new Float64Array(6 * t.nf);
   const p2 = [0, 0];
   for (let f = 0; f < t.nf; f++) {
-    const l0 = L[t.edgeOf[3 * f]!]!, l1 = L[t.edgeOf[3 * f + 1]!]!, l2 = L[t.edgeOf[3 * f + 2]!]!;
-    const A = triangleArea(l0, l1, l2);
-    area[f] = A;
-    if (!(A > 0) || !(l0 > 0)) continue;
-    placeThirdCorner(l0, l1, l2, A, p2, 0);
-    const x2 = p2[0]!, y2 = p2[1]!;
-    const s = 1 / (2 * A), o = 6 * f;
-    // corner 0: rot90(p2 − p1) = (−y2, x2 − l0)
-    grad[o] = -y2 * s; grad[o + 1] = (x2 - l0) * s;
-    // corner 1: rot90(p0 − p2) = (y2, −x2)
-    grad[o + 2] = y2 * s; grad[o + 3] = -x2 * s;
-    // corner 2: rot90(p1 − p0) = (0, l0)
-    grad[o + 4] = 0; grad[o + 5] = l0 * s;
+    area[f] = faceHatGradients(L[t.edgeOf[3 * f]!]!, L[t.edgeOf[3 * f + 1]!]!, L[t.edgeOf[3 * f + 2]!]!, grad, 6 * f, p2);
   }
   return { area, grad };
+}
+
+/**
+ * One face of {@link faceGeometry}: the face with sides l0, l1, l2 laid out
+ * in its own frame (side l0 on the x axis, placeThirdCorner), its three hat
+ * gradients written to g[o …] (corner k at o + 2k; zeros for a face without
+ * area or with l0 = 0); returns its area. `p2` is scratch (two numbers).
+ */
+export function faceHatGradients(l0: number, l1: number, l2: number, g: Float64Array, o: number, p2: number[]): number {
+  const A = triangleArea(l0, l1, l2);
+  if (!(A > 0) || !(l0 > 0)) {
+    g.fill(0, o, o + 6);
+    return A;
+  }
+  placeThirdCorner(l0, l1, l2, A, p2, 0);
+  const x2 = p2[0]!, y2 = p2[1]!;
+  const s = 1 / (2 * A);
+  // corner 0: rot90(p2 − p1) = (−y2, x2 − l0)
+  g[o] = -y2 * s; g[o + 1] = (x2 - l0) * s;
+  // corner 1: rot90(p0 − p2) = (y2, −x2)
+  g[o + 2] = y2 * s; g[o + 3] = -x2 * s;
+  // corner 2: rot90(p1 − p0) = (0, l0)
+  g[o + 4] = 0; g[o + 5] = l0 * s;
+  return A;
 }
 
 /**

@@ -226,3 +226,25 @@ describe('surface points in faces: one home', () => {
     expect(commonFaces(t, a, { kind: 'vertex', vertex: find(1, 0) })).toContain(near.face);
   });
 });
+
+describe('the heat relay packs the face geometry of laplacian.ts', () => {
+  it("relayGeometry's five numbers per face and largest gradient are faceGeometry's, bit for bit (sphere, flat grid, a zero-area face)", async () => {
+    const { relayGeometry } = await import('../../src/geodesic/heat-relay.js');
+    const sphere = icosphere(3), grid = flatGrid(12, 9, 3, 2, 0.3, 5);
+    const meshes = [
+      intrinsicFromPositions(buildTopology(sphere.triangles, sphere.positions.length / 3).topology, sphere.positions),
+      intrinsicFromPositions(buildTopology(grid.triangles, grid.positions.length / 3).topology, grid.positions),
+      oneTriangle(1, 1, 2),
+    ];
+    for (const m of meshes) {
+      const g = faceGeometry(m), r = relayGeometry(m);
+      let maxGrad = 0;
+      for (const x of g.grad) maxGrad = Math.max(maxGrad, Math.abs(x));
+      expect(Object.is(r.maxGrad, maxGrad)).toBe(true);
+      for (let f = 0; f < m.topology.nf; f++) {
+        const want = [g.grad[6 * f + 2], g.grad[6 * f + 1], g.grad[6 * f + 3], g.grad[6 * f + 5], g.area[f]];
+        for (let k = 0; k < 5; k++) expect(Object.is(r.faces[5 * f + k], want[k])).toBe(true);
+      }
+    }
+  });
+});
