@@ -4,6 +4,7 @@
  *
  * ```
  *   bucket b holds keys in [b·Δ, (b+1)·Δ)      cur: every bucket below is empty
+ *   (computed as ⌊key/Δ⌋, one less where rounding puts b·Δ above the key)
  *   ┌──────┬──────┬──────┬──────┬─────
  *   │  ∅   │ w7 w2│ w9   │  ∅   │ w4 …        push O(1), pop O(1) amortised
  *   └──────┴──────┴──────┴──────┴─────
@@ -60,6 +61,9 @@ export class BucketQueue {
    */
   push(key: number, id: number): void {
     let b = Math.floor(key / this.width);
+    // key / width can round up onto an integer b with b·width just above key (one ulp, e.g. key
+    // 49.99999999999998, width 4.999999999999998 gave 10): that bucket's start would exceed the key
+    if (b > 0 && b * this.width > key) b--;
     if (!(b >= 0)) b = b < 0 ? 0 : this.cur; // NaN: anywhere is safe for windows; keep it at the front
     if (b >= MAX_BUCKETS) b = MAX_BUCKETS - 1;
     if (b < this.cur) this.cur = b;
