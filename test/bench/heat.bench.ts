@@ -98,10 +98,16 @@ async function runCase(name: string, make: () => Shape, opts: HeatOptions): Prom
     await Promise.all([executor?.ready(), orderingExecutor?.ready()]);
   }
   const cpu0 = threadCpu();
+  const ru0 = process.resourceUsage();
   const t0 = performance.now();
   const solver = HeatSolver.prepare(mesh, { ...opts, factorExecutor: executor, orderingExecutor });
   const prepareMs = performance.now() - t0;
   const prepareCpu = busyThreads(cpu0, threadCpu());
+  const ru1 = process.resourceUsage();
+  // page faults and kernel CPU of the whole process during preparation: first touches of fresh
+  // memory are a large, machine-dependent part of it (on a virtual machine whose guest memory the
+  // host backs lazily, a first touch measured 0.3 to 3 s per GiB)
+  const faults = { minorFaults: ru1.minorPageFault - ru0.minorPageFault, systemCpuMs: Math.round((ru1.systemCPUTime - ru0.systemCPUTime) / 1000), userCpuMs: Math.round((ru1.userCPUTime - ru0.userCPUTime) / 1000) };
   const counts = executor ? { ...executor.counts } : null;
   await executor?.close();
   await orderingExecutor?.close();
@@ -128,7 +134,7 @@ async function runCase(name: string, make: () => Shape, opts: HeatOptions): Prom
   const rec = (metric: string, value: number, unit: string, more: Record<string, unknown> = {}) =>
     emit({ bench: BENCH, case: name, metric, value, unit, ...extra, ...more });
   rec('dijkstra', dijkstra.ms, 'ms');
-  rec('prepare', prepareMs, 'ms', { ratioToDijkstra: prepareMs / dijkstra.ms, threadCpuMs: prepareCpu });
+  rec('prepare', prepareMs, 'ms', { ratioToDijkstra: prepareMs / dijkstra.ms, threadCpuMs: prepareCpu, ...faults });
   rec('remesh', st.remeshMs, 'ms', { flips: st.flips, mollifyEpsilon: st.mollifyEpsilon });
   rec('ordering+symbolic', st.analysisMs, 'ms', { ordering: st.ordering, orderingThreads });
   rec('factorization', st.factorMs, 'ms', {
