@@ -121,9 +121,11 @@ export function assembleFront(
   const f = superStart[s]!, l = superStart[s + 1]!;
   const r0 = rowPtr[s]!, nr = rowPtr[s + 1]! - r0;
   for (let r = 0; r < nr; r++) pos[rows[r0 + r]!] = r;
-  // zero the lower triangle (short rows by hand: fill() costs a call per row)
-  if (nr <= 32) {
-    for (let r = 0, q = 0; r < nr; r++, q += nr) for (let c = 0; c <= r; c++) F[q + c] = 0;
+  // zero the lower triangle: up to 96 rows the whole square in one fill() (the upper triangle
+  // is scratch; measured 5–10× faster per entry than row by row below 64 rows, even at 128),
+  // above that row by row (half the entries, and the square no longer stays in cache)
+  if (nr <= 96) {
+    F.fill(0, 0, nr * nr);
   } else {
     for (let r = 0; r < nr; r++) F.fill(0, r * nr, r * nr + r + 1);
   }
